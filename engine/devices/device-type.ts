@@ -1,0 +1,150 @@
+import type { z } from "zod";
+
+/**
+ * The device-type interface every simulated device implements.
+ *
+ * A device is a pure state machine: `transition(state, event, context)` returns
+ * the next state and a list of effects, and never runs them. The simulation
+ * runtime (engine/sim) applies the effects: it encodes and queues telegrams,
+ * schedules timers on the virtual clock, routes unit-link messages and appends
+ * notes to the trace. Because transitions are pure, a run is a function of
+ * (bench, inputs, seed) and can be replayed exactly.
+ *
+ * Group object values live in the runtime, as on a real bus coupler: the runtime
+ * answers GroupValue_Read for objects with the read flag from the stored value,
+ * so device types only deal with writes, responses and their own behaviour.
+ */
+
+/** The standard communication flags of a group object. */
+export interface GroupObjectFlags {
+  readonly communication: boolean;
+  readonly read: boolean;
+  readonly write: boolean;
+  readonly transmit: boolean;
+  readonly update: boolean;
+  readonly readOnInit: boolean;
+}
+
+/** Whether an object takes commands, reports state, or both; drawn differently on the canvas. */
+export type GroupObjectRole = "command" | "status" | "input" | "output";
+
+/** One group object as a device type declares it for a given set of parameters. */
+export interface GroupObjectSpec {
+  /** Object number, unique within the device, stable across parameter changes. */
+  readonly number: number;
+  /** Short name shown on the device card, e.g. "Setpoint status". */
+  readonly name: string;
+  /** DPT id from engine/dpt, e.g. "9.001". */
+  readonly dpt: string;
+  readonly flags: GroupObjectFlags;
+  readonly role: GroupObjectRole;
+}
+
+/** A local control on the device (push-button rocker, wall controller key). */
+export interface LocalButtonSpec {
+  readonly id: string;
+  readonly label: string;
+}
+
+/** Descriptive fault identifiers of our own, e.g. "link.two-primaries". */
+export type FaultId = string;
+
+/** Something that happens to a device. Times are virtual microseconds. */
+export type DeviceEvent =
+  /** The simulation started; read-on-init reads are issued by the runtime. */
+  | { readonly kind: "start" }
+  /** A GroupValue_Write reached an object with the write flag; the runtime already stored the value. */
+  | { readonly kind: "group.write"; readonly object: number; readonly value: unknown; readonly source: number }
+  /** A GroupValue_Response reached an object with the update flag; the runtime already stored the value. */
+  | { readonly kind: "group.response"; readonly object: number; readonly value: unknown; readonly source: number }
+  /** A timer this device set has expired. */
+  | { readonly kind: "timer"; readonly name: string; readonly data?: unknown }
+  /** A person pressed (or released) one of the device's local buttons. */
+  | { readonly kind: "button"; readonly button: string; readonly action: "press" | "release" | "long-press" }
+  /** A local input changed that is not a button (e.g. a window opened, presence seen). */
+  | { readonly kind: "input"; readonly input: string; readonly value: unknown }
+  /** A message from another member of a unit link (HVAC wiring, not KNX). */
+  | { readonly kind: "link.receive"; readonly link: string; readonly from: string; readonly message: unknown }
+  /** A fault was injected into or cleared from this device from outside. */
+  | { readonly kind: "fault.inject"; readonly fault: FaultId }
+  | { readonly kind: "fault.clear"; readonly fault: FaultId };
+
+/** What a transition asks the runtime to do. */
+export type DeviceEffect =
+  /** Send the object's value on its sending address: write (or response to a read). Also stores the value. */
+  | { readonly kind: "group.send"; readonly object: number; readonly service: "write" | "response"; readonly value: unknown }
+  /** Send a GroupValue_Read on the object's sending address. */
+  | { readonly kind: "group.read"; readonly object: number }
+  /** Store a new object value without sending (e.g. a status that only answers reads). */
+  | { readonly kind: "object.store"; readonly object: number; readonly value: unknown }
+  /** Set (or replace) a named timer. */
+  | { readonly kind: "timer.set"; readonly name: string; readonly delayUs: number; readonly data?: unknown }
+  | { readonly kind: "timer.cancel"; readonly name: string }
+  /** Send a message to the other members of a unit link this device belongs to. */
+  | { readonly kind: "link.send"; readonly link: string; readonly message: unknown }
+  /** Raise or clear a fault that this device itself detected. */
+  | { readonly kind: "fault.raise"; readonly fault: FaultId; readonly text: string }
+  | { readonly kind: "fault.clear"; readonly fault: FaultId }
+  /** A line for the trace explaining why something happened. */
+  | { readonly kind: "note"; readonly text: string };
+
+/** What a device knows about its surroundings when it transitions. */
+export interface DeviceContext<P> {
+  /** Virtual time now, integer microseconds since the start of the run. */
+  readonly nowUs: number;
+  readonly deviceId: string;
+  /** Raw 16-bit individual address. */
+  readonly individualAddress: number;
+  readonly parameters: P;
+  /** The unit links this device belongs to, by id. */
+  readonly links: readonly string[];
+  /** Current stored value of each of this device's group objects, by object number. */
+  readonly objectValue: (object: number) => unknown;
+  /** Seeded random number in [0, 1) from the run's generator. */
+  readonly random: () => number;
+}
+
+/** The next state, the effects to apply, and the name of the transition for the trace. */
+export interface TransitionResult<S> {
+  readonly state: S;
+  readonly effects: readonly DeviceEffect[];
+  /** Names why the device did something, e.g. "setpoint.clamped"; omitted when nothing happened. */
+  readonly transition?: string;
+}
+
+/** A device type registered in the catalogue (engine/devices/catalogue.ts). */
+export interface DeviceType<P, S> {
+  /** Catalogue id, kebab-case, e.g. "hvac-gateway". */
+  readonly id: string;
+  readonly label: string;
+  readonly description: string;
+  /** Whether the device sits on the KNX line (has an individual address) or only on a unit link. */
+  readonly medium: "knx" | "unit-link";
+  /** Zod schema of the parameters; defaults filled by parsing `{}`. */
+  readonly parameters: z.ZodType<P>;
+  /** The group objects that exist for these parameters; disabled objects are absent. */
+  groupObjects(parameters: P): readonly GroupObjectSpec[];
+  /** Local buttons a person can press in the live console. */
+  buttons(parameters: P): readonly LocalButtonSpec[];
+  /** The state at the start of a run. */
+  initialState(parameters: P): S;
+  /** Pure: same arguments, same result. */
+  transition(state: S, event: DeviceEvent, context: DeviceContext<P>): TransitionResult<S>;
+}
+
+/** A device type with its parameter and state types erased, as stored in the catalogue. */
+// eslint-disable-next-line @typescript-eslint/no-explicit-any
+export type AnyDeviceType = DeviceType<any, any>;
+
+/** Flags shorthand for device type authors. */
+export function flags(spec: string): GroupObjectFlags {
+  // "CRWTUI" letters: communication, read, write, transmit, update, read-on-init.
+  return {
+    communication: spec.includes("C"),
+    read: spec.includes("R"),
+    write: spec.includes("W"),
+    transmit: spec.includes("T"),
+    update: spec.includes("U"),
+    readOnInit: spec.includes("I"),
+  };
+}
