@@ -1,0 +1,82 @@
+import { mkdirSync } from "node:fs";
+import path from "node:path";
+import Database from "better-sqlite3";
+import { type BetterSQLite3Database, drizzle } from "drizzle-orm/better-sqlite3";
+import { migrate } from "drizzle-orm/better-sqlite3/migrator";
+import * as schema from "./schema";
+
+/** The Drizzle database handle with the Benchline schema attached. */
+export type Db = BetterSQLite3Database<typeof schema> & { $client: Database.Database };
+
+/**
+ * The generated SQL migrations. Resolved from the working directory rather than
+ * this file, because Next bundles server code into .next/ where the source
+ * location is gone; every entry point (next, tsx scripts, vitest) runs from the
+ * project root. MIGRATIONS_DIR overrides it.
+ */
+export function migrationsFolder(): string {
+  return path.resolve(process.env.MIGRATIONS_DIR ?? "db/migrations");
+}
+
+/** Apply every migration not yet applied (drizzle records them in __drizzle_migrations). */
+export function migrateDatabase(db: BetterSQLite3Database<Record<string, unknown>>): void {
+  migrate(db, { migrationsFolder: migrationsFolder() });
+}
+
+/** Where the database lives unless DATABASE_URL says otherwise (relative to the working directory). */
+export const defaultDatabasePath = "data/benchline.db";
+
+/**
+ * Turn DATABASE_URL into a file path. Accepts a plain path, `file:path` or
+ * `file://path`, and `:memory:`.
+ */
+export function databasePathFrom(url: string | undefined): string {
+  const value = url?.trim() || defaultDatabasePath;
+  if (value === ":memory:") return value;
+  if (value.startsWith("file://")) return value.slice("file://".length);
+  if (value.startsWith("file:")) return value.slice("file:".length);
+  return value;
+}
+
+/**
+ * Open one SQLite connection with the settings every Benchline process relies on:
+ * WAL so readers never block the writer, foreign keys enforced (SQLite leaves
+ * them off by default), and a busy timeout so the dev server, the seed script
+ * and tests can share a file without "database is locked" errors.
+ */
+export function openDatabase(filePath: string, options: { migrate?: boolean } = {}): Db {
+  if (filePath !== ":memory:") mkdirSync(path.dirname(path.resolve(filePath)), { recursive: true });
+  const sqlite = new Database(filePath);
+  sqlite.pragma("journal_mode = WAL");
+  sqlite.pragma("foreign_keys = ON");
+  sqlite.pragma("busy_timeout = 5000");
+  const db = drizzle({ client: sqlite, schema });
+  if (options.migrate ?? true) migrateDatabase(db);
+  return db;
+}
+
+// Next's dev server re-evaluates modules on every edit; keeping the connection on
+// globalThis stops each hot reload from opening (and leaking) another handle.
+const globalForDb = globalThis as typeof globalThis & {
+  __benchlineDb?: { path: string; db: Db };
+};
+
+/**
+ * The process-wide connection, opened (and migrated) on first use. The path
+ * comes from DATABASE_URL, default `data/benchline.db`; the folder is created.
+ */
+export function getDb(): Db {
+  const filePath = databasePathFrom(process.env.DATABASE_URL);
+  const cached = globalForDb.__benchlineDb;
+  if (cached && cached.path === filePath) return cached.db;
+  cached?.db.$client.close();
+  const db = openDatabase(filePath);
+  globalForDb.__benchlineDb = { path: filePath, db };
+  return db;
+}
+
+/** Close the process-wide connection (scripts and tests call this before exiting). */
+export function closeDb(): void {
+  globalForDb.__benchlineDb?.db.$client.close();
+  delete globalForDb.__benchlineDb;
+}

@@ -1,0 +1,46 @@
+import { eq, sql } from "drizzle-orm";
+import { type Db, getDb } from "../client";
+import { wrapDriverError } from "../db-error";
+import { users } from "../schema";
+
+export type User = typeof users.$inferSelect;
+export type NewUser = typeof users.$inferInsert;
+
+/** E-mail addresses are compared lower-cased and trimmed everywhere. */
+export function normalizeEmail(email: string): string {
+  return email.trim().toLowerCase();
+}
+
+export function findUserByEmail({ db = getDb(), email }: { db?: Db; email: string }) {
+  return db
+    .select()
+    .from(users)
+    .where(eq(users.email, normalizeEmail(email)))
+    .get();
+}
+
+export function findUserById({ db = getDb(), userId }: { db?: Db; userId: string }) {
+  return db.select().from(users).where(eq(users.id, userId)).get();
+}
+
+export function createUser({ db = getDb(), values }: { db?: Db; values: NewUser }) {
+  try {
+    return db
+      .insert(users)
+      .values({ ...values, email: normalizeEmail(values.email) })
+      .returning()
+      .get();
+  } catch (error) {
+    wrapDriverError(error, `user "${values.email}"`);
+  }
+}
+
+/** Invalidate every session of the user (password change, sign out everywhere, disable). */
+export function bumpSessionVersion({ db = getDb(), userId }: { db?: Db; userId: string }) {
+  return db
+    .update(users)
+    .set({ sessionVersion: sql`${users.sessionVersion} + 1` })
+    .where(eq(users.id, userId))
+    .returning({ sessionVersion: users.sessionVersion })
+    .get();
+}

@@ -1,0 +1,426 @@
+import { sql } from "drizzle-orm";
+import {
+  type AnySQLiteColumn,
+  blob,
+  check,
+  index,
+  integer,
+  sqliteTable,
+  text,
+  uniqueIndex,
+} from "drizzle-orm/sqlite-core";
+
+/**
+ * The whole Benchline database. Row types are only ever derived from these
+ * tables (`typeof users.$inferSelect` / `$inferInsert`), never written by hand,
+ * so a column change shows up everywhere the row is used.
+ *
+ * Conventions:
+ * - ids are random UUID strings (not guessable, safe to put in URLs);
+ * - times are integer milliseconds since the epoch, read back as `Date`;
+ * - JSON documents (bench, scenario, run results) are stored as text and
+ *   validated with the engine's zod schemas when read, never trusted as typed;
+ * - everything that belongs to a workspace carries `workspaceId`, so every query
+ *   can (and must) filter by it: data never crosses workspaces.
+ */
+
+/** The five roles a member can hold in one workspace; the order is not a ranking. */
+export const roles = ["admin", "trainer", "engineer", "qa", "apprentice"] as const;
+export type Role = (typeof roles)[number];
+
+export const runStatuses = ["queued", "running", "finished", "errored"] as const;
+export type RunStatus = (typeof runStatuses)[number];
+
+export const runVerdicts = ["pass", "fail", "error"] as const;
+export type RunVerdict = (typeof runVerdicts)[number];
+
+export const outboxStatuses = ["pending", "sent", "failed"] as const;
+export type OutboxStatus = (typeof outboxStatuses)[number];
+
+const id = () =>
+  text("id")
+    .primaryKey()
+    .$defaultFn(() => crypto.randomUUID());
+
+const createdAt = () =>
+  integer("created_at", { mode: "timestamp_ms" })
+    .notNull()
+    .$defaultFn(() => new Date());
+
+const timestamp = (name: string) => integer(name, { mode: "timestamp_ms" });
+
+const inList = (column: string, values: readonly string[]) =>
+  sql.raw(`${column} in (${values.map((v) => `'${v}'`).join(", ")})`);
+
+// ---------------------------------------------------------------- people
+
+export const workspaces = sqliteTable("workspaces", {
+  id: id(),
+  /** URL-safe short name, unique, e.g. "fernhill". */
+  slug: text("slug").notNull().unique(),
+  name: text("name").notNull(),
+  createdAt: createdAt(),
+});
+
+export const users = sqliteTable("users", {
+  id: id(),
+  /** Stored lower-cased; unique across the whole installation. */
+  email: text("email").notNull().unique(),
+  name: text("name").notNull(),
+  /** bcrypt hash; the plain password is never stored. */
+  passwordHash: text("password_hash").notNull(),
+  /**
+   * Bumped on password change, sign-out-everywhere or disable; a session cookie
+   * that carries an older number is refused, so stale sessions die at once.
+   */
+  sessionVersion: integer("session_version").notNull().default(0),
+  /** Set when an admin disables the account; a disabled user cannot sign in. */
+  disabledAt: timestamp("disabled_at"),
+  createdAt: createdAt(),
+});
+
+export const memberships = sqliteTable(
+  "memberships",
+  {
+    id: id(),
+    userId: text("user_id")
+      .notNull()
+      .references(() => users.id, { onDelete: "cascade" }),
+    workspaceId: text("workspace_id")
+      .notNull()
+      .references(() => workspaces.id, { onDelete: "cascade" }),
+    role: text("role", { enum: roles }).notNull(),
+    createdAt: createdAt(),
+  },
+  (t) => [
+    uniqueIndex("memberships_user_workspace_unique").on(t.userId, t.workspaceId),
+    index("memberships_workspace_idx").on(t.workspaceId),
+    check("memberships_role_check", inList("role", roles)),
+  ],
+);
+
+export const invitations = sqliteTable(
+  "invitations",
+  {
+    id: id(),
+    workspaceId: text("workspace_id")
+      .notNull()
+      .references(() => workspaces.id, { onDelete: "cascade" }),
+    email: text("email").notNull(),
+    role: text("role", { enum: roles }).notNull(),
+    /** SHA-256 of the token sent by e-mail; the token itself is never stored. */
+    tokenHash: text("token_hash").notNull().unique(),
+    invitedBy: text("invited_by")
+      .notNull()
+      .references(() => users.id, { onDelete: "cascade" }),
+    expiresAt: timestamp("expires_at").notNull(),
+    acceptedAt: timestamp("accepted_at"),
+    revokedAt: timestamp("revoked_at"),
+    createdAt: createdAt(),
+  },
+  (t) => [
+    index("invitations_workspace_idx").on(t.workspaceId),
+    check("invitations_role_check", inList("role", roles)),
+  ],
+);
+
+export const passwordResets = sqliteTable(
+  "password_resets",
+  {
+    id: id(),
+    userId: text("user_id")
+      .notNull()
+      .references(() => users.id, { onDelete: "cascade" }),
+    /** SHA-256 of the token sent by e-mail. */
+    tokenHash: text("token_hash").notNull().unique(),
+    expiresAt: timestamp("expires_at").notNull(),
+    usedAt: timestamp("used_at"),
+    createdAt: createdAt(),
+  },
+  (t) => [index("password_resets_user_idx").on(t.userId)],
+);
+
+/** One row per sign-in attempt, kept for rate limiting by e-mail and by client address. */
+export const loginAttempts = sqliteTable(
+  "login_attempts",
+  {
+    id: id(),
+    email: text("email").notNull(),
+    clientAddress: text("client_address"),
+    succeeded: integer("succeeded", { mode: "boolean" }).notNull(),
+    createdAt: createdAt(),
+  },
+  (t) => [
+    index("login_attempts_email_time_idx").on(t.email, t.createdAt),
+    index("login_attempts_client_time_idx").on(t.clientAddress, t.createdAt),
+  ],
+);
+
+// ---------------------------------------------------------------- benches and scenarios
+
+export const benches = sqliteTable(
+  "benches",
+  {
+    id: id(),
+    workspaceId: text("workspace_id")
+      .notNull()
+      .references(() => workspaces.id, { onDelete: "cascade" }),
+    name: text("name").notNull(),
+    description: text("description").notNull().default(""),
+    createdBy: text("created_by").references(() => users.id, { onDelete: "set null" }),
+    /**
+     * Set for a private copy (an apprentice's sandbox or lab copy): only this
+     * user and the workspace's trainers and admins see it.
+     */
+    privateOwnerId: text("private_owner_id").references(() => users.id, { onDelete: "cascade" }),
+    /** The bench this one was copied from, if any. */
+    copiedFromBenchId: text("copied_from_bench_id").references((): AnySQLiteColumn => benches.id, {
+      onDelete: "set null",
+    }),
+    createdAt: createdAt(),
+    updatedAt: integer("updated_at", { mode: "timestamp_ms" })
+      .notNull()
+      .$defaultFn(() => new Date()),
+    archivedAt: timestamp("archived_at"),
+  },
+  (t) => [
+    index("benches_workspace_idx").on(t.workspaceId),
+    index("benches_private_owner_idx").on(t.privateOwnerId),
+  ],
+);
+
+/** Every save of a bench is a new immutable revision; runs point at the revision they ran. */
+export const benchRevisions = sqliteTable(
+  "bench_revisions",
+  {
+    id: id(),
+    benchId: text("bench_id")
+      .notNull()
+      .references(() => benches.id, { onDelete: "cascade" }),
+    /** 1, 2, 3 ... per bench. */
+    number: integer("number").notNull(),
+    /** The bench document as JSON text, in the engine's bench format. */
+    document: text("document").notNull(),
+    authorId: text("author_id").references(() => users.id, { onDelete: "set null" }),
+    summary: text("summary").notNull().default(""),
+    createdAt: createdAt(),
+  },
+  (t) => [uniqueIndex("bench_revisions_bench_number_unique").on(t.benchId, t.number)],
+);
+
+export const scenarios = sqliteTable(
+  "scenarios",
+  {
+    id: id(),
+    workspaceId: text("workspace_id")
+      .notNull()
+      .references(() => workspaces.id, { onDelete: "cascade" }),
+    benchId: text("bench_id")
+      .notNull()
+      .references(() => benches.id, { onDelete: "cascade" }),
+    name: text("name").notNull(),
+    /** The scenario document as JSON text, in the engine's scenario format. */
+    document: text("document").notNull(),
+    createdBy: text("created_by").references(() => users.id, { onDelete: "set null" }),
+    createdAt: createdAt(),
+    updatedAt: integer("updated_at", { mode: "timestamp_ms" })
+      .notNull()
+      .$defaultFn(() => new Date()),
+  },
+  (t) => [
+    index("scenarios_workspace_idx").on(t.workspaceId),
+    index("scenarios_bench_idx").on(t.benchId),
+  ],
+);
+
+export const suites = sqliteTable(
+  "suites",
+  {
+    id: id(),
+    workspaceId: text("workspace_id")
+      .notNull()
+      .references(() => workspaces.id, { onDelete: "cascade" }),
+    name: text("name").notNull(),
+    description: text("description").notNull().default(""),
+    createdBy: text("created_by").references(() => users.id, { onDelete: "set null" }),
+    createdAt: createdAt(),
+  },
+  (t) => [index("suites_workspace_idx").on(t.workspaceId)],
+);
+
+/** The ordered scenarios of a suite. */
+export const suiteScenarios = sqliteTable(
+  "suite_scenarios",
+  {
+    suiteId: text("suite_id")
+      .notNull()
+      .references(() => suites.id, { onDelete: "cascade" }),
+    scenarioId: text("scenario_id")
+      .notNull()
+      .references(() => scenarios.id, { onDelete: "cascade" }),
+    position: integer("position").notNull(),
+  },
+  (t) => [
+    uniqueIndex("suite_scenarios_suite_scenario_unique").on(t.suiteId, t.scenarioId),
+    index("suite_scenarios_suite_position_idx").on(t.suiteId, t.position),
+  ],
+);
+
+// ---------------------------------------------------------------- runs
+
+/** One replay of a scenario (or a suite) against one bench revision with one seed. */
+export const runs = sqliteTable(
+  "runs",
+  {
+    id: id(),
+    workspaceId: text("workspace_id")
+      .notNull()
+      .references(() => workspaces.id, { onDelete: "cascade" }),
+    scenarioId: text("scenario_id").references(() => scenarios.id, { onDelete: "set null" }),
+    suiteId: text("suite_id").references(() => suites.id, { onDelete: "set null" }),
+    benchRevisionId: text("bench_revision_id")
+      .notNull()
+      .references(() => benchRevisions.id, { onDelete: "restrict" }),
+    /** Seed of the engine's generator; same bench revision + scenario + seed = same trace. */
+    seed: integer("seed").notNull(),
+    status: text("status", { enum: runStatuses }).notNull().default("queued"),
+    verdict: text("verdict", { enum: runVerdicts }),
+    stepsPassed: integer("steps_passed").notNull().default(0),
+    stepsFailed: integer("steps_failed").notNull().default(0),
+    stepsTotal: integer("steps_total").notNull().default(0),
+    /** Per-step verdicts with their trace slices, as JSON text. */
+    results: text("results"),
+    startedBy: text("started_by").references(() => users.id, { onDelete: "set null" }),
+    createdAt: createdAt(),
+    startedAt: timestamp("started_at"),
+    finishedAt: timestamp("finished_at"),
+  },
+  (t) => [
+    index("runs_workspace_time_idx").on(t.workspaceId, t.createdAt),
+    index("runs_scenario_idx").on(t.scenarioId),
+    index("runs_started_by_idx").on(t.startedBy),
+    check("runs_status_check", inList("status", runStatuses)),
+  ],
+);
+
+// ---------------------------------------------------------------- files and mail
+
+/** Files members upload (bench or scenario JSON to import); small, so kept in the database. */
+export const uploads = sqliteTable(
+  "uploads",
+  {
+    id: id(),
+    workspaceId: text("workspace_id")
+      .notNull()
+      .references(() => workspaces.id, { onDelete: "cascade" }),
+    uploadedBy: text("uploaded_by").references(() => users.id, { onDelete: "set null" }),
+    fileName: text("file_name").notNull(),
+    contentType: text("content_type").notNull(),
+    sizeBytes: integer("size_bytes").notNull(),
+    sha256: text("sha256").notNull(),
+    content: blob("content", { mode: "buffer" }).notNull(),
+    createdAt: createdAt(),
+  },
+  (t) => [index("uploads_workspace_idx").on(t.workspaceId)],
+);
+
+/**
+ * Mail is written here in the same transaction as the change that causes it
+ * (invitation, password reset) and sent afterwards, so a failing mail server
+ * never loses or duplicates a message. The Outbox page lists it in the demo.
+ */
+export const emailOutbox = sqliteTable(
+  "email_outbox",
+  {
+    id: id(),
+    workspaceId: text("workspace_id").references(() => workspaces.id, { onDelete: "cascade" }),
+    toAddress: text("to_address").notNull(),
+    subject: text("subject").notNull(),
+    textBody: text("text_body").notNull(),
+    htmlBody: text("html_body"),
+    /** What caused the mail, e.g. "invitation", "password-reset". */
+    purpose: text("purpose").notNull(),
+    status: text("status", { enum: outboxStatuses }).notNull().default("pending"),
+    attempts: integer("attempts").notNull().default(0),
+    lastError: text("last_error"),
+    createdAt: createdAt(),
+    sentAt: timestamp("sent_at"),
+  },
+  (t) => [
+    index("email_outbox_status_idx").on(t.status, t.createdAt),
+    check("email_outbox_status_check", inList("status", outboxStatuses)),
+  ],
+);
+
+// ---------------------------------------------------------------- training labs
+
+/** A lab: a bench with faults to find, and the scenario that grades an apprentice's fix. */
+export const labs = sqliteTable(
+  "labs",
+  {
+    id: id(),
+    workspaceId: text("workspace_id")
+      .notNull()
+      .references(() => workspaces.id, { onDelete: "cascade" }),
+    title: text("title").notNull(),
+    brief: text("brief").notNull().default(""),
+    benchId: text("bench_id")
+      .notNull()
+      .references(() => benches.id, { onDelete: "restrict" }),
+    gradingScenarioId: text("grading_scenario_id")
+      .notNull()
+      .references(() => scenarios.id, { onDelete: "restrict" }),
+    createdBy: text("created_by").references(() => users.id, { onDelete: "set null" }),
+    createdAt: createdAt(),
+    archivedAt: timestamp("archived_at"),
+  },
+  (t) => [index("labs_workspace_idx").on(t.workspaceId)],
+);
+
+/** A lab handed to one apprentice, who works on a private copy of the lab bench. */
+export const labAssignments = sqliteTable(
+  "lab_assignments",
+  {
+    id: id(),
+    labId: text("lab_id")
+      .notNull()
+      .references(() => labs.id, { onDelete: "cascade" }),
+    apprenticeId: text("apprentice_id")
+      .notNull()
+      .references(() => users.id, { onDelete: "cascade" }),
+    assignedBy: text("assigned_by").references(() => users.id, { onDelete: "set null" }),
+    dueAt: timestamp("due_at"),
+    /** The apprentice's private copy of the lab bench, made when the lab is first opened. */
+    privateBenchId: text("private_bench_id").references(() => benches.id, {
+      onDelete: "set null",
+    }),
+    createdAt: createdAt(),
+  },
+  (t) => [
+    uniqueIndex("lab_assignments_lab_apprentice_unique").on(t.labId, t.apprenticeId),
+    index("lab_assignments_apprentice_idx").on(t.apprenticeId),
+  ],
+);
+
+/** One submission of an assignment: the submitted bench revision and the grading run. */
+export const labAttempts = sqliteTable(
+  "lab_attempts",
+  {
+    id: id(),
+    assignmentId: text("assignment_id")
+      .notNull()
+      .references(() => labAssignments.id, { onDelete: "cascade" }),
+    benchRevisionId: text("bench_revision_id")
+      .notNull()
+      .references(() => benchRevisions.id, { onDelete: "restrict" }),
+    runId: text("run_id").references(() => runs.id, { onDelete: "set null" }),
+    submittedAt: integer("submitted_at", { mode: "timestamp_ms" })
+      .notNull()
+      .$defaultFn(() => new Date()),
+    /** Trainer's note when reviewing. */
+    reviewNote: text("review_note"),
+    reviewedBy: text("reviewed_by").references(() => users.id, { onDelete: "set null" }),
+    reviewedAt: timestamp("reviewed_at"),
+  },
+  (t) => [index("lab_attempts_assignment_idx").on(t.assignmentId)],
+);

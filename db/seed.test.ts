@@ -1,0 +1,111 @@
+import { mkdtempSync, rmSync } from "node:fs";
+import { tmpdir } from "node:os";
+import path from "node:path";
+import bcrypt from "bcryptjs";
+import { count, eq } from "drizzle-orm";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { type Db, openDatabase } from "./client";
+import { demoPeople, demoWorkspaces } from "./demo-world";
+import { findMembership } from "./queries/memberships";
+import { findUserByEmail } from "./queries/users";
+import { findWorkspaceBySlug } from "./queries/workspaces";
+import { memberships, roles, users, workspaces } from "./schema";
+import { seedDemoWorld } from "./seed";
+
+describe("migrations and demo seed on a fresh database", () => {
+  let dir: string;
+  let db: Db;
+
+  beforeAll(() => {
+    dir = mkdtempSync(path.join(tmpdir(), "benchline-db-"));
+    db = openDatabase(path.join(dir, "test.db"));
+  });
+
+  afterAll(() => {
+    db.$client.close();
+    rmSync(dir, { recursive: true, force: true });
+  });
+
+  it("applies every migration with the connection settings the app relies on", () => {
+    // SQLite docs (pragma.html): WAL journal, enforced foreign keys, busy timeout in ms.
+    expect(db.$client.pragma("journal_mode", { simple: true })).toBe("wal");
+    expect(db.$client.pragma("foreign_keys", { simple: true })).toBe(1);
+    expect(db.$client.pragma("busy_timeout", { simple: true })).toBe(5000);
+    const tables = db.$client
+      .prepare("select name from sqlite_master where type = 'table'")
+      .all()
+      .map((row) => (row as { name: string }).name);
+    expect(tables).toEqual(
+      expect.arrayContaining(["workspaces", "users", "memberships", "benches", "bench_revisions"]),
+    );
+    expect(tables).toEqual(
+      expect.arrayContaining(["scenarios", "runs", "uploads", "email_outbox", "lab_attempts"]),
+    );
+  });
+
+  it("seeds twice without duplicating anything", () => {
+    const first = seedDemoWorld(db);
+    expect(first).toEqual({
+      workspacesCreated: demoWorkspaces.length,
+      usersCreated: demoPeople.length,
+      membershipsCreated: demoPeople.flatMap((p) => p.memberships).length,
+    });
+    const second = seedDemoWorld(db);
+    expect(second).toEqual({ workspacesCreated: 0, usersCreated: 0, membershipsCreated: 0 });
+
+    const countOf = (table: typeof workspaces | typeof users | typeof memberships) =>
+      db.select({ n: count() }).from(table).get()?.n;
+    expect(countOf(workspaces)).toBe(demoWorkspaces.length);
+    expect(countOf(users)).toBe(demoPeople.length);
+    expect(countOf(memberships)).toBe(demoPeople.flatMap((p) => p.memberships).length);
+  });
+
+  it("gives Fernhill Training Centre one member per role, and the engineer a second workspace", () => {
+    const fernhill = findWorkspaceBySlug({ db, slug: "fernhill" });
+    expect(fernhill?.name).toBe("Fernhill Training Centre");
+    const fernhillRoles = db
+      .select({ role: memberships.role })
+      .from(memberships)
+      .where(eq(memberships.workspaceId, fernhill!.id))
+      .all()
+      .map((row) => row.role)
+      .sort();
+    expect(fernhillRoles).toEqual([...roles].sort());
+
+    const quayside = findWorkspaceBySlug({ db, slug: "quayside-dental" });
+    const engineer = findUserByEmail({ db, email: "Tomas.Engineer@fernhill.example " });
+    expect(findMembership({ db, userId: engineer!.id, workspaceId: quayside!.id })?.role).toBe(
+      "engineer",
+    );
+  });
+
+  it("stores only bcrypt hashes of the demo passwords", () => {
+    for (const person of demoPeople) {
+      const user = findUserByEmail({ db, email: person.email });
+      expect(user?.passwordHash).not.toContain(person.password);
+      // bcrypt modular crypt format: $2a$/$2b$, two-digit cost, 53 more characters.
+      expect(user?.passwordHash).toMatch(/^\$2[ab]\$12\$[./A-Za-z0-9]{53}$/);
+      expect(bcrypt.compareSync(person.password, user!.passwordHash)).toBe(true);
+    }
+  });
+
+  it("refuses a second membership of the same user in the same workspace", () => {
+    const fernhill = findWorkspaceBySlug({ db, slug: "fernhill" })!;
+    const trainer = findUserByEmail({ db, email: "ada.trainer@fernhill.example" })!;
+    expect(() =>
+      db
+        .insert(memberships)
+        .values({ userId: trainer.id, workspaceId: fernhill.id, role: "qa" })
+        .run(),
+    ).toThrow(/UNIQUE/);
+  });
+
+  it("enforces foreign keys", () => {
+    expect(() =>
+      db
+        .insert(memberships)
+        .values({ userId: "no-such-user", workspaceId: "no-such-workspace", role: "qa" })
+        .run(),
+    ).toThrow(/FOREIGN KEY/);
+  });
+});
