@@ -1,0 +1,170 @@
+/**
+ * The virtual clock and its event queue.
+ *
+ * Time is an integer number of microseconds since the start of the run and only
+ * moves when an event is taken from the queue (or when a run is asked to end at a
+ * later time). The queue is a binary heap ordered by (time, insertion sequence),
+ * so events at the same microsecond come out in the order they were scheduled:
+ * that stable order is what makes a run reproducible.
+ *
+ * The heap is kept in parallel typed arrays indexed by slot, with a free list of
+ * slots, so scheduling and taking an event allocate nothing once the arrays have
+ * grown to the run's working size. An event is a small integer `tag` saying what
+ * to do, an integer `arg` (usually an index into the caller's tables) and an
+ * optional object `payload`. Cancellation is left to callers (generation
+ * counters), which is cheaper than removing from the middle of a heap.
+ */
+export class Scheduler {
+  /** Virtual time now, integer microseconds. */
+  nowUs = 0;
+
+  /** Tag, arg and payload of the event last taken by `next()`. */
+  firedTag = 0;
+  firedArg = 0;
+  firedPayload: unknown = undefined;
+
+  private heap: Int32Array;
+  private size = 0;
+  private slotTimeUs: Float64Array;
+  private slotSeq: Float64Array;
+  private slotTag: Int32Array;
+  private slotArg: Float64Array;
+  private slotPayload: unknown[];
+  private freeSlots: Int32Array;
+  private freeCount: number;
+  private seq = 0;
+
+  constructor(initialCapacity = 256) {
+    const capacity = Math.max(16, initialCapacity);
+    this.heap = new Int32Array(capacity);
+    this.slotTimeUs = new Float64Array(capacity);
+    this.slotSeq = new Float64Array(capacity);
+    this.slotTag = new Int32Array(capacity);
+    this.slotArg = new Float64Array(capacity);
+    this.slotPayload = new Array<unknown>(capacity).fill(undefined);
+    this.freeSlots = new Int32Array(capacity);
+    for (let i = 0; i < capacity; i++) this.freeSlots[i] = capacity - 1 - i;
+    this.freeCount = capacity;
+  }
+
+  /** Number of events waiting. */
+  get pending(): number {
+    return this.size;
+  }
+
+  /** Time of the earliest waiting event, or `Infinity` when the queue is empty. */
+  peekTimeUs(): number {
+    return this.size === 0 ? Infinity : this.slotTimeUs[this.heap[0]!]!;
+  }
+
+  /**
+   * Queues an event at an absolute virtual time. Scheduling in the past or at a
+   * fractional microsecond is a bug in the caller and throws.
+   */
+  schedule(atUs: number, tag: number, arg = 0, payload?: unknown): void {
+    if (!(atUs >= this.nowUs) || !Number.isSafeInteger(atUs)) {
+      throw new Error(`Scheduler.schedule: time ${atUs} µs is not an integer at or after now (${this.nowUs} µs)`);
+    }
+    if (this.freeCount === 0) this.grow();
+    const slot = this.freeSlots[--this.freeCount]!;
+    this.slotTimeUs[slot] = atUs;
+    this.slotSeq[slot] = this.seq++;
+    this.slotTag[slot] = tag;
+    this.slotArg[slot] = arg;
+    this.slotPayload[slot] = payload;
+    this.siftUp(this.size++, slot);
+  }
+
+  /**
+   * Takes the earliest event if it is due at or before `limitUs`, advances the
+   * clock to its time and exposes it in `firedTag`, `firedArg` and
+   * `firedPayload`. Returns false (and leaves the clock alone) otherwise.
+   */
+  next(limitUs = Infinity): boolean {
+    if (this.size === 0) return false;
+    const top = this.heap[0]!;
+    const timeUs = this.slotTimeUs[top]!;
+    if (timeUs > limitUs) return false;
+    this.nowUs = timeUs;
+    this.firedTag = this.slotTag[top]!;
+    this.firedArg = this.slotArg[top]!;
+    this.firedPayload = this.slotPayload[top];
+    this.slotPayload[top] = undefined;
+    this.freeSlots[this.freeCount++] = top;
+    const last = this.heap[--this.size]!;
+    if (this.size > 0) this.siftDown(0, last);
+    return true;
+  }
+
+  /** Moves the clock forward to `timeUs` without taking events (used at the end of a run window). */
+  advanceTo(timeUs: number): void {
+    if (!Number.isSafeInteger(timeUs)) throw new Error(`Scheduler.advanceTo: ${timeUs} µs is not an integer`);
+    if (timeUs > this.nowUs) {
+      if (this.size > 0 && this.peekTimeUs() < timeUs) {
+        throw new Error(`Scheduler.advanceTo: an event is due at ${this.peekTimeUs()} µs, before ${timeUs} µs`);
+      }
+      this.nowUs = timeUs;
+    }
+  }
+
+  private before(a: number, b: number): boolean {
+    const ta = this.slotTimeUs[a]!;
+    const tb = this.slotTimeUs[b]!;
+    return ta < tb || (ta === tb && this.slotSeq[a]! < this.slotSeq[b]!);
+  }
+
+  private siftUp(index: number, slot: number): void {
+    const heap = this.heap;
+    while (index > 0) {
+      const parentIndex = (index - 1) >> 1;
+      const parent = heap[parentIndex]!;
+      if (!this.before(slot, parent)) break;
+      heap[index] = parent;
+      index = parentIndex;
+    }
+    heap[index] = slot;
+  }
+
+  private siftDown(index: number, slot: number): void {
+    const heap = this.heap;
+    const size = this.size;
+    for (;;) {
+      let child = 2 * index + 1;
+      if (child >= size) break;
+      const right = child + 1;
+      if (right < size && this.before(heap[right]!, heap[child]!)) child = right;
+      const childSlot = heap[child]!;
+      if (!this.before(childSlot, slot)) break;
+      heap[index] = childSlot;
+      index = child;
+    }
+    heap[index] = slot;
+  }
+
+  private grow(): void {
+    const old = this.heap.length;
+    const capacity = old * 2;
+    const heap = new Int32Array(capacity);
+    heap.set(this.heap);
+    this.heap = heap;
+    const time = new Float64Array(capacity);
+    time.set(this.slotTimeUs);
+    this.slotTimeUs = time;
+    const seq = new Float64Array(capacity);
+    seq.set(this.slotSeq);
+    this.slotSeq = seq;
+    const tag = new Int32Array(capacity);
+    tag.set(this.slotTag);
+    this.slotTag = tag;
+    const arg = new Float64Array(capacity);
+    arg.set(this.slotArg);
+    this.slotArg = arg;
+    for (let i = old; i < capacity; i++) this.slotPayload.push(undefined);
+    const free = new Int32Array(capacity);
+    // Every old slot is in use when we grow, so the free list is exactly the new slots.
+    let count = 0;
+    for (let i = capacity - 1; i >= old; i--) free[count++] = i;
+    this.freeSlots = free;
+    this.freeCount = count;
+  }
+}
