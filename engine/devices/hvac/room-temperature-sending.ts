@@ -1,0 +1,95 @@
+import { z } from "zod";
+
+/**
+ * When a device sends its room temperature on KNX: never, on change by a delta
+ * with a minimum interval between sends, cyclically, or both.
+ * Defaults follow common practice (no published source): 0.1 K, at least 30 s apart.
+ */
+export const roomTemperatureSendingSchema = z.object({
+  mode: z.enum(["off", "on-change", "cyclic", "on-change-and-cyclic"]).default("on-change"),
+  /** Smallest change that triggers a send, kelvin. */
+  deltaK: z.number().min(0.01, "deltaK must be at least 0.01 K (the DPT 9.001 resolution)").max(10).default(0.1),
+  /** Minimum time between two on-change sends, seconds. */
+  minIntervalS: z.number().min(0).max(3600).default(30),
+  /** Period of cyclic sending, seconds. */
+  cycleS: z.number().min(10, "cycleS must be at least 10 s").max(86_400).default(600),
+});
+export type RoomTemperatureSending = z.infer<typeof roomTemperatureSendingSchema>;
+
+/** What the sender remembers between samples. */
+export interface RoomTemperatureSenderState {
+  readonly lastSentC: number | null;
+  readonly lastSentUs: number | null;
+  readonly currentC: number | null;
+  /** A change waits for the minimum interval to pass; a timer is due. */
+  readonly pending: boolean;
+}
+
+export const initialSenderState: RoomTemperatureSenderState = { lastSentC: null, lastSentUs: null, currentC: null, pending: false };
+
+/** The sender's decision: the value to send now (if any) and the delay of a follow-up timer (if any). */
+export interface SenderStep {
+  readonly state: RoomTemperatureSenderState;
+  readonly sendC: number | null;
+  readonly timerDelayUs: number | null;
+}
+
+const US_PER_S = 1_000_000;
+
+// DPT spec §3.10: 9.001 carries 0.01 K resolution, so compare what would travel on the bus.
+function quantize(valueC: number): number {
+  return Math.round(valueC * 100) / 100;
+}
+
+function changedEnough(state: RoomTemperatureSenderState, valueC: number, config: RoomTemperatureSending): boolean {
+  // The half-resolution margin keeps 21.1 - 21.0 (0.0999… in binary) counted as a 0.1 K change.
+  return state.lastSentC === null || Math.abs(valueC - state.lastSentC) >= config.deltaK - 0.005;
+}
+
+function sendNow(state: RoomTemperatureSenderState, valueC: number, nowUs: number): SenderStep {
+  return { state: { ...state, currentC: valueC, lastSentC: valueC, lastSentUs: nowUs, pending: false }, sendC: valueC, timerDelayUs: null };
+}
+
+function sendsOnChange(config: RoomTemperatureSending): boolean {
+  return config.mode === "on-change" || config.mode === "on-change-and-cyclic";
+}
+
+/** Whether the configuration sends cyclically (the caller runs the cycle timer). */
+export function sendsCyclically(config: RoomTemperatureSending): boolean {
+  return config.mode === "cyclic" || config.mode === "on-change-and-cyclic";
+}
+
+/** A new temperature reading at `nowUs`: send it now, later (timer), or not at all. */
+export function sampleRoomTemperature(
+  state: RoomTemperatureSenderState,
+  valueC: number,
+  nowUs: number,
+  config: RoomTemperatureSending,
+): SenderStep {
+  const value = quantize(valueC);
+  const next = { ...state, currentC: value };
+  if (!sendsOnChange(config)) return { state: next, sendC: null, timerDelayUs: null };
+  if (!changedEnough(state, value, config)) return { state: { ...next, pending: false }, sendC: null, timerDelayUs: null };
+  const minIntervalUs = Math.round(config.minIntervalS * US_PER_S);
+  if (state.lastSentUs === null || nowUs - state.lastSentUs >= minIntervalUs) return sendNow(state, value, nowUs);
+  if (state.pending) return { state: next, sendC: null, timerDelayUs: null };
+  return { state: { ...next, pending: true }, sendC: null, timerDelayUs: state.lastSentUs + minIntervalUs - nowUs };
+}
+
+/** The minimum interval after the last send has passed: send the held change if it still counts. */
+export function sendDueRoomTemperature(state: RoomTemperatureSenderState, nowUs: number, config: RoomTemperatureSending): SenderStep {
+  if (!state.pending || state.currentC === null) return { state: { ...state, pending: false }, sendC: null, timerDelayUs: null };
+  if (!changedEnough(state, state.currentC, config)) return { state: { ...state, pending: false }, sendC: null, timerDelayUs: null };
+  return sendNow(state, state.currentC, nowUs);
+}
+
+/** The cycle timer fired: send the current value (if known); an on-change send then waits the minimum interval again. */
+export function sendCyclicRoomTemperature(state: RoomTemperatureSenderState, nowUs: number): SenderStep {
+  if (state.currentC === null) return { state, sendC: null, timerDelayUs: null };
+  return sendNow(state, state.currentC, nowUs);
+}
+
+/** Cycle period in virtual microseconds. */
+export function cycleUs(config: RoomTemperatureSending): number {
+  return Math.round(config.cycleS * US_PER_S);
+}

@@ -1,0 +1,103 @@
+import { z } from "zod";
+import { hvacModeSchema, systemDirectionSchema } from "./hvac-mode";
+
+/**
+ * The messages members of an HVAC unit link exchange (wired link between an
+ * indoor unit, its controllers and, for multi-split, the shared outdoor unit).
+ *
+ * A device sends one with the `link.send` effect; the runtime delivers it to the
+ * other members of that link as a `link.receive` event after a small delay.
+ * Receivers validate with `unitLinkMessageSchema` and ignore anything else, so a
+ * message from a foreign device type never breaks a transition.
+ */
+
+/** A controller's role on the unit link; exactly one primary per indoor unit. */
+export const controllerRoleSchema = z.enum(["primary", "secondary"]);
+export type ControllerRole = z.infer<typeof controllerRoleSchema>;
+
+/** Fan level on the unit: 0 = automatic, 1..5 = fixed levels. */
+export const fanLevelSchema = z.number().int().min(0).max(5);
+
+/** A controller (gateway or wall controller) says it is on the link and in which role; repeated periodically. */
+export const controllerAnnounceSchema = z.object({
+  kind: z.literal("controller.announce"),
+  role: controllerRoleSchema,
+  controller: z.enum(["gateway", "wall-controller"]),
+});
+export type ControllerAnnounce = z.infer<typeof controllerAnnounceSchema>;
+
+/** A controller asks the indoor unit to change; absent fields stay as they are. */
+export const unitCommandSchema = z.object({
+  kind: z.literal("unit.command"),
+  power: z.boolean().optional(),
+  mode: hvacModeSchema.optional(),
+  fanLevel: fanLevelSchema.optional(),
+  louvrePercent: z.number().min(0).max(100).optional(),
+  setpointC: z.number().optional(),
+  /** Room temperature from a KNX sensor; only the primary gateway may send it. */
+  externalRoomC: z.number().optional(),
+});
+export type UnitCommand = z.infer<typeof unitCommandSchema>;
+
+/** Why the indoor unit did not do all of what a command asked. */
+export const unitRefusalSchema = z.object({
+  /** Transition name, e.g. "system.mode-refused", "link.command-refused". */
+  transition: z.string(),
+  /** The controller whose command was refused. */
+  controller: z.string(),
+  text: z.string(),
+});
+export type UnitRefusal = z.infer<typeof unitRefusalSchema>;
+
+/** What the indoor unit really runs; sent after every change and every model step that moves the room. */
+export const unitStatusSchema = z.object({
+  kind: z.literal("unit.status"),
+  power: z.boolean(),
+  mode: hvacModeSchema,
+  /** The direction auto mode resolved to (or the mode's own direction). */
+  direction: systemDirectionSchema,
+  fanLevel: fanLevelSchema,
+  louvrePercent: z.number(),
+  setpointC: z.number(),
+  /** The temperature the unit controls on (external when a primary gateway supplies one); null when unreadable. */
+  roomC: z.number().nullable(),
+  /** Active faults, descriptive ids (see fault-ids.ts). */
+  faults: z.array(z.string()),
+  /** Multi-split only: this unit holds mode authority for the shared outdoor unit. */
+  modeAuthority: z.boolean(),
+  refusal: unitRefusalSchema.optional(),
+});
+export type UnitStatus = z.infer<typeof unitStatusSchema>;
+
+/** The outdoor unit tells its indoor units which member holds mode authority and which way the system runs. */
+export const systemStateSchema = z.object({
+  kind: z.literal("system.state"),
+  direction: systemDirectionSchema,
+  /** Device id of the indoor unit holding mode authority, or null. */
+  authority: z.string().nullable(),
+});
+export type SystemState = z.infer<typeof systemStateSchema>;
+
+/** Any message on a unit link. */
+export const unitLinkMessageSchema = z.discriminatedUnion("kind", [
+  controllerAnnounceSchema,
+  unitCommandSchema,
+  unitStatusSchema,
+  systemStateSchema,
+]);
+export type UnitLinkMessage = z.infer<typeof unitLinkMessageSchema>;
+
+/** Parses a received message; undefined for anything that is not a unit-link message. */
+export function parseUnitLinkMessage(message: unknown): UnitLinkMessage | undefined {
+  const parsed = unitLinkMessageSchema.safeParse(message);
+  return parsed.success ? parsed.data : undefined;
+}
+
+/** How often controllers repeat their announcement, so the unit notices role changes and lost controllers (virtual µs). */
+export const CONTROLLER_ANNOUNCE_PERIOD_US = 10_000_000;
+
+/** A controller not heard for this long is treated as gone (three missed announcements). */
+export const CONTROLLER_TIMEOUT_US = 3 * CONTROLLER_ANNOUNCE_PERIOD_US + 1_000_000;
+
+/** Grace after start before the unit judges the primary count, so every controller has announced once. */
+export const LINK_SUPERVISION_GRACE_US = 2_000_000;

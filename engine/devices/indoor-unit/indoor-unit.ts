@@ -1,0 +1,38 @@
+import type { DeviceType } from "../device-type";
+import { indoorUnitParametersSchema, type IndoorUnitParameters } from "./parameters";
+import type { IndoorUnitState } from "./state";
+import { indoorUnitTransition } from "./transition";
+
+/**
+ * Indoor unit: sits on a unit link (not on KNX), holds the real operating state
+ * (power, mode, fan, louvre, setpoint) and the room it conditions, decides which
+ * controller may command it (exactly one primary) and, on a multi-split system,
+ * obeys the outdoor unit's mode authority.
+ */
+export const indoorUnitType: DeviceType<IndoorUnitParameters, IndoorUnitState> = {
+  id: "indoor-unit",
+  label: "Indoor unit",
+  description: "Air-conditioning indoor unit on a unit link, with a first-order room model; not on KNX.",
+  medium: "unit-link",
+  parameters: indoorUnitParametersSchema,
+  groupObjects: () => [],
+  buttons: () => [],
+  initialState: (parameters) => ({
+    power: parameters.initialPower,
+    mode: parameters.initialMode,
+    autoDirection: parameters.initialRoomC < parameters.initialSetpointC ? "heating" : "cooling",
+    fanLevel: parameters.initialFanLevel,
+    louvrePercent: 0,
+    setpointC: parameters.initialSetpointC,
+    roomC: parameters.initialRoomC,
+    externalRoomC: null,
+    sensorOpen: false,
+    controllers: {},
+    linkFault: null,
+    supervising: false,
+    system: null,
+    lastStepUs: 0,
+    reportedRoomC: null,
+  }),
+  transition: indoorUnitTransition,
+};

@@ -1,0 +1,27 @@
+import { z } from "zod";
+import { hvacModeSchema } from "../hvac/hvac-mode";
+import { fanLevelSchema } from "../hvac/unit-link-messages";
+
+/** Parameters of an indoor unit and the room it conditions. Temperatures °C, times seconds. */
+export const indoorUnitParametersSchema = z.object({
+  /** Room temperature at the start of the run. */
+  initialRoomC: z.number().min(-30).max(50).default(20),
+  /** Outdoor temperature the room drifts toward while the unit is off or only moves air. */
+  outdoorC: z.number().min(-40).max(50).default(10),
+  /** Time constant τ of the room's first-order cooling toward outdoor (Newton's law of cooling). */
+  timeConstantS: z.number().positive("timeConstantS must be above 0 s").max(1_000_000).default(3600),
+  /** Fastest change heating or cooling can drive the room, kelvin per minute. */
+  rateKPerMin: z.number().positive("rateKPerMin must be above 0 K/min").max(10).default(0.2),
+  /** Period of the thermal model step, virtual seconds. */
+  modelStepS: z.number().min(1).max(600).default(10),
+  /** Auto mode switches between heating and cooling this far either side of the setpoint, kelvin. */
+  autoHysteresisK: z.number().min(0).max(5).default(0.5),
+  initialPower: z.boolean().default(false),
+  initialMode: hvacModeSchema.default("auto"),
+  initialSetpointC: z.number().min(5).max(40).default(21),
+  initialFanLevel: fanLevelSchema.default(0),
+});
+export type IndoorUnitParameters = z.infer<typeof indoorUnitParametersSchema>;
+
+/** Setpoints the unit itself accepts, °C; controllers apply their own, narrower limits. */
+export const UNIT_SETPOINT_RANGE_C = { min: 5, max: 40 } as const;

@@ -1,0 +1,35 @@
+import type { HvacFaultId } from "../hvac/fault-ids";
+import type { HvacMode, SystemDirection } from "../hvac/hvac-mode";
+import type { ControllerAnnounce, SystemState } from "../hvac/unit-link-messages";
+
+/** A controller the unit has heard on its link. */
+export interface KnownController {
+  readonly role: ControllerAnnounce["role"];
+  readonly controller: ControllerAnnounce["controller"];
+  readonly lastSeenUs: number;
+}
+
+/** The real operating state of an indoor unit and its room. */
+export interface IndoorUnitState {
+  readonly power: boolean;
+  readonly mode: HvacMode;
+  /** Heating or cooling as auto mode last resolved it (kept with hysteresis). */
+  readonly autoDirection: Exclude<SystemDirection, "none">;
+  readonly fanLevel: number;
+  readonly louvrePercent: number;
+  readonly setpointC: number;
+  /** The physical room temperature the thermal model advances, °C. */
+  readonly roomC: number;
+  /** Room temperature from the primary gateway's KNX sensor, when one is supplied. */
+  readonly externalRoomC: number | null;
+  readonly sensorOpen: boolean;
+  readonly controllers: Readonly<Record<string, KnownController>>;
+  readonly linkFault: HvacFaultId | null;
+  /** The grace after start is over: a missing primary now counts as a fault. */
+  readonly supervising: boolean;
+  /** Last word from a shared outdoor unit; null on a single split. */
+  readonly system: Omit<SystemState, "kind"> | null;
+  readonly lastStepUs: number;
+  /** Control temperature last reported on the link (0.01 K steps), to report only changes. */
+  readonly reportedRoomC: number | null;
+}

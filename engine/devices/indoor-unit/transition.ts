@@ -1,0 +1,236 @@
+import type { DeviceContext, DeviceEffect, DeviceEvent, TransitionResult } from "../device-type";
+import { hvacFaults, type HvacFaultId } from "../hvac/fault-ids";
+import { directionOfMode, modesAllowedFor, type HvacMode } from "../hvac/hvac-mode";
+import {
+  CONTROLLER_ANNOUNCE_PERIOD_US,
+  CONTROLLER_TIMEOUT_US,
+  LINK_SUPERVISION_GRACE_US,
+  parseUnitLinkMessage,
+  type UnitCommand,
+  type UnitRefusal,
+  type UnitStatus,
+} from "../hvac/unit-link-messages";
+import { UNIT_SETPOINT_RANGE_C, type IndoorUnitParameters } from "./parameters";
+import type { IndoorUnitState } from "./state";
+import { stepRoomTemperature } from "./thermal-model";
+
+type Context = DeviceContext<IndoorUnitParameters>;
+type Result = TransitionResult<IndoorUnitState>;
+
+const MODEL_TIMER = "model.step";
+const SUPERVISION_TIMER = "link.supervise";
+const US_PER_S = 1_000_000;
+
+/** The temperature the unit controls on: the primary gateway's external value, else its own sensor. */
+export function controlTemperatureC(state: IndoorUnitState): number | null {
+  if (state.externalRoomC !== null) return state.externalRoomC;
+  return state.sensorOpen ? null : state.roomC;
+}
+
+function quantize(valueC: number | null): number | null {
+  return valueC === null ? null : Math.round(valueC * 100) / 100;
+}
+
+function statusMessage(state: IndoorUnitState, context: Context, refusal?: UnitRefusal): UnitStatus {
+  const faults: string[] = [];
+  if (state.linkFault !== null) faults.push(state.linkFault);
+  if (state.sensorOpen) faults.push(hvacFaults.sensorOpen);
+  return {
+    kind: "unit.status",
+    power: state.power,
+    mode: state.mode,
+    direction: directionOfMode(state.mode, state.autoDirection),
+    fanLevel: state.fanLevel,
+    louvrePercent: state.louvrePercent,
+    setpointC: state.setpointC,
+    roomC: quantize(controlTemperatureC(state)),
+    faults,
+    modeAuthority: state.system?.authority === context.deviceId,
+    ...(refusal === undefined ? {} : { refusal }),
+  };
+}
+
+/** Sends the unit's status to every link it is on (controllers on its unit link, the outdoor unit on the system link). */
+function report(state: IndoorUnitState, context: Context, refusal?: UnitRefusal): { state: IndoorUnitState; effects: DeviceEffect[] } {
+  const message = statusMessage(state, context, refusal);
+  return {
+    state: { ...state, reportedRoomC: message.roomC },
+    effects: context.links.map((link) => ({ kind: "link.send", link, message })),
+  };
+}
+
+function resolveAutoDirection(state: IndoorUnitState, hysteresisK: number): IndoorUnitState {
+  const controlC = controlTemperatureC(state);
+  if (controlC === null) return state;
+  if (controlC < state.setpointC - hysteresisK) return { ...state, autoDirection: "heating" };
+  if (controlC > state.setpointC + hysteresisK) return { ...state, autoDirection: "cooling" };
+  return state;
+}
+
+/** Whether this member may run `mode` under the outdoor unit's current direction (always, on a single split or as the authority). */
+function modeAllowed(state: IndoorUnitState, mode: HvacMode, context: Context): boolean {
+  const system = state.system;
+  if (system === null || system.authority === null || system.authority === context.deviceId) return true;
+  return modesAllowedFor(system.direction).includes(mode);
+}
+
+function evaluateLinkFault(state: IndoorUnitState, context: Context): { state: IndoorUnitState; effects: DeviceEffect[]; transition?: string } {
+  const live = Object.entries(state.controllers).filter(([, known]) => context.nowUs - known.lastSeenUs <= CONTROLLER_TIMEOUT_US);
+  const controllers = Object.fromEntries(live);
+  const primaries = live.filter(([, known]) => known.role === "primary").length;
+  let fault: HvacFaultId | null = null;
+  if (primaries >= 2) fault = hvacFaults.twoPrimaries;
+  else if (primaries === 0 && state.supervising) fault = hvacFaults.noPrimary;
+  const next = { ...state, controllers };
+  if (fault === state.linkFault) return { state: next, effects: [] };
+  const effects: DeviceEffect[] = [];
+  if (state.linkFault !== null) effects.push({ kind: "fault.clear", fault: state.linkFault });
+  if (fault !== null) {
+    const text =
+      fault === hvacFaults.twoPrimaries
+        ? `${primaries} controllers on the unit link are set as primary; commands stop until one is made secondary`
+        : "no primary controller on the unit link: lost communication";
+    effects.push({ kind: "fault.raise", fault, text });
+  }
+  const reported = report({ ...next, linkFault: fault }, context);
+  return { state: reported.state, effects: [...effects, ...reported.effects], transition: fault ?? "link.fault-cleared" };
+}
+
+function applyCommand(state: IndoorUnitState, command: UnitCommand, from: string, context: Context): Result {
+  const controller = state.controllers[from];
+  if (state.linkFault !== null) {
+    const refusal = { transition: "link.command-refused", controller: from, text: `command refused while ${state.linkFault} is active` };
+    const reported = report(state, context, refusal);
+    return { state: reported.state, effects: [{ kind: "note", text: refusal.text }, ...reported.effects], transition: refusal.transition };
+  }
+  let next: IndoorUnitState = state;
+  const refusals: UnitRefusal[] = [];
+  if (command.externalRoomC !== undefined) {
+    // Common practice, no published source: only the primary controller may supply the room temperature.
+    if (controller?.role === "primary") next = { ...next, externalRoomC: command.externalRoomC };
+    else refusals.push({ transition: "room.external-refused", controller: from, text: "external room temperature ignored: it is only taken from the primary controller" });
+  }
+  if (command.power !== undefined) {
+    if (command.power && next.sensorOpen && next.externalRoomC === null) {
+      refusals.push({ transition: hvacFaults.sensorOpen, controller: from, text: "power on refused: the room temperature sensor is open" });
+    } else {
+      next = { ...next, power: command.power };
+    }
+  }
+  if (command.fanLevel !== undefined) next = { ...next, fanLevel: command.fanLevel };
+  if (command.louvrePercent !== undefined) next = { ...next, louvrePercent: command.louvrePercent };
+  if (command.setpointC !== undefined) {
+    next = { ...next, setpointC: Math.min(UNIT_SETPOINT_RANGE_C.max, Math.max(UNIT_SETPOINT_RANGE_C.min, command.setpointC)) };
+  }
+  if (command.mode !== undefined) {
+    if (modeAllowed(next, command.mode, context)) {
+      next = { ...next, mode: command.mode };
+    } else {
+      // Common practice, no published source: a refused member keeps an allowed mode, else falls back to fan.
+      const kept: HvacMode = modeAllowed(next, next.mode, context) ? next.mode : "fan";
+      next = { ...next, mode: kept };
+      refusals.unshift({
+        transition: "system.mode-refused",
+        controller: from,
+        text: `${command.mode} refused: the system is ${next.system?.direction ?? "none"} under ${next.system?.authority ?? "no one"}; running ${kept}`,
+      });
+    }
+  }
+  next = resolveAutoDirection(next, context.parameters.autoHysteresisK);
+  const refusal = refusals[0];
+  const reported = report(next, context, refusal);
+  const notes: DeviceEffect[] = refusals.map((r) => ({ kind: "note", text: r.text }));
+  return { state: reported.state, effects: [...notes, ...reported.effects], transition: refusal?.transition ?? "unit.command-applied" };
+}
+
+function stepModel(state: IndoorUnitState, context: Context): Result {
+  const parameters = context.parameters;
+  const direction = state.power ? directionOfMode(state.mode, state.autoDirection) : "none";
+  const roomC = stepRoomTemperature(
+    state.roomC,
+    (context.nowUs - state.lastStepUs) / US_PER_S,
+    { direction, setpointC: state.setpointC, rateFactor: state.mode === "dry" ? 0.5 : 1 },
+    { outdoorC: parameters.outdoorC, timeConstantS: parameters.timeConstantS, rateKPerMin: parameters.rateKPerMin },
+  );
+  const before = state.autoDirection;
+  const next = resolveAutoDirection({ ...state, roomC, lastStepUs: context.nowUs }, parameters.autoHysteresisK);
+  const effects: DeviceEffect[] = [{ kind: "timer.set", name: MODEL_TIMER, delayUs: Math.round(parameters.modelStepS * US_PER_S) }];
+  const autoSwitched = next.mode === "auto" && next.power && next.autoDirection !== before;
+  if (!autoSwitched && quantize(controlTemperatureC(next)) === next.reportedRoomC) return { state: next, effects };
+  const reported = report(next, context);
+  return { state: reported.state, effects: [...effects, ...reported.effects], ...(autoSwitched ? { transition: "auto.direction-changed" } : {}) };
+}
+
+function receive(state: IndoorUnitState, from: string, raw: unknown, context: Context): Result {
+  const message = parseUnitLinkMessage(raw);
+  if (message === undefined) return { state, effects: [] };
+  switch (message.kind) {
+    case "controller.announce": {
+      const controllers = { ...state.controllers, [from]: { role: message.role, controller: message.controller, lastSeenUs: context.nowUs } };
+      return evaluateLinkFault({ ...state, controllers }, context);
+    }
+    case "unit.command":
+      return applyCommand(state, message, from, context);
+    case "system.state": {
+      const next = { ...state, system: { direction: message.direction, authority: message.authority } };
+      if (next.power && !modeAllowed(next, next.mode, context)) {
+        const refusal = {
+          transition: "system.mode-refused",
+          controller: from,
+          text: `${next.mode} no longer allowed: the system is ${message.direction} under ${message.authority ?? "no one"}; running fan`,
+        };
+        const reported = report({ ...next, mode: "fan" }, context, refusal);
+        return { state: reported.state, effects: [{ kind: "note", text: refusal.text }, ...reported.effects], transition: refusal.transition };
+      }
+      const changed = state.system?.direction !== message.direction || state.system?.authority !== message.authority;
+      if (!changed) return { state: next, effects: [] };
+      const reported = report(next, context);
+      return { ...reported, transition: "system.state-changed" };
+    }
+    case "unit.status":
+      // Another indoor unit on a shared system link; not ours to act on.
+      return { state, effects: [] };
+  }
+}
+
+/** The indoor unit's pure transition. */
+export function indoorUnitTransition(state: IndoorUnitState, event: DeviceEvent, context: Context): Result {
+  switch (event.kind) {
+    case "start": {
+      const reported = report({ ...state, lastStepUs: context.nowUs }, context);
+      return {
+        state: reported.state,
+        effects: [
+          { kind: "timer.set", name: MODEL_TIMER, delayUs: Math.round(context.parameters.modelStepS * US_PER_S) },
+          { kind: "timer.set", name: SUPERVISION_TIMER, delayUs: LINK_SUPERVISION_GRACE_US },
+          ...reported.effects,
+        ],
+        transition: "unit.started",
+      };
+    }
+    case "timer":
+      if (event.name === MODEL_TIMER) return stepModel(state, context);
+      if (event.name === SUPERVISION_TIMER) {
+        const evaluated = evaluateLinkFault({ ...state, supervising: true }, context);
+        return { ...evaluated, effects: [{ kind: "timer.set", name: SUPERVISION_TIMER, delayUs: CONTROLLER_ANNOUNCE_PERIOD_US }, ...evaluated.effects] };
+      }
+      return { state, effects: [] };
+    case "link.receive":
+      return receive(state, event.from, event.message, context);
+    case "fault.inject":
+    case "fault.clear": {
+      if (event.fault !== hvacFaults.sensorOpen) return { state, effects: [] };
+      const open = event.kind === "fault.inject";
+      if (open === state.sensorOpen) return { state, effects: [] };
+      // Common practice, no published source: with its sensor open and no external value the unit stops.
+      const stops = open && state.externalRoomC === null;
+      const reported = report({ ...state, sensorOpen: open, power: stops ? false : state.power }, context);
+      return { ...reported, transition: open ? hvacFaults.sensorOpen : "unit.sensor-restored" };
+    }
+    case "group.write":
+    case "group.response":
+    case "button":
+    case "input":
+      return { state, effects: [] };
+  }
+}
