@@ -1,0 +1,267 @@
+import { z } from "zod";
+import { parseDuration } from "./duration";
+import { isGroupAddressText } from "./group-address-text";
+
+/**
+ * Benchline's scenario document, `format: 1`.
+ *
+ * A scenario names a bench and lists steps in virtual time. Action steps (write,
+ * read, press, set-input, wait, set-parameter, inject-fault, clear-fault) each
+ * move the scenario's anchor to the virtual time at which they finish. Expect
+ * steps never move the anchor: every window an expectation names ("within",
+ * "for", "over") starts at the anchor, so several expectations after one command
+ * all measure from that command.
+ *
+ * The document keeps durations as the text a person wrote ("500ms"); the runner
+ * converts them with `parseDuration`, which this schema has already checked.
+ */
+
+/** A readable duration, e.g. "500ms", "30s", "2m", "1h". */
+export const durationTextSchema = z
+  .string({ error: 'expected a duration like "500ms", "30s", "2m" or "1h"' })
+  .superRefine((text, ctx) => {
+    const parsed = parseDuration(text);
+    if (!parsed.ok) ctx.addIssue({ code: "custom", message: parsed.error.message });
+  });
+
+/** A group address in text form: "1/0/1", "1/257" or "4097". */
+const groupAddressMessage =
+  'expected a group address like "1/0/1" (main 0-31 / middle 0-7 / sub 0-255), not 0/0/0';
+export const groupAddressTextSchema = z
+  .string({ error: groupAddressMessage })
+  .refine(isGroupAddressText, { message: groupAddressMessage });
+
+const deviceIdSchema = z.string().min(1, "expected a device id from the bench");
+const toleranceSchema = z.number().nonnegative("tolerance must be zero or more");
+/** Any JSON value; checked against the group address's DPT when the scenario runs. */
+const jsonValueSchema = z.json();
+const labelSchema = z.string().optional();
+const serviceFilterSchema = z.enum(["write", "response", "any"]);
+
+export const writeStepSchema = z
+  .object({
+    kind: z.literal("write"),
+    label: labelSchema,
+    groupAddress: groupAddressTextSchema,
+    value: jsonValueSchema,
+    /** Device whose individual address sends; the bench's test tool when absent. */
+    from: deviceIdSchema.optional(),
+    priority: z.enum(["system", "normal", "urgent", "low"]).optional(),
+  })
+  .strict();
+
+export const readStepSchema = z
+  .object({
+    kind: z.literal("read"),
+    label: labelSchema,
+    groupAddress: groupAddressTextSchema,
+    from: deviceIdSchema.optional(),
+  })
+  .strict();
+
+export const pressStepSchema = z
+  .object({
+    kind: z.literal("press"),
+    label: labelSchema,
+    device: deviceIdSchema,
+    button: z.string().min(1, "expected a button id of the device"),
+    action: z.enum(["press", "release", "long-press"]).optional(),
+  })
+  .strict();
+
+export const setInputStepSchema = z
+  .object({
+    kind: z.literal("set-input"),
+    label: labelSchema,
+    device: deviceIdSchema,
+    input: z.string().min(1, "expected an input name of the device"),
+    value: jsonValueSchema,
+  })
+  .strict();
+
+export const waitStepSchema = z
+  .object({ kind: z.literal("wait"), label: labelSchema, for: durationTextSchema })
+  .strict();
+
+export const setParameterStepSchema = z
+  .object({
+    kind: z.literal("set-parameter"),
+    label: labelSchema,
+    device: deviceIdSchema,
+    parameter: z.string().min(1, "expected a parameter key of the device"),
+    value: jsonValueSchema,
+  })
+  .strict();
+
+const faultFields = {
+  label: labelSchema,
+  /** Device id, or a unit-link id for link faults such as "link.broken". */
+  device: deviceIdSchema,
+  fault: z.string().min(1, 'expected a fault id like "link.broken"'),
+};
+export const injectFaultStepSchema = z
+  .object({ kind: z.literal("inject-fault"), ...faultFields })
+  .strict();
+export const clearFaultStepSchema = z
+  .object({ kind: z.literal("clear-fault"), ...faultFields })
+  .strict();
+
+/** A write or response carrying `value` reaches the address within the window. */
+export const expectValueStepSchema = z
+  .object({
+    kind: z.literal("expect-value"),
+    label: labelSchema,
+    groupAddress: groupAddressTextSchema,
+    value: jsonValueSchema,
+    tolerance: toleranceSchema.optional(),
+    within: durationTextSchema,
+    service: serviceFilterSchema.optional(),
+  })
+  .strict();
+
+/** A GroupValue_Response reaches the address within the window (with `value`, when given). */
+export const expectResponseStepSchema = z
+  .object({
+    kind: z.literal("expect-response"),
+    label: labelSchema,
+    groupAddress: groupAddressTextSchema,
+    value: jsonValueSchema.optional(),
+    tolerance: toleranceSchema.optional(),
+    within: durationTextSchema,
+  })
+  .strict();
+
+/** A value inside a device's state, reached by a dotted path ("unit.setpointC", "scenes.0.fan"). */
+export const expectStateStepSchema = z
+  .object({
+    kind: z.literal("expect-state"),
+    label: labelSchema,
+    device: deviceIdSchema,
+    path: z.string().min(1, 'expected a dotted path into the device state, like "setpointC"'),
+    value: jsonValueSchema,
+    tolerance: toleranceSchema.optional(),
+    /** Poll until the state matches, up to this long; checked once at the current time when absent. */
+    within: durationTextSchema.optional(),
+  })
+  .strict();
+
+/** Number of telegrams to an address inside the window: exactly `count`, or between `min` and `max`. */
+export const expectCountStepSchema = z
+  .object({
+    kind: z.literal("expect-count"),
+    label: labelSchema,
+    groupAddress: groupAddressTextSchema,
+    within: durationTextSchema,
+    count: z.number().int().nonnegative().optional(),
+    min: z.number().int().nonnegative().optional(),
+    max: z.number().int().nonnegative().optional(),
+    service: serviceFilterSchema.optional(),
+  })
+  .strict()
+  .superRefine((step, ctx) => {
+    if (step.count === undefined && step.min === undefined && step.max === undefined) {
+      ctx.addIssue({ code: "custom", path: ["count"], message: "give count, or min and/or max" });
+    }
+    if (step.count !== undefined && (step.min !== undefined || step.max !== undefined)) {
+      ctx.addIssue({
+        code: "custom",
+        path: ["count"],
+        message: "give either count or min/max, not both",
+      });
+    }
+    if (step.min !== undefined && step.max !== undefined && step.min > step.max) {
+      ctx.addIssue({
+        code: "custom",
+        path: ["max"],
+        message: `max ${step.max} is below min ${step.min}`,
+      });
+    }
+  });
+
+/** Bus load over the window stays below a percentage of line capacity. */
+export const expectBusLoadStepSchema = z
+  .object({
+    kind: z.literal("expect-bus-load"),
+    label: labelSchema,
+    belowPercent: z
+      .number()
+      .gt(0, "belowPercent must be above 0")
+      .lte(100, "belowPercent must be at most 100"),
+    over: durationTextSchema,
+  })
+  .strict();
+
+/** Nothing is sent to the address (or, without an address, to any address) for the window. */
+export const expectSilenceStepSchema = z
+  .object({
+    kind: z.literal("expect-silence"),
+    label: labelSchema,
+    groupAddress: groupAddressTextSchema.optional(),
+    for: durationTextSchema,
+  })
+  .strict();
+
+export const stepSchema = z.discriminatedUnion("kind", [
+  writeStepSchema,
+  readStepSchema,
+  pressStepSchema,
+  setInputStepSchema,
+  waitStepSchema,
+  setParameterStepSchema,
+  injectFaultStepSchema,
+  clearFaultStepSchema,
+  expectValueStepSchema,
+  expectResponseStepSchema,
+  expectStateStepSchema,
+  expectCountStepSchema,
+  expectBusLoadStepSchema,
+  expectSilenceStepSchema,
+]);
+export type Step = z.infer<typeof stepSchema>;
+export type StepKind = Step["kind"];
+export type ExpectStep = Extract<Step, { kind: `expect-${string}` }>;
+export type ActionStep = Exclude<Step, ExpectStep>;
+
+/** Every step kind, in the order the documentation lists them. */
+export const stepKinds: readonly StepKind[] = stepSchema.options.map(
+  (option) => option.shape.kind.value,
+);
+
+export function isExpectStep(step: Step): step is ExpectStep {
+  return step.kind.startsWith("expect-");
+}
+
+/** Which bench a scenario runs on: a file path (relative to the scenario file) or a bench name. */
+export const benchReferenceSchema = z
+  .object({
+    path: z.string().min(1).optional(),
+    name: z.string().min(1).optional(),
+  })
+  .strict()
+  .superRefine((reference, ctx) => {
+    if ((reference.path === undefined) === (reference.name === undefined)) {
+      ctx.addIssue({ code: "custom", message: 'give exactly one of "path" or "name"' });
+    }
+  });
+export type BenchReference = z.infer<typeof benchReferenceSchema>;
+
+export const scenarioSchema = z
+  .object({
+    format: z.literal(1, { error: "expected format 1 (the only scenario format so far)" }),
+    name: z.string().min(1, "a scenario needs a name"),
+    description: z.string().optional(),
+    bench: benchReferenceSchema,
+    /** Seed of the run's random generator; the same seed gives the same trace. */
+    seed: z.number().int().nonnegative().default(1),
+    /**
+     * A fault-finding exercise: the scenario is written to fail on the bench as
+     * shipped, and counts as passing when it fails (and failing when it passes).
+     */
+    expectedToFail: z.boolean().default(false),
+    steps: z.array(stepSchema).min(1, "a scenario needs at least one step"),
+  })
+  .strict();
+/** A scenario after parsing (defaults filled). */
+export type Scenario = z.infer<typeof scenarioSchema>;
+/** A scenario as written in a file (defaults may be absent). */
+export type ScenarioDocument = z.input<typeof scenarioSchema>;
