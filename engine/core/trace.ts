@@ -1,3 +1,5 @@
+import type { GroupService, Priority } from "../frame";
+
 /**
  * The trace: one ordered stream of everything that happened in a run, with
  * virtual timestamps. The UI's telegram log, the scenario runner's verdicts and
@@ -9,10 +11,6 @@
  * with recording off and no subscribers builds no event objects at all.
  */
 
-/** Services as they appear in frames (engine/frame uses the same names). */
-export type TraceGroupService = "GroupValue_Read" | "GroupValue_Response" | "GroupValue_Write";
-/** Frame priorities (engine/frame uses the same names). */
-export type TracePriority = "system" | "normal" | "urgent" | "low";
 
 /** Why the sender had to repeat a frame or gave up on it. */
 export type AckOutcome = "ack" | "nak" | "busy" | "none";
@@ -28,8 +26,8 @@ export interface TelegramTraceFields {
   readonly source: number;
   /** Raw destination (group address for group telegrams). */
   readonly destination: number;
-  readonly service: TraceGroupService;
-  readonly priority: TracePriority;
+  readonly service: GroupService;
+  readonly priority: Priority;
   /** Payload octets as upper-case hex without spaces ("" for a read). */
   readonly payloadHex: string;
   /** Whether the data travels in the APCI octet (<= 6 bits). */
