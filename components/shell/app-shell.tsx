@@ -1,0 +1,34 @@
+import Link from "next/link";
+import { BenchMark } from "./bench-mark";
+import { navItems } from "./nav-items";
+import { NavList } from "./nav-list";
+
+/**
+ * The frame every studio page sits in: a graphite rail with the product name
+ * and the navigation, and a paper work area. `account` is where the signed-in
+ * user and workspace switcher go once sign-in exists.
+ */
+export function AppShell({
+  children,
+  account,
+}: {
+  children: React.ReactNode;
+  account?: React.ReactNode;
+}) {
+  return (
+    <div className="flex min-h-screen flex-col md:flex-row">
+      <aside className="flex shrink-0 flex-col gap-6 bg-graphite px-3 py-4 text-graphite-text md:w-60">
+        <Link
+          href="/"
+          className="flex items-center gap-2 px-3 text-lg font-semibold tracking-tight"
+        >
+          <BenchMark className="size-7" />
+          Benchline
+        </Link>
+        <NavList items={navItems} />
+        {account ? <div className="mt-auto px-3 text-sm">{account}</div> : null}
+      </aside>
+      <main className="min-w-0 flex-1 bg-paper">{children}</main>
+    </div>
+  );
+}
