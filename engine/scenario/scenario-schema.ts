@@ -1,6 +1,6 @@
 import { z } from "zod";
 import { parseDuration } from "./duration";
-import { isGroupAddressText } from "./group-address-text";
+import { parseGroupAddress } from "../address";
 
 /**
  * Benchline's scenario document, `format: 1`.
@@ -29,7 +29,7 @@ const groupAddressMessage =
   'expected a group address like "1/0/1" (main 0-31 / middle 0-7 / sub 0-255), not 0/0/0';
 export const groupAddressTextSchema = z
   .string({ error: groupAddressMessage })
-  .refine(isGroupAddressText, { message: groupAddressMessage });
+  .refine((text) => parseGroupAddress(text).ok, { message: groupAddressMessage });
 
 const deviceIdSchema = z.string().min(1, "expected a device id from the bench");
 const toleranceSchema = z.number().nonnegative("tolerance must be zero or more");
