@@ -1,0 +1,139 @@
+import { describe, expect, it } from "vitest";
+import type { BenchInput } from "./bench-schema";
+import { migrateBench } from "./bench-migrations";
+import { loadBench } from "./load-bench";
+
+function bench(overrides: Partial<BenchInput> = {}): BenchInput {
+  return {
+    format: 1,
+    name: "Lab bench",
+    lines: [{ id: "main", address: "1.1", name: "Main line" }],
+    testToolAddress: "1.1.250",
+    groupAddresses: [
+      { address: "1/0/1", name: "Hall light", dpt: "1.001" },
+      { address: "1/0/2", name: "Hall light status", dpt: "1.001" },
+      { address: "1/0/3", name: "Hall dim value", dpt: "5.001" },
+    ],
+    devices: [
+      { id: "pb-hall", type: "push-button", name: "Hall rocker", individualAddress: "1.1.1", parameters: {} },
+      { id: "act-hall", type: "switch-actuator", name: "Hall relay", individualAddress: "1.1.2", parameters: { channels: 1 } },
+    ],
+    links: [
+      { device: "pb-hall", object: 0, groupAddress: "1/0/1" },
+      { device: "pb-hall", object: 0, groupAddress: "1/0/2" },
+      { device: "act-hall", object: 0, groupAddress: "1/0/1" },
+      { device: "act-hall", object: 1, groupAddress: "1/0/2" },
+    ],
+    ...overrides,
+  };
+}
+
+function errorsOf(input: unknown) {
+  const result = loadBench(input);
+  if (result.ok) throw new Error("expected the bench to be refused");
+  return result.error;
+}
+
+describe("loadBench", () => {
+  it("resolves addresses to raw numbers and keeps the first link as the sending address", () => {
+    const result = loadBench(bench());
+    if (!result.ok) throw new Error(JSON.stringify(result.error));
+    const loaded = result.value;
+    // knx-reference.md, Addresses: raw = main<<11 | middle<<8 | sub; area<<12 | line<<8 | device.
+    expect(loaded.testToolAddress).toBe(0x11fa);
+    const pb = loaded.deviceById.get("pb-hall")!;
+    expect(pb.individualAddress).toBe(0x1101);
+    expect(pb.line).toBe("main");
+    expect(pb.objects[0]!.groupAddresses).toEqual([0x0801, 0x0802]);
+    expect(loaded.groupAddresses.get(0x0803)?.sizeBits).toBe(8);
+  });
+
+  it("names an unknown device type", () => {
+    const errors = errorsOf(bench({ devices: [{ id: "x-1", type: "toaster", name: "X", individualAddress: "1.1.9" }], links: [] }));
+    expect(errors).toEqual([expect.objectContaining({ kind: "bench.device-type-unknown", path: "devices[0].type", deviceId: "x-1" })]);
+  });
+
+  it("names a duplicate individual address, including the test tool's", () => {
+    const base = bench();
+    const errors = errorsOf({
+      ...base,
+      devices: [...base.devices!, { id: "pb-two", type: "push-button", name: "Second", individualAddress: "1.1.1" }, { id: "pb-three", type: "push-button", name: "Third", individualAddress: "1.1.250" }],
+    });
+    expect(errors.map((e) => [e.kind, e.path, e.deviceId])).toEqual([
+      ["bench.duplicate-individual-address", "devices[2].individualAddress", "pb-two"],
+      ["bench.duplicate-individual-address", "devices[3].individualAddress", "pb-three"],
+    ]);
+    expect(errors[1]!.message).toMatch(/testToolAddress/);
+  });
+
+  it("names an address linked to objects of different sizes", () => {
+    const base = bench();
+    // A 1-bit switch object on an 8-bit 5.001 address (DPT spec: 1.001 is 1 bit, 5.001 one octet).
+    const errors = errorsOf({ ...base, links: [...base.links!, { device: "act-hall", object: 0, groupAddress: "1/0/3" }] });
+    expect(errors).toEqual([
+      expect.objectContaining({ kind: "bench.address-size-mismatch", deviceId: "act-hall", object: 0, groupAddress: "1/0/3" }),
+    ]);
+    expect(errors[0]!.message).toMatch(/1\/0\/3.*5\.001.*1\.001/);
+  });
+
+  it("points at the parameter that does not fit the type", () => {
+    const errors = errorsOf(bench({ devices: [{ id: "act-1", type: "switch-actuator", name: "A", individualAddress: "1.1.5", parameters: { channels: 12 } }], links: [] }));
+    expect(errors[0]).toMatchObject({ kind: "bench.parameters-invalid", path: "devices[0].parameters.channels", deviceId: "act-1" });
+  });
+
+  it("points at links to unknown devices, objects and addresses", () => {
+    const errors = errorsOf(
+      bench({
+        links: [
+          { device: "ghost", object: 0, groupAddress: "1/0/1" },
+          { device: "act-hall", object: 7, groupAddress: "1/0/1" },
+          { device: "act-hall", object: 0, groupAddress: "3/3/3" },
+        ],
+      }),
+    );
+    expect(errors.map((e) => [e.kind, e.path])).toEqual([
+      ["bench.link-device-unknown", "links[0].device"],
+      ["bench.link-address-unknown", "links[2].groupAddress"],
+      ["bench.object-unknown", "links[1].object"],
+    ]);
+  });
+
+  it("refuses a bad address text and names the field", () => {
+    const errors = errorsOf(bench({ groupAddresses: [{ address: "0/0/0", name: "Broadcast", dpt: "1.001" }], links: [] }));
+    // knx-reference.md, Addresses: 0/0/0 is broadcast, not a group.
+    expect(errors[0]).toMatchObject({ kind: "bench.address-invalid", path: "groupAddresses[0].address" });
+  });
+
+  it("refuses a unit-link member that is not on the bench", () => {
+    const errors = errorsOf(bench({ unitLinks: [{ id: "wiring", members: ["pb-hall", "nobody"] }] }));
+    expect(errors[0]).toMatchObject({ kind: "bench.unit-link-member-unknown", path: "unitLinks[0].members[1]" });
+  });
+
+  it("reports schema problems with a JSON path", () => {
+    const errors = errorsOf({ ...bench(), lines: [] });
+    expect(errors[0]).toMatchObject({ kind: "bench.schema", path: "lines" });
+    expect(errorsOf({ ...bench(), devices: [{ id: "Bad Id", type: "push-button", name: "x" }] })[0]).toMatchObject({ path: "devices[0].id" });
+  });
+
+  it("refuses a document without a format, or from a newer version", () => {
+    expect(errorsOf({ name: "x" })[0]!.kind).toBe("bench.format-missing");
+    expect(errorsOf({ ...bench(), format: 99 })[0]!.kind).toBe("bench.format-unsupported");
+    expect(errorsOf([])[0]!.kind).toBe("bench.not-an-object");
+  });
+});
+
+describe("migrateBench", () => {
+  it("walks every step from an older format to the current one", () => {
+    const migrations = {
+      1: (doc: Record<string, unknown>) => ({ ...doc, format: 2, renamed: doc.old }),
+      2: (doc: Record<string, unknown>) => ({ ...doc, format: 3 }),
+    };
+    const result = migrateBench({ format: 1, old: "x" }, migrations, 3);
+    expect(result).toEqual({ ok: true, value: { format: 3, old: "x", renamed: "x" } });
+  });
+
+  it("says so when a step is missing", () => {
+    const result = migrateBench({ format: 1 }, {}, 2);
+    expect(result.ok ? undefined : result.error.kind).toBe("bench.format-unsupported");
+  });
+});
