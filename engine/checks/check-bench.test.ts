@@ -1,0 +1,425 @@
+import { z } from "zod";
+import { beforeAll, describe, expect, it } from "vitest";
+import { benchSchema, type Bench, type BenchInput } from "../bench/bench-schema";
+import { flags, registerDeviceType, type DeviceType } from "../devices";
+import { roomTemperatureSendingSchema } from "../devices/hvac/room-temperature-sending";
+import { wallControllerType } from "../devices/wall-controller/wall-controller";
+import { telegramOccupancyUs } from "../frame";
+import { benchCheckRules, checkBench } from "./check-bench";
+import { estimateLineLoad } from "./line-load";
+import { benchView } from "./bench-view";
+
+// A test-only sensor: one 9.001 status object and the HVAC family's room-temperature sending block.
+const loadSensorType: DeviceType<
+  { sending: z.infer<typeof roomTemperatureSendingSchema>; cyclicS: number },
+  null
+> = {
+  id: "test-load-sensor",
+  label: "Test load sensor",
+  description: "Sends a temperature as configured; used by the line-load check tests.",
+  medium: "knx",
+  parameters: z.object({
+    sending: roomTemperatureSendingSchema.default({
+      mode: "on-change",
+      deltaK: 0.1,
+      minIntervalS: 30,
+      cycleS: 600,
+    }),
+    cyclicS: z.number().default(0),
+  }),
+  groupObjects: () => [
+    { number: 0, name: "Temperature", dpt: "9.001", flags: flags("CRT"), role: "status" },
+  ],
+  buttons: () => [],
+  initialState: () => null,
+  transition: (state) => ({ state, effects: [] }),
+};
+
+beforeAll(() => {
+  registerDeviceType(loadSensorType);
+  registerDeviceType(wallControllerType);
+});
+
+function bench(input: Partial<BenchInput>): Bench {
+  return benchSchema.parse({
+    format: 1,
+    name: "fixture",
+    lines: [{ id: "line-1", address: "1.1", name: "Line 1" }],
+    testToolAddress: "1.1.250",
+    ...input,
+  });
+}
+
+// A button switching an actuator, with the status fed back to the button: nothing to report.
+const lightsOk = {
+  groupAddresses: [
+    { address: "1/0/1", name: "Lights switch", dpt: "1.001" },
+    { address: "1/1/1", name: "Lights status", dpt: "1.001" },
+  ],
+  devices: [
+    {
+      id: "pb-1",
+      type: "push-button",
+      name: "Door button",
+      individualAddress: "1.1.1",
+      parameters: {},
+    },
+    {
+      id: "act-1",
+      type: "switch-actuator",
+      name: "Lights actuator",
+      individualAddress: "1.1.2",
+      parameters: {},
+    },
+  ],
+  links: [
+    { device: "pb-1", object: 0, groupAddress: "1/0/1" },
+    { device: "pb-1", object: 0, groupAddress: "1/1/1" },
+    { device: "act-1", object: 0, groupAddress: "1/0/1" },
+    { device: "act-1", object: 1, groupAddress: "1/1/1" },
+  ],
+};
+
+const rulesOf = (b: Bench, rule: string) => checkBench(b, { rules: [rule] });
+
+describe("checkBench", () => {
+  it("finds nothing on a correctly wired bench", () => {
+    expect(checkBench(bench(lightsOk))).toEqual([]);
+  });
+
+  it("has a rule for each id, each with a title", () => {
+    const ids = benchCheckRules.map((rule) => rule.id);
+    expect(new Set(ids).size).toBe(ids.length);
+    for (const id of [
+      "address.mixed-sizes",
+      "address.no-sender",
+      "address.no-listener",
+      "object.status-unlinked",
+      "device.duplicate-individual-address",
+      "unit-link.two-primaries",
+      "gateway.external-temperature-on-secondary",
+      "scene.number-out-of-range",
+      "setpoint.limits-inverted",
+      "line.expected-load",
+    ]) {
+      expect(ids).toContain(id);
+    }
+  });
+
+  describe("address.mixed-sizes", () => {
+    it("fails: a 1-bit switch and a 1-octet value on one address", () => {
+      // DPT spec §1.3.1: 1.001 is 1 bit (in the APCI octet), 5.001 one octet after it.
+      const b = bench({
+        ...lightsOk,
+        devices: [
+          ...lightsOk.devices,
+          {
+            id: "pb-2",
+            type: "push-button",
+            name: "Dim button",
+            individualAddress: "1.1.3",
+            parameters: { channels: [{ function: "value", percent: 50 }] },
+          },
+        ],
+        links: [...lightsOk.links, { device: "pb-2", object: 0, groupAddress: "1/0/1" }],
+      });
+      const findings = rulesOf(b, "address.mixed-sizes");
+      expect(findings).toHaveLength(1);
+      expect(findings[0]).toMatchObject({ severity: "error", location: { groupAddress: "1/0/1" } });
+      expect(findings[0]!.message).toContain(
+        'Dim button (pb-2) object 0 "Value 1" is 5.001 (8 bit)',
+      );
+    });
+    it("passes: all objects on each address are 1 bit", () => {
+      expect(rulesOf(bench(lightsOk), "address.mixed-sizes")).toEqual([]);
+    });
+  });
+
+  describe("address.no-sender", () => {
+    it("fails: the actuator listens on an address nothing sends on", () => {
+      const b = bench({ ...lightsOk, links: lightsOk.links.filter((l) => l.device !== "pb-1") });
+      const findings = rulesOf(b, "address.no-sender");
+      expect(findings.map((f) => f.location.groupAddress)).toEqual(["1/0/1"]);
+      expect(findings[0]!.message).toContain('Lights actuator (act-1) object 0 "Switch 1" listen');
+    });
+    it("passes: the button sends on the actuator's address", () => {
+      expect(rulesOf(bench(lightsOk), "address.no-sender")).toEqual([]);
+    });
+  });
+
+  describe("address.no-listener", () => {
+    it("fails: the button's command reaches no object", () => {
+      const b = bench({
+        ...lightsOk,
+        links: lightsOk.links.filter((l) => !(l.device === "act-1" && l.object === 0)),
+      });
+      const findings = rulesOf(b, "address.no-listener");
+      expect(findings).toContainEqual(
+        expect.objectContaining({ severity: "warning", location: { groupAddress: "1/0/1" } }),
+      );
+    });
+    it("reports a status nobody listens to as info only", () => {
+      const b = bench({
+        ...lightsOk,
+        links: lightsOk.links.filter((l) => !(l.device === "pb-1" && l.groupAddress === "1/1/1")),
+      });
+      expect(rulesOf(b, "address.no-listener")).toEqual([
+        expect.objectContaining({ severity: "info", location: { groupAddress: "1/1/1" } }),
+      ]);
+    });
+    it("passes: both addresses have listeners", () => {
+      expect(rulesOf(bench(lightsOk), "address.no-listener")).toEqual([]);
+    });
+  });
+
+  describe("object.status-unlinked", () => {
+    it("fails: the actuator's status object has no address", () => {
+      const b = bench({
+        ...lightsOk,
+        links: lightsOk.links.filter((l) => !(l.device === "act-1" && l.object === 1)),
+      });
+      expect(rulesOf(b, "object.status-unlinked")).toEqual([
+        expect.objectContaining({ severity: "warning", location: { device: "act-1", object: 1 } }),
+      ]);
+    });
+    it("passes: with status objects turned off there is nothing to link", () => {
+      const devices = [
+        lightsOk.devices[0]!,
+        { ...lightsOk.devices[1]!, parameters: { statusObjects: false } },
+      ];
+      const b = bench({
+        ...lightsOk,
+        devices,
+        links: lightsOk.links.filter((l) => !(l.device === "act-1" && l.object === 1)),
+      });
+      expect(rulesOf(b, "object.status-unlinked")).toEqual([]);
+    });
+  });
+
+  describe("device.duplicate-individual-address", () => {
+    it("fails: two devices on 1.1.2, and a device on the test tool's address", () => {
+      const devices = [
+        { ...lightsOk.devices[0]!, individualAddress: "1.1.250" },
+        lightsOk.devices[1]!,
+        {
+          id: "act-2",
+          type: "switch-actuator",
+          name: "Second actuator",
+          individualAddress: "1.1.2",
+          parameters: {},
+        },
+      ];
+      const findings = rulesOf(
+        bench({ ...lightsOk, devices }),
+        "device.duplicate-individual-address",
+      );
+      expect(findings.map((f) => f.message).sort()).toEqual([
+        "individual address 1.1.2 is used by act-1 and act-2",
+        "individual address 1.1.250 is used by the test tool and pb-1",
+      ]);
+    });
+    it("passes: every address is different", () => {
+      expect(rulesOf(bench(lightsOk), "device.duplicate-individual-address")).toEqual([]);
+    });
+  });
+
+  describe("unit-link.two-primaries", () => {
+    const controllers = (roleB: string) =>
+      bench({
+        devices: [
+          {
+            id: "wc-a",
+            type: "wall-controller",
+            name: "Controller A",
+            parameters: { role: "primary" },
+          },
+          {
+            id: "wc-b",
+            type: "wall-controller",
+            name: "Controller B",
+            parameters: { role: roleB },
+          },
+        ],
+        unitLinks: [{ id: "link-1", name: "Lab unit", members: ["wc-a", "wc-b"] }],
+      });
+    it("fails: both controllers are primary", () => {
+      // Common practice, no published source (knx-reference.md "Trade practice"): one primary per indoor unit.
+      expect(rulesOf(controllers("primary"), "unit-link.two-primaries")).toEqual([
+        expect.objectContaining({
+          severity: "error",
+          location: { unitLink: "link-1", device: "wc-b" },
+        }),
+      ]);
+    });
+    it("counts a controller left at its default role (primary)", () => {
+      const b = bench({
+        devices: [
+          {
+            id: "wc-a",
+            type: "wall-controller",
+            name: "Controller A",
+            parameters: { role: "primary" },
+          },
+          { id: "wc-b", type: "wall-controller", name: "Controller B", parameters: {} },
+        ],
+        unitLinks: [{ id: "link-1", members: ["wc-a", "wc-b"] }],
+      });
+      expect(rulesOf(b, "unit-link.two-primaries")).toHaveLength(1);
+    });
+    it("passes: one primary, one secondary", () => {
+      expect(rulesOf(controllers("secondary"), "unit-link.two-primaries")).toEqual([]);
+    });
+  });
+
+  describe("unit-link.no-primary", () => {
+    it("fails: the only controller is secondary", () => {
+      const b = bench({
+        devices: [
+          {
+            id: "wc-a",
+            type: "wall-controller",
+            name: "Controller A",
+            parameters: { role: "secondary" },
+          },
+          { id: "pb-1", type: "push-button", name: "Button", individualAddress: "1.1.1" },
+        ],
+        unitLinks: [{ id: "link-1", members: ["wc-a", "pb-1"] }],
+      });
+      expect(rulesOf(b, "unit-link.no-primary")).toEqual([
+        expect.objectContaining({ severity: "warning", location: { unitLink: "link-1" } }),
+      ]);
+    });
+  });
+
+  describe("device.unknown-type and device.parameters-invalid", () => {
+    it("fails: a type the catalogue lacks, and a parameter the type refuses", () => {
+      const b = bench({
+        devices: [
+          { id: "x-1", type: "fog-machine", name: "Fog", individualAddress: "1.1.1" },
+          {
+            id: "act-1",
+            type: "switch-actuator",
+            name: "Actuator",
+            individualAddress: "1.1.2",
+            parameters: { channels: 9 },
+          },
+        ],
+      });
+      expect(
+        checkBench(b)
+          .filter((f) => f.severity === "error")
+          .map((f) => [f.rule, f.location]),
+      ).toEqual([
+        ["device.parameters-invalid", { device: "act-1", parameter: "channels" }],
+        ["device.unknown-type", { device: "x-1" }],
+      ]);
+    });
+  });
+
+  describe("scene.number-out-of-range", () => {
+    const sceneButton = (scene: number) =>
+      bench({
+        devices: [
+          {
+            id: "pb-s",
+            type: "push-button",
+            name: "Scene button",
+            individualAddress: "1.1.5",
+            parameters: { channels: [{ function: "scene", scene }] },
+          },
+        ],
+      });
+    it("fails: scene 65 (DPT 17.001 carries scenes 1..64), reported once", () => {
+      const findings = checkBench(sceneButton(65)).filter(
+        (f) => f.location.device === "pb-s" && f.severity === "error",
+      );
+      expect(findings).toEqual([
+        expect.objectContaining({
+          rule: "scene.number-out-of-range",
+          location: { device: "pb-s", parameter: "channels.0.scene" },
+        }),
+      ]);
+    });
+    it("fails: scene 0", () => {
+      expect(rulesOf(sceneButton(0), "scene.number-out-of-range")).toHaveLength(1);
+    });
+    it("passes: scene 64", () => {
+      expect(rulesOf(sceneButton(64), "scene.number-out-of-range")).toEqual([]);
+    });
+  });
+
+  describe("setpoint.limits-inverted", () => {
+    const controller = (minC: number, maxC: number) =>
+      bench({
+        devices: [
+          {
+            id: "wc-a",
+            type: "wall-controller",
+            name: "Controller A",
+            parameters: { setpointMinC: minC, setpointMaxC: maxC },
+          },
+        ],
+      });
+    it("fails: minimum 28 °C above maximum 18 °C, reported once", () => {
+      const findings = checkBench(controller(28, 18)).filter((f) => f.severity === "error");
+      expect(findings).toEqual([
+        expect.objectContaining({
+          rule: "setpoint.limits-inverted",
+          location: { device: "wc-a", parameter: "setpointMinC" },
+        }),
+      ]);
+    });
+    it("passes: 16..30 °C", () => {
+      expect(rulesOf(controller(16, 30), "setpoint.limits-inverted")).toEqual([]);
+    });
+  });
+
+  describe("line.expected-load", () => {
+    const sensors = (count: number, sending: object) =>
+      bench({
+        devices: Array.from({ length: count }, (_, i) => ({
+          id: `sensor-${i + 1}`,
+          type: "test-load-sensor",
+          name: `Sensor ${i + 1}`,
+          individualAddress: `1.1.${i + 1}`,
+          parameters: { sending },
+        })),
+      });
+
+    it("computes load from TP1 occupancy: 11-octet frames hold the line 219 bit times", () => {
+      // Basic course: occupancy = 50 idle + 13 per octet + 15 gap + 11 ack bit times; 9.001 is 2 octets -> 11-octet frame.
+      const occupancyUs = telegramOccupancyUs(11);
+      expect(occupancyUs).toBe(Math.round((219 * 1e6) / 9600));
+      const [line] = estimateLineLoad(benchView(sensors(10, { mode: "cyclic", cycleS: 10 })));
+      expect(line!.telegramsPerSecond).toBeCloseTo(1, 9);
+      expect(line!.loadPercent).toBeCloseTo(occupancyUs / 10_000, 9);
+    });
+
+    it("fails: 15 sensors sending on change every second load the line above 30 %", () => {
+      // 15/s × 22.8 ms ≈ 34 %: above the 30 % warning bound, below the 60 % error bound.
+      const findings = rulesOf(
+        sensors(15, { mode: "on-change", minIntervalS: 1 }),
+        "line.expected-load",
+      );
+      expect(findings).toEqual([
+        expect.objectContaining({ severity: "warning", location: { line: "line-1" } }),
+      ]);
+      expect(findings[0]!.message).toContain("15 telegrams/s, about 34.2 %");
+    });
+
+    it("grades above the error bound as an error", () => {
+      const findings = rulesOf(
+        sensors(30, { mode: "on-change-and-cyclic", minIntervalS: 1, cycleS: 10 }),
+        "line.expected-load",
+      );
+      expect(findings[0]!.severity).toBe("error");
+    });
+
+    it("passes: the common 30 s minimum interval keeps 15 sensors near 1 %", () => {
+      // Common practice, no published source: 0.1 K change, at least 30 s apart.
+      expect(
+        rulesOf(sensors(15, { mode: "on-change", minIntervalS: 30 }), "line.expected-load"),
+      ).toEqual([]);
+    });
+  });
+});
