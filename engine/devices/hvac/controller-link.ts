@@ -1,4 +1,4 @@
-import type { DeviceEffect } from "../device-type";
+import type { DeviceEffect, DeviceEvent, TransitionResult } from "../device-type";
 import { linkFaults } from "./fault-ids";
 import { CONTROLLER_ANNOUNCE_PERIOD_US, type ControllerAnnounce, type ControllerRole, type UnitStatus } from "./unit-link-messages";
 
@@ -38,4 +38,31 @@ export function linkFaultEffects(before: readonly string[], status: UnitStatus):
     }
   }
   return { effects, changed };
+}
+
+/**
+ * Runs a controller's transition with its link duties around it: the periodic
+ * announcement timer is answered here, and a role changed in the bench since the
+ * last announcement is announced before the controller's own effects.
+ * `inner` handles "start" itself (and must announce there).
+ */
+export function withRoleAnnouncement<S extends { readonly announcedRole: ControllerRole | null }>(
+  state: S,
+  event: DeviceEvent,
+  role: ControllerRole,
+  controller: ControllerAnnounce["controller"],
+  links: readonly string[],
+  inner: (state: S) => TransitionResult<S>,
+): TransitionResult<S> {
+  if (event.kind === "timer" && event.name === ANNOUNCE_TIMER) {
+    return { state: { ...state, announcedRole: role }, effects: periodicAnnounceEffects(role, controller, links) };
+  }
+  const roleChanged = event.kind !== "start" && state.announcedRole !== null && state.announcedRole !== role;
+  const result = inner(roleChanged ? { ...state, announcedRole: role } : state);
+  if (!roleChanged) return result;
+  return {
+    state: result.state,
+    effects: [...periodicAnnounceEffects(role, controller, links), ...result.effects],
+    transition: result.transition ?? "controller.role-changed",
+  };
 }

@@ -1,5 +1,5 @@
 import type { DeviceContext, DeviceEffect, DeviceEvent, DeviceType, TransitionResult } from "../device-type";
-import { ANNOUNCE_TIMER, linkFaultEffects, periodicAnnounceEffects } from "../hvac/controller-link";
+import { linkFaultEffects, periodicAnnounceEffects, withRoleAnnouncement } from "../hvac/controller-link";
 import { hvacModes, type HvacMode } from "../hvac/hvac-mode";
 import { parseUnitLinkMessage, type ControllerRole, type UnitCommand } from "../hvac/unit-link-messages";
 import { wallControllerParametersSchema, type WallControllerParameters } from "./parameters";
@@ -66,20 +66,18 @@ function receive(state: WallControllerState, raw: unknown, context: Context): Re
 
 function wallControllerTransition(state: WallControllerState, event: DeviceEvent, context: Context): Result {
   const role = context.parameters.role;
-  if (event.kind === "start" || (event.kind === "timer" && event.name === ANNOUNCE_TIMER)) {
-    return { state: { ...state, announcedRole: role }, effects: periodicAnnounceEffects(role, "wall-controller", context.links), ...(event.kind === "start" ? { transition: "controller.started" } : {}) };
-  }
-  // A role edited in the bench goes out before anything else the controller does.
-  const roleChanged = state.announcedRole !== null && state.announcedRole !== role;
-  const current = roleChanged ? { ...state, announcedRole: role } : state;
-  const result =
-    event.kind === "button" && event.action === "press"
-      ? press(current, event.button, context)
-      : event.kind === "link.receive"
-        ? receive(current, event.message, context)
-        : { state: current, effects: [] };
-  if (!roleChanged) return result;
-  return { state: result.state, effects: [...periodicAnnounceEffects(role, "wall-controller", context.links), ...result.effects], transition: result.transition ?? "controller.role-changed" };
+  return withRoleAnnouncement(state, event, role, "wall-controller", context.links, (current) => {
+    switch (event.kind) {
+      case "start":
+        return { state: { ...current, announcedRole: role }, effects: periodicAnnounceEffects(role, "wall-controller", context.links), transition: "controller.started" };
+      case "button":
+        return event.action === "press" ? press(current, event.button, context) : { state: current, effects: [] };
+      case "link.receive":
+        return receive(current, event.message, context);
+      default:
+        return { state: current, effects: [] };
+    }
+  });
 }
 
 /**

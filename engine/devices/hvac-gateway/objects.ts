@@ -1,0 +1,64 @@
+import { flags, type GroupObjectSpec } from "../device-type";
+import type { HvacGatewayParameters } from "./parameters";
+
+/** Group object numbers of the HVAC gateway; stable whatever the parameters, absent when disabled. */
+export const gatewayObjects = {
+  power: 0,
+  powerStatus: 1,
+  setpoint: 2,
+  setpointStatus: 3,
+  mode: 4,
+  modeStatus: 5,
+  heatCool: 6,
+  heatCoolStatus: 7,
+  fan: 8,
+  fanStatus: 9,
+  louvre: 10,
+  louvreStatus: 11,
+  roomTemperature: 12,
+  externalRoomTemperature: 13,
+  scene: 14,
+  sceneControl: 15,
+  windowContact: 16,
+  lock: 17,
+  fault: 18,
+  faultText: 19,
+  modeAuthority: 20,
+} as const;
+
+const O = gatewayObjects;
+
+function command(number: number, name: string, dpt: string): GroupObjectSpec {
+  return { number, name, dpt, flags: flags("CW"), role: "command" };
+}
+
+function status(number: number, name: string, dpt: string): GroupObjectSpec {
+  return { number, name, dpt, flags: flags("CRT"), role: "status" };
+}
+
+function input(number: number, name: string, dpt: string): GroupObjectSpec {
+  // Update and read-on-init: take a sensor's answer to the start-up read as well as its writes.
+  return { number, name, dpt, flags: flags("CWUI"), role: "input" };
+}
+
+/** The gateway's objects for these parameters, in number order. */
+export function gatewayGroupObjects(p: HvacGatewayParameters): GroupObjectSpec[] {
+  const objects: GroupObjectSpec[] = [
+    command(O.power, "Power", "1.001"),
+    status(O.powerStatus, "Power status", "1.001"),
+    command(O.setpoint, "Setpoint", "9.001"),
+    status(O.setpointStatus, "Setpoint status", "9.001"),
+  ];
+  if (p.modeControl === "full") objects.push(command(O.mode, "Mode", "20.105"), status(O.modeStatus, "Mode status", "20.105"));
+  else objects.push(command(O.heatCool, "Heat/cool", "1.100"), status(O.heatCoolStatus, "Heat/cool status", "1.100"));
+  objects.push(command(O.fan, "Fan level", "5.100"), status(O.fanStatus, "Fan level status", "5.100"));
+  if (p.louvre) objects.push(command(O.louvre, "Louvre position", "5.001"), status(O.louvreStatus, "Louvre position status", "5.001"));
+  objects.push(status(O.roomTemperature, "Room temperature", "9.001"));
+  if (p.roomTemperatureSource === "external") objects.push(input(O.externalRoomTemperature, "External room temperature", "9.001"));
+  if (p.scenes.length > 0) objects.push(command(O.scene, "Scene", "17.001"), command(O.sceneControl, "Scene control", "18.001"));
+  if (p.windowContact) objects.push(input(O.windowContact, "Window contact", "1.019"));
+  if (p.lock) objects.push(command(O.lock, "Lock", "1.001"));
+  objects.push(status(O.fault, "Fault", "1.005"), status(O.faultText, "Fault text", "16.000"));
+  if (p.systemType === "multi-split") objects.push(status(O.modeAuthority, "Mode authority", "1.002"));
+  return objects;
+}

@@ -1,0 +1,59 @@
+import { z } from "zod";
+import { hvacModeSchema } from "../hvac/hvac-mode";
+import { roomTemperatureSendingSchema } from "../hvac/room-temperature-sending";
+import { controllerRoleSchema, fanLevelSchema } from "../hvac/unit-link-messages";
+import { refineSetpointLimits } from "../wall-controller/parameters";
+
+/** One scene slot: what a recall of `scene` (1..64, as people count, DPT 17.001) sets on the unit. */
+export const sceneSlotSchema = z.object({
+  scene: z.number().int().min(1, "scene must be 1..64 (DPT 17.001)").max(64, "scene must be 1..64 (DPT 17.001)"),
+  power: z.boolean().default(true),
+  mode: hvacModeSchema.default("auto"),
+  /** 0 = automatic fan, 1..fanLevels fixed. */
+  fanLevel: fanLevelSchema.default(0),
+  setpointC: z.number().min(5).max(40).default(21),
+});
+export type SceneSlot = z.infer<typeof sceneSlotSchema>;
+
+/** Parameters of an HVAC gateway (KNX on one side, an indoor unit's wired link on the other). */
+export const hvacGatewayParametersSchema = z
+  .object({
+    /** The gateway's role among the controllers on the unit link; exactly one primary per indoor unit. */
+    role: controllerRoleSchema.default("primary"),
+    /** Multi-split adds the mode-authority status object. */
+    systemType: z.enum(["single-split", "multi-split"]).default("single-split"),
+    /** Full: mode objects on DPT 20.105. Simplified: heat/cool objects on DPT 1.100 (0 cooling, 1 heating). */
+    modeControl: z.enum(["full", "simplified"]).default("full"),
+    /** Fixed fan levels the unit offers on DPT 5.100 (1..fanLevels). */
+    fanLevels: z.number().int().min(2, "fanLevels must be 2..5").max(5, "fanLevels must be 2..5").default(3),
+    /** Whether fan value 0 selects the automatic fan. */
+    fanAuto: z.boolean().default(true),
+    /** Louvre position objects (DPT 5.001). */
+    louvre: z.boolean().default(false),
+    setpointMinC: z.number().min(5).max(40).default(16),
+    setpointMaxC: z.number().min(5).max(40).default(30),
+    /** The unit's own sensor, or an external KNX value (object 13); only a primary may use "external". */
+    roomTemperatureSource: z.enum(["unit", "external"]).default("unit"),
+    roomTemperatureSending: roomTemperatureSendingSchema.prefault({}),
+    /** Scene slots; the scene objects exist only with at least one slot. */
+    scenes: z.array(sceneSlotSchema).max(16).default([]),
+    /** Window contact input (DPT 1.019): the unit stops while a window is open. */
+    windowContact: z.boolean().default(false),
+    /** Lock input (DPT 1.001, 1 = locked): KNX commands are refused while locked. */
+    lock: z.boolean().default(false),
+  })
+  .superRefine((value, context) => {
+    refineSetpointLimits(value, context);
+    const seen = new Set<number>();
+    value.scenes.forEach((slot, index) => {
+      if (seen.has(slot.scene)) context.addIssue({ code: "custom", path: ["scenes", index, "scene"], message: `scene ${slot.scene} has two slots` });
+      seen.add(slot.scene);
+      if (slot.fanLevel > value.fanLevels) {
+        context.addIssue({ code: "custom", path: ["scenes", index, "fanLevel"], message: `fanLevel ${slot.fanLevel} is above fanLevels (${value.fanLevels})` });
+      }
+      if (slot.fanLevel === 0 && !value.fanAuto) {
+        context.addIssue({ code: "custom", path: ["scenes", index, "fanLevel"], message: "fanLevel 0 (automatic) needs fanAuto" });
+      }
+    });
+  });
+export type HvacGatewayParameters = z.infer<typeof hvacGatewayParametersSchema>;

@@ -1,0 +1,30 @@
+import type { HvacMode } from "../hvac/hvac-mode";
+import type { RoomTemperatureSenderState } from "../hvac/room-temperature-sending";
+import type { ControllerRole, UnitStatus } from "../hvac/unit-link-messages";
+
+/** The functions whose status a command asks for; the next unit status sends them even when unchanged. */
+export type GatewayFunction = "power" | "setpoint" | "mode" | "fan" | "louvre";
+
+/** What a scene slot sets, as learned from the unit. */
+export interface LearnedScene {
+  readonly power: boolean;
+  readonly mode: HvacMode;
+  readonly fanLevel: number;
+  readonly setpointC: number;
+}
+
+export interface HvacGatewayState {
+  readonly announcedRole: ControllerRole | null;
+  /** The unit's last status; null until it first reports. */
+  readonly unit: UnitStatus | null;
+  readonly pendingStatus: readonly GatewayFunction[];
+  readonly locked: boolean;
+  readonly windowOpen: boolean;
+  /** Power to restore when the window closes (updated by power commands while it is open). */
+  readonly powerAfterWindow: boolean;
+  /** Scenes learned by DPT 18.001, keyed by scene number 1..64; they override the parameter slots. */
+  readonly learnedScenes: Readonly<Record<number, LearnedScene>>;
+  /** Faults the gateway reports on its fault objects. */
+  readonly faults: readonly string[];
+  readonly roomSender: RoomTemperatureSenderState;
+}
