@@ -3,6 +3,7 @@ import { beforeAll, describe, expect, it } from "vitest";
 import { benchSchema, type Bench, type BenchInput } from "../bench/bench-schema";
 import { flags, registerDeviceType, type DeviceType } from "../devices";
 import { roomTemperatureSendingSchema } from "../devices/hvac/room-temperature-sending";
+import { hvacGatewayType } from "../devices/hvac-gateway/hvac-gateway";
 import { wallControllerType } from "../devices/wall-controller/wall-controller";
 import { telegramOccupancyUs } from "../frame";
 import { benchCheckRules, checkBench } from "./check-bench";
@@ -37,7 +38,9 @@ const loadSensorType: DeviceType<
 
 beforeAll(() => {
   registerDeviceType(loadSensorType);
+  // Registering the same type object twice is allowed, so this stays right once the catalogue lists them.
   registerDeviceType(wallControllerType);
+  registerDeviceType(hvacGatewayType);
 });
 
 function bench(input: Partial<BenchInput>): Bench {
@@ -271,6 +274,33 @@ describe("checkBench", () => {
     });
   });
 
+  describe("gateway.external-temperature-on-secondary", () => {
+    const gateway = (role: string) =>
+      bench({
+        devices: [
+          {
+            id: "gw-1",
+            type: "hvac-gateway",
+            name: "Gateway",
+            individualAddress: "1.1.20",
+            parameters: { role, roomTemperatureSource: "external" },
+          },
+        ],
+      });
+    it("fails: a secondary gateway takes the room temperature from KNX", () => {
+      // Common practice, no published source (knx-reference.md "Trade practice"): only the primary may.
+      expect(rulesOf(gateway("secondary"), "gateway.external-temperature-on-secondary")).toEqual([
+        expect.objectContaining({
+          severity: "error",
+          location: { device: "gw-1", parameter: "roomTemperatureSource" },
+        }),
+      ]);
+    });
+    it("passes: the primary gateway takes it", () => {
+      expect(rulesOf(gateway("primary"), "gateway.external-temperature-on-secondary")).toEqual([]);
+    });
+  });
+
   describe("unit-link.no-primary", () => {
     it("fails: the only controller is secondary", () => {
       const b = bench({
@@ -346,6 +376,37 @@ describe("checkBench", () => {
     it("passes: scene 64", () => {
       expect(rulesOf(sceneButton(64), "scene.number-out-of-range")).toEqual([]);
     });
+  });
+
+  it("scene.number-out-of-range: finds a gateway scene slot's number", () => {
+    const b = bench({
+      devices: [
+        {
+          id: "gw-1",
+          type: "hvac-gateway",
+          name: "Gateway",
+          individualAddress: "1.1.20",
+          parameters: { scenes: [{ scene: 2 }, { scene: 70 }] },
+        },
+      ],
+    });
+    expect(
+      checkBench(b)
+        .filter((f) => f.severity === "error")
+        .map((f) => [f.rule, f.location.parameter]),
+    ).toEqual([["scene.number-out-of-range", "scenes.1.scene"]]);
+  });
+
+  it("line.expected-load: counts a gateway's room-temperature sending with its defaults", () => {
+    // Defaults: on change, at most every 30 s -> 1/30 telegram/s of 11 octets.
+    const b = bench({
+      devices: [{ id: "gw-1", type: "hvac-gateway", name: "Gateway", individualAddress: "1.1.20" }],
+    });
+    const [line] = estimateLineLoad(benchView(b));
+    expect(line!.telegramsPerSecond).toBeCloseTo(1 / 30, 9);
+    expect(line!.contributions.map((c) => c.parameter)).toEqual([
+      "roomTemperatureSending.minIntervalS",
+    ]);
   });
 
   describe("setpoint.limits-inverted", () => {
