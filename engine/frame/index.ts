@@ -16,3 +16,16 @@ export {
   MIN_TP1_FRAME_OCTETS,
 } from "./tp1-frame";
 export * from "./timing";
+export {
+  CEMI_MESSAGE_CODES,
+  decodeCemi,
+  encodeCemi,
+  type CemiLData,
+  type CemiLDataInput,
+  type CemiMessageCode,
+} from "./cemi";
+export {
+  describeTelegram,
+  type DescribeTelegramOptions,
+  type TelegramDescription,
+} from "./describe-telegram";
