@@ -94,6 +94,14 @@ describe("home page in headless Chromium", () => {
     expect(documentHeaders["x-powered-by"]).toBeUndefined();
   });
 
+  it("reaches the migrated database from the server", async () => {
+    const response = await fetch(`${baseURL}/api/health`);
+    expect(response.status).toBe(200);
+    const body = (await response.json()) as { ok: boolean; migrations: number };
+    expect(body.ok).toBe(true);
+    expect(body.migrations).toBeGreaterThan(0);
+  });
+
   it("logs no console errors", () => {
     expect(consoleErrors).toEqual([]);
   });
