@@ -59,9 +59,12 @@ function reassert(state: HvacGatewayState, fns: readonly GatewayFunction[], cont
     .map((entry) => ({ kind: "group.send", object: entry.object, service: "write", value: entry.value }));
 }
 
-function roomEffects(step: SenderStep): DeviceEffect[] {
+function roomEffects(step: SenderStep, context: Context): DeviceEffect[] {
   const effects: DeviceEffect[] = [];
+  const sending = context.parameters.roomTemperatureSending;
   if (step.sendC !== null) effects.push({ kind: "group.send", object: O.roomTemperature, service: "write", value: step.sendC });
+  // Every send restarts the cycle, so cyclic and on-change sends keep the minimum interval apart.
+  if (step.sendC !== null && sendsCyclically(sending)) effects.push({ kind: "timer.set", name: ROOM_CYCLE_TIMER, delayUs: cycleUs(sending) });
   if (step.timerDelayUs !== null) effects.push({ kind: "timer.set", name: ROOM_SEND_TIMER, delayUs: step.timerDelayUs });
   return effects;
 }
@@ -94,7 +97,7 @@ function onUnitStatus(state: HvacGatewayState, unit: UnitStatus, context: Contex
   } else {
     const step = sampleRoomTemperature(roomSender, unit.roomC, context.nowUs, p.roomTemperatureSending);
     roomSender = step.state;
-    effects.push(...roomEffects(step));
+    effects.push(...roomEffects(step, context));
   }
   const faults = linkFaultEffects(state.faults, unit);
   effects.push(...faults.effects);
@@ -225,12 +228,13 @@ function onTimer(state: HvacGatewayState, name: string, context: Context): Resul
   const sending = context.parameters.roomTemperatureSending;
   if (name === ROOM_SEND_TIMER) {
     const step = sendDueRoomTemperature(state.roomSender, context.nowUs, sending);
-    return { state: { ...state, roomSender: step.state }, effects: roomEffects(step), ...(step.sendC !== null ? { transition: "room.temperature-sent" } : {}) };
+    return { state: { ...state, roomSender: step.state }, effects: roomEffects(step, context), ...(step.sendC !== null ? { transition: "room.temperature-sent" } : {}) };
   }
   if (name === ROOM_CYCLE_TIMER) {
     const step = sendCyclicRoomTemperature(state.roomSender, context.nowUs);
-    const again: DeviceEffect = { kind: "timer.set", name: ROOM_CYCLE_TIMER, delayUs: cycleUs(sending) };
-    return { state: { ...state, roomSender: step.state }, effects: [...roomEffects(step), again], ...(step.sendC !== null ? { transition: "room.temperature-sent" } : {}) };
+    // Nothing to send yet (no reading): try again after a cycle; a send restarts the timer itself.
+    const again: DeviceEffect[] = step.sendC === null ? [{ kind: "timer.set", name: ROOM_CYCLE_TIMER, delayUs: cycleUs(sending) }] : [];
+    return { state: { ...state, roomSender: step.state }, effects: [...roomEffects(step, context), ...again], ...(step.sendC !== null ? { transition: "room.temperature-sent" } : {}) };
   }
   return { state, effects: [] };
 }

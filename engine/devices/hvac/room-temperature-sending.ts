@@ -11,7 +11,7 @@ export const roomTemperatureSendingSchema = z.object({
   deltaK: z.number().min(0.01, "deltaK must be at least 0.01 K (the DPT 9.001 resolution)").max(10).default(0.1),
   /** Minimum time between two on-change sends, seconds. */
   minIntervalS: z.number().min(0).max(3600).default(30),
-  /** Period of cyclic sending, seconds. */
+  /** Longest silence with cyclic sending, seconds: every send (cyclic or on change) restarts the cycle. */
   cycleS: z.number().min(10, "cycleS must be at least 10 s").max(86_400).default(600),
 });
 export type RoomTemperatureSending = z.infer<typeof roomTemperatureSendingSchema>;
@@ -89,7 +89,11 @@ export function sendCyclicRoomTemperature(state: RoomTemperatureSenderState, now
   return sendNow(state, state.currentC, nowUs);
 }
 
-/** Cycle period in virtual microseconds. */
+/**
+ * Cycle period in virtual microseconds. Devices restart the cycle timer after
+ * every send, so with a cycle no shorter than the minimum interval no two sends
+ * come closer than the interval.
+ */
 export function cycleUs(config: RoomTemperatureSending): number {
   return Math.round(config.cycleS * US_PER_S);
 }
