@@ -89,3 +89,23 @@ describe("Scheduler", () => {
     );
   });
 });
+
+describe("Scheduler handlers", () => {
+  it("dispatches events to the handler registered for their tag, including ones scheduled meanwhile", () => {
+    const s = new Scheduler();
+    const seen: string[] = [];
+    const ping = s.register((arg) => {
+      seen.push(`ping ${arg}@${s.nowUs}`);
+      if (arg < 3) s.schedule(s.nowUs + 10, pong, arg + 1);
+    });
+    const pong = s.register((arg) => {
+      seen.push(`pong ${arg}@${s.nowUs}`);
+      s.schedule(s.nowUs, ping, arg);
+    });
+    s.schedule(0, ping, 0);
+    expect(s.run(25)).toBe(5);
+    expect(seen).toEqual(["ping 0@0", "pong 1@10", "ping 1@10", "pong 2@20", "ping 2@20"]);
+    expect(s.runOne()).toBe(true);
+    expect(seen.at(-1)).toBe("pong 3@30");
+  });
+});

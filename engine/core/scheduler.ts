@@ -13,7 +13,12 @@
  * to do, an integer `arg` (usually an index into the caller's tables) and an
  * optional object `payload`. Cancellation is left to callers (generation
  * counters), which is cheaper than removing from the middle of a heap.
+ *
+ * Owners of events (a line, the device runtime) `register` a handler and get
+ * the tag to schedule with; `run` and `runOne` dispatch each event to it.
  */
+export type EventHandler = (arg: number, payload: unknown) => void;
+
 export class Scheduler {
   /** Virtual time now, integer microseconds. */
   nowUs = 0;
@@ -33,6 +38,7 @@ export class Scheduler {
   private freeSlots: Int32Array;
   private freeCount: number;
   private seq = 0;
+  private readonly handlers: EventHandler[] = [];
 
   constructor(initialCapacity = 256) {
     const capacity = Math.max(16, initialCapacity);
@@ -45,6 +51,34 @@ export class Scheduler {
     this.freeSlots = new Int32Array(capacity);
     for (let i = 0; i < capacity; i++) this.freeSlots[i] = capacity - 1 - i;
     this.freeCount = capacity;
+  }
+
+  /** Registers a handler and returns the tag that routes events to it. */
+  register(handler: EventHandler): number {
+    this.handlers.push(handler);
+    return this.handlers.length - 1;
+  }
+
+  /** Takes and dispatches one event due at or before `limitUs`; false when there is none. */
+  runOne(limitUs = Infinity): boolean {
+    if (!this.next(limitUs)) return false;
+    const handler = this.handlers[this.firedTag];
+    if (handler === undefined) throw new Error(`Scheduler: no handler registered for tag ${this.firedTag}`);
+    handler(this.firedArg, this.firedPayload);
+    return true;
+  }
+
+  /** Dispatches every event due at or before `limitUs` (including ones scheduled meanwhile); returns how many. */
+  run(limitUs: number): number {
+    let count = 0;
+    const handlers = this.handlers;
+    while (this.next(limitUs)) {
+      const handler = handlers[this.firedTag];
+      if (handler === undefined) throw new Error(`Scheduler: no handler registered for tag ${this.firedTag}`);
+      handler(this.firedArg, this.firedPayload);
+      count++;
+    }
+    return count;
   }
 
   /** Number of events waiting. */

@@ -1,0 +1,14 @@
+export {
+  BUS_FAULTS,
+  BenchLoadFailure,
+  DEFAULT_GROUP_PRIORITY,
+  Simulation,
+  TEST_TOOL_SENDER,
+  UNIT_LINK_BROKEN,
+  UNIT_LINK_DELAY_US,
+  createSimulation,
+  tryCreateSimulation,
+  type SendOptions,
+  type SimulationOptions,
+} from "./simulation";
+export type { SimError } from "./sim-error";
