@@ -5,12 +5,14 @@ import { parseGroupAddress } from "../address";
 /**
  * Benchline's scenario document, `format: 1`.
  *
- * A scenario names a bench and lists steps in virtual time. Action steps (write,
- * read, press, set-input, wait, set-parameter, inject-fault, clear-fault) each
- * move the scenario's anchor to the virtual time at which they finish. Expect
- * steps never move the anchor: every window an expectation names ("within",
- * "for", "over") starts at the anchor, so several expectations after one command
- * all measure from that command.
+ * A scenario names a bench and lists steps in virtual time. The bench first runs
+ * for `settle` so devices finish starting up; that instant is the first anchor.
+ * Action steps (write, read, press, set-input, set-parameter, inject-fault,
+ * clear-fault) happen at the current virtual time and move the anchor there.
+ * Expect steps never move the anchor: every window an expectation names
+ * ("within", "for", "over") starts at the anchor, so several expectations after
+ * one command all measure from that command. `wait` also counts from the anchor
+ * and moves it: "wait 30s" means 30 s after the last action (or the last wait).
  *
  * The document keeps durations as the text a person wrote ("500ms"); the runner
  * converts them with `parseDuration`, which this schema has already checked.
@@ -253,6 +255,8 @@ export const scenarioSchema = z
     bench: benchReferenceSchema,
     /** Seed of the run's random generator; the same seed gives the same trace. */
     seed: z.number().int().nonnegative().default(1),
+    /** Virtual time the bench runs before the first step (start-up announcements, read-on-init). */
+    settle: durationTextSchema.default("1s"),
     /**
      * A fault-finding exercise: the scenario is written to fail on the bench as
      * shipped, and counts as passing when it fails (and failing when it passes).

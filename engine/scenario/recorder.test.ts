@@ -1,0 +1,80 @@
+import { describe, expect, it } from "vitest";
+import { parseScenario } from "./parse-scenario";
+import { recordScenario, replyWindowUs, type RecordedAction } from "./recorder";
+
+describe("recordScenario", () => {
+  const actions: RecordedAction[] = [
+    {
+      action: { kind: "write", atUs: 1_000_000, groupAddress: "2/0/2", value: 23.5 },
+      observed: [
+        // The console's own write is the action itself, not a reply.
+        { atUs: 1_000_000, groupAddress: "2/0/2", service: "write", value: 23.5 },
+        {
+          atUs: 1_080_000,
+          groupAddress: "2/1/2",
+          service: "write",
+          value: 23.5,
+          device: "gw-front",
+        },
+        {
+          atUs: 1_090_000,
+          groupAddress: "2/1/2",
+          service: "write",
+          value: 23.5,
+          device: "gw-front",
+        },
+      ],
+    },
+    {
+      action: { kind: "read", atUs: 31_000_000, groupAddress: "2/1/1" },
+      observed: [
+        { atUs: 31_000_000, groupAddress: "2/1/1", service: "read" },
+        {
+          atUs: 31_050_000,
+          groupAddress: "2/1/1",
+          service: "response",
+          value: false,
+          device: "gw-front",
+        },
+      ],
+    },
+    {
+      action: { kind: "press", atUs: 32_000_000, device: "pb-door", button: "channel-1" },
+      observed: [],
+    },
+  ];
+
+  it("replays the actions with waits between them and expects each first reply", () => {
+    const draft = recordScenario(actions, {
+      name: "Recorded",
+      bench: { path: "../benches/lab.bench.json" },
+    });
+    expect(draft.settle).toBe("1s");
+    expect(draft.steps).toEqual([
+      { kind: "write", groupAddress: "2/0/2", value: 23.5 },
+      { kind: "expect-value", groupAddress: "2/1/2", value: 23.5, within: "500ms" },
+      { kind: "wait", for: "30s" },
+      { kind: "read", groupAddress: "2/1/1" },
+      { kind: "expect-response", groupAddress: "2/1/1", value: false, within: "500ms" },
+      { kind: "wait", for: "1s" },
+      { kind: "press", device: "pb-door", button: "channel-1" },
+    ]);
+  });
+
+  it("produces a document the scenario schema accepts", () => {
+    const draft = recordScenario(actions, {
+      name: "Recorded",
+      bench: { name: "Fernhill Training Centre" },
+      seed: 4,
+    });
+    const parsed = parseScenario(draft);
+    expect(parsed.ok).toBe(true);
+  });
+
+  it("rounds reply windows up to readable durations with room to spare", () => {
+    expect(replyWindowUs(80_000)).toBe(500_000);
+    expect(replyWindowUs(400_000)).toBe(1_000_000);
+    expect(replyWindowUs(25_000_000)).toBe(60_000_000);
+    expect(replyWindowUs(3_000_000_000)).toBe(4_500_000_000);
+  });
+});
