@@ -1,0 +1,137 @@
+import { DPT9_INVALID } from "../../dpt/dpt9";
+import { flags, type DeviceContext, type DeviceEffect, type DeviceEvent, type DeviceType, type TransitionResult } from "../device-type";
+import {
+  cycleUs,
+  initialSenderState,
+  sampleRoomTemperature,
+  sendCyclicRoomTemperature,
+  sendDueRoomTemperature,
+  sendsCyclically,
+  type RoomTemperatureSenderState,
+  type SenderStep,
+} from "../hvac/room-temperature-sending";
+import { roomTemperatureSensorParametersSchema, type RoomTemperatureSensorParameters } from "./parameters";
+
+export interface RoomTemperatureSensorState {
+  /** The modelled room temperature (room-model source), °C. */
+  readonly modelC: number;
+  /** A value set from outside (input "temperature"); overrides the source until set to null. */
+  readonly overrideC: number | null;
+  readonly lastSampleUs: number;
+  readonly sender: RoomTemperatureSenderState;
+  /** Injected fault "sensor.open": the sensor sends DPT 9 invalid data. */
+  readonly open: boolean;
+}
+
+/** The sensor's only group object: temperature, DPT 9.001. */
+export const ROOM_TEMPERATURE_OBJECT = 0;
+
+const SAMPLE_TIMER = "sensor.sample";
+const SEND_TIMER = "sensor.send-due";
+const CYCLE_TIMER = "sensor.cycle";
+const US_PER_S = 1_000_000;
+
+type Context = DeviceContext<RoomTemperatureSensorParameters>;
+type Result = TransitionResult<RoomTemperatureSensorState>;
+
+/** The profile's value at `tS` seconds: linear between points, flat outside, repeating if asked. */
+export function profileValueC(p: RoomTemperatureSensorParameters, tS: number): number {
+  const points = p.profile;
+  const first = points[0];
+  if (first === undefined) return p.initialC;
+  const t = p.profileRepeatS > 0 ? tS % p.profileRepeatS : tS;
+  if (t <= first.atS) return first.valueC;
+  for (let i = 1; i < points.length; i++) {
+    const a = points[i - 1];
+    const b = points[i];
+    if (a !== undefined && b !== undefined && t <= b.atS) return a.valueC + ((b.valueC - a.valueC) * (t - a.atS)) / (b.atS - a.atS);
+  }
+  return points[points.length - 1]?.valueC ?? p.initialC;
+}
+
+function measuredC(state: RoomTemperatureSensorState, context: Context): number {
+  const p = context.parameters;
+  const trueC = state.overrideC ?? (p.source === "profile" ? profileValueC(p, context.nowUs / US_PER_S) : state.modelC);
+  return trueC + p.offsetK;
+}
+
+function senderEffects(step: SenderStep, context: Context): DeviceEffect[] {
+  const sending = context.parameters.sending;
+  const effects: DeviceEffect[] = [];
+  if (step.sendC !== null) {
+    effects.push({ kind: "group.send", object: ROOM_TEMPERATURE_OBJECT, service: "write", value: step.sendC });
+    // Every send restarts the cycle (see room-temperature-sending.ts).
+    if (sendsCyclically(sending)) effects.push({ kind: "timer.set", name: CYCLE_TIMER, delayUs: cycleUs(sending) });
+  }
+  if (step.timerDelayUs !== null) effects.push({ kind: "timer.set", name: SEND_TIMER, delayUs: step.timerDelayUs });
+  return effects;
+}
+
+function sample(state: RoomTemperatureSensorState, context: Context): Result {
+  const p = context.parameters;
+  const dtS = (context.nowUs - state.lastSampleUs) / US_PER_S;
+  // Newton's law of cooling, exact step (any heat-transfer handbook).
+  const modelC = p.outdoorC + (state.modelC - p.outdoorC) * Math.exp(-dtS / p.timeConstantS);
+  const next = { ...state, modelC, lastSampleUs: context.nowUs };
+  if (next.open) return { state: next, effects: [] };
+  const valueC = measuredC(next, context);
+  const step = sampleRoomTemperature(next.sender, valueC, context.nowUs, p.sending);
+  const effects = senderEffects(step, context);
+  if (step.sendC === null) effects.push({ kind: "object.store", object: ROOM_TEMPERATURE_OBJECT, value: Math.round(valueC * 100) / 100 });
+  return { state: { ...next, sender: step.state }, effects, ...(step.sendC !== null ? { transition: "temperature.sent" } : {}) };
+}
+
+function roomTemperatureSensorTransition(state: RoomTemperatureSensorState, event: DeviceEvent, context: Context): Result {
+  const p = context.parameters;
+  const sampleTimer: DeviceEffect = { kind: "timer.set", name: SAMPLE_TIMER, delayUs: Math.round(p.sampleS * US_PER_S) };
+  switch (event.kind) {
+    case "start": {
+      const first = sample({ ...state, lastSampleUs: context.nowUs }, context);
+      const cycle: DeviceEffect[] = sendsCyclically(p.sending) ? [{ kind: "timer.set", name: CYCLE_TIMER, delayUs: cycleUs(p.sending) }] : [];
+      return { ...first, effects: [...cycle, ...first.effects, sampleTimer] };
+    }
+    case "timer": {
+      if (event.name === SAMPLE_TIMER) {
+        const sampled = sample(state, context);
+        return { ...sampled, effects: [...sampled.effects, sampleTimer] };
+      }
+      if (state.open) return { state, effects: [] };
+      const step = event.name === SEND_TIMER ? sendDueRoomTemperature(state.sender, context.nowUs, p.sending) : event.name === CYCLE_TIMER ? sendCyclicRoomTemperature(state.sender, context.nowUs) : null;
+      if (step === null) return { state, effects: [] };
+      return { state: { ...state, sender: step.state }, effects: senderEffects(step, context), ...(step.sendC !== null ? { transition: "temperature.sent" } : {}) };
+    }
+    case "input": {
+      if (event.input !== "temperature") return { state, effects: [] };
+      const overrideC = typeof event.value === "number" ? event.value : null;
+      const sampled = sample({ ...state, overrideC }, context);
+      return { ...sampled, transition: sampled.transition ?? "temperature.set" };
+    }
+    case "fault.inject":
+    case "fault.clear": {
+      if (event.fault !== "sensor.open") return { state, effects: [] };
+      const open = event.kind === "fault.inject";
+      if (!open) return { ...sample({ ...state, open: false, sender: initialSenderState }, context), transition: "sensor.restored" };
+      // DPT spec §3.10: 0x7FFF "invalid data".
+      return { state: { ...state, open: true }, effects: [{ kind: "group.send", object: ROOM_TEMPERATURE_OBJECT, service: "write", value: DPT9_INVALID }], transition: "sensor.open" };
+    }
+    default:
+      return { state, effects: [] };
+  }
+}
+
+/**
+ * KNX room temperature sensor (DPT 9.001): measures every `sampleS` a modelled
+ * room (Newton's law of cooling toward `outdoorC`) or a profile over time, and
+ * sends on change, cyclically, or both. Input "temperature" overrides the value.
+ */
+export const roomTemperatureSensorType: DeviceType<RoomTemperatureSensorParameters, RoomTemperatureSensorState> = {
+  id: "room-temperature-sensor",
+  label: "Room temperature sensor",
+  description: "Room temperature (DPT 9.001) from a room model or a profile, sent on change and/or cyclically.",
+  medium: "knx",
+  parameters: roomTemperatureSensorParametersSchema,
+  groupObjects: () => [{ number: ROOM_TEMPERATURE_OBJECT, name: "Room temperature", dpt: "9.001", flags: flags("CRT"), role: "output" }],
+  buttons: () => [],
+  initialState: (p) => ({ modelC: p.initialC, overrideC: null, lastSampleUs: 0, sender: initialSenderState, open: false }),
+  transition: roomTemperatureSensorTransition,
+};
