@@ -3,7 +3,17 @@ import nextTs from "eslint-config-next/typescript";
 
 // The dependency rule of the house style, enforced here so a wrong import fails CI:
 // engine -> zod only; db -> engine; components -> engine (never db); app -> anything.
-const nodeBuiltins = ["node:*", "fs", "path", "os", "crypto", "child_process", "worker_threads", "http", "net"];
+const nodeBuiltins = [
+  "node:*",
+  "fs",
+  "path",
+  "os",
+  "crypto",
+  "child_process",
+  "worker_threads",
+  "http",
+  "net",
+];
 
 const config = [
   ...nextVitals,
@@ -17,27 +27,62 @@ const config = [
         "error",
         {
           patterns: [
-            { group: ["react", "react-dom", "next", "next/*", "drizzle-orm", "drizzle-orm/*", "better-sqlite3"], message: "engine/ is pure TypeScript: it depends on zod only." },
-            { group: ["@/app/*", "@/components/*", "@/db/*", "**/app/*", "**/components/*", "**/db/*"], message: "engine/ must not import from app/, components/ or db/." },
-            { group: nodeBuiltins, message: "engine/ runs in the browser and workers: no Node built-ins outside engine/cli/." },
+            {
+              group: [
+                "react",
+                "react-dom",
+                "next",
+                "next/*",
+                "drizzle-orm",
+                "drizzle-orm/*",
+                "better-sqlite3",
+              ],
+              message: "engine/ is pure TypeScript: it depends on zod only.",
+            },
+            {
+              group: [
+                "@/app/*",
+                "@/components/*",
+                "@/db/*",
+                "**/app/*",
+                "**/components/*",
+                "**/db/*",
+              ],
+              message: "engine/ must not import from app/, components/ or db/.",
+            },
+            {
+              group: nodeBuiltins,
+              message:
+                "engine/ runs in the browser and workers: no Node built-ins outside engine/cli/.",
+            },
           ],
         },
       ],
       "no-restricted-globals": [
         "error",
         { name: "setTimeout", message: "engine/ uses the virtual clock, never wall-clock timers." },
-        { name: "setInterval", message: "engine/ uses the virtual clock, never wall-clock timers." },
+        {
+          name: "setInterval",
+          message: "engine/ uses the virtual clock, never wall-clock timers.",
+        },
         { name: "performance", message: "engine/ never reads wall-clock time." },
         { name: "process", message: "engine/ is free of Node globals." },
       ],
       "no-restricted-properties": [
         "error",
-        { object: "Math", property: "random", message: "Use the engine's seeded generator (engine/core/rng)." },
+        {
+          object: "Math",
+          property: "random",
+          message: "Use the engine's seeded generator (engine/core/rng).",
+        },
         { object: "Date", property: "now", message: "engine/ never reads wall-clock time." },
       ],
       "no-restricted-syntax": [
         "error",
-        { selector: "NewExpression[callee.name='Date']", message: "engine/ never reads wall-clock time." },
+        {
+          selector: "NewExpression[callee.name='Date']",
+          message: "engine/ never reads wall-clock time.",
+        },
       ],
     },
   },
@@ -46,7 +91,14 @@ const config = [
     rules: {
       "no-restricted-imports": [
         "error",
-        { patterns: [{ group: ["next", "next/*", "react", "react-dom", "@/app/*", "@/components/*"], message: "db/ runs from a CLI and tests too: no Next, React or UI imports." }] },
+        {
+          patterns: [
+            {
+              group: ["next", "next/*", "react", "react-dom", "@/app/*", "@/components/*"],
+              message: "db/ runs from a CLI and tests too: no Next, React or UI imports.",
+            },
+          ],
+        },
       ],
     },
   },
@@ -55,7 +107,14 @@ const config = [
     rules: {
       "no-restricted-imports": [
         "error",
-        { patterns: [{ group: ["@/db/*", "**/db/*", "better-sqlite3", "drizzle-orm", "drizzle-orm/*"], message: "components/ never reach the database; pages fetch and pass props." }] },
+        {
+          patterns: [
+            {
+              group: ["@/db/*", "**/db/*", "better-sqlite3", "drizzle-orm", "drizzle-orm/*"],
+              message: "components/ never reach the database; pages fetch and pass props.",
+            },
+          ],
+        },
       ],
     },
   },

@@ -14,7 +14,12 @@ export default defineConfig({
         test: {
           name: "node",
           environment: "node",
-          include: ["engine/**/*.test.ts", "db/**/*.test.ts", "app/**/*.test.ts", "test/**/*.test.ts"],
+          include: [
+            "engine/**/*.test.ts",
+            "db/**/*.test.ts",
+            "app/**/*.test.ts",
+            "test/**/*.test.ts",
+          ],
           exclude: ["test/e2e/**", "node_modules/**"],
         },
       },

@@ -3,7 +3,8 @@
  * out-of-range value or a refused request is a `Result` with `ok: false`.
  * Bugs (broken invariants) still throw.
  */
-export type Result<T, E> = { readonly ok: true; readonly value: T } | { readonly ok: false; readonly error: E };
+export type Result<T, E> =
+  { readonly ok: true; readonly value: T } | { readonly ok: false; readonly error: E };
 
 export function ok<T>(value: T): { readonly ok: true; readonly value: T } {
   return { ok: true, value };

@@ -54,17 +54,36 @@ export type DeviceEvent =
   /** The simulation started; read-on-init reads are issued by the runtime. */
   | { readonly kind: "start" }
   /** A GroupValue_Write reached an object with the write flag; the runtime already stored the value. */
-  | { readonly kind: "group.write"; readonly object: number; readonly value: unknown; readonly source: number }
+  | {
+      readonly kind: "group.write";
+      readonly object: number;
+      readonly value: unknown;
+      readonly source: number;
+    }
   /** A GroupValue_Response reached an object with the update flag; the runtime already stored the value. */
-  | { readonly kind: "group.response"; readonly object: number; readonly value: unknown; readonly source: number }
+  | {
+      readonly kind: "group.response";
+      readonly object: number;
+      readonly value: unknown;
+      readonly source: number;
+    }
   /** A timer this device set has expired. */
   | { readonly kind: "timer"; readonly name: string; readonly data?: unknown }
   /** A person pressed (or released) one of the device's local buttons. */
-  | { readonly kind: "button"; readonly button: string; readonly action: "press" | "release" | "long-press" }
+  | {
+      readonly kind: "button";
+      readonly button: string;
+      readonly action: "press" | "release" | "long-press";
+    }
   /** A local input changed that is not a button (e.g. a window opened, presence seen). */
   | { readonly kind: "input"; readonly input: string; readonly value: unknown }
   /** A message from another member of a unit link (HVAC wiring, not KNX). */
-  | { readonly kind: "link.receive"; readonly link: string; readonly from: string; readonly message: unknown }
+  | {
+      readonly kind: "link.receive";
+      readonly link: string;
+      readonly from: string;
+      readonly message: unknown;
+    }
   /** A fault was injected into or cleared from this device from outside. */
   | { readonly kind: "fault.inject"; readonly fault: FaultId }
   | { readonly kind: "fault.clear"; readonly fault: FaultId };
@@ -72,13 +91,23 @@ export type DeviceEvent =
 /** What a transition asks the runtime to do. */
 export type DeviceEffect =
   /** Send the object's value on its sending address: write (or response to a read). Also stores the value. */
-  | { readonly kind: "group.send"; readonly object: number; readonly service: "write" | "response"; readonly value: unknown }
+  | {
+      readonly kind: "group.send";
+      readonly object: number;
+      readonly service: "write" | "response";
+      readonly value: unknown;
+    }
   /** Send a GroupValue_Read on the object's sending address. */
   | { readonly kind: "group.read"; readonly object: number }
   /** Store a new object value without sending (e.g. a status that only answers reads). */
   | { readonly kind: "object.store"; readonly object: number; readonly value: unknown }
   /** Set (or replace) a named timer. */
-  | { readonly kind: "timer.set"; readonly name: string; readonly delayUs: number; readonly data?: unknown }
+  | {
+      readonly kind: "timer.set";
+      readonly name: string;
+      readonly delayUs: number;
+      readonly data?: unknown;
+    }
   | { readonly kind: "timer.cancel"; readonly name: string }
   /** Send a message to the other members of a unit link this device belongs to. */
   | { readonly kind: "link.send"; readonly link: string; readonly message: unknown }
