@@ -1,0 +1,141 @@
+import { randomBytes } from "node:crypto";
+import { existsSync, mkdirSync, readFileSync, writeFileSync } from "node:fs";
+import path from "node:path";
+
+/**
+ * Server configuration read from the environment. Every value is read lazily
+ * (a function call at request time), never at import, so `next build` can
+ * evaluate modules without production secrets and tests can set variables
+ * before the first request.
+ *
+ * | variable                | meaning                                                | default                                            |
+ * | ----------------------- | ------------------------------------------------------ | -------------------------------------------------- |
+ * | SESSION_SECRET          | iron-session password, at least 32 characters          | production: none (error); else generated, kept in data/ |
+ * | SESSION_COOKIE_SECURE   | "true" / "false": the cookie's Secure flag             | production: true; else false                        |
+ * | SESSION_COOKIE_NAME     | the cookie's name                                      | "__Host-benchline-session" when secure, else "benchline-session" |
+ * | SESSION_TTL_SECONDS     | how long a sign-in lasts                               | 8 hours                                            |
+ * | APP_URL                 | origin used in e-mailed links and the Origin check     | production: none (error when a link is built); else http://localhost:3000 |
+ * | PASSWORD_HASH_COST      | bcrypt cost for new hashes                             | 12 (production never goes below 12)                |
+ * | SMTP_URL / MAIL_FROM    | nodemailer SMTP transport / sender address             | none: mail is stored in the outbox table           |
+ */
+
+export class ConfigError extends Error {
+  constructor(message: string) {
+    super(message);
+    this.name = "ConfigError";
+  }
+}
+
+export function isProduction(): boolean {
+  return process.env.NODE_ENV === "production";
+}
+
+const minimumSecretLength = 32;
+
+let developmentSecret: string | undefined;
+
+/**
+ * A development secret generated once and kept in data/ (git-ignored), so a dev
+ * server restart does not sign everyone out. Never used in production.
+ */
+function generatedDevelopmentSecret(): string {
+  if (developmentSecret) return developmentSecret;
+  const file = path.resolve(process.env.DEV_SESSION_SECRET_FILE ?? "data/dev-session-secret");
+  if (existsSync(file)) {
+    const stored = readFileSync(file, "utf8").trim();
+    if (stored.length >= minimumSecretLength) return (developmentSecret = stored);
+  }
+  const secret = randomBytes(32).toString("base64url");
+  try {
+    mkdirSync(path.dirname(file), { recursive: true });
+    writeFileSync(file, secret, { mode: 0o600 });
+  } catch {
+    // A read-only checkout still works; sessions just end when the process does.
+  }
+  return (developmentSecret = secret);
+}
+
+/** The password iron-session seals the cookie with. */
+export function sessionSecret(): string {
+  const secret = process.env.SESSION_SECRET;
+  if (secret !== undefined && secret !== "") {
+    if (secret.length < minimumSecretLength) {
+      throw new ConfigError(
+        `SESSION_SECRET is ${secret.length} characters long; it needs at least ${minimumSecretLength} (e.g. \`openssl rand -base64 32\`).`,
+      );
+    }
+    return secret;
+  }
+  if (isProduction()) {
+    throw new ConfigError(
+      "SESSION_SECRET is not set. In production Benchline refuses to start sessions without it: set SESSION_SECRET to a random string of at least 32 characters (e.g. `openssl rand -base64 32`).",
+    );
+  }
+  return generatedDevelopmentSecret();
+}
+
+function booleanFromEnv(name: string, fallback: boolean): boolean {
+  const value = process.env[name]?.trim().toLowerCase();
+  if (value === undefined || value === "") return fallback;
+  if (value === "true" || value === "1") return true;
+  if (value === "false" || value === "0") return false;
+  throw new ConfigError(`${name} must be "true" or "false", not "${process.env[name]}".`);
+}
+
+export interface SessionCookieConfig {
+  readonly name: string;
+  readonly secure: boolean;
+  readonly ttlSeconds: number;
+}
+
+/** Cookie settings: strict in production, overridable so browser tests over plain http work. */
+export function sessionCookieConfig(): SessionCookieConfig {
+  const secure = booleanFromEnv("SESSION_COOKIE_SECURE", isProduction());
+  // The __Host- prefix makes the browser insist on Secure, Path=/ and no Domain,
+  // so only usable when the cookie is secure.
+  const name =
+    process.env.SESSION_COOKIE_NAME?.trim() ||
+    (secure ? "__Host-benchline-session" : "benchline-session");
+  const ttlSeconds = Number(process.env.SESSION_TTL_SECONDS ?? 8 * 60 * 60);
+  if (!Number.isInteger(ttlSeconds) || ttlSeconds < 60) {
+    throw new ConfigError("SESSION_TTL_SECONDS must be a whole number of seconds, at least 60.");
+  }
+  return { name, secure, ttlSeconds };
+}
+
+/** The app's own origin, for links in e-mail. */
+export function appUrl(): string {
+  const value = process.env.APP_URL?.trim();
+  if (value) {
+    try {
+      return new URL(value).origin;
+    } catch {
+      throw new ConfigError(`APP_URL "${value}" is not a URL.`);
+    }
+  }
+  // Links in mail must never be built from a request's Host header (a forged
+  // host would send a reset token to someone else's server), so production
+  // needs it spelled out.
+  if (isProduction()) {
+    throw new ConfigError(
+      "APP_URL is not set. In production the links in invitation and password-reset mail need it, e.g. APP_URL=https://bench.example.",
+    );
+  }
+  return "http://localhost:3000";
+}
+
+/** bcrypt's production cost. */
+export const productionPasswordHashCost = 12;
+
+/**
+ * bcrypt cost for new hashes. Tests may set PASSWORD_HASH_COST lower (bcryptjs
+ * at cost 12 takes a noticeable fraction of a second per hash, which would make
+ * the API suite slow); production ignores any value below 12.
+ */
+export function passwordHashCost(): number {
+  const value = Number(process.env.PASSWORD_HASH_COST ?? productionPasswordHashCost);
+  if (!Number.isInteger(value) || value < 4 || value > 16) {
+    throw new ConfigError("PASSWORD_HASH_COST must be a whole number from 4 to 16.");
+  }
+  return isProduction() ? Math.max(value, productionPasswordHashCost) : value;
+}
