@@ -57,7 +57,15 @@ describe("junitXml", () => {
       step(1, "fail", {
         expected: "true",
         actual: 'false "off"',
-        trace: [{ kind: "telegram.sent" }],
+        trace: [
+          {
+            kind: "user.action",
+            timeUs: 1000,
+            action: "group.write",
+            groupAddress: 0x0901,
+            detail: "write true",
+          },
+        ],
       }),
     ]),
     scenario("errors", [step(0, "error", { message: "unknown device pb-9" }), step(1, "skipped")]),
@@ -100,7 +108,7 @@ describe("junitXml", () => {
     expect(failure.getAttribute("message")).toBe(
       '#1 expect-value 1/1/1 = true @1ms: fail; expected true, got false "off"',
     );
-    expect(failure.textContent).toContain('{"kind":"telegram.sent"}');
+    expect(failure.textContent).toContain("1ms user group.write 1/1/1: write true");
     expect(cases[2]!.getElementsByTagName("error")[0]!.getAttribute("message")).toContain(
       "unknown device pb-9",
     );

@@ -1,10 +1,12 @@
+import type { TraceEvent } from "../core/trace";
+import { describeTraceEvent } from "./describe-trace-event";
 import { formatDuration } from "./duration";
 import type { ScenarioResult, StepResult, SuiteResult } from "./scenario-result";
 
 /** Options for the JUnit report. */
 export interface JunitOptions {
-  /** Renders one trace event as a line; JSON when absent. */
-  readonly describeEvent?: (event: unknown) => string;
+  /** Renders one trace event as a line; `describeTraceEvent` when absent. */
+  readonly describeEvent?: (event: TraceEvent) => string;
 }
 
 // XML 1.0 allows tab, newline, carriage return and printable characters; anything else is dropped.
@@ -33,7 +35,10 @@ export function describeStepResult(step: StepResult): string {
   return head;
 }
 
-function scenarioBody(result: ScenarioResult, describeEvent: (event: unknown) => string): string {
+function scenarioBody(
+  result: ScenarioResult,
+  describeEvent: (event: TraceEvent) => string,
+): string {
   const lines: string[] = [];
   if (result.message) lines.push(result.message);
   lines.push(
@@ -55,7 +60,7 @@ function firstProblem(result: ScenarioResult): StepResult | undefined {
 function testcase(
   result: ScenarioResult,
   classname: string,
-  describeEvent: (event: unknown) => string,
+  describeEvent: (event: TraceEvent) => string,
 ): string {
   const attributes = `name="${escapeXml(result.name)}" classname="${escapeXml(classname)}" time="${seconds(result.wallMs)}"`;
   const body = escapeXml(scenarioBody(result, describeEvent));
@@ -82,7 +87,7 @@ function testcase(
  * gets <error>. An expected-to-fail scenario that failed is a passing testcase.
  */
 export function junitXml(suites: readonly SuiteResult[], options: JunitOptions = {}): string {
-  const describeEvent = options.describeEvent ?? ((event: unknown) => JSON.stringify(event));
+  const describeEvent = options.describeEvent ?? describeTraceEvent;
   const all = suites.flatMap((suite) => suite.scenarios);
   const failures = (results: readonly ScenarioResult[]) =>
     results.filter((r) => r.outcome === "failed" || r.outcome === "unexpected-pass").length;

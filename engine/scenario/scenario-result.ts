@@ -1,3 +1,4 @@
+import type { TraceEvent } from "../core/trace";
 import type { StepKind } from "./scenario-schema";
 
 /**
@@ -25,7 +26,7 @@ export interface StepResult {
   /** For error: why the step could not run. */
   readonly message?: string;
   /** The trace events that explain the verdict (the window the step looked at). */
-  readonly trace: readonly unknown[];
+  readonly trace: readonly TraceEvent[];
 }
 
 /**

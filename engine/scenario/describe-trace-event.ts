@@ -1,0 +1,47 @@
+import { formatGroupAddress, formatIndividualAddress } from "../address";
+import type { TraceEvent } from "../core/trace";
+import { formatDuration } from "./duration";
+
+const SERVICE_NAMES = {
+  GroupValue_Write: "write",
+  GroupValue_Response: "response",
+  GroupValue_Read: "read",
+} as const;
+
+/** One readable line for a trace event, for verdicts, the CLI and JUnit reports. */
+export function describeTraceEvent(event: TraceEvent): string {
+  const at = formatDuration(event.timeUs).padStart(8);
+  switch (event.kind) {
+    case "telegram.queued":
+    case "telegram.sent":
+    case "telegram.acked":
+    case "telegram.repeated":
+    case "telegram.lost": {
+      const from = event.deviceId ?? "test tool";
+      const extra =
+        event.kind === "telegram.sent" && event.repeated
+          ? " (repeated)"
+          : event.kind === "telegram.repeated" || event.kind === "telegram.lost"
+            ? ` (${event.reason})`
+            : "";
+      const payload = event.payloadHex ? ` ${event.payloadHex}` : "";
+      return `${at} ${event.kind} ${formatIndividualAddress(event.source)} (${from}) -> ${formatGroupAddress(event.destination)} ${SERVICE_NAMES[event.service]}${payload}${extra}`;
+    }
+    case "device.transition":
+      return `${at} ${event.deviceId}: ${event.transition} (on ${event.cause})`;
+    case "device.note":
+      return `${at} ${event.deviceId}: ${event.text}`;
+    case "object.changed":
+      return `${at} ${event.deviceId} object ${event.object} = ${JSON.stringify(event.value)} (${event.cause}${event.groupAddress === undefined ? "" : ` on ${formatGroupAddress(event.groupAddress)}`})`;
+    case "timer.fired":
+      return `${at} ${event.deviceId}: timer ${event.name}`;
+    case "fault.raised":
+    case "fault.cleared":
+      return `${at} ${event.kind} ${event.fault} on ${event.deviceId ?? event.unitLink ?? "?"} by ${event.by}${"text" in event && event.text ? `: ${event.text}` : ""}`;
+    case "link.delivered":
+    case "link.dropped":
+      return `${at} ${event.kind} ${event.unitLink}: ${event.from} -> ${event.deviceId} ${JSON.stringify(event.message)}`;
+    case "user.action":
+      return `${at} user ${event.action}${event.deviceId ? ` ${event.deviceId}` : ""}${event.groupAddress === undefined ? "" : ` ${formatGroupAddress(event.groupAddress)}`}: ${event.detail}`;
+  }
+}

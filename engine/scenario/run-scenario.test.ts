@@ -1,0 +1,189 @@
+import { describe, expect, it } from "vitest";
+import type { BenchInput } from "../bench";
+import { parseScenario } from "./parse-scenario";
+import { runScenario } from "./run-scenario";
+import type { ScenarioDocument } from "./scenario-schema";
+
+// A push-button toggling a switch actuator whose status feeds back to the button.
+const lightsBench: BenchInput = {
+  format: 1,
+  name: "Runner fixture",
+  lines: [{ id: "line-1", address: "1.1", name: "Line 1" }],
+  testToolAddress: "1.1.250",
+  groupAddresses: [
+    { address: "1/0/1", name: "Lights switch", dpt: "1.001" },
+    { address: "1/1/1", name: "Lights status", dpt: "1.001" },
+  ],
+  devices: [
+    {
+      id: "pb-1",
+      type: "push-button",
+      name: "Door button",
+      individualAddress: "1.1.1",
+      parameters: {},
+    },
+    {
+      id: "act-1",
+      type: "switch-actuator",
+      name: "Lights actuator",
+      individualAddress: "1.1.2",
+      parameters: {},
+    },
+  ],
+  links: [
+    { device: "pb-1", object: 0, groupAddress: "1/0/1" },
+    { device: "pb-1", object: 0, groupAddress: "1/1/1" },
+    { device: "act-1", object: 0, groupAddress: "1/0/1" },
+    { device: "act-1", object: 1, groupAddress: "1/1/1" },
+  ],
+};
+
+function scenario(steps: ScenarioDocument["steps"], extra: Partial<ScenarioDocument> = {}) {
+  const parsed = parseScenario({
+    format: 1,
+    name: "fixture",
+    bench: { name: "Runner fixture" },
+    steps,
+    ...extra,
+  });
+  if (!parsed.ok) throw new Error(parsed.error.message);
+  return parsed.value;
+}
+
+describe("runScenario", () => {
+  it("passes when the actuator's status follows a button press", () => {
+    const result = runScenario(
+      scenario([
+        { kind: "press", device: "pb-1", button: "channel-1" },
+        { kind: "expect-value", groupAddress: "1/0/1", value: true, within: "200ms" },
+        { kind: "expect-value", groupAddress: "1/1/1", value: true, within: "500ms" },
+        { kind: "expect-state", device: "act-1", path: "on.0", value: true },
+        { kind: "expect-count", groupAddress: "1/0/1", count: 1, within: "1s" },
+        { kind: "wait", for: "1s" },
+        { kind: "expect-silence", groupAddress: "1/0/1", for: "5s" },
+        { kind: "read", groupAddress: "1/1/1" },
+        { kind: "expect-response", groupAddress: "1/1/1", value: true, within: "500ms" },
+        { kind: "expect-bus-load", belowPercent: 5, over: "10s" },
+      ]),
+      lightsBench,
+    );
+    expect(result.steps.map((s) => [s.label, s.status, s.message ?? s.actual ?? ""])).toEqual([
+      ["press pb-1 channel-1", "pass", ""],
+      ["expect-value 1/0/1 = true within 200ms", "pass", ""],
+      ["expect-value 1/1/1 = true within 500ms", "pass", ""],
+      ["expect-state act-1 on.0 = true", "pass", ""],
+      ["expect-count 1/0/1 1 within 1s", "pass", ""],
+      ["wait 1s", "pass", ""],
+      ["expect-silence 1/0/1 for 5s", "pass", ""],
+      ["read 1/1/1", "pass", ""],
+      ["expect-response 1/1/1 = true within 500ms", "pass", ""],
+      ["expect-bus-load below 5 % over 10s", "pass", ""],
+    ]);
+    expect(result).toMatchObject({
+      outcome: "passed",
+      ok: true,
+      totals: { pass: 10, fail: 0, error: 0, skipped: 0 },
+    });
+    // The verdict for the status carries the telegrams that explain it.
+    const status = result.steps[2]!;
+    expect(
+      status.trace.some(
+        (e) => e.kind === "telegram.sent" && e.destination === 0x0901 && e.deviceId === "act-1",
+      ),
+    ).toBe(true);
+  });
+
+  it("fails with expected and actual when the status does not follow, and carries on", () => {
+    const result = runScenario(
+      scenario([
+        { kind: "write", groupAddress: "1/0/1", value: false },
+        { kind: "expect-value", groupAddress: "1/1/1", value: true, within: "500ms" },
+        { kind: "write", groupAddress: "1/0/1", value: true },
+        { kind: "expect-value", groupAddress: "1/1/1", value: false, within: "500ms" },
+        { kind: "expect-count", groupAddress: "1/1/1", min: 2, within: "1s" },
+      ]),
+      lightsBench,
+    );
+    const [, nothing, , wrong, count] = result.steps;
+    expect(nothing).toMatchObject({
+      status: "fail",
+      expected: 'a write or response to 1/1/1 "Lights status" carrying On (true) within 500ms',
+    });
+    // The actuator was already off, so it sent no status; the verdict says what the address last carried.
+    expect(nothing!.actual).toBe("no write or response to 1/1/1 in the window");
+    expect(wrong).toMatchObject({ status: "fail" });
+    expect(wrong!.actual).toMatch(/^1\/1\/1 carried On \(true\) \(write at /);
+    expect(count).toMatchObject({ status: "fail", actual: "1 telegram(s)" });
+    expect(result).toMatchObject({ outcome: "failed", ok: false, totals: { pass: 2, fail: 3 } });
+  });
+
+  it("counts a failure as ok when the scenario is expected to fail, and a pass as not ok", () => {
+    const failing = scenario(
+      [{ kind: "expect-value", groupAddress: "1/1/1", value: true, within: "100ms" }],
+      { expectedToFail: true },
+    );
+    expect(runScenario(failing, lightsBench)).toMatchObject({
+      outcome: "expected-failure",
+      ok: true,
+    });
+    const passing = scenario([{ kind: "wait", for: "1s" }], { expectedToFail: true });
+    expect(runScenario(passing, lightsBench)).toMatchObject({
+      outcome: "unexpected-pass",
+      ok: false,
+    });
+  });
+
+  it("reports a step that cannot run as an error at its index and field, and skips the rest", () => {
+    const result = runScenario(
+      scenario([
+        { kind: "write", groupAddress: "1/0/1", value: true },
+        { kind: "press", device: "pb-9", button: "channel-1" },
+        { kind: "write", groupAddress: "5/0/1", value: true },
+      ]),
+      lightsBench,
+    );
+    expect(result.steps.map((s) => s.status)).toEqual(["pass", "error", "skipped"]);
+    expect(result.steps[1]!.message).toMatch(/^steps\[1\]\.deviceId: .*pb-9/);
+    expect(result.outcome).toBe("error");
+  });
+
+  it("names a value that does not fit the address's DPT", () => {
+    const result = runScenario(
+      scenario([{ kind: "expect-value", groupAddress: "1/1/1", value: 21.5, within: "1s" }]),
+      lightsBench,
+    );
+    expect(result.steps[0]!.message).toMatch(/^steps\[0\]\.value: 21\.5 is not a 1\.001 value/);
+  });
+
+  it("stops a runaway scenario when the injected wall clock passes the budget", () => {
+    // A fake clock that moves 1 ms per reading: settling (about 100 readings) fits, the hour-long wait does not.
+    let clockMs = 0;
+    const now = () => (clockMs += 1);
+    const result = runScenario(
+      scenario([
+        { kind: "wait", for: "1h" },
+        { kind: "expect-silence", for: "1h" },
+      ]),
+      lightsBench,
+      { now, budgetMs: 150 },
+    );
+    expect(result.steps.map((s) => s.status)).toEqual(["error", "skipped"]);
+    expect(result.steps[0]!.message).toMatch(
+      /^wall-clock budget of 150 ms ran out at virtual time .*; the scenario was stopped$/,
+    );
+    expect(result.outcome).toBe("error");
+    expect(result.virtualTimeUs).toBeLessThan(3_600_000_000 + 1_000_000);
+  });
+
+  it("gives the same result for the same seed", () => {
+    const doc = scenario([
+      { kind: "press", device: "pb-1", button: "channel-1" },
+      { kind: "wait", for: "2s" },
+      { kind: "press", device: "pb-1", button: "channel-1" },
+      { kind: "expect-value", groupAddress: "1/1/1", value: false, within: "1s" },
+    ]);
+    const a = runScenario(doc, lightsBench, { seed: 7 });
+    const b = runScenario(doc, lightsBench, { seed: 7 });
+    expect(JSON.stringify(b)).toBe(JSON.stringify(a));
+  });
+});

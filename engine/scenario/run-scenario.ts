@@ -1,0 +1,672 @@
+import { formatGroupAddress, parseGroupAddress } from "../address";
+import type { Bench, BenchInput, LoadedBench } from "../bench";
+import type { TraceEvent } from "../core/trace";
+import { getDpt, type DptCodec } from "../dpt";
+import { fromHex, telegramOccupancyUs, type GroupService } from "../frame";
+import { BenchLoadFailure, createSimulation, type Simulation } from "../sim";
+import { formatDuration, parseDuration } from "./duration";
+import {
+  outcomeIsOk,
+  scenarioOutcome,
+  stepTotals,
+  type ScenarioResult,
+  type StepResult,
+} from "./scenario-result";
+import type { Scenario, Step } from "./scenario-schema";
+import { formatValue, valueAtPath, valuesMatch } from "./value-match";
+
+/** How a scenario run is set up by its caller. */
+export interface RunScenarioOptions {
+  /** Overrides the scenario's own seed (the CLI's --seed). */
+  readonly seed?: number;
+  /**
+   * Wall clock in milliseconds, injected by the caller (the CLI passes
+   * performance.now); the engine never reads a clock itself. Without it there is
+   * no wall-clock budget and wallMs is 0.
+   */
+  readonly now?: () => number;
+  /** Wall-clock budget for the whole scenario, milliseconds; default 10 000 when `now` is given. */
+  readonly budgetMs?: number;
+  /** Where the scenario came from, copied into the result (file path). */
+  readonly source?: string;
+}
+
+/** Default wall-clock budget per scenario, milliseconds. */
+export const DEFAULT_SCENARIO_BUDGET_MS = 10_000;
+
+/** Most trace events kept per step verdict; the rest are counted in a note. */
+export const TRACE_SLICE_LIMIT = 200;
+
+// The wall clock is read once per this many trace events, so a zero-time event storm is still caught.
+const BUDGET_CHECK_EVERY_EVENTS = 512;
+
+class BudgetExceeded extends Error {}
+
+const SERVICE_OF: Readonly<Record<GroupService, "write" | "response" | "read">> = {
+  GroupValue_Write: "write",
+  GroupValue_Response: "response",
+  GroupValue_Read: "read",
+};
+
+interface AddressInfo {
+  readonly raw: number;
+  readonly text: string;
+  readonly name: string;
+  readonly codec: DptCodec<unknown>;
+  /** Devices with an object on this address; their transitions explain what happened on it. */
+  readonly devices: ReadonlySet<string>;
+}
+
+type StepOutcome = Pick<StepResult, "status" | "expected" | "actual" | "message"> & {
+  readonly trace: readonly TraceEvent[];
+};
+
+/** A step could not run: the reason names the field, like a parse error does. */
+class StepError extends Error {}
+
+/** "write 2/0/2 = 23.5", "expect-value 2/1/2 = 23.5 within 500ms" — a label when the step has none. */
+export function stepLabel(step: Step): string {
+  if (step.label) return step.label;
+  const value = (v: unknown) => JSON.stringify(v);
+  switch (step.kind) {
+    case "write":
+      return `write ${step.groupAddress} = ${value(step.value)}${step.from ? ` from ${step.from}` : ""}`;
+    case "read":
+      return `read ${step.groupAddress}${step.from ? ` from ${step.from}` : ""}`;
+    case "press":
+      return `press ${step.device} ${step.button}${step.action && step.action !== "press" ? ` (${step.action})` : ""}`;
+    case "set-input":
+      return `set-input ${step.device} ${step.input} = ${value(step.value)}`;
+    case "wait":
+      return `wait ${step.for}`;
+    case "set-parameter":
+      return `set-parameter ${step.device} ${step.parameter} = ${value(step.value)}`;
+    case "inject-fault":
+    case "clear-fault":
+      return `${step.kind} ${step.fault} on ${step.device}`;
+    case "expect-value":
+      return `expect-value ${step.groupAddress} = ${value(step.value)} within ${step.within}`;
+    case "expect-response":
+      return `expect-response ${step.groupAddress}${step.value === undefined ? "" : ` = ${value(step.value)}`} within ${step.within}`;
+    case "expect-state":
+      return `expect-state ${step.device} ${step.path} = ${value(step.value)}${step.within ? ` within ${step.within}` : ""}`;
+    case "expect-count": {
+      const bound =
+        step.count !== undefined ? `${step.count}` : `${step.min ?? 0}..${step.max ?? "∞"}`;
+      return `expect-count ${step.groupAddress} ${bound} within ${step.within}`;
+    }
+    case "expect-bus-load":
+      return `expect-bus-load below ${step.belowPercent} % over ${step.over}`;
+    case "expect-silence":
+      return `expect-silence ${step.groupAddress ?? "(all addresses)"} for ${step.for}`;
+  }
+}
+
+function durationUs(text: string): number {
+  const parsed = parseDuration(text);
+  // The schema has checked every duration; a bad one here is a bug.
+  if (!parsed.ok) throw new Error(`unchecked duration ${text}`);
+  return parsed.value;
+}
+
+function lowerBound(events: readonly TraceEvent[], timeUs: number): number {
+  let lo = 0;
+  let hi = events.length;
+  while (lo < hi) {
+    const mid = (lo + hi) >> 1;
+    if (events[mid]!.timeUs < timeUs) lo = mid + 1;
+    else hi = mid;
+  }
+  return lo;
+}
+
+function capped(events: readonly TraceEvent[]): readonly TraceEvent[] {
+  return events.length <= TRACE_SLICE_LIMIT ? events : events.slice(0, TRACE_SLICE_LIMIT);
+}
+
+/** One scenario run: the simulation, the anchor and the helpers steps share. */
+class ScenarioRun {
+  anchorUs: number;
+  private readonly addresses = new Map<string, AddressInfo>();
+
+  constructor(
+    readonly sim: Simulation,
+    private readonly checkBudget: () => void,
+  ) {
+    this.anchorUs = sim.nowUs;
+  }
+
+  get bench(): LoadedBench {
+    return this.sim.bench;
+  }
+
+  address(text: string, field = "groupAddress"): AddressInfo {
+    const cached = this.addresses.get(text);
+    if (cached) return cached;
+    const parsed = parseGroupAddress(text);
+    if (!parsed.ok) throw new StepError(`${field}: ${parsed.error.message}`);
+    const declared = this.bench.groupAddresses.get(parsed.value);
+    if (declared === undefined)
+      throw new StepError(
+        `${field}: group address ${text} is not on the bench "${this.bench.bench.name}"`,
+      );
+    const codec = getDpt(declared.dpt);
+    if (codec === undefined)
+      throw new StepError(
+        `${field}: group address ${text} has DPT ${declared.dpt}, which Benchline cannot decode`,
+      );
+    const devices = new Set<string>();
+    for (const device of this.bench.devices) {
+      if (device.objects.some((object) => object.groupAddresses.includes(parsed.value)))
+        devices.add(device.id);
+    }
+    const info: AddressInfo = {
+      raw: parsed.value,
+      text: formatGroupAddress(parsed.value),
+      name: declared.name,
+      codec,
+      devices,
+    };
+    this.addresses.set(text, info);
+    return info;
+  }
+
+  /** The expected value as it would travel: validated by the DPT and put through encode/decode. */
+  expectedValue(address: AddressInfo, value: unknown, field = "value"): unknown {
+    const checked = address.codec.valueSchema.safeParse(value);
+    if (!checked.success) {
+      throw new StepError(
+        `${field}: ${JSON.stringify(value)} is not a ${address.codec.id} value (${checked.error.issues[0]?.message ?? "wrong type"})`,
+      );
+    }
+    const encoded = address.codec.encode(checked.data);
+    if (!encoded.ok) throw new StepError(`${field}: ${encoded.error.message}`);
+    const decoded = address.codec.decode(encoded.value);
+    return decoded.ok ? decoded.value : checked.data;
+  }
+
+  decode(address: AddressInfo, payloadHex: string): unknown {
+    const bytes = fromHex(payloadHex);
+    if (bytes === undefined) return undefined;
+    const decoded = address.codec.decode(bytes);
+    return decoded.ok ? decoded.value : undefined;
+  }
+
+  /**
+   * Runs the simulation toward `untilUs` in slices, stopping early once `done`
+   * says so. Slices keep the wall-clock budget checked on long windows; the
+   * stop time depends only on virtual time, so runs stay deterministic.
+   */
+  advance(untilUs: number, done: () => boolean = () => false): void {
+    const sliceUs = Math.max(10_000, Math.ceil((untilUs - this.anchorUs) / 100));
+    while (!done() && this.sim.nowUs < untilUs) {
+      this.checkBudget();
+      this.sim.runUntil(Math.min(untilUs, this.sim.nowUs + sliceUs));
+    }
+  }
+
+  /** First-transmission telegrams with fromUs <= timeUs <= toUs, optionally to one address. */
+  telegrams(fromUs: number, toUs: number, raw?: number): TraceEvent[] {
+    const events = this.sim.trace;
+    const found: TraceEvent[] = [];
+    for (let i = lowerBound(events, fromUs); i < events.length; i++) {
+      const event = events[i]!;
+      if (event.timeUs > toUs) break;
+      if (event.kind !== "telegram.sent" || event.attempt !== 0) continue;
+      if (raw !== undefined && event.destination !== raw) continue;
+      found.push(event);
+    }
+    return found;
+  }
+
+  /** Trace events that explain what happened on an address in a window: its telegrams, objects and devices. */
+  addressSlice(
+    address: AddressInfo | undefined,
+    fromUs: number,
+    toUs: number,
+  ): readonly TraceEvent[] {
+    const events = this.sim.trace;
+    const slice: TraceEvent[] = [];
+    for (
+      let i = lowerBound(events, fromUs);
+      i < events.length && slice.length < TRACE_SLICE_LIMIT;
+      i++
+    ) {
+      const event = events[i]!;
+      if (event.timeUs > toUs) break;
+      if (address === undefined) {
+        if (event.kind === "telegram.sent" || event.kind === "user.action") slice.push(event);
+        continue;
+      }
+      switch (event.kind) {
+        case "telegram.sent":
+        case "telegram.repeated":
+        case "telegram.lost":
+          if (event.destination === address.raw) slice.push(event);
+          break;
+        case "object.changed":
+        case "user.action":
+          if (event.groupAddress === address.raw) slice.push(event);
+          break;
+        case "device.transition":
+        case "device.note":
+        case "fault.raised":
+        case "fault.cleared":
+          if (event.deviceId !== undefined && address.devices.has(event.deviceId))
+            slice.push(event);
+          break;
+        default:
+          break;
+      }
+    }
+    return slice;
+  }
+
+  deviceSlice(deviceId: string, fromUs: number, toUs: number): readonly TraceEvent[] {
+    return capped(this.sim.traceStore.filter({ deviceId, fromUs, toUs: toUs + 1 }));
+  }
+}
+
+function pass(trace: readonly TraceEvent[]): StepOutcome {
+  return { status: "pass", trace };
+}
+
+function fail(expected: string, actual: string, trace: readonly TraceEvent[]): StepOutcome {
+  return { status: "fail", expected, actual, trace };
+}
+
+function simFailure(result: { ok: boolean; error?: unknown }): void {
+  if (result.ok) return;
+  const error = result.error;
+  if (Array.isArray(error))
+    throw new StepError(error.map((e: { message: string }) => e.message).join("; "));
+  const simError = error as { field: string; message: string };
+  throw new StepError(`${simError.field}: ${simError.message}`);
+}
+
+function describeAddress(address: AddressInfo): string {
+  return `${address.text} "${address.name}"`;
+}
+
+function runAction(
+  run: ScenarioRun,
+  step: Exclude<Step, { kind: `expect-${string}` }>,
+): StepOutcome {
+  const sim = run.sim;
+  const before = sim.trace.length;
+  switch (step.kind) {
+    case "write": {
+      const address = run.address(step.groupAddress);
+      const value = address.codec.valueSchema.safeParse(step.value);
+      if (!value.success)
+        throw new StepError(
+          `value: ${JSON.stringify(step.value)} is not a ${address.codec.id} value`,
+        );
+      simFailure(
+        sim.sendGroupWrite(address.raw, value.data, { from: step.from, priority: step.priority }),
+      );
+      break;
+    }
+    case "read":
+      simFailure(sim.sendGroupRead(run.address(step.groupAddress).raw, { from: step.from }));
+      break;
+    case "press":
+      simFailure(sim.pressButton(step.device, step.button, step.action));
+      break;
+    case "set-input":
+      simFailure(sim.setInput(step.device, step.input, step.value));
+      break;
+    case "set-parameter":
+      simFailure(sim.setParameter(step.device, step.parameter, step.value));
+      break;
+    case "inject-fault":
+      simFailure(sim.injectFault(step.device, step.fault));
+      break;
+    case "clear-fault":
+      simFailure(sim.clearFault(step.device, step.fault));
+      break;
+    case "wait": {
+      // A wait counts from the anchor (the last action), not from wherever expectations left the clock.
+      const untilUs = run.anchorUs + durationUs(step.for);
+      if (untilUs > sim.nowUs) run.advance(untilUs);
+      run.anchorUs = untilUs;
+      return pass([]);
+    }
+  }
+  run.anchorUs = sim.nowUs;
+  return pass(capped(sim.trace.slice(before)));
+}
+
+function expectTelegramValue(
+  run: ScenarioRun,
+  step: Extract<Step, { kind: "expect-value" | "expect-response" }>,
+): StepOutcome {
+  const address = run.address(step.groupAddress);
+  const expected = step.value === undefined ? undefined : run.expectedValue(address, step.value);
+  const tolerance = step.tolerance ?? 0;
+  const services: readonly string[] =
+    step.kind === "expect-response"
+      ? ["response"]
+      : step.service === undefined || step.service === "any"
+        ? ["write", "response"]
+        : [step.service];
+  const fromUs = run.anchorUs;
+  const toUs = fromUs + durationUs(step.within);
+  // Scan by trace position, not by time: an event appended later may carry a time already scanned.
+  let cursor = lowerBound(run.sim.trace, fromUs);
+  let matchUs: number | undefined;
+  const seen: { timeUs: number; value: unknown; service: string }[] = [];
+  const scan = () => {
+    const events = run.sim.trace;
+    for (; cursor < events.length; cursor++) {
+      const event = events[cursor]!;
+      if (event.timeUs > toUs) break;
+      if (
+        event.kind !== "telegram.sent" ||
+        event.attempt !== 0 ||
+        event.destination !== address.raw
+      )
+        continue;
+      const service = SERVICE_OF[event.service];
+      if (!services.includes(service)) continue;
+      const value = run.decode(address, event.payloadHex);
+      seen.push({ timeUs: event.timeUs, value, service });
+      if (
+        matchUs === undefined &&
+        (expected === undefined || valuesMatch(expected, value, tolerance))
+      )
+        matchUs = event.timeUs;
+    }
+    return matchUs !== undefined;
+  };
+  if (!scan()) run.advance(toUs, scan);
+  const slice = run.addressSlice(address, fromUs, Math.min(toUs, run.sim.nowUs));
+  const what =
+    step.kind === "expect-response"
+      ? "GroupValue_Response"
+      : services.length === 2
+        ? "write or response"
+        : String(services[0]);
+  const expectedText = `a ${what} to ${describeAddress(address)}${expected === undefined ? "" : ` carrying ${formatValue(expected, address.codec)}${tolerance > 0 ? ` ± ${tolerance}` : ""}`} within ${step.within}`;
+  if (matchUs !== undefined) return pass(slice);
+  if (seen.length === 0) {
+    const last = run.sim.groupValue(address.raw);
+    return fail(
+      expectedText,
+      `no ${what} to ${address.text} in the window${last === undefined ? "" : `; the last value seen on it is ${formatValue(last, address.codec)}`}`,
+      slice,
+    );
+  }
+  const values = seen
+    .slice(0, 3)
+    .map(
+      (s) => `${formatValue(s.value, address.codec)} (${s.service} at ${formatDuration(s.timeUs)})`,
+    );
+  return fail(
+    expectedText,
+    `${address.text} carried ${values.join(", ")}${seen.length > 3 ? ` and ${seen.length - 3} more` : ""}`,
+    slice,
+  );
+}
+
+function expectState(run: ScenarioRun, step: Extract<Step, { kind: "expect-state" }>): StepOutcome {
+  if (run.sim.deviceState(step.device) === undefined && !run.bench.deviceById.has(step.device)) {
+    throw new StepError(
+      `device: no device "${step.device}" on the bench "${run.bench.bench.name}"`,
+    );
+  }
+  const tolerance = step.tolerance ?? 0;
+  const read = () => valueAtPath(run.sim.deviceState(step.device), step.path);
+  const matches = () => {
+    const current = read();
+    return current.found && valuesMatch(step.value, current.value, tolerance);
+  };
+  const fromUs = run.anchorUs;
+  if (step.within !== undefined) run.advance(fromUs + durationUs(step.within), matches);
+  const current = read();
+  const slice = run.deviceSlice(step.device, fromUs, run.sim.nowUs);
+  const expected = `${step.device} ${step.path} = ${JSON.stringify(step.value)}${tolerance > 0 ? ` ± ${tolerance}` : ""}${step.within ? ` within ${step.within}` : ""}`;
+  if (!current.found) return fail(expected, `${step.device} has no state at "${step.path}"`, slice);
+  if (valuesMatch(step.value, current.value, tolerance)) return pass(slice);
+  return fail(
+    expected,
+    `${step.path} is ${JSON.stringify(current.value)} at ${formatDuration(run.sim.nowUs)}`,
+    slice,
+  );
+}
+
+function expectCount(run: ScenarioRun, step: Extract<Step, { kind: "expect-count" }>): StepOutcome {
+  const address = run.address(step.groupAddress);
+  const fromUs = run.anchorUs;
+  const toUs = fromUs + durationUs(step.within);
+  run.advance(toUs);
+  const service = step.service ?? "any";
+  const counted = run
+    .telegrams(fromUs, toUs, address.raw)
+    .filter(
+      (event) =>
+        event.kind === "telegram.sent" &&
+        (service === "any" || SERVICE_OF[event.service] === service),
+    );
+  const min = step.count ?? step.min ?? 0;
+  const max = step.count ?? step.max ?? Infinity;
+  const bound =
+    step.count !== undefined
+      ? `exactly ${step.count}`
+      : max === Infinity
+        ? `at least ${min}`
+        : `${min} to ${max}`;
+  const expected = `${bound} ${service === "any" ? "" : `${service} `}telegram(s) to ${describeAddress(address)} within ${step.within}`;
+  const slice = run.addressSlice(address, fromUs, toUs);
+  if (counted.length >= min && counted.length <= max) return pass(slice);
+  return fail(expected, `${counted.length} telegram(s)`, slice);
+}
+
+function expectBusLoad(
+  run: ScenarioRun,
+  step: Extract<Step, { kind: "expect-bus-load" }>,
+): StepOutcome {
+  const fromUs = run.anchorUs;
+  const windowUs = durationUs(step.over);
+  const toUs = fromUs + windowUs;
+  run.advance(toUs);
+  // Basic course accounting, as the bench check uses: each transmission (repetitions too)
+  // holds the line for idle 50 + 13 per octet + gap 15 + ack 11 bit times.
+  const occupiedUs = new Map<string, number>();
+  const events = run.sim.trace;
+  for (let i = lowerBound(events, fromUs); i < events.length; i++) {
+    const event = events[i]!;
+    if (event.timeUs >= toUs) break;
+    if (event.kind !== "telegram.sent") continue;
+    occupiedUs.set(
+      event.line,
+      (occupiedUs.get(event.line) ?? 0) + telegramOccupancyUs(event.octets),
+    );
+  }
+  let worstLine = run.bench.lines[0]?.id ?? "";
+  let worstPercent = 0;
+  for (const [line, us] of occupiedUs) {
+    const percent = windowUs === 0 ? 0 : (us / windowUs) * 100;
+    if (percent > worstPercent) {
+      worstPercent = percent;
+      worstLine = line;
+    }
+  }
+  const slice = run.addressSlice(undefined, fromUs, toUs);
+  const actual = `${worstPercent.toFixed(1)} % on line ${worstLine}`;
+  if (worstPercent < step.belowPercent) return pass(slice);
+  return fail(`bus load below ${step.belowPercent} % over ${step.over}`, actual, slice);
+}
+
+function expectSilence(
+  run: ScenarioRun,
+  step: Extract<Step, { kind: "expect-silence" }>,
+): StepOutcome {
+  const address = step.groupAddress === undefined ? undefined : run.address(step.groupAddress);
+  const fromUs = run.anchorUs;
+  const toUs = fromUs + durationUs(step.for);
+  const offenders = () => run.telegrams(fromUs, Math.min(toUs, run.sim.nowUs), address?.raw);
+  run.advance(toUs, () => offenders().length > 0);
+  const found = offenders();
+  const slice = run.addressSlice(address, fromUs, Math.min(toUs, run.sim.nowUs));
+  const target = address === undefined ? "any address" : describeAddress(address);
+  if (found.length === 0) return pass(slice);
+  const first = found[0]!;
+  const from = first.kind === "telegram.sent" ? (first.deviceId ?? "the test tool") : "?";
+  return fail(
+    `no telegram to ${target} for ${step.for}`,
+    `${from} sent to ${first.kind === "telegram.sent" ? formatGroupAddress(first.destination) : "?"} at ${formatDuration(first.timeUs)}`,
+    slice,
+  );
+}
+
+function runStep(run: ScenarioRun, step: Step): StepOutcome {
+  switch (step.kind) {
+    case "expect-value":
+    case "expect-response":
+      return expectTelegramValue(run, step);
+    case "expect-state":
+      return expectState(run, step);
+    case "expect-count":
+      return expectCount(run, step);
+    case "expect-bus-load":
+      return expectBusLoad(run, step);
+    case "expect-silence":
+      return expectSilence(run, step);
+    default:
+      return runAction(run, step);
+  }
+}
+
+function benchError(
+  scenario: Scenario,
+  seed: number,
+  message: string,
+  options: RunScenarioOptions,
+  wallMs: number,
+): ScenarioResult {
+  return {
+    name: scenario.name,
+    ...(options.source ? { source: options.source } : {}),
+    seed,
+    expectedToFail: scenario.expectedToFail,
+    outcome: "error",
+    ok: false,
+    steps: [],
+    totals: { pass: 0, fail: 0, error: 0, skipped: 0 },
+    virtualTimeUs: 0,
+    wallMs,
+    message,
+  };
+}
+
+/**
+ * Replays a scenario on a fresh simulation of the bench and returns a verdict
+ * per step, with the trace slice that explains it, and the scenario's outcome.
+ * Deterministic: the same scenario, bench and seed give the same result (wall
+ * time aside). A step that cannot run is an error and stops the scenario; a
+ * failed expectation does not, so one run shows every failing expectation.
+ */
+export function runScenario(
+  scenario: Scenario,
+  bench: LoadedBench | Bench | BenchInput,
+  options: RunScenarioOptions = {},
+): ScenarioResult {
+  const now = options.now;
+  const startMs = now ? now() : 0;
+  const elapsedMs = () => (now ? now() - startMs : 0);
+  const budgetMs = options.budgetMs ?? DEFAULT_SCENARIO_BUDGET_MS;
+  const seed = options.seed ?? scenario.seed;
+
+  let sim: Simulation;
+  try {
+    sim = createSimulation(bench, { seed });
+  } catch (cause) {
+    if (cause instanceof BenchLoadFailure)
+      return benchError(scenario, seed, cause.message, options, elapsedMs());
+    throw cause;
+  }
+
+  const checkBudget = () => {
+    if (now && now() - startMs > budgetMs) throw new BudgetExceeded();
+  };
+  let eventsSinceCheck = 0;
+  const unsubscribe = now
+    ? sim.subscribe(() => {
+        if (++eventsSinceCheck < BUDGET_CHECK_EVERY_EVENTS) return;
+        eventsSinceCheck = 0;
+        checkBudget();
+      })
+    : () => {};
+
+  const steps: StepResult[] = [];
+  let stopped = false;
+  let settleMessage: string | undefined;
+  try {
+    const run = new ScenarioRun(sim, checkBudget);
+    try {
+      run.advance(durationUs(scenario.settle));
+      run.anchorUs = sim.nowUs;
+    } catch (cause) {
+      if (!(cause instanceof BudgetExceeded)) throw cause;
+      stopped = true;
+      settleMessage = `wall-clock budget of ${budgetMs} ms ran out while the bench settled (virtual time ${formatDuration(sim.nowUs)})`;
+    }
+    scenario.steps.forEach((step, index) => {
+      const label = stepLabel(step);
+      const startUs = sim.nowUs;
+      if (stopped) {
+        steps.push({
+          index,
+          kind: step.kind,
+          label,
+          status: "skipped",
+          startUs,
+          endUs: startUs,
+          trace: [],
+        });
+        return;
+      }
+      try {
+        const outcome = runStep(run, step);
+        steps.push({ index, kind: step.kind, label, startUs, endUs: sim.nowUs, ...outcome });
+      } catch (cause) {
+        let message: string;
+        if (cause instanceof BudgetExceeded) {
+          message = `wall-clock budget of ${budgetMs} ms ran out at virtual time ${formatDuration(sim.nowUs)}; the scenario was stopped`;
+        } else if (cause instanceof StepError) {
+          message = `steps[${index}].${cause.message}`;
+        } else throw cause;
+        stopped = true;
+        steps.push({
+          index,
+          kind: step.kind,
+          label,
+          status: "error",
+          startUs,
+          endUs: sim.nowUs,
+          message,
+          trace: capped(sim.traceStore.slice(startUs, sim.nowUs + 1)),
+        });
+      }
+    });
+  } finally {
+    unsubscribe();
+  }
+
+  const outcome =
+    settleMessage === undefined ? scenarioOutcome(steps, scenario.expectedToFail) : "error";
+  return {
+    name: scenario.name,
+    ...(options.source ? { source: options.source } : {}),
+    seed,
+    expectedToFail: scenario.expectedToFail,
+    outcome,
+    ok: outcomeIsOk(outcome),
+    steps,
+    totals: stepTotals(steps),
+    virtualTimeUs: sim.nowUs,
+    wallMs: elapsedMs(),
+    ...(settleMessage === undefined ? {} : { message: settleMessage }),
+  };
+}
