@@ -76,6 +76,12 @@ export interface Telegram {
   /** Earliest start of the next transmission (after BUSY, 150 bit times after the acknowledgement). */
   readyAtUs: number;
   readonly queuedAtUs: number;
+  /**
+   * Stations that took this telegram in a transmission that was not fully
+   * acknowledged, so they can ignore its repetitions. Filled by the host only
+   * when a repetition may follow, so a clean ACK costs nothing.
+   */
+  takenBy: unknown[] | undefined;
 }
 
 /** One station's sending side: a queue of telegrams sent one at a time, each with its repetitions. */
@@ -226,7 +232,7 @@ export class Tp1Line {
   queue(sender: Tp1Sender, frame: DataFrame, id: number): Telegram {
     if (frame.addressType !== "group") throw new Error("Tp1Line.queue: only group telegrams are modelled so far");
     const now = this.scheduler.nowUs;
-    const telegram: Telegram = { id, frame, octets: tp1FrameOctets(frame), sender, transmissions: 0, readyAtUs: now, queuedAtUs: now };
+    const telegram: Telegram = { id, frame, octets: tp1FrameOctets(frame), sender, transmissions: 0, readyAtUs: now, queuedAtUs: now, takenBy: undefined };
     sender.push(telegram);
     if (this.trace.active) this.trace.append({ kind: "telegram.queued", ...this.telegramFields(telegram, now) });
     if (sender.contenderIndex < 0) {

@@ -142,6 +142,23 @@ describe("TP1 timing", () => {
     expect((h.sim.deviceState("r2") as RecorderState).writes).toEqual([7]);
   });
 
+  it("regression (fast-check seed -1049800968): ignores a repetition even when another telegram passed in between", () => {
+    // r1 is BUSY, so the test tool's write is repeated; r1's own telegram goes on the line
+    // between the first transmission and the repetition. r2 took the first transmission and
+    // must not take the repetition again.
+    const bench = benchBuilder()
+      .groupAddress("1/1/1", "7.001")
+      .device("r1", "test-recorder", "1.1.11")
+      .device("r2", "test-recorder", "1.1.12")
+      .link("r1", 0, "1/1/1")
+      .link("r2", 0, "1/1/1")
+      .build();
+    const h = SimHarness.create(bench);
+    h.injectFault("r1", BUS_FAULTS.busy).input("r1", "send", 5).write("1/1/1", 10_000, { priority: "system" }).settle();
+    expect(sent(h.trace).map((f) => f.deviceId ?? "test-tool")).toEqual(["test-tool", "r1", "test-tool", "test-tool", "test-tool"]);
+    expect((h.sim.deviceState("r2") as RecorderState).writes).toEqual([10_000, 5]);
+  });
+
   it("gives the line to the higher priority when two senders start together", () => {
     const h = SimHarness.create(lightBench());
     h.write("1/0/1", true, { from: "pb", priority: "low" }).write("1/0/2", true, { from: "act", priority: "urgent" }).settle();

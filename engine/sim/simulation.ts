@@ -759,9 +759,20 @@ export class Simulation {
         continue;
       }
       answer &= ACK_OCTET;
-      if (repeated && device.lastTakenTelegramId === telegram.id) continue; // already took the first one
+      // Already took an earlier transmission of this telegram: acknowledge, ignore.
+      if (repeated && (device.lastTakenTelegramId === telegram.id || telegram.takenBy?.includes(device) === true)) continue;
       device.lastTakenTelegramId = telegram.id;
       for (let j = 0; j < objects.length; j++) this.deliver(device, objects[j]!, telegram, destination, service);
+    }
+    if (answer !== ACK_OCTET) {
+      // A repetition will follow. Frames from other senders may pass in between and
+      // overwrite `lastTakenTelegramId`, so remember on the telegram who took this one.
+      for (let i = 0; i < listeners.length; i++) {
+        const device = listeners[i]!.device;
+        if (device.lastTakenTelegramId !== telegram.id) continue;
+        const takenBy = (telegram.takenBy ??= []);
+        if (!takenBy.includes(device)) takenBy.push(device);
+      }
     }
     return answer;
   }

@@ -10,7 +10,8 @@ import { flags, type DeviceEffect, type DeviceType } from "@/engine/devices/devi
  *
  * Objects: 0 "Counter" 7.001 with flags from the `objectFlags` parameter
  * (default C W T U); 1 "Switch" 1.001 C W T U.
- * Inputs: "send" (value for object 0), "send-switch", "read" (object 0), "store",
+ * Inputs: "send" (value for object 0), "send-random" (0..999 from the run's
+ * generator), "send-switch", "read" (object 0), "store",
  * "link" ({link, message}), "timer" ({name, delayUs, data?}), "cancel" (name),
  * "raise" (fault), "clear" (fault), "note" (text).
  */
@@ -43,7 +44,7 @@ function recorder(medium: "knx" | "unit-link"): DeviceType<RecorderParameters, R
         : [],
     buttons: () => [{ id: "button", label: "Button" }],
     initialState: () => ({ writes: [], responses: [], received: [] }),
-    transition(state, event) {
+    transition(state, event, context) {
       const received = [...state.received, event.kind === "link.receive" ? `link.receive:${event.from}:${JSON.stringify(event.message)}` : event.kind === "timer" ? `timer:${event.name}` : event.kind === "fault.inject" || event.kind === "fault.clear" ? `${event.kind}:${event.fault}` : event.kind];
       switch (event.kind) {
         case "group.write":
@@ -54,6 +55,7 @@ function recorder(medium: "knx" | "unit-link"): DeviceType<RecorderParameters, R
           const v = event.value as never;
           const effect: DeviceEffect | undefined = {
             send: { kind: "group.send", object: 0, service: "write", value: v } as const,
+            "send-random": { kind: "group.send", object: 0, service: "write", value: Math.floor(context.random() * 1000) } as const,
             "send-switch": { kind: "group.send", object: 1, service: "write", value: v } as const,
             read: { kind: "group.read", object: 0 } as const,
             store: { kind: "object.store", object: 0, value: v } as const,
