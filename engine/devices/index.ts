@@ -17,11 +17,33 @@ export { getDeviceType, listDeviceTypes, registerDeviceType } from "./catalogue"
 export * from "./device-type";
 export { pushButtonType, type PushButtonParameters, type PushButtonState } from "./push-button";
 export { switchActuatorType, statusObject, switchObject, type SwitchActuatorParameters, type SwitchActuatorState } from "./switch-actuator";
-export { hvacGatewayType, gatewayObjects, type HvacGatewayParameters, type HvacGatewayState } from "./hvac-gateway";
+export {
+  hvacGatewayType,
+  gatewayObjects,
+  type HvacGatewayParameters,
+  type HvacGatewayState,
+} from "./hvac-gateway";
 export { indoorUnitType, type IndoorUnitParameters, type IndoorUnitState } from "./indoor-unit";
 export { outdoorUnitType, type OutdoorUnitParameters, type OutdoorUnitState } from "./outdoor-unit";
-export { wallControllerType, type WallControllerParameters, type WallControllerState } from "./wall-controller";
-export { roomTemperatureSensorType, ROOM_TEMPERATURE_OBJECT, type RoomTemperatureSensorParameters } from "./room-temperature-sensor";
-export { presenceDetectorType, presenceObjects, type PresenceDetectorParameters } from "./presence-detector";
+export {
+  wallControllerType,
+  type WallControllerParameters,
+  type WallControllerState,
+} from "./wall-controller";
+export {
+  roomTemperatureSensorType,
+  ROOM_TEMPERATURE_OBJECT,
+  type RoomTemperatureSensorParameters,
+} from "./room-temperature-sensor";
+export {
+  presenceDetectorType,
+  presenceObjects,
+  type PresenceDetectorParameters,
+} from "./presence-detector";
 export { binaryInputType, BINARY_INPUT_OBJECT, type BinaryInputParameters } from "./binary-input";
-export { checkHvacBench, validateHvacBench, type HvacBenchFinding, type HvacBenchInput } from "./hvac";
+export {
+  checkHvacBench,
+  validateHvacBench,
+  type HvacBenchFinding,
+  type HvacBenchInput,
+} from "./hvac";

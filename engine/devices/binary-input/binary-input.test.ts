@@ -10,9 +10,15 @@ describe("binary input / window contact", () => {
   it("sends 1 when the window opens and 0 when it closes on DPT 1.019", () => {
     // DPT 1.019 window/door: 0 closed, 1 open (recalled from memory of the DPT spec).
     const h = contact();
-    expect(binaryInputType.groupObjects(binaryInputType.parameters.parse({}))[0]?.dpt).toBe("1.019");
-    expect(h.dispatch("in", { kind: "input", input: "contact", value: true }).transition).toBe("window.opened");
-    expect(h.dispatch("in", { kind: "input", input: "contact", value: false }).transition).toBe("window.closed");
+    expect(binaryInputType.groupObjects(binaryInputType.parameters.parse({}))[0]?.dpt).toBe(
+      "1.019",
+    );
+    expect(h.dispatch("in", { kind: "input", input: "contact", value: true }).transition).toBe(
+      "window.opened",
+    );
+    expect(h.dispatch("in", { kind: "input", input: "contact", value: false }).transition).toBe(
+      "window.closed",
+    );
     expect(h.sentFrom("in", BINARY_INPUT_OBJECT).map((t) => t.value)).toEqual([true, false]);
   });
 

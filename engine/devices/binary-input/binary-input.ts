@@ -28,18 +28,29 @@ function transitionName(p: BinaryInputParameters, open: boolean): string {
   return open ? "input.opened" : "input.closed";
 }
 
-function binaryInputTransition(state: BinaryInputState, event: DeviceEvent, context: { parameters: BinaryInputParameters }): TransitionResult<BinaryInputState> {
+function binaryInputTransition(
+  state: BinaryInputState,
+  event: DeviceEvent,
+  context: { parameters: BinaryInputParameters },
+): TransitionResult<BinaryInputState> {
   const p = context.parameters;
   const value = (open: boolean) => open !== p.invert;
-  if (event.kind === "start") return { state, effects: [{ kind: "object.store", object: BINARY_INPUT_OBJECT, value: value(state.open) }] };
+  if (event.kind === "start")
+    return {
+      state,
+      effects: [{ kind: "object.store", object: BINARY_INPUT_OBJECT, value: value(state.open) }],
+    };
   let open: boolean;
   if (event.kind === "input" && event.input === "contact") open = event.value === true;
-  else if (event.kind === "button" && event.button === "toggle" && event.action === "press") open = !state.open;
+  else if (event.kind === "button" && event.button === "toggle" && event.action === "press")
+    open = !state.open;
   else return { state, effects: [] };
   if (open === state.open) return { state, effects: [] };
   return {
     state: { open },
-    effects: [{ kind: "group.send", object: BINARY_INPUT_OBJECT, service: "write", value: value(open) }],
+    effects: [
+      { kind: "group.send", object: BINARY_INPUT_OBJECT, service: "write", value: value(open) },
+    ],
     transition: transitionName(p, open),
   };
 }
@@ -51,7 +62,15 @@ export const binaryInputType: DeviceType<BinaryInputParameters, BinaryInputState
   description: "Contact input, usually a window contact (DPT 1.019); sends on every change.",
   medium: "knx",
   parameters: binaryInputParametersSchema,
-  groupObjects: (p) => [{ number: BINARY_INPUT_OBJECT, name: p.dpt === "1.019" ? "Window contact" : "Contact", dpt: p.dpt, flags: flags("CRT"), role: "output" }],
+  groupObjects: (p) => [
+    {
+      number: BINARY_INPUT_OBJECT,
+      name: p.dpt === "1.019" ? "Window contact" : "Contact",
+      dpt: p.dpt,
+      flags: flags("CRT"),
+      role: "output",
+    },
+  ],
   buttons: () => [{ id: "toggle", label: "Open / close" }],
   initialState: (p) => ({ open: p.initiallyOpen }),
   transition: binaryInputTransition,

@@ -3,4 +3,10 @@ import { binaryInputType } from "./binary-input";
 
 registerDeviceType(binaryInputType);
 
-export { BINARY_INPUT_OBJECT, binaryInputParametersSchema, binaryInputType, type BinaryInputParameters, type BinaryInputState } from "./binary-input";
+export {
+  BINARY_INPUT_OBJECT,
+  binaryInputParametersSchema,
+  binaryInputType,
+  type BinaryInputParameters,
+  type BinaryInputState,
+} from "./binary-input";

@@ -10,13 +10,23 @@ import type { HvacGatewayState } from "./state";
  * optionally with a wall controller "wc", started and settled. Used by the
  * gateway's unit tests; it drives pure transitions through DeviceHarness.
  */
-export function gatewayFixture(options: { gateway?: Record<string, unknown>; unit?: Record<string, unknown>; wallController?: Record<string, unknown> } = {}) {
+export function gatewayFixture(
+  options: {
+    gateway?: Record<string, unknown>;
+    unit?: Record<string, unknown>;
+    wallController?: Record<string, unknown>;
+  } = {},
+) {
   const members = [
     { id: "gw", type: hvacGatewayType, parameters: options.gateway ?? {} },
     { id: "unit", type: indoorUnitType, parameters: options.unit ?? {} },
-    ...(options.wallController === undefined ? [] : [{ id: "wc", type: wallControllerType, parameters: options.wallController }]),
+    ...(options.wallController === undefined
+      ? []
+      : [{ id: "wc", type: wallControllerType, parameters: options.wallController }]),
   ];
-  const harness = new DeviceHarness(members, [{ id: "link", members: members.map((m) => m.id) }]).start();
+  const harness = new DeviceHarness(members, [
+    { id: "link", members: members.map((m) => m.id) },
+  ]).start();
   const settle = () => harness.advance(20 * HARNESS_LINK_DELAY_US);
   settle();
   return {

@@ -43,7 +43,10 @@ describe("hvac gateway on the unit link", () => {
   });
 
   it("sends status telegrams for changes made at the wall controller", () => {
-    const f = gatewayFixture({ wallController: { role: "secondary" }, unit: { initialSetpointC: 21 } });
+    const f = gatewayFixture({
+      wallController: { role: "secondary" },
+      unit: { initialSetpointC: 21 },
+    });
     f.press("power");
     expect(f.sent(O.powerStatus)).toEqual([true]);
     f.press("setpoint-up");
@@ -53,7 +56,10 @@ describe("hvac gateway on the unit link", () => {
   });
 
   it("forwards an external room temperature as primary and reports it as the room temperature", () => {
-    const f = gatewayFixture({ gateway: { roomTemperatureSource: "external" }, unit: { initialRoomC: 20 } });
+    const f = gatewayFixture({
+      gateway: { roomTemperatureSource: "external" },
+      unit: { initialRoomC: 20 },
+    });
     expect(f.write(O.externalRoomTemperature, 23.4).transition).toBe("room.external-updated");
     expect(f.unit().externalRoomC).toBe(23.4);
     // The first report went out at start; the change waits out the 30 s minimum interval.
@@ -63,7 +69,10 @@ describe("hvac gateway on the unit link", () => {
 
   it("refuses an external room temperature as secondary", () => {
     // Common practice, no published source: only the primary may supply the room temperature.
-    const f = gatewayFixture({ gateway: { roomTemperatureSource: "external", role: "secondary" }, wallController: { role: "primary" } });
+    const f = gatewayFixture({
+      gateway: { roomTemperatureSource: "external", role: "secondary" },
+      wallController: { role: "primary" },
+    });
     expect(f.write(O.externalRoomTemperature, 23.4).transition).toBe("room.external-refused");
     expect(f.unit().externalRoomC).toBeNull();
   });
@@ -84,17 +93,26 @@ describe("hvac gateway on the unit link", () => {
     f.harness.advance(600 * S);
     const times = f.harness.sentFrom("gw", O.roomTemperature).map((t) => t.timeUs);
     expect(times.length).toBeGreaterThan(5);
-    for (let i = 1; i < times.length; i++) expect((times[i] ?? 0) - (times[i - 1] ?? 0)).toBeGreaterThanOrEqual(30 * S);
+    for (let i = 1; i < times.length; i++)
+      expect((times[i] ?? 0) - (times[i - 1] ?? 0)).toBeGreaterThanOrEqual(30 * S);
   });
 
   it("sends the room temperature cyclically when asked", () => {
-    const f = gatewayFixture({ gateway: { roomTemperatureSending: { mode: "cyclic", cycleS: 60 } }, unit: { initialRoomC: 21, outdoorC: 21 } });
+    const f = gatewayFixture({
+      gateway: { roomTemperatureSending: { mode: "cyclic", cycleS: 60 } },
+      unit: { initialRoomC: 21, outdoorC: 21 },
+    });
     f.harness.advance(300 * S);
-    expect(f.harness.sentFrom("gw", O.roomTemperature).map((t) => Math.round(t.timeUs / S))).toEqual([60, 120, 180, 240, 300]);
+    expect(
+      f.harness.sentFrom("gw", O.roomTemperature).map((t) => Math.round(t.timeUs / S)),
+    ).toEqual([60, 120, 180, 240, 300]);
   });
 
   it("sends no room temperature with sending off, but the object answers reads", () => {
-    const f = gatewayFixture({ gateway: { roomTemperatureSending: { mode: "off" } }, unit: { initialRoomC: 19.5 } });
+    const f = gatewayFixture({
+      gateway: { roomTemperatureSending: { mode: "off" } },
+      unit: { initialRoomC: 19.5 },
+    });
     f.harness.advance(120 * S);
     expect(f.sent(O.roomTemperature)).toEqual([]);
     expect(typeof f.harness.objectValue("gw", O.roomTemperature)).toBe("number");
@@ -123,7 +141,12 @@ describe("hvac gateways on a multi-split system", () => {
       harness.advance(20 * HARNESS_LINK_DELAY_US);
       return result;
     };
-    return { harness, write, unit: (id: string) => harness.state<IndoorUnitState>(id), last: (gw: string, object: number) => harness.sentFrom(gw, object).at(-1)?.value };
+    return {
+      harness,
+      write,
+      unit: (id: string) => harness.state<IndoorUnitState>(id),
+      last: (gw: string, object: number) => harness.sentFrom(gw, object).at(-1)?.value,
+    };
   }
 
   it("refuses cool on a member while the authority heats; the mode status reports what it runs", () => {
@@ -146,7 +169,11 @@ describe("hvac gateways on a multi-split system", () => {
     write("gw-a", O.power, true);
     write("gw-a", O.mode, 3);
     write("gw-b", O.power, true);
-    for (const [code, mode] of [[3, "cool"], [9, "fan"], [14, "dry"]] as const) {
+    for (const [code, mode] of [
+      [3, "cool"],
+      [9, "fan"],
+      [14, "dry"],
+    ] as const) {
       write("gw-b", O.mode, code);
       expect(unit("unit-b").mode).toBe(mode);
       expect(last("gw-b", O.modeStatus)).toBe(code);

@@ -4,44 +4,120 @@ import { gatewayFixture } from "./gateway-fixture";
 import { gatewayObjects as O } from "./objects";
 import { hvacGatewayParametersSchema } from "./parameters";
 
-const numbers = (parameters: unknown) => hvacGatewayType.groupObjects(hvacGatewayParametersSchema.parse(parameters)).map((o) => o.number);
+const numbers = (parameters: unknown) =>
+  hvacGatewayType.groupObjects(hvacGatewayParametersSchema.parse(parameters)).map((o) => o.number);
 
 describe("hvac gateway parameters and objects", () => {
   it("parses {} to a valid default: primary, single split, full mode, 3 fan levels with auto", () => {
     const p = hvacGatewayParametersSchema.parse({});
-    expect(p).toMatchObject({ role: "primary", systemType: "single-split", modeControl: "full", fanLevels: 3, fanAuto: true, setpointMinC: 16, setpointMaxC: 30 });
+    expect(p).toMatchObject({
+      role: "primary",
+      systemType: "single-split",
+      modeControl: "full",
+      fanLevels: 3,
+      fanAuto: true,
+      setpointMinC: 16,
+      setpointMaxC: 30,
+    });
     // Common practice, no published source: 0.1 K delta, 30 s minimum interval.
-    expect(p.roomTemperatureSending).toEqual({ mode: "on-change", deltaK: 0.1, minIntervalS: 30, cycleS: 600 });
-    expect(numbers({})).toEqual([O.power, O.powerStatus, O.setpoint, O.setpointStatus, O.mode, O.modeStatus, O.fan, O.fanStatus, O.roomTemperature, O.fault, O.faultText]);
+    expect(p.roomTemperatureSending).toEqual({
+      mode: "on-change",
+      deltaK: 0.1,
+      minIntervalS: 30,
+      cycleS: 600,
+    });
+    expect(numbers({})).toEqual([
+      O.power,
+      O.powerStatus,
+      O.setpoint,
+      O.setpointStatus,
+      O.mode,
+      O.modeStatus,
+      O.fan,
+      O.fanStatus,
+      O.roomTemperature,
+      O.fault,
+      O.faultText,
+    ]);
   });
 
   it("has objects only for enabled functions", () => {
-    const all = numbers({ modeControl: "simplified", louvre: true, roomTemperatureSource: "external", scenes: [{ scene: 3 }], windowContact: true, lock: true, systemType: "multi-split" });
-    expect(all).toEqual(expect.arrayContaining([O.heatCool, O.heatCoolStatus, O.louvre, O.louvreStatus, O.externalRoomTemperature, O.scene, O.sceneControl, O.windowContact, O.lock, O.modeAuthority]));
+    const all = numbers({
+      modeControl: "simplified",
+      louvre: true,
+      roomTemperatureSource: "external",
+      scenes: [{ scene: 3 }],
+      windowContact: true,
+      lock: true,
+      systemType: "multi-split",
+    });
+    expect(all).toEqual(
+      expect.arrayContaining([
+        O.heatCool,
+        O.heatCoolStatus,
+        O.louvre,
+        O.louvreStatus,
+        O.externalRoomTemperature,
+        O.scene,
+        O.sceneControl,
+        O.windowContact,
+        O.lock,
+        O.modeAuthority,
+      ]),
+    );
     expect(all).not.toContain(O.mode);
     expect(numbers({})).not.toContain(O.modeAuthority);
   });
 
   it("uses the DPTs of the KNX standard for each object", () => {
-    const objects = hvacGatewayType.groupObjects(hvacGatewayParametersSchema.parse({ modeControl: "simplified", louvre: true, scenes: [{ scene: 1 }], windowContact: true, systemType: "multi-split" }));
+    const objects = hvacGatewayType.groupObjects(
+      hvacGatewayParametersSchema.parse({
+        modeControl: "simplified",
+        louvre: true,
+        scenes: [{ scene: 1 }],
+        windowContact: true,
+        systemType: "multi-split",
+      }),
+    );
     const dpt = (n: number) => objects.find((o) => o.number === n)?.dpt;
     // DPT spec §4.2 heat/cool 1.100; §3 5.001 scaling, 17.001 scene number, 18.001 scene control, 16.000 text, 1.005 alarm.
-    expect([dpt(O.heatCool), dpt(O.fan), dpt(O.louvre), dpt(O.scene), dpt(O.sceneControl), dpt(O.faultText), dpt(O.fault)]).toEqual(["1.100", "5.100", "5.001", "17.001", "18.001", "16.000", "1.005"]);
+    expect([
+      dpt(O.heatCool),
+      dpt(O.fan),
+      dpt(O.louvre),
+      dpt(O.scene),
+      dpt(O.sceneControl),
+      dpt(O.faultText),
+      dpt(O.fault),
+    ]).toEqual(["1.100", "5.100", "5.001", "17.001", "18.001", "16.000", "1.005"]);
     // DPT 1.019 window/door (0 closed, 1 open) — recalled from memory of the DPT spec.
     expect(dpt(O.windowContact)).toBe("1.019");
   });
 
   it("refuses inverted setpoint limits with a clear message", () => {
     const parsed = hvacGatewayParametersSchema.safeParse({ setpointMinC: 26, setpointMaxC: 20 });
-    expect(parsed.error?.issues[0]).toMatchObject({ path: ["setpointMinC"], message: "setpointMinC (26 °C) must be below setpointMaxC (20 °C)" });
+    expect(parsed.error?.issues[0]).toMatchObject({
+      path: ["setpointMinC"],
+      message: "setpointMinC (26 °C) must be below setpointMaxC (20 °C)",
+    });
   });
 
   it("refuses scene numbers outside 1..64, twice-used scenes and fan levels out of reach", () => {
     // DPT spec §3 (17.001): scenes 1..64 as people count them.
-    expect(hvacGatewayParametersSchema.safeParse({ scenes: [{ scene: 65 }] }).error?.issues[0]?.message).toBe("scene must be 1..64 (DPT 17.001)");
-    expect(hvacGatewayParametersSchema.safeParse({ scenes: [{ scene: 2 }, { scene: 2 }] }).error?.issues[0]?.message).toBe("scene 2 has two slots");
-    expect(hvacGatewayParametersSchema.safeParse({ fanLevels: 2, scenes: [{ scene: 1, fanLevel: 4 }] }).success).toBe(false);
-    expect(hvacGatewayParametersSchema.safeParse({ fanLevels: 6 }).error?.issues[0]?.message).toBe("fanLevels must be 2..5");
+    expect(
+      hvacGatewayParametersSchema.safeParse({ scenes: [{ scene: 65 }] }).error?.issues[0]?.message,
+    ).toBe("scene must be 1..64 (DPT 17.001)");
+    expect(
+      hvacGatewayParametersSchema.safeParse({ scenes: [{ scene: 2 }, { scene: 2 }] }).error
+        ?.issues[0]?.message,
+    ).toBe("scene 2 has two slots");
+    expect(
+      hvacGatewayParametersSchema.safeParse({ fanLevels: 2, scenes: [{ scene: 1, fanLevel: 4 }] })
+        .success,
+    ).toBe(false);
+    expect(hvacGatewayParametersSchema.safeParse({ fanLevels: 6 }).error?.issues[0]?.message).toBe(
+      "fanLevels must be 2..5",
+    );
   });
 });
 
@@ -63,21 +139,27 @@ describe("hvac gateway commands", () => {
     [3, "cool"],
     [9, "fan"],
     [14, "dry"],
-  ] as const)("full mode: DPT 20.105 code %i runs %s and the status echoes the code", (code, mode) => {
-    // DPT spec §4 (20.105): 0 auto, 1 heat, 3 cool, 9 fan only, 14 dehumidification.
-    const f = gatewayFixture({ unit: { initialMode: code === 1 ? "cool" : "heat" } });
-    expect(f.write(O.mode, code).transition).toBe("mode.selected");
-    expect(f.unit().mode).toBe(mode);
-    expect(f.lastSent(O.modeStatus)).toBe(code);
-  });
+  ] as const)(
+    "full mode: DPT 20.105 code %i runs %s and the status echoes the code",
+    (code, mode) => {
+      // DPT spec §4 (20.105): 0 auto, 1 heat, 3 cool, 9 fan only, 14 dehumidification.
+      const f = gatewayFixture({ unit: { initialMode: code === 1 ? "cool" : "heat" } });
+      expect(f.write(O.mode, code).transition).toBe("mode.selected");
+      expect(f.unit().mode).toBe(mode);
+      expect(f.lastSent(O.modeStatus)).toBe(code);
+    },
+  );
 
-  it.each([2, 6, 7, 20])("full mode: DPT 20.105 code %i is refused with mode.refused and the status re-sent", (code) => {
-    // DPT spec §4 (20.105): 2 morning warmup, 6 off, 7 test, 20 NoDem are not unit modes.
-    const f = gatewayFixture({ unit: { initialMode: "cool" } });
-    expect(f.write(O.mode, code).transition).toBe("mode.refused");
-    expect(f.unit().mode).toBe("cool");
-    expect(f.lastSent(O.modeStatus)).toBe(3);
-  });
+  it.each([2, 6, 7, 20])(
+    "full mode: DPT 20.105 code %i is refused with mode.refused and the status re-sent",
+    (code) => {
+      // DPT spec §4 (20.105): 2 morning warmup, 6 off, 7 test, 20 NoDem are not unit modes.
+      const f = gatewayFixture({ unit: { initialMode: "cool" } });
+      expect(f.write(O.mode, code).transition).toBe("mode.refused");
+      expect(f.unit().mode).toBe("cool");
+      expect(f.lastSent(O.modeStatus)).toBe(3);
+    },
+  );
 
   it("clamps setpoint writes to the limits and reports the clamped value", () => {
     // Common practice, no published source: clamp and report what the unit really uses.

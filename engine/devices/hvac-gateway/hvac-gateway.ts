@@ -15,7 +15,8 @@ import { hvacGatewayTransition } from "./transition";
 export const hvacGatewayType: DeviceType<HvacGatewayParameters, HvacGatewayState> = {
   id: "hvac-gateway",
   label: "HVAC gateway",
-  description: "KNX gateway for one air-conditioning indoor unit: command/status pairs, scenes, window contact, lock, fault objects.",
+  description:
+    "KNX gateway for one air-conditioning indoor unit: command/status pairs, scenes, window contact, lock, fault objects.",
   medium: "knx",
   parameters: hvacGatewayParametersSchema,
   groupObjects: gatewayGroupObjects,

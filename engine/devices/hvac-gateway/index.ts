@@ -5,5 +5,10 @@ registerDeviceType(hvacGatewayType);
 
 export { hvacGatewayType } from "./hvac-gateway";
 export { gatewayObjects } from "./objects";
-export { hvacGatewayParametersSchema, sceneSlotSchema, type HvacGatewayParameters, type SceneSlot } from "./parameters";
+export {
+  hvacGatewayParametersSchema,
+  sceneSlotSchema,
+  type HvacGatewayParameters,
+  type SceneSlot,
+} from "./parameters";
 export type { HvacGatewayState } from "./state";

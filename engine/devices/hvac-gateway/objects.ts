@@ -49,16 +49,34 @@ export function gatewayGroupObjects(p: HvacGatewayParameters): GroupObjectSpec[]
     command(O.setpoint, "Setpoint", "9.001"),
     status(O.setpointStatus, "Setpoint status", "9.001"),
   ];
-  if (p.modeControl === "full") objects.push(command(O.mode, "Mode", "20.105"), status(O.modeStatus, "Mode status", "20.105"));
-  else objects.push(command(O.heatCool, "Heat/cool", "1.100"), status(O.heatCoolStatus, "Heat/cool status", "1.100"));
-  objects.push(command(O.fan, "Fan level", "5.100"), status(O.fanStatus, "Fan level status", "5.100"));
-  if (p.louvre) objects.push(command(O.louvre, "Louvre position", "5.001"), status(O.louvreStatus, "Louvre position status", "5.001"));
+  if (p.modeControl === "full")
+    objects.push(command(O.mode, "Mode", "20.105"), status(O.modeStatus, "Mode status", "20.105"));
+  else
+    objects.push(
+      command(O.heatCool, "Heat/cool", "1.100"),
+      status(O.heatCoolStatus, "Heat/cool status", "1.100"),
+    );
+  objects.push(
+    command(O.fan, "Fan level", "5.100"),
+    status(O.fanStatus, "Fan level status", "5.100"),
+  );
+  if (p.louvre)
+    objects.push(
+      command(O.louvre, "Louvre position", "5.001"),
+      status(O.louvreStatus, "Louvre position status", "5.001"),
+    );
   objects.push(status(O.roomTemperature, "Room temperature", "9.001"));
-  if (p.roomTemperatureSource === "external") objects.push(input(O.externalRoomTemperature, "External room temperature", "9.001"));
-  if (p.scenes.length > 0) objects.push(command(O.scene, "Scene", "17.001"), command(O.sceneControl, "Scene control", "18.001"));
+  if (p.roomTemperatureSource === "external")
+    objects.push(input(O.externalRoomTemperature, "External room temperature", "9.001"));
+  if (p.scenes.length > 0)
+    objects.push(
+      command(O.scene, "Scene", "17.001"),
+      command(O.sceneControl, "Scene control", "18.001"),
+    );
   if (p.windowContact) objects.push(input(O.windowContact, "Window contact", "1.019"));
   if (p.lock) objects.push(command(O.lock, "Lock", "1.001"));
   objects.push(status(O.fault, "Fault", "1.005"), status(O.faultText, "Fault text", "16.000"));
-  if (p.systemType === "multi-split") objects.push(status(O.modeAuthority, "Mode authority", "1.002"));
+  if (p.systemType === "multi-split")
+    objects.push(status(O.modeAuthority, "Mode authority", "1.002"));
   return objects;
 }

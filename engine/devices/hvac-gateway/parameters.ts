@@ -6,7 +6,11 @@ import { refineSetpointLimits } from "../wall-controller/parameters";
 
 /** One scene slot: what a recall of `scene` (1..64, as people count, DPT 17.001) sets on the unit. */
 export const sceneSlotSchema = z.object({
-  scene: z.number().int().min(1, "scene must be 1..64 (DPT 17.001)").max(64, "scene must be 1..64 (DPT 17.001)"),
+  scene: z
+    .number()
+    .int()
+    .min(1, "scene must be 1..64 (DPT 17.001)")
+    .max(64, "scene must be 1..64 (DPT 17.001)"),
   power: z.boolean().default(true),
   mode: hvacModeSchema.default("auto"),
   /** 0 = automatic fan, 1..fanLevels fixed. */
@@ -25,7 +29,12 @@ export const hvacGatewayParametersSchema = z
     /** Full: mode objects on DPT 20.105. Simplified: heat/cool objects on DPT 1.100 (0 cooling, 1 heating). */
     modeControl: z.enum(["full", "simplified"]).default("full"),
     /** Fixed fan levels the unit offers on DPT 5.100 (1..fanLevels). */
-    fanLevels: z.number().int().min(2, "fanLevels must be 2..5").max(5, "fanLevels must be 2..5").default(3),
+    fanLevels: z
+      .number()
+      .int()
+      .min(2, "fanLevels must be 2..5")
+      .max(5, "fanLevels must be 2..5")
+      .default(3),
     /** Whether fan value 0 selects the automatic fan. */
     fanAuto: z.boolean().default(true),
     /** Louvre position objects (DPT 5.001). */
@@ -46,13 +55,26 @@ export const hvacGatewayParametersSchema = z
     refineSetpointLimits(value, context);
     const seen = new Set<number>();
     value.scenes.forEach((slot, index) => {
-      if (seen.has(slot.scene)) context.addIssue({ code: "custom", path: ["scenes", index, "scene"], message: `scene ${slot.scene} has two slots` });
+      if (seen.has(slot.scene))
+        context.addIssue({
+          code: "custom",
+          path: ["scenes", index, "scene"],
+          message: `scene ${slot.scene} has two slots`,
+        });
       seen.add(slot.scene);
       if (slot.fanLevel > value.fanLevels) {
-        context.addIssue({ code: "custom", path: ["scenes", index, "fanLevel"], message: `fanLevel ${slot.fanLevel} is above fanLevels (${value.fanLevels})` });
+        context.addIssue({
+          code: "custom",
+          path: ["scenes", index, "fanLevel"],
+          message: `fanLevel ${slot.fanLevel} is above fanLevels (${value.fanLevels})`,
+        });
       }
       if (slot.fanLevel === 0 && !value.fanAuto) {
-        context.addIssue({ code: "custom", path: ["scenes", index, "fanLevel"], message: "fanLevel 0 (automatic) needs fanAuto" });
+        context.addIssue({
+          code: "custom",
+          path: ["scenes", index, "fanLevel"],
+          message: "fanLevel 0 (automatic) needs fanAuto",
+        });
       }
     });
   });

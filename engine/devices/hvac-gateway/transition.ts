@@ -1,8 +1,17 @@
 import { DPT9_INVALID, isDptInvalid } from "../../dpt/dpt9";
 import type { DeviceContext, DeviceEffect, DeviceEvent, TransitionResult } from "../device-type";
-import { linkFaultEffects, periodicAnnounceEffects, withRoleAnnouncement } from "../hvac/controller-link";
+import {
+  linkFaultEffects,
+  periodicAnnounceEffects,
+  withRoleAnnouncement,
+} from "../hvac/controller-link";
 import { faultDisplayText } from "../hvac/fault-ids";
-import { dpt1100FromMode, dpt20105FromMode, modeFromDpt1100, modeFromDpt20105 } from "../hvac/hvac-mode";
+import {
+  dpt1100FromMode,
+  dpt20105FromMode,
+  modeFromDpt1100,
+  modeFromDpt20105,
+} from "../hvac/hvac-mode";
 import {
   cycleUs,
   initialSenderState,
@@ -12,7 +21,11 @@ import {
   sendsCyclically,
   type SenderStep,
 } from "../hvac/room-temperature-sending";
-import { parseUnitLinkMessage, type UnitCommand, type UnitStatus } from "../hvac/unit-link-messages";
+import {
+  parseUnitLinkMessage,
+  type UnitCommand,
+  type UnitStatus,
+} from "../hvac/unit-link-messages";
 import { gatewayObjects as O } from "./objects";
 import type { HvacGatewayParameters } from "./parameters";
 import type { GatewayFunction, HvacGatewayState, LearnedScene } from "./state";
@@ -28,44 +41,74 @@ function named(state: HvacGatewayState, transition: string, effects: DeviceEffec
 }
 
 function sendCommand(command: Omit<UnitCommand, "kind">, context: Context): DeviceEffect[] {
-  return context.links.map((link) => ({ kind: "link.send", link, message: { kind: "unit.command", ...command } }));
+  return context.links.map((link) => ({
+    kind: "link.send",
+    link,
+    message: { kind: "unit.command", ...command },
+  }));
 }
 
 /** The status objects and values for a unit status, for the objects these parameters enable. */
-function statusValues(unit: UnitStatus, p: HvacGatewayParameters): { fn?: GatewayFunction; object: number; value: unknown }[] {
+function statusValues(
+  unit: UnitStatus,
+  p: HvacGatewayParameters,
+): { fn?: GatewayFunction; object: number; value: unknown }[] {
   const values: { fn?: GatewayFunction; object: number; value: unknown }[] = [
     { fn: "power", object: O.powerStatus, value: unit.power },
     { fn: "setpoint", object: O.setpointStatus, value: unit.setpointC },
     { fn: "fan", object: O.fanStatus, value: Math.min(unit.fanLevel, p.fanLevels) },
     { object: O.fault, value: unit.faults.length > 0 },
-    { object: O.faultText, value: unit.faults[0] === undefined ? "" : faultDisplayText(unit.faults[0]) },
+    {
+      object: O.faultText,
+      value: unit.faults[0] === undefined ? "" : faultDisplayText(unit.faults[0]),
+    },
   ];
-  if (p.modeControl === "full") values.push({ fn: "mode", object: O.modeStatus, value: dpt20105FromMode(unit.mode) });
+  if (p.modeControl === "full")
+    values.push({ fn: "mode", object: O.modeStatus, value: dpt20105FromMode(unit.mode) });
   else {
     // DPT spec §4.2 (1.100): 0 cooling, 1 heating; fan has no heat/cool meaning, so the status keeps its value.
     const heating = dpt1100FromMode(unit.mode, unit.direction);
-    if (heating !== undefined) values.push({ fn: "mode", object: O.heatCoolStatus, value: heating });
+    if (heating !== undefined)
+      values.push({ fn: "mode", object: O.heatCoolStatus, value: heating });
   }
   if (p.louvre) values.push({ fn: "louvre", object: O.louvreStatus, value: unit.louvrePercent });
-  if (p.systemType === "multi-split") values.push({ object: O.modeAuthority, value: unit.modeAuthority });
+  if (p.systemType === "multi-split")
+    values.push({ object: O.modeAuthority, value: unit.modeAuthority });
   return values;
 }
 
 /** Sends the status of `fns` now from the last unit status (a refused command snaps visualisations back). */
-function reassert(state: HvacGatewayState, fns: readonly GatewayFunction[], context: Context): DeviceEffect[] {
+function reassert(
+  state: HvacGatewayState,
+  fns: readonly GatewayFunction[],
+  context: Context,
+): DeviceEffect[] {
   if (state.unit === null) return [];
   return statusValues(state.unit, context.parameters)
     .filter((entry) => entry.fn !== undefined && fns.includes(entry.fn))
-    .map((entry) => ({ kind: "group.send", object: entry.object, service: "write", value: entry.value }));
+    .map((entry) => ({
+      kind: "group.send",
+      object: entry.object,
+      service: "write",
+      value: entry.value,
+    }));
 }
 
 function roomEffects(step: SenderStep, context: Context): DeviceEffect[] {
   const effects: DeviceEffect[] = [];
   const sending = context.parameters.roomTemperatureSending;
-  if (step.sendC !== null) effects.push({ kind: "group.send", object: O.roomTemperature, service: "write", value: step.sendC });
+  if (step.sendC !== null)
+    effects.push({
+      kind: "group.send",
+      object: O.roomTemperature,
+      service: "write",
+      value: step.sendC,
+    });
   // Every send restarts the cycle, so cyclic and on-change sends keep the minimum interval apart.
-  if (step.sendC !== null && sendsCyclically(sending)) effects.push({ kind: "timer.set", name: ROOM_CYCLE_TIMER, delayUs: cycleUs(sending) });
-  if (step.timerDelayUs !== null) effects.push({ kind: "timer.set", name: ROOM_SEND_TIMER, delayUs: step.timerDelayUs });
+  if (step.sendC !== null && sendsCyclically(sending))
+    effects.push({ kind: "timer.set", name: ROOM_CYCLE_TIMER, delayUs: cycleUs(sending) });
+  if (step.timerDelayUs !== null)
+    effects.push({ kind: "timer.set", name: ROOM_SEND_TIMER, delayUs: step.timerDelayUs });
   return effects;
 }
 
@@ -78,64 +121,123 @@ function onUnitStatus(state: HvacGatewayState, unit: UnitStatus, context: Contex
     const pending = entry.fn !== undefined && state.pendingStatus.includes(entry.fn);
     if (!pending && context.objectValue(entry.object) === entry.value) continue;
     // The first report only fills the status objects (they answer reads); later changes are sent.
-    if (first && !pending) effects.push({ kind: "object.store", object: entry.object, value: entry.value });
+    if (first && !pending)
+      effects.push({ kind: "object.store", object: entry.object, value: entry.value });
     else {
-      effects.push({ kind: "group.send", object: entry.object, service: "write", value: entry.value });
+      effects.push({
+        kind: "group.send",
+        object: entry.object,
+        service: "write",
+        value: entry.value,
+      });
       sentStatus = true;
     }
   }
   let roomSender = state.roomSender;
   if (unit.roomC === null) {
     // DPT spec §3.10: 0x7FFF "invalid data" tells KNX the unit cannot read the room.
-    if (p.roomTemperatureSending.mode !== "off" && !isDptInvalid(context.objectValue(O.roomTemperature))) {
-      effects.push({ kind: "group.send", object: O.roomTemperature, service: "write", value: DPT9_INVALID });
+    if (
+      p.roomTemperatureSending.mode !== "off" &&
+      !isDptInvalid(context.objectValue(O.roomTemperature))
+    ) {
+      effects.push({
+        kind: "group.send",
+        object: O.roomTemperature,
+        service: "write",
+        value: DPT9_INVALID,
+      });
     }
     roomSender = initialSenderState;
-  } else if (p.roomTemperatureSending.mode === "off" || p.roomTemperatureSending.mode === "cyclic") {
-    roomSender = sampleRoomTemperature(roomSender, unit.roomC, context.nowUs, p.roomTemperatureSending).state;
+  } else if (
+    p.roomTemperatureSending.mode === "off" ||
+    p.roomTemperatureSending.mode === "cyclic"
+  ) {
+    roomSender = sampleRoomTemperature(
+      roomSender,
+      unit.roomC,
+      context.nowUs,
+      p.roomTemperatureSending,
+    ).state;
     effects.push({ kind: "object.store", object: O.roomTemperature, value: unit.roomC });
   } else {
-    const step = sampleRoomTemperature(roomSender, unit.roomC, context.nowUs, p.roomTemperatureSending);
+    const step = sampleRoomTemperature(
+      roomSender,
+      unit.roomC,
+      context.nowUs,
+      p.roomTemperatureSending,
+    );
     roomSender = step.state;
     effects.push(...roomEffects(step, context));
   }
   const faults = linkFaultEffects(state.faults, unit);
   effects.push(...faults.effects);
-  const next: HvacGatewayState = { ...state, unit, pendingStatus: [], roomSender, faults: unit.faults };
-  const refusedHere = unit.refusal?.controller === context.deviceId ? unit.refusal.transition : undefined;
+  const next: HvacGatewayState = {
+    ...state,
+    unit,
+    pendingStatus: [],
+    roomSender,
+    faults: unit.faults,
+  };
+  const refusedHere =
+    unit.refusal?.controller === context.deviceId ? unit.refusal.transition : undefined;
   const transition = refusedHere ?? faults.changed ?? (sentStatus ? "status.sent" : undefined);
   return { state: next, effects, ...(transition === undefined ? {} : { transition }) };
 }
 
 /** A command for the unit from KNX; refused while locked, with the affected status sent back. */
-function knxCommand(state: HvacGatewayState, fn: GatewayFunction, command: Omit<UnitCommand, "kind">, transition: string, context: Context): Result {
+function knxCommand(
+  state: HvacGatewayState,
+  fn: GatewayFunction,
+  command: Omit<UnitCommand, "kind">,
+  transition: string,
+  context: Context,
+): Result {
   if (state.locked) {
-    return named(state, "lock.command-refused", [{ kind: "note", text: `${fn} command refused: the gateway is locked` }, ...reassert(state, [fn], context)]);
+    return named(state, "lock.command-refused", [
+      { kind: "note", text: `${fn} command refused: the gateway is locked` },
+      ...reassert(state, [fn], context),
+    ]);
   }
-  const pendingStatus = state.pendingStatus.includes(fn) ? state.pendingStatus : [...state.pendingStatus, fn];
+  const pendingStatus = state.pendingStatus.includes(fn)
+    ? state.pendingStatus
+    : [...state.pendingStatus, fn];
   let next: HvacGatewayState = { ...state, pendingStatus };
   let held: Omit<UnitCommand, "kind"> = command;
   if (state.windowOpen && command.power !== undefined) {
     // Common practice, no published source: while the window is open the unit stays off; the wish is kept for the close.
-    next = { ...next, powerAfterWindow: command.power, pendingStatus: next.pendingStatus.filter((f) => f !== "power") };
+    next = {
+      ...next,
+      powerAfterWindow: command.power,
+      pendingStatus: next.pendingStatus.filter((f) => f !== "power"),
+    };
     held = { ...command };
     delete held.power;
-    if (Object.keys(held).length === 0) return named(next, "window.power-held", reassert(state, ["power"], context));
+    if (Object.keys(held).length === 0)
+      return named(next, "window.power-held", reassert(state, ["power"], context));
   }
   return named(next, transition, sendCommand(held, context));
 }
 
-function sceneSetting(state: HvacGatewayState, scene: number, p: HvacGatewayParameters): LearnedScene | undefined {
+function sceneSetting(
+  state: HvacGatewayState,
+  scene: number,
+  p: HvacGatewayParameters,
+): LearnedScene | undefined {
   return state.learnedScenes[scene] ?? p.scenes.find((slot) => slot.scene === scene);
 }
 
 function onScene(state: HvacGatewayState, scene: number, learn: boolean, context: Context): Result {
   const p = context.parameters;
   if (!p.scenes.some((slot) => slot.scene === scene)) {
-    return named(state, "scene.unknown", [{ kind: "note", text: `scene ${scene} has no slot on this gateway` }]);
+    return named(state, "scene.unknown", [
+      { kind: "note", text: `scene ${scene} has no slot on this gateway` },
+    ]);
   }
   if (learn) {
-    if (state.unit === null) return named(state, "scene.unknown", [{ kind: "note", text: `scene ${scene} not learned: the unit has not reported yet` }]);
+    if (state.unit === null)
+      return named(state, "scene.unknown", [
+        { kind: "note", text: `scene ${scene} not learned: the unit has not reported yet` },
+      ]);
     const unit = state.unit;
     const learned: LearnedScene = {
       power: state.windowOpen ? state.powerAfterWindow : unit.power,
@@ -143,44 +245,89 @@ function onScene(state: HvacGatewayState, scene: number, learn: boolean, context
       fanLevel: Math.min(unit.fanLevel, p.fanLevels),
       setpointC: unit.setpointC,
     };
-    return named({ ...state, learnedScenes: { ...state.learnedScenes, [scene]: learned } }, "scene.learned");
+    return named(
+      { ...state, learnedScenes: { ...state.learnedScenes, [scene]: learned } },
+      "scene.learned",
+    );
   }
   const setting = sceneSetting(state, scene, p);
   if (setting === undefined) return named(state, "scene.unknown");
   const setpointC = Math.min(p.setpointMaxC, Math.max(p.setpointMinC, setting.setpointC));
-  const result = knxCommand(state, "power", { power: setting.power, mode: setting.mode, fanLevel: setting.fanLevel, setpointC }, "scene.recalled", context);
-  if (result.transition !== "scene.recalled" && result.transition !== "window.power-held") return result;
-  const pendingStatus = [...new Set<GatewayFunction>([...result.state.pendingStatus, "mode", "fan", "setpoint"])];
+  const result = knxCommand(
+    state,
+    "power",
+    { power: setting.power, mode: setting.mode, fanLevel: setting.fanLevel, setpointC },
+    "scene.recalled",
+    context,
+  );
+  if (result.transition !== "scene.recalled" && result.transition !== "window.power-held")
+    return result;
+  const pendingStatus = [
+    ...new Set<GatewayFunction>([...result.state.pendingStatus, "mode", "fan", "setpoint"]),
+  ];
   return { ...result, state: { ...result.state, pendingStatus }, transition: "scene.recalled" };
 }
 
-function onWrite(state: HvacGatewayState, object: number, value: unknown, context: Context): Result {
+function onWrite(
+  state: HvacGatewayState,
+  object: number,
+  value: unknown,
+  context: Context,
+): Result {
   const p = context.parameters;
   switch (object) {
     case O.power:
       return knxCommand(state, "power", { power: value === true }, "power.switched", context);
     case O.setpoint: {
-      if (typeof value !== "number") return named(state, "setpoint.refused", reassert(state, ["setpoint"], context));
+      if (typeof value !== "number")
+        return named(state, "setpoint.refused", reassert(state, ["setpoint"], context));
       const setpointC = Math.min(p.setpointMaxC, Math.max(p.setpointMinC, value));
-      return knxCommand(state, "setpoint", { setpointC }, setpointC === value ? "setpoint.accepted" : "setpoint.clamped", context);
+      return knxCommand(
+        state,
+        "setpoint",
+        { setpointC },
+        setpointC === value ? "setpoint.accepted" : "setpoint.clamped",
+        context,
+      );
     }
     case O.mode: {
       const mode = typeof value === "number" ? modeFromDpt20105(value) : undefined;
       if (mode === undefined || p.modeControl !== "full") {
-        return named(state, "mode.refused", [{ kind: "note", text: `DPT 20.105 code ${String(value)} is not a mode the unit runs (0, 1, 3, 9, 14)` }, ...reassert(state, ["mode"], context)]);
+        return named(state, "mode.refused", [
+          {
+            kind: "note",
+            text: `DPT 20.105 code ${String(value)} is not a mode the unit runs (0, 1, 3, 9, 14)`,
+          },
+          ...reassert(state, ["mode"], context),
+        ]);
       }
       return knxCommand(state, "mode", { mode }, "mode.selected", context);
     }
     case O.heatCool:
       // DPT spec §4.2 (1.100): 0 = cooling, 1 = heating.
-      return knxCommand(state, "mode", { mode: modeFromDpt1100(value === true) }, "mode.selected", context);
+      return knxCommand(
+        state,
+        "mode",
+        { mode: modeFromDpt1100(value === true) },
+        "mode.selected",
+        context,
+      );
     case O.fan: {
       if (typeof value !== "number") return named(state, "fan.refused");
       if (value === 0 && !p.fanAuto) {
-        return named(state, "fan.refused", [{ kind: "note", text: "fan level 0 (automatic) is not enabled" }, ...reassert(state, ["fan"], context)]);
+        return named(state, "fan.refused", [
+          { kind: "note", text: "fan level 0 (automatic) is not enabled" },
+          ...reassert(state, ["fan"], context),
+        ]);
       }
       const fanLevel = Math.min(value, p.fanLevels);
-      return knxCommand(state, "fan", { fanLevel }, fanLevel === value ? "fan.selected" : "fan.clamped", context);
+      return knxCommand(
+        state,
+        "fan",
+        { fanLevel },
+        fanLevel === value ? "fan.selected" : "fan.clamped",
+        context,
+      );
     }
     case O.louvre:
       if (!p.louvre || typeof value !== "number") return named(state, "louvre.refused");
@@ -188,7 +335,9 @@ function onWrite(state: HvacGatewayState, object: number, value: unknown, contex
     case O.externalRoomTemperature:
       return onExternalRoom(state, value, context);
     case O.scene:
-      return typeof value === "number" ? onScene(state, value, false, context) : named(state, "scene.unknown");
+      return typeof value === "number"
+        ? onScene(state, value, false, context)
+        : named(state, "scene.unknown");
     case O.sceneControl: {
       const control = value as { learn?: unknown; scene?: unknown } | null;
       if (typeof control?.scene !== "number") return named(state, "scene.unknown");
@@ -198,7 +347,10 @@ function onWrite(state: HvacGatewayState, object: number, value: unknown, contex
       return onWindow(state, value === true, context);
     case O.lock:
       if ((value === true) === state.locked) return { state, effects: [] };
-      return named({ ...state, locked: value === true }, value === true ? "lock.engaged" : "lock.released");
+      return named(
+        { ...state, locked: value === true },
+        value === true ? "lock.engaged" : "lock.released",
+      );
     default:
       return { state, effects: [] };
   }
@@ -208,8 +360,12 @@ function onExternalRoom(state: HvacGatewayState, value: unknown, context: Contex
   const p = context.parameters;
   if (p.roomTemperatureSource !== "external") return { state, effects: [] };
   // Common practice, no published source: only the primary controller may supply the room temperature.
-  if (p.role !== "primary") return named(state, "room.external-refused", [{ kind: "note", text: "external room temperature ignored: this gateway is secondary" }]);
-  if (typeof value !== "number" || isDptInvalid(value)) return named(state, "room.external-invalid");
+  if (p.role !== "primary")
+    return named(state, "room.external-refused", [
+      { kind: "note", text: "external room temperature ignored: this gateway is secondary" },
+    ]);
+  if (typeof value !== "number" || isDptInvalid(value))
+    return named(state, "room.external-invalid");
   return named(state, "room.external-updated", sendCommand({ externalRoomC: value }, context));
 }
 
@@ -218,45 +374,80 @@ function onWindow(state: HvacGatewayState, open: boolean, context: Context): Res
   if (open === state.windowOpen) return { state, effects: [] };
   if (open) {
     const wasOn = state.unit?.power ?? false;
-    return named({ ...state, windowOpen: true, powerAfterWindow: wasOn }, "window.opened", wasOn ? sendCommand({ power: false }, context) : []);
+    return named(
+      { ...state, windowOpen: true, powerAfterWindow: wasOn },
+      "window.opened",
+      wasOn ? sendCommand({ power: false }, context) : [],
+    );
   }
   const next = { ...state, windowOpen: false };
-  return named(next, "window.closed", state.powerAfterWindow ? sendCommand({ power: true }, context) : []);
+  return named(
+    next,
+    "window.closed",
+    state.powerAfterWindow ? sendCommand({ power: true }, context) : [],
+  );
 }
 
 function onTimer(state: HvacGatewayState, name: string, context: Context): Result {
   const sending = context.parameters.roomTemperatureSending;
   if (name === ROOM_SEND_TIMER) {
     const step = sendDueRoomTemperature(state.roomSender, context.nowUs, sending);
-    return { state: { ...state, roomSender: step.state }, effects: roomEffects(step, context), ...(step.sendC !== null ? { transition: "room.temperature-sent" } : {}) };
+    return {
+      state: { ...state, roomSender: step.state },
+      effects: roomEffects(step, context),
+      ...(step.sendC !== null ? { transition: "room.temperature-sent" } : {}),
+    };
   }
   if (name === ROOM_CYCLE_TIMER) {
     const step = sendCyclicRoomTemperature(state.roomSender, context.nowUs);
     // Nothing to send yet (no reading): try again after a cycle; a send restarts the timer itself.
-    const again: DeviceEffect[] = step.sendC === null ? [{ kind: "timer.set", name: ROOM_CYCLE_TIMER, delayUs: cycleUs(sending) }] : [];
-    return { state: { ...state, roomSender: step.state }, effects: [...roomEffects(step, context), ...again], ...(step.sendC !== null ? { transition: "room.temperature-sent" } : {}) };
+    const again: DeviceEffect[] =
+      step.sendC === null
+        ? [{ kind: "timer.set", name: ROOM_CYCLE_TIMER, delayUs: cycleUs(sending) }]
+        : [];
+    return {
+      state: { ...state, roomSender: step.state },
+      effects: [...roomEffects(step, context), ...again],
+      ...(step.sendC !== null ? { transition: "room.temperature-sent" } : {}),
+    };
   }
   return { state, effects: [] };
 }
 
 /** The HVAC gateway's pure transition. */
-export function hvacGatewayTransition(state: HvacGatewayState, event: DeviceEvent, context: Context): Result {
+export function hvacGatewayTransition(
+  state: HvacGatewayState,
+  event: DeviceEvent,
+  context: Context,
+): Result {
   const p = context.parameters;
   return withRoleAnnouncement(state, event, p.role, "gateway", context.links, (current) => {
     switch (event.kind) {
       case "start": {
         const effects = periodicAnnounceEffects(p.role, "gateway", context.links);
-        if (sendsCyclically(p.roomTemperatureSending)) effects.push({ kind: "timer.set", name: ROOM_CYCLE_TIMER, delayUs: cycleUs(p.roomTemperatureSending) });
+        if (sendsCyclically(p.roomTemperatureSending))
+          effects.push({
+            kind: "timer.set",
+            name: ROOM_CYCLE_TIMER,
+            delayUs: cycleUs(p.roomTemperatureSending),
+          });
         return named({ ...current, announcedRole: p.role }, "controller.started", effects);
       }
       case "group.write":
       case "group.response":
         // Responses only reach input objects (update flag): external temperature, window contact.
-        if (event.kind === "group.response" && event.object !== O.externalRoomTemperature && event.object !== O.windowContact) return { state: current, effects: [] };
+        if (
+          event.kind === "group.response" &&
+          event.object !== O.externalRoomTemperature &&
+          event.object !== O.windowContact
+        )
+          return { state: current, effects: [] };
         return onWrite(current, event.object, event.value, context);
       case "link.receive": {
         const message = parseUnitLinkMessage(event.message);
-        return message?.kind === "unit.status" ? onUnitStatus(current, message, context) : { state: current, effects: [] };
+        return message?.kind === "unit.status"
+          ? onUnitStatus(current, message, context)
+          : { state: current, effects: [] };
       }
       case "timer":
         return onTimer(current, event.name, context);

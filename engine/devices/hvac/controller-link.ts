@@ -1,26 +1,45 @@
 import type { DeviceEffect, DeviceEvent, TransitionResult } from "../device-type";
 import { linkFaults } from "./fault-ids";
-import { CONTROLLER_ANNOUNCE_PERIOD_US, type ControllerAnnounce, type ControllerRole, type UnitStatus } from "./unit-link-messages";
+import {
+  CONTROLLER_ANNOUNCE_PERIOD_US,
+  type ControllerAnnounce,
+  type ControllerRole,
+  type UnitStatus,
+} from "./unit-link-messages";
 
 /** Timer name controllers use for their periodic announcement. */
 export const ANNOUNCE_TIMER = "link.announce";
 
 /** Announce `role` on every link the controller is on. */
-export function announceEffects(role: ControllerRole, controller: ControllerAnnounce["controller"], links: readonly string[]): DeviceEffect[] {
+export function announceEffects(
+  role: ControllerRole,
+  controller: ControllerAnnounce["controller"],
+  links: readonly string[],
+): DeviceEffect[] {
   const message: ControllerAnnounce = { kind: "controller.announce", role, controller };
   return links.map((link) => ({ kind: "link.send", link, message }));
 }
 
 /** Announce now and again after one period; a role changed in the bench reaches the unit within a period. */
-export function periodicAnnounceEffects(role: ControllerRole, controller: ControllerAnnounce["controller"], links: readonly string[]): DeviceEffect[] {
-  return [...announceEffects(role, controller, links), { kind: "timer.set", name: ANNOUNCE_TIMER, delayUs: CONTROLLER_ANNOUNCE_PERIOD_US }];
+export function periodicAnnounceEffects(
+  role: ControllerRole,
+  controller: ControllerAnnounce["controller"],
+  links: readonly string[],
+): DeviceEffect[] {
+  return [
+    ...announceEffects(role, controller, links),
+    { kind: "timer.set", name: ANNOUNCE_TIMER, delayUs: CONTROLLER_ANNOUNCE_PERIOD_US },
+  ];
 }
 
 /**
  * The link faults a controller shows, raised and cleared as the unit's status changes,
  * so each controller's own fault list (its display, the gateway's fault objects) follows the unit.
  */
-export function linkFaultEffects(before: readonly string[], status: UnitStatus): { effects: DeviceEffect[]; changed: string | undefined } {
+export function linkFaultEffects(
+  before: readonly string[],
+  status: UnitStatus,
+): { effects: DeviceEffect[]; changed: string | undefined } {
   const now = status.faults;
   const effects: DeviceEffect[] = [];
   let changed: string | undefined;
@@ -55,9 +74,13 @@ export function withRoleAnnouncement<S extends { readonly announcedRole: Control
   inner: (state: S) => TransitionResult<S>,
 ): TransitionResult<S> {
   if (event.kind === "timer" && event.name === ANNOUNCE_TIMER) {
-    return { state: { ...state, announcedRole: role }, effects: periodicAnnounceEffects(role, controller, links) };
+    return {
+      state: { ...state, announcedRole: role },
+      effects: periodicAnnounceEffects(role, controller, links),
+    };
   }
-  const roleChanged = event.kind !== "start" && state.announcedRole !== null && state.announcedRole !== role;
+  const roleChanged =
+    event.kind !== "start" && state.announcedRole !== null && state.announcedRole !== role;
   const result = inner(roleChanged ? { ...state, announcedRole: role } : state);
   if (!roleChanged) return result;
   return {

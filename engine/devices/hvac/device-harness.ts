@@ -52,7 +52,10 @@ export class DeviceHarness {
   readonly transitions: RecordedTransition[] = [];
   readonly notes: { timeUs: number; device: string; text: string }[] = [];
   readonly faults = new Map<string, Set<string>>();
-  private readonly devices = new Map<string, { type: AnyDeviceType; parameters: unknown; state: unknown; objects: Map<number, unknown> }>();
+  private readonly devices = new Map<
+    string,
+    { type: AnyDeviceType; parameters: unknown; state: unknown; objects: Map<number, unknown> }
+  >();
   private readonly queue: Pending[] = [];
   private readonly timers = new Map<string, number>();
   private seq = 0;
@@ -63,7 +66,12 @@ export class DeviceHarness {
   ) {
     for (const member of members) {
       const parameters = member.type.parameters.parse(member.parameters ?? {});
-      this.devices.set(member.id, { type: member.type, parameters, state: member.type.initialState(parameters), objects: new Map() });
+      this.devices.set(member.id, {
+        type: member.type,
+        parameters,
+        state: member.type.initialState(parameters),
+        objects: new Map(),
+      });
       this.faults.set(member.id, new Set());
     }
   }
@@ -77,7 +85,8 @@ export class DeviceHarness {
   /** Delivers an event now; a group write or response also stores the object value first, as the runtime does. */
   dispatch(device: string, event: DeviceEvent): TransitionResult<unknown> {
     const entry = this.entry(device);
-    if (event.kind === "group.write" || event.kind === "group.response") entry.objects.set(event.object, event.value);
+    if (event.kind === "group.write" || event.kind === "group.response")
+      entry.objects.set(event.object, event.value);
     const links = this.links.filter((link) => link.members.includes(device)).map((link) => link.id);
     const result = entry.type.transition(entry.state, event, {
       nowUs: this.nowUs,
@@ -89,7 +98,13 @@ export class DeviceHarness {
       random: () => 0.5,
     });
     entry.state = result.state;
-    if (result.transition !== undefined) this.transitions.push({ timeUs: this.nowUs, device, event: event.kind, transition: result.transition });
+    if (result.transition !== undefined)
+      this.transitions.push({
+        timeUs: this.nowUs,
+        device,
+        event: event.kind,
+        transition: result.transition,
+      });
     for (const effect of result.effects) this.apply(device, effect);
     return result;
   }
@@ -106,7 +121,10 @@ export class DeviceHarness {
   /** Changes a parameter in place (as a person editing the bench does); the device sees it on its next transition. */
   setParameter(device: string, key: string, value: unknown): void {
     const entry = this.entry(device);
-    entry.parameters = entry.type.parameters.parse({ ...(entry.parameters as object), [key]: value });
+    entry.parameters = entry.type.parameters.parse({
+      ...(entry.parameters as object),
+      [key]: value,
+    });
   }
 
   /** Runs queued events (timers, link messages) up to and including `untilUs`, then sets the clock there. */
@@ -116,7 +134,11 @@ export class DeviceHarness {
       const next = this.queue[0];
       if (next === undefined || next.atUs > untilUs) break;
       this.queue.shift();
-      if (next.event.kind === "timer" && this.timers.get(`${next.device}:${next.event.name}`) !== next.timerToken) continue;
+      if (
+        next.event.kind === "timer" &&
+        this.timers.get(`${next.device}:${next.event.name}`) !== next.timerToken
+      )
+        continue;
       if (next.event.kind === "timer") this.timers.delete(`${next.device}:${next.event.name}`);
       this.nowUs = next.atUs;
       this.dispatch(next.device, next.event);
@@ -144,7 +166,9 @@ export class DeviceHarness {
   }
 
   transitionNames(device?: string): string[] {
-    return this.transitions.filter((t) => device === undefined || t.device === device).map((t) => t.transition);
+    return this.transitions
+      .filter((t) => device === undefined || t.device === device)
+      .map((t) => t.transition);
   }
 
   private entry(device: string) {
@@ -158,7 +182,13 @@ export class DeviceHarness {
     switch (effect.kind) {
       case "group.send":
         entry.objects.set(effect.object, effect.value);
-        this.sent.push({ timeUs: this.nowUs, device, object: effect.object, service: effect.service, value: effect.value });
+        this.sent.push({
+          timeUs: this.nowUs,
+          device,
+          object: effect.object,
+          service: effect.service,
+          value: effect.value,
+        });
         return;
       case "object.store":
         entry.objects.set(effect.object, effect.value);
@@ -168,8 +198,17 @@ export class DeviceHarness {
       case "timer.set": {
         const token = ++this.seq;
         this.timers.set(`${device}:${effect.name}`, token);
-        const event: DeviceEvent = effect.data === undefined ? { kind: "timer", name: effect.name } : { kind: "timer", name: effect.name, data: effect.data };
-        this.queue.push({ atUs: this.nowUs + effect.delayUs, seq: token, device, event, timerToken: token });
+        const event: DeviceEvent =
+          effect.data === undefined
+            ? { kind: "timer", name: effect.name }
+            : { kind: "timer", name: effect.name, data: effect.data };
+        this.queue.push({
+          atUs: this.nowUs + effect.delayUs,
+          seq: token,
+          device,
+          event,
+          timerToken: token,
+        });
         return;
       }
       case "timer.cancel":
@@ -177,7 +216,8 @@ export class DeviceHarness {
         return;
       case "link.send": {
         const link = this.links.find((candidate) => candidate.id === effect.link);
-        if (link === undefined) throw new Error(`device "${device}" sent on unknown link "${effect.link}"`);
+        if (link === undefined)
+          throw new Error(`device "${device}" sent on unknown link "${effect.link}"`);
         for (const member of link.members) {
           // Members the test plays by hand (not harness devices) just do not receive.
           if (member === device || !this.devices.has(member)) continue;

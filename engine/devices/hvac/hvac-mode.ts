@@ -23,7 +23,13 @@ const modeByDpt20105 = new Map<number, HvacMode>([
   [9, "fan"],
   [14, "dry"],
 ]);
-const dpt20105ByMode: Readonly<Record<HvacMode, number>> = { auto: 0, heat: 1, cool: 3, fan: 9, dry: 14 };
+const dpt20105ByMode: Readonly<Record<HvacMode, number>> = {
+  auto: 0,
+  heat: 1,
+  cool: 3,
+  fan: 9,
+  dry: 14,
+};
 
 /** The DPT 20.105 code (0 auto, 1 heat, 3 cool, 9 fan only, 14 dehumidification) of a unit mode. */
 export function dpt20105FromMode(mode: HvacMode): number {
@@ -45,7 +51,10 @@ export function modeFromDpt1100(heating: boolean): HvacMode {
  * (dehumidification runs the refrigerant cycle as cooling); fan has no heat/cool
  * meaning, so undefined (the status keeps its last value).
  */
-export function dpt1100FromMode(mode: HvacMode, autoDirection: SystemDirection): boolean | undefined {
+export function dpt1100FromMode(
+  mode: HvacMode,
+  autoDirection: SystemDirection,
+): boolean | undefined {
   if (mode === "heat") return true;
   if (mode === "cool" || mode === "dry") return false;
   if (mode === "auto") return autoDirection === "none" ? undefined : autoDirection === "heating";

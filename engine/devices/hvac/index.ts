@@ -1,6 +1,23 @@
 /** Shared pieces of the HVAC family: modes, fault ids, the unit-link protocol, sending rules and bench rules. */
-export { checkHvacBench, validateHvacBench, type HvacBenchFinding, type HvacBenchInput, type HvacRuleId } from "./bench-rules";
+export {
+  checkHvacBench,
+  validateHvacBench,
+  type HvacBenchFinding,
+  type HvacBenchInput,
+  type HvacRuleId,
+} from "./bench-rules";
 export { faultDisplayText, hvacFaults, type HvacFaultId } from "./fault-ids";
-export { dpt1100FromMode, dpt20105FromMode, hvacModes, modeFromDpt1100, modeFromDpt20105, type HvacMode, type SystemDirection } from "./hvac-mode";
-export { roomTemperatureSendingSchema, type RoomTemperatureSending } from "./room-temperature-sending";
+export {
+  dpt1100FromMode,
+  dpt20105FromMode,
+  hvacModes,
+  modeFromDpt1100,
+  modeFromDpt20105,
+  type HvacMode,
+  type SystemDirection,
+} from "./hvac-mode";
+export {
+  roomTemperatureSendingSchema,
+  type RoomTemperatureSending,
+} from "./room-temperature-sending";
 export { unitLinkMessageSchema, type UnitLinkMessage } from "./unit-link-messages";

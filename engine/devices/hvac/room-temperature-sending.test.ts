@@ -39,12 +39,16 @@ function runPath(startC: number, steps: readonly Step[], config: RoomTemperature
   const check = (nowUs: number) => {
     // Oracle in whole hundredths of a kelvin (the DPT 9.001 resolution), independent of the sender's own comparison.
     if (state.currentC === null || state.lastSentC === null || state.lastSentUs === null) return;
-    const changed = Math.abs(centi(state.currentC) - centi(state.lastSentC)) >= Math.round(config.deltaK * 100);
-    if (changed && nowUs >= state.lastSentUs + minIntervalUs) violations.push(`change ${state.lastSentC} -> ${state.currentC} unsent at ${nowUs} µs`);
+    const changed =
+      Math.abs(centi(state.currentC) - centi(state.lastSentC)) >= Math.round(config.deltaK * 100);
+    if (changed && nowUs >= state.lastSentUs + minIntervalUs)
+      violations.push(`change ${state.lastSentC} -> ${state.currentC} unsent at ${nowUs} µs`);
   };
   const runTimersUntil = (untilUs: number) => {
     for (;;) {
-      const candidates = [dueUs, nextCycleUs].filter((t): t is number => t !== null && t <= untilUs);
+      const candidates = [dueUs, nextCycleUs].filter(
+        (t): t is number => t !== null && t <= untilUs,
+      );
       if (candidates.length === 0) return;
       const atUs = Math.min(...candidates);
       if (atUs === dueUs) {
@@ -71,12 +75,19 @@ function runPath(startC: number, steps: readonly Step[], config: RoomTemperature
   return { sends, violations };
 }
 
-const stepArbitrary = fc.record({ dtUs: fc.integer({ min: 0, max: 90 * S }), deltaCentiK: fc.integer({ min: -40, max: 40 }) });
-const pathArbitrary = fc.tuple(fc.integer({ min: 1000, max: 3000 }).map((c) => c / 100), fc.array(stepArbitrary, { maxLength: 200 }));
+const stepArbitrary = fc.record({
+  dtUs: fc.integer({ min: 0, max: 90 * S }),
+  deltaCentiK: fc.integer({ min: -40, max: 40 }),
+});
+const pathArbitrary = fc.tuple(
+  fc.integer({ min: 1000, max: 3000 }).map((c) => c / 100),
+  fc.array(stepArbitrary, { maxLength: 200 }),
+);
 
 function minGapUs(sends: readonly { timeUs: number }[]): number {
   let gap = Number.POSITIVE_INFINITY;
-  for (let i = 1; i < sends.length; i++) gap = Math.min(gap, (sends[i]?.timeUs ?? 0) - (sends[i - 1]?.timeUs ?? 0));
+  for (let i = 1; i < sends.length; i++)
+    gap = Math.min(gap, (sends[i]?.timeUs ?? 0) - (sends[i - 1]?.timeUs ?? 0));
   return gap;
 }
 
@@ -102,12 +113,21 @@ describe("room temperature sending on change", () => {
 
   it("keeps both rules for any delta and interval (property)", () => {
     fc.assert(
-      fc.property(pathArbitrary, fc.integer({ min: 1, max: 100 }), fc.integer({ min: 0, max: 120 }), ([startC, steps], deltaCentiK, minIntervalS) => {
-        const custom = roomTemperatureSendingSchema.parse({ mode: "on-change", deltaK: deltaCentiK / 100, minIntervalS });
-        const run = runPath(startC, steps, custom);
-        expect(run.violations).toEqual([]);
-        expect(minGapUs(run.sends)).toBeGreaterThanOrEqual(minIntervalS * S);
-      }),
+      fc.property(
+        pathArbitrary,
+        fc.integer({ min: 1, max: 100 }),
+        fc.integer({ min: 0, max: 120 }),
+        ([startC, steps], deltaCentiK, minIntervalS) => {
+          const custom = roomTemperatureSendingSchema.parse({
+            mode: "on-change",
+            deltaK: deltaCentiK / 100,
+            minIntervalS,
+          });
+          const run = runPath(startC, steps, custom);
+          expect(run.violations).toEqual([]);
+          expect(minGapUs(run.sends)).toBeGreaterThanOrEqual(minIntervalS * S);
+        },
+      ),
     );
   });
 

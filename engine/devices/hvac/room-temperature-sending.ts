@@ -8,7 +8,11 @@ import { z } from "zod";
 export const roomTemperatureSendingSchema = z.object({
   mode: z.enum(["off", "on-change", "cyclic", "on-change-and-cyclic"]).default("on-change"),
   /** Smallest change that triggers a send, kelvin. */
-  deltaK: z.number().min(0.01, "deltaK must be at least 0.01 K (the DPT 9.001 resolution)").max(10).default(0.1),
+  deltaK: z
+    .number()
+    .min(0.01, "deltaK must be at least 0.01 K (the DPT 9.001 resolution)")
+    .max(10)
+    .default(0.1),
   /** Minimum time between two on-change sends, seconds. */
   minIntervalS: z.number().min(0).max(3600).default(30),
   /** Longest silence with cyclic sending, seconds: every send (cyclic or on change) restarts the cycle. */
@@ -25,7 +29,12 @@ export interface RoomTemperatureSenderState {
   readonly pending: boolean;
 }
 
-export const initialSenderState: RoomTemperatureSenderState = { lastSentC: null, lastSentUs: null, currentC: null, pending: false };
+export const initialSenderState: RoomTemperatureSenderState = {
+  lastSentC: null,
+  lastSentUs: null,
+  currentC: null,
+  pending: false,
+};
 
 /** The sender's decision: the value to send now (if any) and the delay of a follow-up timer (if any). */
 export interface SenderStep {
@@ -41,13 +50,21 @@ function quantize(valueC: number): number {
   return Math.round(valueC * 100) / 100;
 }
 
-function changedEnough(state: RoomTemperatureSenderState, valueC: number, config: RoomTemperatureSending): boolean {
+function changedEnough(
+  state: RoomTemperatureSenderState,
+  valueC: number,
+  config: RoomTemperatureSending,
+): boolean {
   // The half-resolution margin keeps 21.1 - 21.0 (0.0999… in binary) counted as a 0.1 K change.
   return state.lastSentC === null || Math.abs(valueC - state.lastSentC) >= config.deltaK - 0.005;
 }
 
 function sendNow(state: RoomTemperatureSenderState, valueC: number, nowUs: number): SenderStep {
-  return { state: { ...state, currentC: valueC, lastSentC: valueC, lastSentUs: nowUs, pending: false }, sendC: valueC, timerDelayUs: null };
+  return {
+    state: { ...state, currentC: valueC, lastSentC: valueC, lastSentUs: nowUs, pending: false },
+    sendC: valueC,
+    timerDelayUs: null,
+  };
 }
 
 function sendsOnChange(config: RoomTemperatureSending): boolean {
@@ -69,22 +86,37 @@ export function sampleRoomTemperature(
   const value = quantize(valueC);
   const next = { ...state, currentC: value };
   if (!sendsOnChange(config)) return { state: next, sendC: null, timerDelayUs: null };
-  if (!changedEnough(state, value, config)) return { state: { ...next, pending: false }, sendC: null, timerDelayUs: null };
+  if (!changedEnough(state, value, config))
+    return { state: { ...next, pending: false }, sendC: null, timerDelayUs: null };
   const minIntervalUs = Math.round(config.minIntervalS * US_PER_S);
-  if (state.lastSentUs === null || nowUs - state.lastSentUs >= minIntervalUs) return sendNow(state, value, nowUs);
+  if (state.lastSentUs === null || nowUs - state.lastSentUs >= minIntervalUs)
+    return sendNow(state, value, nowUs);
   if (state.pending) return { state: next, sendC: null, timerDelayUs: null };
-  return { state: { ...next, pending: true }, sendC: null, timerDelayUs: state.lastSentUs + minIntervalUs - nowUs };
+  return {
+    state: { ...next, pending: true },
+    sendC: null,
+    timerDelayUs: state.lastSentUs + minIntervalUs - nowUs,
+  };
 }
 
 /** The minimum interval after the last send has passed: send the held change if it still counts. */
-export function sendDueRoomTemperature(state: RoomTemperatureSenderState, nowUs: number, config: RoomTemperatureSending): SenderStep {
-  if (!state.pending || state.currentC === null) return { state: { ...state, pending: false }, sendC: null, timerDelayUs: null };
-  if (!changedEnough(state, state.currentC, config)) return { state: { ...state, pending: false }, sendC: null, timerDelayUs: null };
+export function sendDueRoomTemperature(
+  state: RoomTemperatureSenderState,
+  nowUs: number,
+  config: RoomTemperatureSending,
+): SenderStep {
+  if (!state.pending || state.currentC === null)
+    return { state: { ...state, pending: false }, sendC: null, timerDelayUs: null };
+  if (!changedEnough(state, state.currentC, config))
+    return { state: { ...state, pending: false }, sendC: null, timerDelayUs: null };
   return sendNow(state, state.currentC, nowUs);
 }
 
 /** The cycle timer fired: send the current value (if known); an on-change send then waits the minimum interval again. */
-export function sendCyclicRoomTemperature(state: RoomTemperatureSenderState, nowUs: number): SenderStep {
+export function sendCyclicRoomTemperature(
+  state: RoomTemperatureSenderState,
+  nowUs: number,
+): SenderStep {
   if (state.currentC === null) return { state, sendC: null, timerDelayUs: null };
   return sendNow(state, state.currentC, nowUs);
 }

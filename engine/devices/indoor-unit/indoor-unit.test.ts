@@ -9,15 +9,22 @@ const S = 1_000_000;
 
 /** An indoor unit alone on link "l1"; controllers are played by hand through link.receive events. */
 function unitAlone(parameters: Record<string, unknown> = {}) {
-  const harness = new DeviceHarness([{ id: "unit", type: indoorUnitType, parameters }], [{ id: "l1", members: ["unit", "gw", "wc"] }]);
+  const harness = new DeviceHarness(
+    [{ id: "unit", type: indoorUnitType, parameters }],
+    [{ id: "l1", members: ["unit", "gw", "wc"] }],
+  );
   harness.start();
-  const say = (from: string, message: unknown) => harness.dispatch("unit", { kind: "link.receive", link: "l1", from, message });
-  const announce = (from: string, role: "primary" | "secondary") => say(from, { kind: "controller.announce", role, controller: "gateway" });
+  const say = (from: string, message: unknown) =>
+    harness.dispatch("unit", { kind: "link.receive", link: "l1", from, message });
+  const announce = (from: string, role: "primary" | "secondary") =>
+    say(from, { kind: "controller.announce", role, controller: "gateway" });
   return { harness, say, announce, state: () => harness.state<IndoorUnitState>("unit") };
 }
 
 function lastStatus(result: { effects: readonly { kind: string }[] }): UnitStatus | undefined {
-  const sends = result.effects.filter((effect) => effect.kind === "link.send") as { message: UnitStatus }[];
+  const sends = result.effects.filter((effect) => effect.kind === "link.send") as unknown as {
+    message: UnitStatus;
+  }[];
   return sends.at(-1)?.message;
 }
 
@@ -27,7 +34,12 @@ describe("indoor unit thermal model", () => {
     const T0 = 24;
     const Ta = 8;
     const tauS = 1800;
-    const { harness, state } = unitAlone({ initialRoomC: T0, outdoorC: Ta, timeConstantS: tauS, modelStepS: 10 });
+    const { harness, state } = unitAlone({
+      initialRoomC: T0,
+      outdoorC: Ta,
+      timeConstantS: tauS,
+      modelStepS: 10,
+    });
     for (let minute = 1; minute <= 180; minute++) {
       harness.runUntil(minute * 60 * S);
       const analytic = Ta + (T0 - Ta) * Math.exp((-minute * 60) / tauS);
@@ -40,14 +52,23 @@ describe("indoor unit thermal model", () => {
     const model = { outdoorC: 0, timeConstantS: 600, rateKPerMin: 1 };
     const idle = { direction: "none" as const, setpointC: 20, rateFactor: 1 };
     const oneStep = stepRoomTemperature(20, 900, idle, model);
-    const threeSteps = stepRoomTemperature(stepRoomTemperature(stepRoomTemperature(20, 100, idle, model), 300, idle, model), 500, idle, model);
+    const threeSteps = stepRoomTemperature(
+      stepRoomTemperature(stepRoomTemperature(20, 100, idle, model), 300, idle, model),
+      500,
+      idle,
+      model,
+    );
     expect(threeSteps).toBeCloseTo(oneStep, 10);
     expect(oneStep).toBeCloseTo(20 * Math.exp(-1.5), 10);
   });
 
   it("heats toward the setpoint at the bounded rate and holds it there", () => {
     // Model definition (issue): driven toward setpoint at rateKPerMin; 0.2 K/min for 10 min = 2 K.
-    const { harness, state, say, announce } = unitAlone({ initialRoomC: 18, outdoorC: 5, rateKPerMin: 0.2 });
+    const { harness, state, say, announce } = unitAlone({
+      initialRoomC: 18,
+      outdoorC: 5,
+      rateKPerMin: 0.2,
+    });
     announce("gw", "primary");
     say("gw", { kind: "unit.command", power: true, mode: "heat", setpointC: 22 });
     harness.runUntil(10 * 60 * S);
@@ -57,7 +78,11 @@ describe("indoor unit thermal model", () => {
   });
 
   it("in fan mode drifts like an idle room", () => {
-    const { harness, state, say, announce } = unitAlone({ initialRoomC: 25, outdoorC: 15, timeConstantS: 1200 });
+    const { harness, state, say, announce } = unitAlone({
+      initialRoomC: 25,
+      outdoorC: 15,
+      timeConstantS: 1200,
+    });
     announce("gw", "primary");
     say("gw", { kind: "unit.command", power: true, mode: "fan" });
     harness.runUntil(1200 * S);
@@ -83,7 +108,9 @@ describe("indoor unit controller roles", () => {
     const cleared = announce("wc", "secondary");
     expect(cleared.transition).toBe("link.fault-cleared");
     expect(harness.faults.get("unit")?.size).toBe(0);
-    expect(say("wc", { kind: "unit.command", power: true }).transition).toBe("unit.command-applied");
+    expect(say("wc", { kind: "unit.command", power: true }).transition).toBe(
+      "unit.command-applied",
+    );
     expect(state().power).toBe(true);
   });
 
@@ -110,7 +137,9 @@ describe("indoor unit controller roles", () => {
     const { state, say, announce } = unitAlone({ initialRoomC: 20 });
     announce("gw", "primary");
     announce("wc", "secondary");
-    expect(say("wc", { kind: "unit.command", externalRoomC: 23.5 }).transition).toBe("room.external-refused");
+    expect(say("wc", { kind: "unit.command", externalRoomC: 23.5 }).transition).toBe(
+      "room.external-refused",
+    );
     expect(state().externalRoomC).toBeNull();
     const accepted = say("gw", { kind: "unit.command", externalRoomC: 23.5 });
     expect(lastStatus(accepted)?.roomC).toBe(23.5);

@@ -12,7 +12,8 @@ import { indoorUnitTransition } from "./transition";
 export const indoorUnitType: DeviceType<IndoorUnitParameters, IndoorUnitState> = {
   id: "indoor-unit",
   label: "Indoor unit",
-  description: "Air-conditioning indoor unit on a unit link, with a first-order room model; not on KNX.",
+  description:
+    "Air-conditioning indoor unit on a unit link, with a first-order room model; not on KNX.",
   medium: "unit-link",
   parameters: indoorUnitParametersSchema,
   groupObjects: () => [],

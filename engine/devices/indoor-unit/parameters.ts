@@ -9,7 +9,11 @@ export const indoorUnitParametersSchema = z.object({
   /** Outdoor temperature the room drifts toward while the unit is off or only moves air. */
   outdoorC: z.number().min(-40).max(50).default(10),
   /** Time constant τ of the room's first-order cooling toward outdoor (Newton's law of cooling). */
-  timeConstantS: z.number().positive("timeConstantS must be above 0 s").max(1_000_000).default(3600),
+  timeConstantS: z
+    .number()
+    .positive("timeConstantS must be above 0 s")
+    .max(1_000_000)
+    .default(3600),
   /** Fastest change heating or cooling can drive the room, kelvin per minute. */
   rateKPerMin: z.number().positive("rateKPerMin must be above 0 K/min").max(10).default(0.2),
   /** Period of the thermal model step, virtual seconds. */

@@ -26,16 +26,25 @@ export interface RoomModel {
  * but holds it at the setpoint (the compressor restarts there), so a heating
  * unit never cools a warm room and never lets it fall below the setpoint.
  */
-export function stepRoomTemperature(roomC: number, dtS: number, drive: RoomDrive, model: RoomModel): number {
+export function stepRoomTemperature(
+  roomC: number,
+  dtS: number,
+  drive: RoomDrive,
+  model: RoomModel,
+): number {
   if (dtS <= 0) return roomC;
   const driftedC = model.outdoorC + (roomC - model.outdoorC) * Math.exp(-dtS / model.timeConstantS);
   const maxStepK = (model.rateKPerMin * drive.rateFactor * dtS) / 60;
   const setpointC = drive.setpointC;
   if (drive.direction === "heating") {
-    return roomC < setpointC ? roomC + Math.min(setpointC - roomC, maxStepK) : Math.max(driftedC, setpointC);
+    return roomC < setpointC
+      ? roomC + Math.min(setpointC - roomC, maxStepK)
+      : Math.max(driftedC, setpointC);
   }
   if (drive.direction === "cooling") {
-    return roomC > setpointC ? roomC - Math.min(roomC - setpointC, maxStepK) : Math.min(driftedC, setpointC);
+    return roomC > setpointC
+      ? roomC - Math.min(roomC - setpointC, maxStepK)
+      : Math.min(driftedC, setpointC);
   }
   return driftedC;
 }

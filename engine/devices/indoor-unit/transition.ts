@@ -31,7 +31,11 @@ function quantize(valueC: number | null): number | null {
   return valueC === null ? null : Math.round(valueC * 100) / 100;
 }
 
-function statusMessage(state: IndoorUnitState, context: Context, refusal?: UnitRefusal): UnitStatus {
+function statusMessage(
+  state: IndoorUnitState,
+  context: Context,
+  refusal?: UnitRefusal,
+): UnitStatus {
   const faults: string[] = [];
   if (state.linkFault !== null) faults.push(state.linkFault);
   if (state.sensorOpen) faults.push(hvacFaults.sensorOpen);
@@ -51,7 +55,11 @@ function statusMessage(state: IndoorUnitState, context: Context, refusal?: UnitR
 }
 
 /** Sends the unit's status to every link it is on (controllers on its unit link, the outdoor unit on the system link). */
-function report(state: IndoorUnitState, context: Context, refusal?: UnitRefusal): { state: IndoorUnitState; effects: DeviceEffect[] } {
+function report(
+  state: IndoorUnitState,
+  context: Context,
+  refusal?: UnitRefusal,
+): { state: IndoorUnitState; effects: DeviceEffect[] } {
   const message = statusMessage(state, context, refusal);
   return {
     state: { ...state, reportedRoomC: message.roomC },
@@ -70,12 +78,18 @@ function resolveAutoDirection(state: IndoorUnitState, hysteresisK: number): Indo
 /** Whether this member may run `mode` under the outdoor unit's current direction (always, on a single split or as the authority). */
 function modeAllowed(state: IndoorUnitState, mode: HvacMode, context: Context): boolean {
   const system = state.system;
-  if (system === null || system.authority === null || system.authority === context.deviceId) return true;
+  if (system === null || system.authority === null || system.authority === context.deviceId)
+    return true;
   return modesAllowedFor(system.direction).includes(mode);
 }
 
-function evaluateLinkFault(state: IndoorUnitState, context: Context): { state: IndoorUnitState; effects: DeviceEffect[]; transition?: string } {
-  const live = Object.entries(state.controllers).filter(([, known]) => context.nowUs - known.lastSeenUs <= CONTROLLER_TIMEOUT_US);
+function evaluateLinkFault(
+  state: IndoorUnitState,
+  context: Context,
+): { state: IndoorUnitState; effects: DeviceEffect[]; transition?: string } {
+  const live = Object.entries(state.controllers).filter(
+    ([, known]) => context.nowUs - known.lastSeenUs <= CONTROLLER_TIMEOUT_US,
+  );
   const controllers = Object.fromEntries(live);
   const primaries = live.filter(([, known]) => known.role === "primary").length;
   let fault: HvacFaultId | null = null;
@@ -93,26 +107,52 @@ function evaluateLinkFault(state: IndoorUnitState, context: Context): { state: I
     effects.push({ kind: "fault.raise", fault, text });
   }
   const reported = report({ ...next, linkFault: fault }, context);
-  return { state: reported.state, effects: [...effects, ...reported.effects], transition: fault ?? "link.fault-cleared" };
+  return {
+    state: reported.state,
+    effects: [...effects, ...reported.effects],
+    transition: fault ?? "link.fault-cleared",
+  };
 }
 
-function applyCommand(state: IndoorUnitState, command: UnitCommand, from: string, context: Context): Result {
+function applyCommand(
+  state: IndoorUnitState,
+  command: UnitCommand,
+  from: string,
+  context: Context,
+): Result {
   const controller = state.controllers[from];
   if (state.linkFault !== null) {
-    const refusal = { transition: "link.command-refused", controller: from, text: `command refused while ${state.linkFault} is active` };
+    const refusal = {
+      transition: "link.command-refused",
+      controller: from,
+      text: `command refused while ${state.linkFault} is active`,
+    };
     const reported = report(state, context, refusal);
-    return { state: reported.state, effects: [{ kind: "note", text: refusal.text }, ...reported.effects], transition: refusal.transition };
+    return {
+      state: reported.state,
+      effects: [{ kind: "note", text: refusal.text }, ...reported.effects],
+      transition: refusal.transition,
+    };
   }
   let next: IndoorUnitState = state;
   const refusals: UnitRefusal[] = [];
   if (command.externalRoomC !== undefined) {
     // Common practice, no published source: only the primary controller may supply the room temperature.
     if (controller?.role === "primary") next = { ...next, externalRoomC: command.externalRoomC };
-    else refusals.push({ transition: "room.external-refused", controller: from, text: "external room temperature ignored: it is only taken from the primary controller" });
+    else
+      refusals.push({
+        transition: "room.external-refused",
+        controller: from,
+        text: "external room temperature ignored: it is only taken from the primary controller",
+      });
   }
   if (command.power !== undefined) {
     if (command.power && next.sensorOpen && next.externalRoomC === null) {
-      refusals.push({ transition: hvacFaults.sensorOpen, controller: from, text: "power on refused: the room temperature sensor is open" });
+      refusals.push({
+        transition: hvacFaults.sensorOpen,
+        controller: from,
+        text: "power on refused: the room temperature sensor is open",
+      });
     } else {
       next = { ...next, power: command.power };
     }
@@ -120,7 +160,13 @@ function applyCommand(state: IndoorUnitState, command: UnitCommand, from: string
   if (command.fanLevel !== undefined) next = { ...next, fanLevel: command.fanLevel };
   if (command.louvrePercent !== undefined) next = { ...next, louvrePercent: command.louvrePercent };
   if (command.setpointC !== undefined) {
-    next = { ...next, setpointC: Math.min(UNIT_SETPOINT_RANGE_C.max, Math.max(UNIT_SETPOINT_RANGE_C.min, command.setpointC)) };
+    next = {
+      ...next,
+      setpointC: Math.min(
+        UNIT_SETPOINT_RANGE_C.max,
+        Math.max(UNIT_SETPOINT_RANGE_C.min, command.setpointC),
+      ),
+    };
   }
   if (command.mode !== undefined) {
     if (modeAllowed(next, command.mode, context)) {
@@ -140,7 +186,11 @@ function applyCommand(state: IndoorUnitState, command: UnitCommand, from: string
   const refusal = refusals[0];
   const reported = report(next, context, refusal);
   const notes: DeviceEffect[] = refusals.map((r) => ({ kind: "note", text: r.text }));
-  return { state: reported.state, effects: [...notes, ...reported.effects], transition: refusal?.transition ?? "unit.command-applied" };
+  return {
+    state: reported.state,
+    effects: [...notes, ...reported.effects],
+    transition: refusal?.transition ?? "unit.command-applied",
+  };
 }
 
 function stepModel(state: IndoorUnitState, context: Context): Result {
@@ -150,15 +200,29 @@ function stepModel(state: IndoorUnitState, context: Context): Result {
     state.roomC,
     (context.nowUs - state.lastStepUs) / US_PER_S,
     { direction, setpointC: state.setpointC, rateFactor: state.mode === "dry" ? 0.5 : 1 },
-    { outdoorC: parameters.outdoorC, timeConstantS: parameters.timeConstantS, rateKPerMin: parameters.rateKPerMin },
+    {
+      outdoorC: parameters.outdoorC,
+      timeConstantS: parameters.timeConstantS,
+      rateKPerMin: parameters.rateKPerMin,
+    },
   );
   const before = state.autoDirection;
-  const next = resolveAutoDirection({ ...state, roomC, lastStepUs: context.nowUs }, parameters.autoHysteresisK);
-  const effects: DeviceEffect[] = [{ kind: "timer.set", name: MODEL_TIMER, delayUs: Math.round(parameters.modelStepS * US_PER_S) }];
+  const next = resolveAutoDirection(
+    { ...state, roomC, lastStepUs: context.nowUs },
+    parameters.autoHysteresisK,
+  );
+  const effects: DeviceEffect[] = [
+    { kind: "timer.set", name: MODEL_TIMER, delayUs: Math.round(parameters.modelStepS * US_PER_S) },
+  ];
   const autoSwitched = next.mode === "auto" && next.power && next.autoDirection !== before;
-  if (!autoSwitched && quantize(controlTemperatureC(next)) === next.reportedRoomC) return { state: next, effects };
+  if (!autoSwitched && quantize(controlTemperatureC(next)) === next.reportedRoomC)
+    return { state: next, effects };
   const reported = report(next, context);
-  return { state: reported.state, effects: [...effects, ...reported.effects], ...(autoSwitched ? { transition: "auto.direction-changed" } : {}) };
+  return {
+    state: reported.state,
+    effects: [...effects, ...reported.effects],
+    ...(autoSwitched ? { transition: "auto.direction-changed" } : {}),
+  };
 }
 
 function receive(state: IndoorUnitState, from: string, raw: unknown, context: Context): Result {
@@ -166,13 +230,19 @@ function receive(state: IndoorUnitState, from: string, raw: unknown, context: Co
   if (message === undefined) return { state, effects: [] };
   switch (message.kind) {
     case "controller.announce": {
-      const controllers = { ...state.controllers, [from]: { role: message.role, controller: message.controller, lastSeenUs: context.nowUs } };
+      const controllers = {
+        ...state.controllers,
+        [from]: { role: message.role, controller: message.controller, lastSeenUs: context.nowUs },
+      };
       return evaluateLinkFault({ ...state, controllers }, context);
     }
     case "unit.command":
       return applyCommand(state, message, from, context);
     case "system.state": {
-      const next = { ...state, system: { direction: message.direction, authority: message.authority } };
+      const next = {
+        ...state,
+        system: { direction: message.direction, authority: message.authority },
+      };
       if (next.power && !modeAllowed(next, next.mode, context)) {
         const refusal = {
           transition: "system.mode-refused",
@@ -180,9 +250,15 @@ function receive(state: IndoorUnitState, from: string, raw: unknown, context: Co
           text: `${next.mode} no longer allowed: the system is ${message.direction} under ${message.authority ?? "no one"}; running fan`,
         };
         const reported = report({ ...next, mode: "fan" }, context, refusal);
-        return { state: reported.state, effects: [{ kind: "note", text: refusal.text }, ...reported.effects], transition: refusal.transition };
+        return {
+          state: reported.state,
+          effects: [{ kind: "note", text: refusal.text }, ...reported.effects],
+          transition: refusal.transition,
+        };
       }
-      const changed = state.system?.direction !== message.direction || state.system?.authority !== message.authority;
+      const changed =
+        state.system?.direction !== message.direction ||
+        state.system?.authority !== message.authority;
       if (!changed) return { state: next, effects: [] };
       const reported = report(next, context);
       return { ...reported, transition: "system.state-changed" };
@@ -194,14 +270,22 @@ function receive(state: IndoorUnitState, from: string, raw: unknown, context: Co
 }
 
 /** The indoor unit's pure transition. */
-export function indoorUnitTransition(state: IndoorUnitState, event: DeviceEvent, context: Context): Result {
+export function indoorUnitTransition(
+  state: IndoorUnitState,
+  event: DeviceEvent,
+  context: Context,
+): Result {
   switch (event.kind) {
     case "start": {
       const reported = report({ ...state, lastStepUs: context.nowUs }, context);
       return {
         state: reported.state,
         effects: [
-          { kind: "timer.set", name: MODEL_TIMER, delayUs: Math.round(context.parameters.modelStepS * US_PER_S) },
+          {
+            kind: "timer.set",
+            name: MODEL_TIMER,
+            delayUs: Math.round(context.parameters.modelStepS * US_PER_S),
+          },
           { kind: "timer.set", name: SUPERVISION_TIMER, delayUs: LINK_SUPERVISION_GRACE_US },
           ...reported.effects,
         ],
@@ -212,7 +296,13 @@ export function indoorUnitTransition(state: IndoorUnitState, event: DeviceEvent,
       if (event.name === MODEL_TIMER) return stepModel(state, context);
       if (event.name === SUPERVISION_TIMER) {
         const evaluated = evaluateLinkFault({ ...state, supervising: true }, context);
-        return { ...evaluated, effects: [{ kind: "timer.set", name: SUPERVISION_TIMER, delayUs: CONTROLLER_ANNOUNCE_PERIOD_US }, ...evaluated.effects] };
+        return {
+          ...evaluated,
+          effects: [
+            { kind: "timer.set", name: SUPERVISION_TIMER, delayUs: CONTROLLER_ANNOUNCE_PERIOD_US },
+            ...evaluated.effects,
+          ],
+        };
       }
       return { state, effects: [] };
     case "link.receive":
@@ -224,7 +314,10 @@ export function indoorUnitTransition(state: IndoorUnitState, event: DeviceEvent,
       if (open === state.sensorOpen) return { state, effects: [] };
       // Common practice, no published source: with its sensor open and no external value the unit stops.
       const stops = open && state.externalRoomC === null;
-      const reported = report({ ...state, sensorOpen: open, power: stops ? false : state.power }, context);
+      const reported = report(
+        { ...state, sensorOpen: open, power: stops ? false : state.power },
+        context,
+      );
       return { ...reported, transition: open ? hvacFaults.sensorOpen : "unit.sensor-restored" };
     }
     case "group.write":

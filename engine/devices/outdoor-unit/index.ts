@@ -3,4 +3,9 @@ import { outdoorUnitType } from "./outdoor-unit";
 
 registerDeviceType(outdoorUnitType);
 
-export { outdoorUnitParametersSchema, outdoorUnitType, type OutdoorUnitParameters, type OutdoorUnitState } from "./outdoor-unit";
+export {
+  outdoorUnitParametersSchema,
+  outdoorUnitType,
+  type OutdoorUnitParameters,
+  type OutdoorUnitState,
+} from "./outdoor-unit";

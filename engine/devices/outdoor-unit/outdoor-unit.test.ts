@@ -10,8 +10,16 @@ function multiSplit() {
   const harness = new DeviceHarness(
     [
       { id: "outdoor", type: outdoorUnitType },
-      { id: "unit-a", type: indoorUnitType, parameters: { initialRoomC: 21, initialSetpointC: 21 } },
-      { id: "unit-b", type: indoorUnitType, parameters: { initialRoomC: 21, initialSetpointC: 21 } },
+      {
+        id: "unit-a",
+        type: indoorUnitType,
+        parameters: { initialRoomC: 21, initialSetpointC: 21 },
+      },
+      {
+        id: "unit-b",
+        type: indoorUnitType,
+        parameters: { initialRoomC: 21, initialSetpointC: 21 },
+      },
     ],
     [
       { id: "link-a", members: ["unit-a", "gw-a"] },
@@ -23,12 +31,25 @@ function multiSplit() {
   const command = (unit: "unit-a" | "unit-b", mode: HvacMode) => {
     const gw = unit === "unit-a" ? "gw-a" : "gw-b";
     const link = unit === "unit-a" ? "link-a" : "link-b";
-    const result = harness.dispatch(unit, { kind: "link.receive", link, from: gw, message: { kind: "unit.command", power: true, mode } });
+    const result = harness.dispatch(unit, {
+      kind: "link.receive",
+      link,
+      from: gw,
+      message: { kind: "unit.command", power: true, mode },
+    });
     harness.advance(10 * HARNESS_LINK_DELAY_US);
     return result;
   };
-  for (const [unit, gw, link] of [["unit-a", "gw-a", "link-a"], ["unit-b", "gw-b", "link-b"]] as const) {
-    harness.dispatch(unit, { kind: "link.receive", link, from: gw, message: { kind: "controller.announce", role: "primary", controller: "gateway" } });
+  for (const [unit, gw, link] of [
+    ["unit-a", "gw-a", "link-a"],
+    ["unit-b", "gw-b", "link-b"],
+  ] as const) {
+    harness.dispatch(unit, {
+      kind: "link.receive",
+      link,
+      from: gw,
+      message: { kind: "controller.announce", role: "primary", controller: "gateway" },
+    });
   }
   harness.advance(10 * HARNESS_LINK_DELAY_US);
   const unit = (id: string) => harness.state<IndoorUnitState>(id);
@@ -43,15 +64,22 @@ describe("outdoor unit mode authority", () => {
     expect(outdoor()).toMatchObject({ authority: "unit-a", direction: "heating" });
   });
 
-  it.each<HvacMode>(["cool", "dry", "auto"])("while the authority heats, refuses %s and leaves the member in heat or fan", (mode) => {
-    // Common practice, no published source: while the system heats, the others may heat or fan.
-    const { command, unit, harness } = multiSplit();
-    command("unit-a", "heat");
-    const refused = command("unit-b", mode);
-    expect(refused.transition).toBe("system.mode-refused");
-    expect(["heat", "fan"]).toContain(unit("unit-b").mode);
-    expect(harness.notes.some((note) => note.device === "unit-b" && note.text.includes(`${mode} refused`))).toBe(true);
-  });
+  it.each<HvacMode>(["cool", "dry", "auto"])(
+    "while the authority heats, refuses %s and leaves the member in heat or fan",
+    (mode) => {
+      // Common practice, no published source: while the system heats, the others may heat or fan.
+      const { command, unit, harness } = multiSplit();
+      command("unit-a", "heat");
+      const refused = command("unit-b", mode);
+      expect(refused.transition).toBe("system.mode-refused");
+      expect(["heat", "fan"]).toContain(unit("unit-b").mode);
+      expect(
+        harness.notes.some(
+          (note) => note.device === "unit-b" && note.text.includes(`${mode} refused`),
+        ),
+      ).toBe(true);
+    },
+  );
 
   it("keeps a heating member heating when its cool request is refused", () => {
     const { command, unit } = multiSplit();
@@ -96,10 +124,20 @@ describe("outdoor unit mode authority", () => {
     const { harness, command, outdoor } = multiSplit();
     command("unit-a", "cool");
     command("unit-b", "cool");
-    harness.dispatch("unit-a", { kind: "link.receive", link: "link-a", from: "gw-a", message: { kind: "unit.command", power: false } });
+    harness.dispatch("unit-a", {
+      kind: "link.receive",
+      link: "link-a",
+      from: "gw-a",
+      message: { kind: "unit.command", power: false },
+    });
     harness.advance(10 * HARNESS_LINK_DELAY_US);
     expect(outdoor()).toMatchObject({ authority: "unit-b", direction: "cooling" });
-    harness.dispatch("unit-b", { kind: "link.receive", link: "link-b", from: "gw-b", message: { kind: "unit.command", mode: "fan" } });
+    harness.dispatch("unit-b", {
+      kind: "link.receive",
+      link: "link-b",
+      from: "gw-b",
+      message: { kind: "unit.command", mode: "fan" },
+    });
     harness.advance(10 * HARNESS_LINK_DELAY_US);
     expect(outdoor()).toMatchObject({ authority: null, direction: "none" });
     expect(command("unit-a", "heat").transition).toBe("unit.command-applied");
@@ -107,8 +145,18 @@ describe("outdoor unit mode authority", () => {
 
   it("resolves two members asking opposite directions at the same moment in favour of the first heard", () => {
     const { harness, unit, outdoor } = multiSplit();
-    harness.dispatch("unit-a", { kind: "link.receive", link: "link-a", from: "gw-a", message: { kind: "unit.command", power: true, mode: "heat" } });
-    harness.dispatch("unit-b", { kind: "link.receive", link: "link-b", from: "gw-b", message: { kind: "unit.command", power: true, mode: "cool" } });
+    harness.dispatch("unit-a", {
+      kind: "link.receive",
+      link: "link-a",
+      from: "gw-a",
+      message: { kind: "unit.command", power: true, mode: "heat" },
+    });
+    harness.dispatch("unit-b", {
+      kind: "link.receive",
+      link: "link-b",
+      from: "gw-b",
+      message: { kind: "unit.command", power: true, mode: "cool" },
+    });
     harness.advance(20 * HARNESS_LINK_DELAY_US);
     expect(outdoor()).toMatchObject({ authority: "unit-a", direction: "heating" });
     expect(unit("unit-b").mode).toBe("fan");

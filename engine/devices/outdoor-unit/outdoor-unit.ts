@@ -1,7 +1,17 @@
 import { z } from "zod";
-import type { DeviceContext, DeviceEffect, DeviceEvent, DeviceType, TransitionResult } from "../device-type";
+import type {
+  DeviceContext,
+  DeviceEffect,
+  DeviceEvent,
+  DeviceType,
+  TransitionResult,
+} from "../device-type";
 import type { SystemDirection } from "../hvac/hvac-mode";
-import { parseUnitLinkMessage, type SystemState, type UnitStatus } from "../hvac/unit-link-messages";
+import {
+  parseUnitLinkMessage,
+  type SystemState,
+  type UnitStatus,
+} from "../hvac/unit-link-messages";
 
 /** The outdoor unit has no settings yet; mode authority goes to the first member that heats or cools. */
 export const outdoorUnitParametersSchema = z.object({});
@@ -18,7 +28,11 @@ type Context = DeviceContext<OutdoorUnitParameters>;
 type Result = TransitionResult<OutdoorUnitState>;
 
 function broadcast(state: OutdoorUnitState, context: Context): DeviceEffect[] {
-  const message: SystemState = { kind: "system.state", direction: state.direction, authority: state.authority };
+  const message: SystemState = {
+    kind: "system.state",
+    direction: state.direction,
+    authority: state.authority,
+  };
   return context.links.map((link) => ({ kind: "link.send", link, message }));
 }
 
@@ -28,14 +42,23 @@ function broadcast(state: OutdoorUnitState, context: Context): DeviceEffect[] {
  * cools, else the first other such member by id (stable, so runs replay).
  * Common practice, no published source.
  */
-function electAuthority(members: OutdoorUnitState["members"], current: string | null, from: string): string | null {
+function electAuthority(
+  members: OutdoorUnitState["members"],
+  current: string | null,
+  from: string,
+): string | null {
   const moving = (id: string) => (members[id]?.direction ?? "none") !== "none";
   if (current !== null && moving(current)) return current;
   if (moving(from)) return from;
   return Object.keys(members).sort().find(moving) ?? null;
 }
 
-function onStatus(state: OutdoorUnitState, from: string, status: UnitStatus, context: Context): Result {
+function onStatus(
+  state: OutdoorUnitState,
+  from: string,
+  status: UnitStatus,
+  context: Context,
+): Result {
   const memberDirection: SystemDirection = status.power ? status.direction : "none";
   const members = { ...state.members, [from]: { direction: memberDirection } };
   const authority = electAuthority(members, state.authority, from);
@@ -46,17 +69,32 @@ function onStatus(state: OutdoorUnitState, from: string, status: UnitStatus, con
     return {
       state: next,
       effects: [{ kind: "note", text }, ...broadcast(next, context)],
-      transition: authority !== state.authority ? "system.authority-changed" : "system.direction-changed",
+      transition:
+        authority !== state.authority ? "system.authority-changed" : "system.direction-changed",
     };
   }
   // Two members may ask at once before either heard the other; the one without authority is told again.
-  const conflicting = from !== authority && memberDirection !== "none" && direction !== "none" && memberDirection !== direction;
-  if (conflicting) return { state: next, effects: broadcast(next, context), transition: "system.conflict-corrected" };
+  const conflicting =
+    from !== authority &&
+    memberDirection !== "none" &&
+    direction !== "none" &&
+    memberDirection !== direction;
+  if (conflicting)
+    return {
+      state: next,
+      effects: broadcast(next, context),
+      transition: "system.conflict-corrected",
+    };
   return { state: next, effects: [] };
 }
 
-function outdoorUnitTransition(state: OutdoorUnitState, event: DeviceEvent, context: Context): Result {
-  if (event.kind === "start") return { state, effects: broadcast(state, context), transition: "system.started" };
+function outdoorUnitTransition(
+  state: OutdoorUnitState,
+  event: DeviceEvent,
+  context: Context,
+): Result {
+  if (event.kind === "start")
+    return { state, effects: broadcast(state, context), transition: "system.started" };
   if (event.kind !== "link.receive") return { state, effects: [] };
   const message = parseUnitLinkMessage(event.message);
   if (message?.kind !== "unit.status") return { state, effects: [] };
@@ -73,7 +111,8 @@ function outdoorUnitTransition(state: OutdoorUnitState, event: DeviceEvent, cont
 export const outdoorUnitType: DeviceType<OutdoorUnitParameters, OutdoorUnitState> = {
   id: "outdoor-unit",
   label: "Outdoor unit",
-  description: "Shared outdoor unit of a multi-split system; grants mode authority to one indoor unit. Not on KNX.",
+  description:
+    "Shared outdoor unit of a multi-split system; grants mode authority to one indoor unit. Not on KNX.",
   medium: "unit-link",
   parameters: outdoorUnitParametersSchema,
   groupObjects: () => [],

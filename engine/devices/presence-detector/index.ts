@@ -3,4 +3,10 @@ import { presenceDetectorType } from "./presence-detector";
 
 registerDeviceType(presenceDetectorType);
 
-export { presenceDetectorParametersSchema, presenceDetectorType, presenceObjects, type PresenceDetectorParameters, type PresenceDetectorState } from "./presence-detector";
+export {
+  presenceDetectorParametersSchema,
+  presenceDetectorType,
+  presenceObjects,
+  type PresenceDetectorParameters,
+  type PresenceDetectorState,
+} from "./presence-detector";

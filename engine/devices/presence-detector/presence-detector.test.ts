@@ -7,7 +7,8 @@ const S = 1_000_000;
 function detector(parameters: Record<string, unknown> = {}) {
   const h = new DeviceHarness([{ id: "pd", type: presenceDetectorType, parameters }]).start();
   const move = () => h.dispatch("pd", { kind: "input", input: "movement", value: true });
-  const sent = () => h.sentFrom("pd", presenceObjects.occupancy).map((t) => [Math.round(t.timeUs / S), t.value]);
+  const sent = () =>
+    h.sentFrom("pd", presenceObjects.occupancy).map((t) => [Math.round(t.timeUs / S), t.value]);
   return { h, move, sent };
 }
 
@@ -18,7 +19,10 @@ describe("presence detector", () => {
     h.advance(10 * S);
     expect(move().transition).toBe("presence.detected");
     h.advance(100 * S);
-    expect(sent()).toEqual([[10, true], [70, false]]);
+    expect(sent()).toEqual([
+      [10, true],
+      [70, false],
+    ]);
     expect(h.transitionNames("pd")).toContain("presence.ended");
   });
 
@@ -30,7 +34,10 @@ describe("presence detector", () => {
     h.advance(50 * S);
     expect(sent()).toEqual([[0, true]]);
     h.advance(20 * S);
-    expect(sent()).toEqual([[0, true], [110, false]]);
+    expect(sent()).toEqual([
+      [0, true],
+      [110, false],
+    ]);
   });
 
   it("is retriggered by another detector through its KNX input when enabled", () => {
@@ -40,10 +47,16 @@ describe("presence detector", () => {
     h.write("pd", presenceObjects.trigger, true);
     h.advance(20 * S);
     expect(sent()).toEqual([[0, true]]);
-    expect(presenceDetectorType.groupObjects(presenceDetectorType.parameters.parse({})).map((o) => o.number)).toEqual([0]);
+    expect(
+      presenceDetectorType
+        .groupObjects(presenceDetectorType.parameters.parse({}))
+        .map((o) => o.number),
+    ).toEqual([0]);
   });
 
   it("refuses a hold time under 1 s with a message naming the field", () => {
-    expect(presenceDetectorType.parameters.safeParse({ holdTimeS: 0 }).error?.issues[0]?.message).toBe("holdTimeS must be at least 1 s");
+    expect(
+      presenceDetectorType.parameters.safeParse({ holdTimeS: 0 }).error?.issues[0]?.message,
+    ).toBe("holdTimeS must be at least 1 s");
   });
 });

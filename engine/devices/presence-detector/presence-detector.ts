@@ -1,5 +1,12 @@
 import { z } from "zod";
-import { flags, type DeviceContext, type DeviceEvent, type DeviceType, type GroupObjectSpec, type TransitionResult } from "../device-type";
+import {
+  flags,
+  type DeviceContext,
+  type DeviceEvent,
+  type DeviceType,
+  type GroupObjectSpec,
+  type TransitionResult,
+} from "../device-type";
 
 /** Parameters of a presence detector. */
 export const presenceDetectorParametersSchema = z.object({
@@ -24,29 +31,60 @@ const US_PER_S = 1_000_000;
 
 type Result = TransitionResult<PresenceDetectorState>;
 
-function movement(state: PresenceDetectorState, context: DeviceContext<PresenceDetectorParameters>): Result {
-  const hold = { kind: "timer.set" as const, name: HOLD_TIMER, delayUs: Math.round(context.parameters.holdTimeS * US_PER_S) };
+function movement(
+  state: PresenceDetectorState,
+  context: DeviceContext<PresenceDetectorParameters>,
+): Result {
+  const hold = {
+    kind: "timer.set" as const,
+    name: HOLD_TIMER,
+    delayUs: Math.round(context.parameters.holdTimeS * US_PER_S),
+  };
   const next = { occupied: true, lastMovementUs: context.nowUs };
   if (state.occupied) return { state: next, effects: [hold], transition: "presence.retriggered" };
   // DPT 1.018 occupancy: 1 = occupied (recalled from memory of the DPT spec).
-  return { state: next, effects: [{ kind: "group.send", object: presenceObjects.occupancy, service: "write", value: true }, hold], transition: "presence.detected" };
+  return {
+    state: next,
+    effects: [
+      { kind: "group.send", object: presenceObjects.occupancy, service: "write", value: true },
+      hold,
+    ],
+    transition: "presence.detected",
+  };
 }
 
-function presenceDetectorTransition(state: PresenceDetectorState, event: DeviceEvent, context: DeviceContext<PresenceDetectorParameters>): Result {
+function presenceDetectorTransition(
+  state: PresenceDetectorState,
+  event: DeviceEvent,
+  context: DeviceContext<PresenceDetectorParameters>,
+): Result {
   switch (event.kind) {
     case "start":
-      return { state, effects: [{ kind: "object.store", object: presenceObjects.occupancy, value: false }] };
+      return {
+        state,
+        effects: [{ kind: "object.store", object: presenceObjects.occupancy, value: false }],
+      };
     case "input":
-      return event.input === "movement" && event.value !== false ? movement(state, context) : { state, effects: [] };
+      return event.input === "movement" && event.value !== false
+        ? movement(state, context)
+        : { state, effects: [] };
     case "button":
-      return event.button === "movement" && event.action === "press" ? movement(state, context) : { state, effects: [] };
+      return event.button === "movement" && event.action === "press"
+        ? movement(state, context)
+        : { state, effects: [] };
     case "group.write":
-      return event.object === presenceObjects.trigger && context.parameters.externalTrigger && event.value === true ? movement(state, context) : { state, effects: [] };
+      return event.object === presenceObjects.trigger &&
+        context.parameters.externalTrigger &&
+        event.value === true
+        ? movement(state, context)
+        : { state, effects: [] };
     case "timer":
       if (event.name !== HOLD_TIMER || !state.occupied) return { state, effects: [] };
       return {
         state: { ...state, occupied: false },
-        effects: [{ kind: "group.send", object: presenceObjects.occupancy, service: "write", value: false }],
+        effects: [
+          { kind: "group.send", object: presenceObjects.occupancy, service: "write", value: false },
+        ],
         transition: "presence.ended",
       };
     default:
@@ -66,8 +104,23 @@ export const presenceDetectorType: DeviceType<PresenceDetectorParameters, Presen
   medium: "knx",
   parameters: presenceDetectorParametersSchema,
   groupObjects: (p) => {
-    const objects: GroupObjectSpec[] = [{ number: presenceObjects.occupancy, name: "Occupancy", dpt: "1.018", flags: flags("CRT"), role: "output" }];
-    if (p.externalTrigger) objects.push({ number: presenceObjects.trigger, name: "Movement from another detector", dpt: "1.018", flags: flags("CW"), role: "input" });
+    const objects: GroupObjectSpec[] = [
+      {
+        number: presenceObjects.occupancy,
+        name: "Occupancy",
+        dpt: "1.018",
+        flags: flags("CRT"),
+        role: "output",
+      },
+    ];
+    if (p.externalTrigger)
+      objects.push({
+        number: presenceObjects.trigger,
+        name: "Movement from another detector",
+        dpt: "1.018",
+        flags: flags("CW"),
+        role: "input",
+      });
     return objects;
   },
   buttons: () => [{ id: "movement", label: "Movement" }],

@@ -2,7 +2,10 @@ import { z } from "zod";
 import { roomTemperatureSendingSchema } from "../hvac/room-temperature-sending";
 
 /** One point of a temperature profile: at `atS` seconds into the run (or into each repeat) the room is `valueC`. */
-export const profilePointSchema = z.object({ atS: z.number().min(0), valueC: z.number().min(-30).max(60) });
+export const profilePointSchema = z.object({
+  atS: z.number().min(0),
+  valueC: z.number().min(-30).max(60),
+});
 
 /** Parameters of a KNX room temperature sensor. */
 export const roomTemperatureSensorParametersSchema = z
@@ -25,12 +28,20 @@ export const roomTemperatureSensorParametersSchema = z
   })
   .superRefine((value, context) => {
     if (value.source === "profile" && value.profile.length === 0) {
-      context.addIssue({ code: "custom", path: ["profile"], message: "profile needs at least one point when source is profile" });
+      context.addIssue({
+        code: "custom",
+        path: ["profile"],
+        message: "profile needs at least one point when source is profile",
+      });
     }
     value.profile.forEach((point, index) => {
       const before = value.profile[index - 1];
       if (before !== undefined && point.atS <= before.atS) {
-        context.addIssue({ code: "custom", path: ["profile", index, "atS"], message: `profile points must be in time order: ${point.atS} s follows ${before.atS} s` });
+        context.addIssue({
+          code: "custom",
+          path: ["profile", index, "atS"],
+          message: `profile points must be in time order: ${point.atS} s follows ${before.atS} s`,
+        });
       }
     });
   });

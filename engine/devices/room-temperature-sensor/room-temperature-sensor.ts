@@ -1,5 +1,12 @@
 import { DPT9_INVALID } from "../../dpt/dpt9";
-import { flags, type DeviceContext, type DeviceEffect, type DeviceEvent, type DeviceType, type TransitionResult } from "../device-type";
+import {
+  flags,
+  type DeviceContext,
+  type DeviceEffect,
+  type DeviceEvent,
+  type DeviceType,
+  type TransitionResult,
+} from "../device-type";
 import {
   cycleUs,
   initialSenderState,
@@ -10,7 +17,10 @@ import {
   type RoomTemperatureSenderState,
   type SenderStep,
 } from "../hvac/room-temperature-sending";
-import { roomTemperatureSensorParametersSchema, type RoomTemperatureSensorParameters } from "./parameters";
+import {
+  roomTemperatureSensorParametersSchema,
+  type RoomTemperatureSensorParameters,
+} from "./parameters";
 
 export interface RoomTemperatureSensorState {
   /** The modelled room temperature (room-model source), °C. */
@@ -44,14 +54,17 @@ export function profileValueC(p: RoomTemperatureSensorParameters, tS: number): n
   for (let i = 1; i < points.length; i++) {
     const a = points[i - 1];
     const b = points[i];
-    if (a !== undefined && b !== undefined && t <= b.atS) return a.valueC + ((b.valueC - a.valueC) * (t - a.atS)) / (b.atS - a.atS);
+    if (a !== undefined && b !== undefined && t <= b.atS)
+      return a.valueC + ((b.valueC - a.valueC) * (t - a.atS)) / (b.atS - a.atS);
   }
   return points[points.length - 1]?.valueC ?? p.initialC;
 }
 
 function measuredC(state: RoomTemperatureSensorState, context: Context): number {
   const p = context.parameters;
-  const trueC = state.overrideC ?? (p.source === "profile" ? profileValueC(p, context.nowUs / US_PER_S) : state.modelC);
+  const trueC =
+    state.overrideC ??
+    (p.source === "profile" ? profileValueC(p, context.nowUs / US_PER_S) : state.modelC);
   return trueC + p.offsetK;
 }
 
@@ -59,11 +72,18 @@ function senderEffects(step: SenderStep, context: Context): DeviceEffect[] {
   const sending = context.parameters.sending;
   const effects: DeviceEffect[] = [];
   if (step.sendC !== null) {
-    effects.push({ kind: "group.send", object: ROOM_TEMPERATURE_OBJECT, service: "write", value: step.sendC });
+    effects.push({
+      kind: "group.send",
+      object: ROOM_TEMPERATURE_OBJECT,
+      service: "write",
+      value: step.sendC,
+    });
     // Every send restarts the cycle (see room-temperature-sending.ts).
-    if (sendsCyclically(sending)) effects.push({ kind: "timer.set", name: CYCLE_TIMER, delayUs: cycleUs(sending) });
+    if (sendsCyclically(sending))
+      effects.push({ kind: "timer.set", name: CYCLE_TIMER, delayUs: cycleUs(sending) });
   }
-  if (step.timerDelayUs !== null) effects.push({ kind: "timer.set", name: SEND_TIMER, delayUs: step.timerDelayUs });
+  if (step.timerDelayUs !== null)
+    effects.push({ kind: "timer.set", name: SEND_TIMER, delayUs: step.timerDelayUs });
   return effects;
 }
 
@@ -77,17 +97,36 @@ function sample(state: RoomTemperatureSensorState, context: Context): Result {
   const valueC = measuredC(next, context);
   const step = sampleRoomTemperature(next.sender, valueC, context.nowUs, p.sending);
   const effects = senderEffects(step, context);
-  if (step.sendC === null) effects.push({ kind: "object.store", object: ROOM_TEMPERATURE_OBJECT, value: Math.round(valueC * 100) / 100 });
-  return { state: { ...next, sender: step.state }, effects, ...(step.sendC !== null ? { transition: "temperature.sent" } : {}) };
+  if (step.sendC === null)
+    effects.push({
+      kind: "object.store",
+      object: ROOM_TEMPERATURE_OBJECT,
+      value: Math.round(valueC * 100) / 100,
+    });
+  return {
+    state: { ...next, sender: step.state },
+    effects,
+    ...(step.sendC !== null ? { transition: "temperature.sent" } : {}),
+  };
 }
 
-function roomTemperatureSensorTransition(state: RoomTemperatureSensorState, event: DeviceEvent, context: Context): Result {
+function roomTemperatureSensorTransition(
+  state: RoomTemperatureSensorState,
+  event: DeviceEvent,
+  context: Context,
+): Result {
   const p = context.parameters;
-  const sampleTimer: DeviceEffect = { kind: "timer.set", name: SAMPLE_TIMER, delayUs: Math.round(p.sampleS * US_PER_S) };
+  const sampleTimer: DeviceEffect = {
+    kind: "timer.set",
+    name: SAMPLE_TIMER,
+    delayUs: Math.round(p.sampleS * US_PER_S),
+  };
   switch (event.kind) {
     case "start": {
       const first = sample({ ...state, lastSampleUs: context.nowUs }, context);
-      const cycle: DeviceEffect[] = sendsCyclically(p.sending) ? [{ kind: "timer.set", name: CYCLE_TIMER, delayUs: cycleUs(p.sending) }] : [];
+      const cycle: DeviceEffect[] = sendsCyclically(p.sending)
+        ? [{ kind: "timer.set", name: CYCLE_TIMER, delayUs: cycleUs(p.sending) }]
+        : [];
       return { ...first, effects: [...cycle, ...first.effects, sampleTimer] };
     }
     case "timer": {
@@ -96,9 +135,18 @@ function roomTemperatureSensorTransition(state: RoomTemperatureSensorState, even
         return { ...sampled, effects: [...sampled.effects, sampleTimer] };
       }
       if (state.open) return { state, effects: [] };
-      const step = event.name === SEND_TIMER ? sendDueRoomTemperature(state.sender, context.nowUs, p.sending) : event.name === CYCLE_TIMER ? sendCyclicRoomTemperature(state.sender, context.nowUs) : null;
+      const step =
+        event.name === SEND_TIMER
+          ? sendDueRoomTemperature(state.sender, context.nowUs, p.sending)
+          : event.name === CYCLE_TIMER
+            ? sendCyclicRoomTemperature(state.sender, context.nowUs)
+            : null;
       if (step === null) return { state, effects: [] };
-      return { state: { ...state, sender: step.state }, effects: senderEffects(step, context), ...(step.sendC !== null ? { transition: "temperature.sent" } : {}) };
+      return {
+        state: { ...state, sender: step.state },
+        effects: senderEffects(step, context),
+        ...(step.sendC !== null ? { transition: "temperature.sent" } : {}),
+      };
     }
     case "input": {
       if (event.input !== "temperature") return { state, effects: [] };
@@ -110,9 +158,24 @@ function roomTemperatureSensorTransition(state: RoomTemperatureSensorState, even
     case "fault.clear": {
       if (event.fault !== "sensor.open") return { state, effects: [] };
       const open = event.kind === "fault.inject";
-      if (!open) return { ...sample({ ...state, open: false, sender: initialSenderState }, context), transition: "sensor.restored" };
+      if (!open)
+        return {
+          ...sample({ ...state, open: false, sender: initialSenderState }, context),
+          transition: "sensor.restored",
+        };
       // DPT spec §3.10: 0x7FFF "invalid data".
-      return { state: { ...state, open: true }, effects: [{ kind: "group.send", object: ROOM_TEMPERATURE_OBJECT, service: "write", value: DPT9_INVALID }], transition: "sensor.open" };
+      return {
+        state: { ...state, open: true },
+        effects: [
+          {
+            kind: "group.send",
+            object: ROOM_TEMPERATURE_OBJECT,
+            service: "write",
+            value: DPT9_INVALID,
+          },
+        ],
+        transition: "sensor.open",
+      };
     }
     default:
       return { state, effects: [] };
@@ -124,14 +187,32 @@ function roomTemperatureSensorTransition(state: RoomTemperatureSensorState, even
  * room (Newton's law of cooling toward `outdoorC`) or a profile over time, and
  * sends on change, cyclically, or both. Input "temperature" overrides the value.
  */
-export const roomTemperatureSensorType: DeviceType<RoomTemperatureSensorParameters, RoomTemperatureSensorState> = {
+export const roomTemperatureSensorType: DeviceType<
+  RoomTemperatureSensorParameters,
+  RoomTemperatureSensorState
+> = {
   id: "room-temperature-sensor",
   label: "Room temperature sensor",
-  description: "Room temperature (DPT 9.001) from a room model or a profile, sent on change and/or cyclically.",
+  description:
+    "Room temperature (DPT 9.001) from a room model or a profile, sent on change and/or cyclically.",
   medium: "knx",
   parameters: roomTemperatureSensorParametersSchema,
-  groupObjects: () => [{ number: ROOM_TEMPERATURE_OBJECT, name: "Room temperature", dpt: "9.001", flags: flags("CRT"), role: "output" }],
+  groupObjects: () => [
+    {
+      number: ROOM_TEMPERATURE_OBJECT,
+      name: "Room temperature",
+      dpt: "9.001",
+      flags: flags("CRT"),
+      role: "output",
+    },
+  ],
   buttons: () => [],
-  initialState: (p) => ({ modelC: p.initialC, overrideC: null, lastSampleUs: 0, sender: initialSenderState, open: false }),
+  initialState: (p) => ({
+    modelC: p.initialC,
+    overrideC: null,
+    lastSampleUs: 0,
+    sender: initialSenderState,
+    open: false,
+  }),
   transition: roomTemperatureSensorTransition,
 };

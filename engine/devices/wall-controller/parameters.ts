@@ -2,7 +2,10 @@ import { z } from "zod";
 import { controllerRoleSchema } from "../hvac/unit-link-messages";
 
 /** Setpoint limits shared by HVAC controllers, °C; inverted limits are refused with a message naming both fields. */
-export function refineSetpointLimits(value: { setpointMinC: number; setpointMaxC: number }, context: z.RefinementCtx): void {
+export function refineSetpointLimits(
+  value: { setpointMinC: number; setpointMaxC: number },
+  context: z.RefinementCtx,
+): void {
   if (value.setpointMinC >= value.setpointMaxC) {
     context.addIssue({
       code: "custom",

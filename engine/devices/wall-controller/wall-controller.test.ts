@@ -12,15 +12,24 @@ function bench(second: "primary" | "secondary" | "none" = "none") {
   const members = [
     { id: "unit", type: indoorUnitType, parameters: { initialSetpointC: 22 } },
     { id: "wc", type: wallControllerType, parameters: { role: "primary" } },
-    ...(second === "none" ? [] : [{ id: "wc2", type: wallControllerType, parameters: { role: second } }]),
+    ...(second === "none"
+      ? []
+      : [{ id: "wc2", type: wallControllerType, parameters: { role: second } }]),
   ];
-  const harness = new DeviceHarness(members, [{ id: "link", members: members.map((m) => m.id) }]).start();
+  const harness = new DeviceHarness(members, [
+    { id: "link", members: members.map((m) => m.id) },
+  ]).start();
   harness.advance(50 * MS);
   const press = (button: string, device = "wc") => {
     harness.press(device, button);
     harness.advance(50 * MS);
   };
-  return { harness, press, unit: () => harness.state<IndoorUnitState>("unit"), wc: (id = "wc") => harness.state<WallControllerState>(id) };
+  return {
+    harness,
+    press,
+    unit: () => harness.state<IndoorUnitState>("unit"),
+    wc: (id = "wc") => harness.state<WallControllerState>(id),
+  };
 }
 
 describe("wall controller keys", () => {
@@ -93,13 +102,20 @@ describe("wall controller roles", () => {
 
 describe("wall controller parameters", () => {
   it("fill defaults from {}", () => {
-    expect(wallControllerParametersSchema.parse({})).toEqual({ role: "primary", setpointStepK: 0.5, setpointMinC: 16, setpointMaxC: 30 });
+    expect(wallControllerParametersSchema.parse({})).toEqual({
+      role: "primary",
+      setpointStepK: 0.5,
+      setpointMinC: 16,
+      setpointMaxC: 30,
+    });
   });
 
   it("refuse inverted setpoint limits with a message naming both fields", () => {
     const parsed = wallControllerParametersSchema.safeParse({ setpointMinC: 28, setpointMaxC: 18 });
     expect(parsed.success).toBe(false);
     expect(parsed.error?.issues[0]?.path).toEqual(["setpointMinC"]);
-    expect(parsed.error?.issues[0]?.message).toBe("setpointMinC (28 °C) must be below setpointMaxC (18 °C)");
+    expect(parsed.error?.issues[0]?.message).toBe(
+      "setpointMinC (28 °C) must be below setpointMaxC (18 °C)",
+    );
   });
 });
