@@ -1,7 +1,10 @@
 import { describe, expect, it } from "vitest";
 import { DeviceHarness, HARNESS_LINK_DELAY_US } from "../hvac/device-harness";
 import { dpt20105FromMode } from "../hvac/hvac-mode";
-import { CONTROLLER_ANNOUNCE_PERIOD_US } from "../hvac/unit-link-messages";
+import {
+  CONTROLLER_ANNOUNCE_PERIOD_US,
+  LINK_SUPERVISION_GRACE_US,
+} from "../hvac/unit-link-messages";
 import { indoorUnitType } from "../indoor-unit/indoor-unit";
 import type { IndoorUnitState } from "../indoor-unit/state";
 import { outdoorUnitType } from "../outdoor-unit/outdoor-unit";
@@ -37,7 +40,7 @@ describe("hvac gateway on the unit link", () => {
   it("counts itself as a controller: a secondary gateway alone gives link.no-primary", () => {
     // Common practice, no published source: no primary = lost communication.
     const f = gatewayFixture({ gateway: { role: "secondary" } });
-    f.harness.advance(3 * S);
+    f.harness.advance(LINK_SUPERVISION_GRACE_US);
     expect(f.gateway().faults).toContain("link.no-primary");
     expect(f.lastSent(O.faultText)).toBe("no primary");
   });

@@ -273,6 +273,15 @@ describe("HVAC gateway on a simulated TP1 line", () => {
     expect(sim.groupValue(GA.powerStatus)).toBe(true);
   });
 
+  it("a parameter download to the indoor unit does not raise a false link.no-primary", () => {
+    const sim = startLab();
+    expect(sim.setParameter("unit", "outdoorC", 2).ok).toBe(true);
+    sim.runFor(30 * S);
+    expect(sim.trace.some((e) => e.kind === "fault.raised" && e.fault === "link.no-primary")).toBe(
+      false,
+    );
+  });
+
   it("sends the room temperature on change, never twice within 30 s", () => {
     // Common practice, no published source: 0.1 K, at least 30 s apart.
     const sim = startLab();

@@ -99,5 +99,9 @@ export const CONTROLLER_ANNOUNCE_PERIOD_US = 10_000_000;
 /** A controller not heard for this long is treated as gone (three missed announcements). */
 export const CONTROLLER_TIMEOUT_US = 3 * CONTROLLER_ANNOUNCE_PERIOD_US + 1_000_000;
 
-/** Grace after start before the unit judges the primary count, so every controller has announced once. */
-export const LINK_SUPERVISION_GRACE_US = 2_000_000;
+/**
+ * Grace after the unit starts before it judges the primary count: one full
+ * announcement period and a second, so a unit restarted alone (a parameter
+ * download) hears every controller before it could report a missing primary.
+ */
+export const LINK_SUPERVISION_GRACE_US = CONTROLLER_ANNOUNCE_PERIOD_US + 1_000_000;

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { DeviceHarness } from "../hvac/device-harness";
-import type { UnitStatus } from "../hvac/unit-link-messages";
+import { LINK_SUPERVISION_GRACE_US, type UnitStatus } from "../hvac/unit-link-messages";
 import { indoorUnitType } from "./indoor-unit";
 import type { IndoorUnitState } from "./state";
 import { stepRoomTemperature } from "./thermal-model";
@@ -118,7 +118,7 @@ describe("indoor unit controller roles", () => {
     // Common practice, no published source.
     const { harness, announce } = unitAlone();
     announce("wc", "secondary");
-    harness.advance(3 * S);
+    harness.advance(LINK_SUPERVISION_GRACE_US);
     expect(harness.transitionNames("unit")).toContain("link.no-primary");
     expect(harness.faults.get("unit")?.has("link.no-primary")).toBe(true);
     announce("gw", "primary");

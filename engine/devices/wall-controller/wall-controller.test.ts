@@ -1,6 +1,9 @@
 import { describe, expect, it } from "vitest";
 import { DeviceHarness } from "../hvac/device-harness";
-import { CONTROLLER_ANNOUNCE_PERIOD_US } from "../hvac/unit-link-messages";
+import {
+  CONTROLLER_ANNOUNCE_PERIOD_US,
+  LINK_SUPERVISION_GRACE_US,
+} from "../hvac/unit-link-messages";
 import { indoorUnitType } from "../indoor-unit/indoor-unit";
 import type { IndoorUnitState } from "../indoor-unit/state";
 import { wallControllerParametersSchema } from "./parameters";
@@ -95,7 +98,7 @@ describe("wall controller roles", () => {
   it("shows lost communication when its role is changed to secondary and no primary is left", () => {
     const { harness, wc } = bench();
     harness.setParameter("wc", "role", "secondary");
-    harness.advance(CONTROLLER_ANNOUNCE_PERIOD_US + 50 * MS);
+    harness.advance(LINK_SUPERVISION_GRACE_US + 50 * MS);
     expect(wc().faults).toContain("link.no-primary");
   });
 });
