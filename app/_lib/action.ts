@@ -1,18 +1,9 @@
 import { unstable_rethrow } from "next/navigation";
 import type { z } from "zod";
-import { type AppErrorBody, toAppError, validationError } from "./errors";
+import type { ActionState } from "./action-state";
+import { toAppError, validationError } from "./errors";
 
-/**
- * What a server action built with `validatedAction` returns to the form
- * (`useActionState`): the handler's data, or the same error body the JSON API
- * uses, naming the field at fault. `idle` is the state before the first submit.
- */
-export type ActionState<T> =
-  | { readonly status: "idle" }
-  | { readonly status: "ok"; readonly data: T }
-  | ({ readonly status: "error" } & AppErrorBody);
-
-export const idleActionState = { status: "idle" } as const;
+export { type ActionState, idleActionState } from "./action-state";
 
 /** Form fields as a plain object; repeated names become arrays, files are dropped. */
 export function formDataObject(formData: FormData): Record<string, string | string[]> {

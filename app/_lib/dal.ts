@@ -124,3 +124,5 @@ export function authorizeOn(
     `your role (${session.role}) may do this only on your own items: ${capability}`,
   );
 }
+
+export { can } from "./capabilities";

@@ -43,9 +43,11 @@ export async function unsealSession(
 ): Promise<SessionPayload | null> {
   if (!value) return null;
   const { ttlSeconds } = sessionCookieConfig();
+  // Outside the try: a missing secret is a configuration error, not a bad cookie.
+  const password = sessionSecret();
   let data: unknown;
   try {
-    data = await unsealData<unknown>(value, { password: sessionSecret(), ttl: ttlSeconds });
+    data = await unsealData<unknown>(value, { password, ttl: ttlSeconds });
   } catch {
     return null;
   }

@@ -1,19 +1,22 @@
 import Link from "next/link";
 import { BenchMark } from "./bench-mark";
-import { navItems } from "./nav-items";
+import { type NavItem, navItems } from "./nav-items";
 import { NavList } from "./nav-list";
 
 /**
  * The frame every studio page sits in: a graphite rail with the product name
  * and the navigation, and a paper work area. `account` is where the signed-in
- * user and workspace switcher go once sign-in exists.
+ * user and workspace switcher go; `items` narrows the navigation (the studio
+ * layout passes only the pages the member's role may open).
  */
 export function AppShell({
   children,
   account,
+  items = navItems,
 }: {
   children: React.ReactNode;
   account?: React.ReactNode;
+  items?: readonly NavItem[];
 }) {
   return (
     <div className="flex min-h-screen flex-col md:flex-row">
@@ -25,7 +28,7 @@ export function AppShell({
           <BenchMark className="size-7" />
           Benchline
         </Link>
-        <NavList items={navItems} />
+        <NavList items={items} />
         {account ? <div className="mt-auto px-3 text-sm">{account}</div> : null}
       </aside>
       <main className="min-w-0 flex-1 bg-paper">{children}</main>

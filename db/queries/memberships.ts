@@ -60,3 +60,45 @@ export function changeRole({
     .returning()
     .get();
 }
+
+/** One membership by id, only within the workspace. */
+export function findMembershipById({
+  db = getDb(),
+  membershipId,
+  workspaceId,
+}: {
+  db?: Db;
+  membershipId: string;
+  workspaceId: string;
+}) {
+  return db
+    .select()
+    .from(memberships)
+    .where(and(eq(memberships.id, membershipId), eq(memberships.workspaceId, workspaceId)))
+    .get();
+}
+
+/** How many admins a workspace has (the last one may not be demoted or removed). */
+export function countAdmins({ db = getDb(), workspaceId }: { db?: Db; workspaceId: string }) {
+  return db
+    .select({ id: memberships.id })
+    .from(memberships)
+    .where(and(eq(memberships.workspaceId, workspaceId), eq(memberships.role, "admin")))
+    .all().length;
+}
+
+export function deleteMembership({
+  db = getDb(),
+  membershipId,
+  workspaceId,
+}: {
+  db?: Db;
+  membershipId: string;
+  workspaceId: string;
+}) {
+  return db
+    .delete(memberships)
+    .where(and(eq(memberships.id, membershipId), eq(memberships.workspaceId, workspaceId)))
+    .returning()
+    .get();
+}

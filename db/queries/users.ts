@@ -44,3 +44,43 @@ export function bumpSessionVersion({ db = getDb(), userId }: { db?: Db; userId: 
     .returning({ sessionVersion: users.sessionVersion })
     .get();
 }
+
+/** Store a new password hash and end every existing session of the user, in one statement. */
+export function setPasswordHash({
+  db = getDb(),
+  userId,
+  passwordHash,
+}: {
+  db?: Db;
+  userId: string;
+  passwordHash: string;
+}) {
+  return db
+    .update(users)
+    .set({ passwordHash, sessionVersion: sql`${users.sessionVersion} + 1` })
+    .where(eq(users.id, userId))
+    .returning()
+    .get();
+}
+
+/** Disable (or re-enable) an account; disabling ends its sessions at once. */
+export function setUserDisabled({
+  db = getDb(),
+  userId,
+  disabled,
+}: {
+  db?: Db;
+  userId: string;
+  disabled: boolean;
+}) {
+  return db
+    .update(users)
+    .set(
+      disabled
+        ? { disabledAt: new Date(), sessionVersion: sql`${users.sessionVersion} + 1` }
+        : { disabledAt: null },
+    )
+    .where(eq(users.id, userId))
+    .returning()
+    .get();
+}

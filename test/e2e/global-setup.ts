@@ -1,4 +1,5 @@
 import { type ChildProcess, spawn, spawnSync } from "node:child_process";
+import { randomBytes } from "node:crypto";
 import { existsSync, mkdtempSync, readdirSync, rmSync, statSync } from "node:fs";
 import { createServer } from "node:net";
 import { tmpdir } from "node:os";
@@ -112,7 +113,16 @@ export default async function setup(project: TestProject) {
     [nextBin, "start", "--port", String(port), "--hostname", "127.0.0.1"],
     {
       cwd: projectRoot,
-      env: { ...env, NODE_ENV: "production", DATABASE_URL: databaseUrl },
+      env: {
+        ...env,
+        NODE_ENV: "production",
+        DATABASE_URL: databaseUrl,
+        // Production refuses to run sessions without a secret, and marks the
+        // cookie Secure, which a browser drops over this plain-http loopback.
+        SESSION_SECRET: randomBytes(32).toString("base64url"),
+        SESSION_COOKIE_SECURE: "false",
+        APP_URL: baseURL,
+      },
       stdio: ["ignore", "pipe", "pipe"],
     },
   );

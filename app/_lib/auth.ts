@@ -1,0 +1,124 @@
+import bcrypt from "bcryptjs";
+import { z } from "zod";
+import {
+  countRecentAccountFailures,
+  countRecentAddressFailures,
+  recordLoginAttempt,
+} from "@/db/queries/login-attempts";
+import { findUserByEmail, normalizeEmail } from "@/db/queries/users";
+import { listWorkspacesForUser } from "@/db/queries/workspaces";
+import { passwordHashCost } from "./config";
+import { AppError } from "./errors";
+import type { SessionPayload } from "./session";
+
+/**
+ * Sign-in limits. Failures are counted in a sliding window from the
+ * login_attempts table: per account (a correct password resets its count) and
+ * per client address (across accounts, so one machine cannot try many).
+ */
+export const signInLimits = {
+  windowMs: 15 * 60 * 1000,
+  /** The 6th attempt on an account within the window is refused without checking the password. */
+  failuresPerAccount: 5,
+  /** The 21st attempt from one address within the window is refused. */
+  failuresPerAddress: 20,
+} as const;
+
+/** One message for every sign-in failure: it never tells whether the account exists. */
+export const signInFailedMessage = "that e-mail and password do not match an active account";
+export const signInLimitedMessage =
+  "too many sign-in attempts; wait 15 minutes or reset your password";
+
+export const emailSchema = z
+  .string({ error: "enter an e-mail address" })
+  .trim()
+  .min(3, "enter an e-mail address")
+  .max(254, "an e-mail address has at most 254 characters")
+  .pipe(z.email({ error: "enter a valid e-mail address" }))
+  .transform(normalizeEmail);
+
+/** New passwords: long enough to resist guessing, short enough for bcrypt's 72-byte input. */
+export const newPasswordSchema = z
+  .string({ error: "enter a password" })
+  .min(10, "a password needs at least 10 characters")
+  .refine((value) => new TextEncoder().encode(value).byteLength <= 72, {
+    message: "a password has at most 72 bytes",
+  });
+
+/** A password as typed at sign-in: not re-checked against the policy. */
+export const passwordInputSchema = z
+  .string({ error: "enter your password" })
+  .min(1, "enter your password")
+  .max(200, "a password has at most 200 characters");
+
+export function hashPassword(password: string): Promise<string> {
+  return bcrypt.hash(password, passwordHashCost());
+}
+
+export function verifyPassword(password: string, hash: string): Promise<boolean> {
+  return bcrypt.compare(password, hash);
+}
+
+// Compared against when the account does not exist, so an unknown e-mail takes
+// as long as a wrong password (cost 12, like the real hashes).
+const absentAccountHash = "$2b$12$kFocHEos/quDlMtAKzKz0.H70nz8sffwKeUFBp2//NnVa0DfiLXGi";
+
+/**
+ * The address a sign-in came from, for rate limiting: the right-most
+ * X-Forwarded-For entry, which the nearest proxy (or Next itself, from the
+ * socket, when there is no proxy) appended. Behind no proxy a client can forge
+ * this header; the per-account limit still holds then.
+ */
+export function clientAddressOf(request: Request): string | null {
+  const forwarded = request.headers.get("x-forwarded-for");
+  if (forwarded) {
+    const parts = forwarded
+      .split(",")
+      .map((part) => part.trim())
+      .filter(Boolean);
+    const last = parts.at(-1);
+    if (last) return last.slice(0, 64);
+  }
+  return request.headers.get("x-real-ip")?.trim().slice(0, 64) || null;
+}
+
+/**
+ * Check an e-mail and password and open a session payload in the user's first
+ * workspace (by name). Every failure is the same 401 message; limits give 429.
+ */
+export async function signInWithPassword({
+  email,
+  password,
+  clientAddress,
+  now = new Date(),
+}: {
+  email: string;
+  password: string;
+  clientAddress: string | null;
+  now?: Date;
+}): Promise<SessionPayload> {
+  const normalized = normalizeEmail(email);
+  const since = new Date(now.getTime() - signInLimits.windowMs);
+  if (
+    countRecentAccountFailures({ email: normalized, since }) >= signInLimits.failuresPerAccount ||
+    (clientAddress !== null &&
+      countRecentAddressFailures({ clientAddress, since }) >= signInLimits.failuresPerAddress)
+  ) {
+    throw new AppError("rate_limited", signInLimitedMessage);
+  }
+
+  const user = findUserByEmail({ email: normalized });
+  const matches = await verifyPassword(password, user?.passwordHash ?? absentAccountHash);
+  const workspace = user ? listWorkspacesForUser({ userId: user.id })[0] : undefined;
+  const succeeded = Boolean(user && matches && user.disabledAt === null && workspace);
+  recordLoginAttempt({ email: normalized, clientAddress, succeeded, at: now });
+  if (!succeeded || !user || !workspace) {
+    throw new AppError("invalid_credentials", signInFailedMessage);
+  }
+  return {
+    userId: user.id,
+    workspaceId: workspace.workspace.id,
+    sessionVersion: user.sessionVersion,
+    issuedAt: now.getTime(),
+  };
+}

@@ -1,0 +1,180 @@
+import { and, asc, desc, eq, isNull, or } from "drizzle-orm";
+import { type Db, getDb } from "../client";
+import { wrapDriverError } from "../db-error";
+import { benches, benchRevisions } from "../schema";
+
+/**
+ * Bench queries beyond the basics in benches.ts: revision history, archiving,
+ * duplicating and the listing trainers and admins see (with private copies).
+ */
+
+/** Every revision of a bench, newest first, without the documents. */
+export function listRevisions({ db = getDb(), benchId }: { db?: Db; benchId: string }) {
+  return db
+    .select({
+      id: benchRevisions.id,
+      number: benchRevisions.number,
+      authorId: benchRevisions.authorId,
+      summary: benchRevisions.summary,
+      createdAt: benchRevisions.createdAt,
+    })
+    .from(benchRevisions)
+    .where(eq(benchRevisions.benchId, benchId))
+    .orderBy(desc(benchRevisions.number))
+    .all();
+}
+
+/** One revision by its number. */
+export function findRevision({
+  db = getDb(),
+  benchId,
+  number,
+}: {
+  db?: Db;
+  benchId: string;
+  number: number;
+}) {
+  return db
+    .select()
+    .from(benchRevisions)
+    .where(and(eq(benchRevisions.benchId, benchId), eq(benchRevisions.number, number)))
+    .get();
+}
+
+/** One revision by id, only if its bench belongs to the workspace. */
+export function findRevisionInWorkspace({
+  db = getDb(),
+  workspaceId,
+  revisionId,
+}: {
+  db?: Db;
+  workspaceId: string;
+  revisionId: string;
+}) {
+  return db
+    .select({ revision: benchRevisions, bench: benches })
+    .from(benchRevisions)
+    .innerJoin(benches, eq(benchRevisions.benchId, benches.id))
+    .where(and(eq(benchRevisions.id, revisionId), eq(benches.workspaceId, workspaceId)))
+    .get();
+}
+
+/**
+ * Benches of a workspace that are not archived: shared ones, the user's own
+ * private copies, and with `includeAllPrivate` everyone's (trainers reviewing).
+ */
+export function listVisibleBenches({
+  db = getDb(),
+  workspaceId,
+  userId,
+  includeAllPrivate,
+}: {
+  db?: Db;
+  workspaceId: string;
+  userId: string;
+  includeAllPrivate: boolean;
+}) {
+  return db
+    .select()
+    .from(benches)
+    .where(
+      and(
+        eq(benches.workspaceId, workspaceId),
+        isNull(benches.archivedAt),
+        includeAllPrivate
+          ? undefined
+          : or(isNull(benches.privateOwnerId), eq(benches.privateOwnerId, userId)),
+      ),
+    )
+    .orderBy(asc(benches.name))
+    .all();
+}
+
+/** Rename or re-describe a bench. */
+export function updateBenchDetails({
+  db = getDb(),
+  workspaceId,
+  benchId,
+  values,
+}: {
+  db?: Db;
+  workspaceId: string;
+  benchId: string;
+  values: { name?: string; description?: string };
+}) {
+  return db
+    .update(benches)
+    .set({ ...values, updatedAt: new Date() })
+    .where(and(eq(benches.id, benchId), eq(benches.workspaceId, workspaceId)))
+    .returning()
+    .get();
+}
+
+/**
+ * Archive a bench: it leaves every list and answers 404, while its revisions
+ * stay, because runs and lab attempts point at them.
+ */
+export function archiveBench({
+  db = getDb(),
+  workspaceId,
+  benchId,
+}: {
+  db?: Db;
+  workspaceId: string;
+  benchId: string;
+}) {
+  return db
+    .update(benches)
+    .set({ archivedAt: new Date() })
+    .where(and(eq(benches.id, benchId), eq(benches.workspaceId, workspaceId)))
+    .returning()
+    .get();
+}
+
+/** Copy a bench's latest document into a new bench with one revision, in one transaction. */
+export function duplicateBench({
+  db = getDb(),
+  source,
+  document,
+  name,
+  createdBy,
+  privateOwnerId,
+}: {
+  db?: Db;
+  source: typeof benches.$inferSelect;
+  document: string;
+  name: string;
+  createdBy: string;
+  privateOwnerId: string | null;
+}) {
+  try {
+    return db.transaction((tx) => {
+      const bench = tx
+        .insert(benches)
+        .values({
+          workspaceId: source.workspaceId,
+          name,
+          description: source.description,
+          createdBy,
+          privateOwnerId,
+          copiedFromBenchId: source.id,
+        })
+        .returning()
+        .get();
+      const revision = tx
+        .insert(benchRevisions)
+        .values({
+          benchId: bench.id,
+          number: 1,
+          document,
+          authorId: createdBy,
+          summary: `Copied from "${source.name}"`,
+        })
+        .returning()
+        .get();
+      return { bench, revision };
+    });
+  } catch (error) {
+    wrapDriverError(error, `bench "${name}"`);
+  }
+}
