@@ -14,7 +14,6 @@ describe("engine public API", () => {
       "encodeTp1Frame",
       "decodeTp1Frame",
       "describeTelegram",
-      "benchSchema",
       "loadBench",
       "registerDeviceType",
       "getDeviceType",
@@ -23,6 +22,7 @@ describe("engine public API", () => {
     ]) {
       expect(typeof (engine as Record<string, unknown>)[name], name).toBe("function");
     }
+    expect(engine.benchSchema.safeParse({}).success).toBe(false);
   });
 
   it("runs a bench end to end through the public API alone", () => {
