@@ -10,7 +10,6 @@ describe("engine public API", () => {
       "formatIndividualAddress",
       "getDpt",
       "dptSizeBits",
-      "dptIds",
       "encodeTp1Frame",
       "decodeTp1Frame",
       "describeTelegram",
@@ -23,6 +22,7 @@ describe("engine public API", () => {
       expect(typeof (engine as Record<string, unknown>)[name], name).toBe("function");
     }
     expect(engine.benchSchema.safeParse({}).success).toBe(false);
+    expect(engine.dptIds).toContain("9.001");
   });
 
   it("runs a bench end to end through the public API alone", () => {
