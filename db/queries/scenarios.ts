@@ -1,6 +1,6 @@
 import { and, asc, eq } from "drizzle-orm";
 import { type Db, getDb } from "../client";
-import { wrapDriverError } from "../db-error";
+import { DbError, wrapDriverError } from "../db-error";
 import { scenarios } from "../schema";
 
 export type ScenarioRow = typeof scenarios.$inferSelect;
@@ -89,6 +89,10 @@ export function deleteScenario({
       .where(and(eq(scenarios.id, scenarioId), eq(scenarios.workspaceId, workspaceId)))
       .run();
   } catch (error) {
+    // A lab grading with it (or a run) still points here: deleting would break them.
+    if ((error as { code?: unknown } | null)?.code === "SQLITE_CONSTRAINT_FOREIGNKEY") {
+      throw new DbError("conflict:database", "scenario: still used by a lab", { cause: error });
+    }
     wrapDriverError(error, "scenario");
   }
 }

@@ -1,0 +1,45 @@
+import { authorize, verifyApiSession } from "@/app/_lib/dal";
+import { can } from "@/app/_lib/capabilities";
+import { documentBodyLimitBytes, json, readJson, route } from "@/app/_lib/http";
+import { checkedBenchDocument } from "@/app/_lib/resources";
+import { createBench } from "@/db/queries/benches";
+import { listVisibleBenches } from "@/db/queries/bench-history";
+import { benchSummary } from "./bench-json";
+import { createBenchBodySchema } from "./schema";
+
+/** Benches of the active workspace: shared ones and the member's own copies (trainers and admins: all copies). */
+export const GET = route(async (request) => {
+  const session = await verifyApiSession(request);
+  authorize(session, "benches.read");
+  const benches = listVisibleBenches({
+    workspaceId: session.workspaceId,
+    userId: session.userId,
+    includeAllPrivate: can(session.role, "labs.manage"),
+  });
+  return json({ benches: benches.map(benchSummary) });
+});
+
+/** Create a bench with its first revision. */
+export const POST = route(async (request) => {
+  const body = await readJson(request, createBenchBodySchema, {
+    limitBytes: documentBodyLimitBytes,
+  });
+  const session = await verifyApiSession(request);
+  const scope = authorize(session, "benches.edit");
+  const document = checkedBenchDocument(body.document);
+  const created = createBench({
+    values: {
+      workspaceId: session.workspaceId,
+      name: body.name ?? document.name,
+      description: body.description ?? "",
+      createdBy: session.userId,
+      // "own" scope (apprentices) may only make private sandbox benches.
+      privateOwnerId: scope === "own" ? session.userId : null,
+    },
+    document: document.text,
+  });
+  return json(
+    { bench: benchSummary(created.bench), revision: { number: created.revision.number } },
+    { status: 201 },
+  );
+});

@@ -1,0 +1,23 @@
+import type { Run } from "@/db/queries/runs";
+
+export function runJson(run: Run, options: { results?: boolean } = {}) {
+  return {
+    id: run.id,
+    scenarioId: run.scenarioId,
+    suiteId: run.suiteId,
+    benchRevisionId: run.benchRevisionId,
+    seed: run.seed,
+    status: run.status,
+    verdict: run.verdict,
+    stepsPassed: run.stepsPassed,
+    stepsFailed: run.stepsFailed,
+    stepsTotal: run.stepsTotal,
+    startedBy: run.startedBy,
+    createdAt: run.createdAt.toISOString(),
+    startedAt: run.startedAt?.toISOString() ?? null,
+    finishedAt: run.finishedAt?.toISOString() ?? null,
+    ...(options.results
+      ? { results: run.results ? (JSON.parse(run.results) as unknown) : null }
+      : {}),
+  };
+}

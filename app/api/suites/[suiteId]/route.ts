@@ -1,0 +1,51 @@
+import { authorize, verifyApiSession } from "@/app/_lib/dal";
+import { AppError } from "@/app/_lib/errors";
+import { json, readJson, route, type RouteParams } from "@/app/_lib/http";
+import { loadSuite, resourceIdSchema } from "@/app/_lib/resources";
+import { deleteSuite, updateSuite } from "@/db/queries/suites";
+import { checkSuiteScenarios, suiteJson } from "../suite-json";
+import { updateSuiteBodySchema } from "./schema";
+
+type Params = RouteParams<{ suiteId: string }>;
+
+async function suiteIdOf(context: Params) {
+  const parsed = resourceIdSchema.safeParse((await context.params).suiteId);
+  if (!parsed.success) throw new AppError("not_found", "no such suite");
+  return parsed.data;
+}
+
+export const GET = route(async (request, context: Params) => {
+  const suiteId = await suiteIdOf(context);
+  const session = await verifyApiSession(request);
+  authorize(session, "scenarios.read");
+  return json({ suite: suiteJson(loadSuite(session, suiteId), { scenarios: true }) });
+});
+
+export const PATCH = route(async (request, context: Params) => {
+  const suiteId = await suiteIdOf(context);
+  const body = await readJson(request, updateSuiteBodySchema);
+  const session = await verifyApiSession(request);
+  const suite = loadSuite(session, suiteId);
+  authorize(session, "suites.edit");
+  if (body.scenarioIds) checkSuiteScenarios(session.workspaceId, body.scenarioIds);
+  const updated = updateSuite({
+    workspaceId: session.workspaceId,
+    suiteId: suite.id,
+    values: {
+      ...(body.name === undefined ? {} : { name: body.name }),
+      ...(body.description === undefined ? {} : { description: body.description }),
+    },
+    ...(body.scenarioIds === undefined ? {} : { scenarioIds: body.scenarioIds }),
+  });
+  if (!updated) throw new AppError("not_found", "no such suite");
+  return json({ suite: suiteJson(updated, { scenarios: true }) });
+});
+
+export const DELETE = route(async (request, context: Params) => {
+  const suiteId = await suiteIdOf(context);
+  const session = await verifyApiSession(request);
+  const suite = loadSuite(session, suiteId);
+  authorize(session, "suites.edit");
+  deleteSuite({ workspaceId: session.workspaceId, suiteId: suite.id });
+  return new Response(null, { status: 204, headers: { "Cache-Control": "no-store" } });
+});
