@@ -8,6 +8,15 @@ const FLOAT32_MAX = 3.4028234663852886e38;
 // One scratch view for the conversions, so encode and decode allocate only the payload.
 const scratch = new DataView(new ArrayBuffer(4));
 
+// Error texts are built out of line: a template literal inside encode/decode slows V8's
+// compiled code even when its branch is never taken (see beyondLimits in dpt-codec.ts).
+function beyondSingle(id: string, value: number) {
+  return outOfRange(id, `${value} is beyond ±${FLOAT32_MAX}, the largest single-precision float`);
+}
+function notFinite(id: string, value: number) {
+  return outOfRange(id, `payload is ${value}, not a finite number`);
+}
+
 /**
  * DPT 14.x, IEEE 754 single precision, big-endian (DPT spec §3.17). Values are
  * rounded to the nearest single (Math.fround); NaN and infinities are refused both
@@ -24,12 +33,7 @@ function dpt14(id: string, name: string, unit: string): DptCodec<number> {
     valueSchema: z.number().min(-FLOAT32_MAX).max(FLOAT32_MAX),
     encode(value) {
       if (typeof value !== "number" || value !== value) return wrongType(id, "a number", value);
-      if (value > FLOAT32_MAX || value < -FLOAT32_MAX) {
-        return outOfRange(
-          id,
-          `${value} is beyond ±${FLOAT32_MAX}, the largest single-precision float`,
-        );
-      }
+      if (value > FLOAT32_MAX || value < -FLOAT32_MAX) return beyondSingle(id, value);
       scratch.setFloat32(0, value);
       const payload = new Uint8Array(4);
       payload[0] = scratch.getUint8(0);
@@ -45,8 +49,7 @@ function dpt14(id: string, name: string, unit: string): DptCodec<number> {
       scratch.setUint8(2, payload[2] as number);
       scratch.setUint8(3, payload[3] as number);
       const value = scratch.getFloat32(0);
-      if (!Number.isFinite(value))
-        return outOfRange(id, `payload is ${value}, not a finite number`);
+      if (!Number.isFinite(value)) return notFinite(id, value);
       return ok(value);
     },
     // Seven significant digits: what a single carries.

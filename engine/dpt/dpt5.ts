@@ -1,7 +1,7 @@
 import { z } from "zod";
 import { ok } from "../core/result";
 import {
-  outOfRange,
+  beyondLimits,
   trimDecimals,
   withUnit,
   wrongLength,
@@ -28,8 +28,7 @@ function scaledDpt(id: string, name: string, unit: string, top: number): DptCode
     valueSchema: z.number().min(0).max(top),
     encode(value) {
       if (typeof value !== "number" || value !== value) return wrongType(id, "a number", value);
-      if (value < 0) return outOfRange(id, `${value} is below the minimum 0 ${unit}`);
-      if (value > top) return outOfRange(id, `${value} is above the maximum ${top} ${unit}`);
+      if (value < 0 || value > top) return beyondLimits(id, value, 0, top, unit);
       const payload = new Uint8Array(1);
       payload[0] = Math.round((value * 255) / top);
       return ok(payload);

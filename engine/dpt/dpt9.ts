@@ -1,6 +1,6 @@
 import { z } from "zod";
 import { ok, type Result } from "../core/result";
-import { outOfRange, wrongLength, wrongType, type DptCodec, type DptError } from "./dpt-codec";
+import { beyondLimits, wrongLength, wrongType, type DptCodec, type DptError } from "./dpt-codec";
 
 /*
  * DPT 9.x, the 2-octet float (DPT spec §3.10):
@@ -54,14 +54,22 @@ export const DPT9_INVALID_RAW = 0x7fff;
  */
 export function encodeFloat16Raw(value: number): number {
   let s = value * 100;
-  const whole = Math.round(s);
-  if (Math.abs(s - whole) < 1e-6) s = whole;
+  let m = Math.round(s);
+  if (s - m < 1e-6 && m - s < 1e-6)
+    s = m; // on the 0.01 grid: m is already the mantissa at E=0
+  else m = s < 0 ? -Math.round(-s) : Math.round(s);
   let e = 0;
-  let m = s < 0 ? -Math.round(-s) : Math.round(s);
-  while (m > 2047 || m < -2048) {
-    e++;
-    const scaled = s / (1 << e); // exact: division by a power of two
-    m = scaled < 0 ? -Math.round(-scaled) : Math.round(scaled);
+  if (m > 2047 || m < -2048) {
+    // |m| has `bits` bits, so no exponent below bits - 12 can fit; start there (at least 1)
+    // and step up: at most two steps, instead of trying every exponent from 0.
+    e = 20 - Math.clz32(m < 0 ? -m : m);
+    if (e < 1) e = 1;
+    for (;;) {
+      const scaled = s / (1 << e); // exact: division by a power of two
+      m = scaled < 0 ? -Math.round(-scaled) : Math.round(scaled);
+      if (m <= 2047 && m >= -2048) break;
+      e++;
+    }
   }
   return (m < 0 ? 0x8000 : 0) | (e << 11) | (m & 0x7ff);
 }
@@ -85,8 +93,6 @@ interface Dpt9Spec {
 function dpt9(spec: Dpt9Spec): DptCodec<Dpt9Value> {
   const { id, unit, min } = spec;
   const max = spec.max ?? DPT9_MAX;
-  const belowMin = `is below the minimum ${min} ${unit}`;
-  const aboveMax = `is above the maximum ${max} ${unit}`;
   return {
     id,
     name: spec.name,
@@ -101,7 +107,7 @@ function dpt9(spec: Dpt9Spec): DptCodec<Dpt9Value> {
         // `value >= min && value <= max` is false for NaN too.
         if (!(value >= min && value <= max)) {
           if (value !== value) return wrongType(id, "a number or { invalid: true }", value);
-          return outOfRange(id, `${value} ${value < min ? belowMin : aboveMax}`);
+          return beyondLimits(id, value, min, max, unit);
         }
         raw = encodeFloat16Raw(value);
       } else if (isDptInvalid(value)) {
@@ -120,8 +126,7 @@ function dpt9(spec: Dpt9Spec): DptCodec<Dpt9Value> {
       if (raw === DPT9_INVALID_RAW) return ok(DPT9_INVALID);
       const value = decodeFloat16Raw(raw);
       // A pattern outside this subtype's range (e.g. -300 °C) is not a value of it.
-      if (value < min) return outOfRange(id, `decoded ${value} ${belowMin}`);
-      if (value > max) return outOfRange(id, `decoded ${value} ${aboveMax}`);
+      if (value < min || value > max) return beyondLimits(id, value, min, max, unit, "decoded ");
       return ok(value);
     },
     format: (value) => (typeof value === "number" ? `${value.toFixed(2)} ${unit}` : "invalid"),

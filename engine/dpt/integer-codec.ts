@@ -1,6 +1,6 @@
 import { z } from "zod";
 import { ok } from "../core/result";
-import { outOfRange, withUnit, wrongLength, wrongType, type DptCodec } from "./dpt-codec";
+import { beyondLimits, withUnit, wrongLength, wrongType, type DptCodec } from "./dpt-codec";
 
 export interface IntegerDptSpec {
   readonly id: string;
@@ -23,7 +23,6 @@ export function integerDpt(spec: IntegerDptSpec): DptCodec<number> {
   const bits = octets * 8;
   const min = spec.min ?? (signed ? -(2 ** (bits - 1)) : 0);
   const max = spec.max ?? (signed ? 2 ** (bits - 1) - 1 : 2 ** bits - 1);
-  const unitText = spec.unit === "" ? "" : ` ${spec.unit}`;
   return {
     id,
     name: spec.name,
@@ -35,8 +34,7 @@ export function integerDpt(spec: IntegerDptSpec): DptCodec<number> {
     encode(value) {
       if (typeof value !== "number") return wrongType(id, "an integer", value);
       if (!Number.isInteger(value)) return wrongType(id, "an integer", value);
-      if (value < min) return outOfRange(id, `${value} is below the minimum ${min}${unitText}`);
-      if (value > max) return outOfRange(id, `${value} is above the maximum ${max}${unitText}`);
+      if (value < min || value > max) return beyondLimits(id, value, min, max, spec.unit);
       const payload = new Uint8Array(octets);
       // `>>>` and `&` work on the 32-bit two's complement, which is the wire form.
       for (let i = octets - 1, v = value; i >= 0; i--, v = Math.floor(v / 256))
@@ -48,8 +46,7 @@ export function integerDpt(spec: IntegerDptSpec): DptCodec<number> {
       let v = 0;
       for (let i = 0; i < octets; i++) v = v * 256 + (payload[i] as number);
       if (signed && v >= 2 ** (bits - 1)) v -= 2 ** bits;
-      if (v < min) return outOfRange(id, `${v} is below the minimum ${min}${unitText}`);
-      if (v > max) return outOfRange(id, `${v} is above the maximum ${max}${unitText}`);
+      if (v < min || v > max) return beyondLimits(id, v, min, max, spec.unit);
       return ok(v);
     },
     format: (value) => withUnit(String(value), spec.unit),
