@@ -33,7 +33,9 @@ describe("engine public API", () => {
         lines: [{ id: "main", address: "1.1", name: "Main" }],
         testToolAddress: "1.1.250",
         groupAddresses: [{ address: "1/0/1", name: "Light", dpt: "1.001" }],
-        devices: [{ id: "act", type: "switch-actuator", name: "Relay", individualAddress: "1.1.2" }],
+        devices: [
+          { id: "act", type: "switch-actuator", name: "Relay", individualAddress: "1.1.2" },
+        ],
         links: [{ device: "act", object: 0, groupAddress: "1/0/1" }],
       },
       { seed: 1 },

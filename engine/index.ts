@@ -124,7 +124,14 @@ export { migrateBench } from "./bench";
 // ---------------------------------------------------------------- devices
 
 /** The device-type interface: zod parameters, group objects, buttons, initial state and a pure transition. */
-export type { DeviceType, AnyDeviceType, DeviceEvent, DeviceEffect, DeviceContext, TransitionResult } from "./devices";
+export type {
+  DeviceType,
+  AnyDeviceType,
+  DeviceEvent,
+  DeviceEffect,
+  DeviceContext,
+  TransitionResult,
+} from "./devices";
 /** A group object declaration and its standard flags (communication, read, write, transmit, update, read-on-init). */
 export type { GroupObjectSpec, GroupObjectFlags, LocalButtonSpec } from "./devices";
 /** Flags from letters: "CRWTUI". */

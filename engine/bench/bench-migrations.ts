@@ -28,7 +28,11 @@ export function migrateBench(
   let current = document as Record<string, unknown>;
   const format = current.format;
   if (typeof format !== "number" || !Number.isInteger(format) || format < 1) {
-    return err({ kind: "bench.format-missing", path: "format", message: `format must be a whole number from 1 to ${targetFormat}` });
+    return err({
+      kind: "bench.format-missing",
+      path: "format",
+      message: `format must be a whole number from 1 to ${targetFormat}`,
+    });
   }
   if (format > targetFormat) {
     return err({
@@ -40,10 +44,15 @@ export function migrateBench(
   for (let step = format; step < targetFormat; step++) {
     const migrate = migrations[step];
     if (migrate === undefined) {
-      return err({ kind: "bench.format-unsupported", path: "format", message: `no migration from format ${step} to ${step + 1}` });
+      return err({
+        kind: "bench.format-unsupported",
+        path: "format",
+        message: `no migration from format ${step} to ${step + 1}`,
+      });
     }
     current = migrate(current);
-    if (current.format !== step + 1) throw new Error(`bench migration ${step} -> ${step + 1} did not set format to ${step + 1}`);
+    if (current.format !== step + 1)
+      throw new Error(`bench migration ${step} -> ${step + 1} did not set format to ${step + 1}`);
   }
   return ok(current);
 }

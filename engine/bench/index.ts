@@ -1,4 +1,24 @@
-export { BENCH_FORMAT, benchSchema, type Bench, type BenchInput, type BenchDevice, type BenchGroupAddress, type BenchLine, type BenchLink, type BenchUnitLink, type Position } from "./bench-schema";
+export {
+  BENCH_FORMAT,
+  benchSchema,
+  type Bench,
+  type BenchInput,
+  type BenchDevice,
+  type BenchGroupAddress,
+  type BenchLine,
+  type BenchLink,
+  type BenchUnitLink,
+  type Position,
+} from "./bench-schema";
 export type { BenchError } from "./bench-error";
 export { migrateBench, benchMigrations, type BenchMigration } from "./bench-migrations";
-export { loadBench, jsonPath, type LoadedBench, type LoadedDevice, type LoadedGroupAddress, type LoadedLine, type LoadedObject, type LoadBenchOptions } from "./load-bench";
+export {
+  loadBench,
+  jsonPath,
+  type LoadedBench,
+  type LoadedDevice,
+  type LoadedGroupAddress,
+  type LoadedLine,
+  type LoadedObject,
+  type LoadBenchOptions,
+} from "./load-bench";

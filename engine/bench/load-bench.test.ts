@@ -15,8 +15,20 @@ function bench(overrides: Partial<BenchInput> = {}): BenchInput {
       { address: "1/0/3", name: "Hall dim value", dpt: "5.001" },
     ],
     devices: [
-      { id: "pb-hall", type: "push-button", name: "Hall rocker", individualAddress: "1.1.1", parameters: {} },
-      { id: "act-hall", type: "switch-actuator", name: "Hall relay", individualAddress: "1.1.2", parameters: { channels: 1 } },
+      {
+        id: "pb-hall",
+        type: "push-button",
+        name: "Hall rocker",
+        individualAddress: "1.1.1",
+        parameters: {},
+      },
+      {
+        id: "act-hall",
+        type: "switch-actuator",
+        name: "Hall relay",
+        individualAddress: "1.1.2",
+        parameters: { channels: 1 },
+      },
     ],
     links: [
       { device: "pb-hall", object: 0, groupAddress: "1/0/1" },
@@ -49,15 +61,30 @@ describe("loadBench", () => {
   });
 
   it("names an unknown device type", () => {
-    const errors = errorsOf(bench({ devices: [{ id: "x-1", type: "toaster", name: "X", individualAddress: "1.1.9" }], links: [] }));
-    expect(errors).toEqual([expect.objectContaining({ kind: "bench.device-type-unknown", path: "devices[0].type", deviceId: "x-1" })]);
+    const errors = errorsOf(
+      bench({
+        devices: [{ id: "x-1", type: "toaster", name: "X", individualAddress: "1.1.9" }],
+        links: [],
+      }),
+    );
+    expect(errors).toEqual([
+      expect.objectContaining({
+        kind: "bench.device-type-unknown",
+        path: "devices[0].type",
+        deviceId: "x-1",
+      }),
+    ]);
   });
 
   it("names a duplicate individual address, including the test tool's", () => {
     const base = bench();
     const errors = errorsOf({
       ...base,
-      devices: [...base.devices!, { id: "pb-two", type: "push-button", name: "Second", individualAddress: "1.1.1" }, { id: "pb-three", type: "push-button", name: "Third", individualAddress: "1.1.250" }],
+      devices: [
+        ...base.devices!,
+        { id: "pb-two", type: "push-button", name: "Second", individualAddress: "1.1.1" },
+        { id: "pb-three", type: "push-button", name: "Third", individualAddress: "1.1.250" },
+      ],
     });
     expect(errors.map((e) => [e.kind, e.path, e.deviceId])).toEqual([
       ["bench.duplicate-individual-address", "devices[2].individualAddress", "pb-two"],
@@ -69,16 +96,41 @@ describe("loadBench", () => {
   it("names an address linked to objects of different sizes", () => {
     const base = bench();
     // A 1-bit switch object on an 8-bit 5.001 address (DPT spec: 1.001 is 1 bit, 5.001 one octet).
-    const errors = errorsOf({ ...base, links: [...base.links!, { device: "act-hall", object: 0, groupAddress: "1/0/3" }] });
+    const errors = errorsOf({
+      ...base,
+      links: [...base.links!, { device: "act-hall", object: 0, groupAddress: "1/0/3" }],
+    });
     expect(errors).toEqual([
-      expect.objectContaining({ kind: "bench.address-size-mismatch", deviceId: "act-hall", object: 0, groupAddress: "1/0/3" }),
+      expect.objectContaining({
+        kind: "bench.address-size-mismatch",
+        deviceId: "act-hall",
+        object: 0,
+        groupAddress: "1/0/3",
+      }),
     ]);
     expect(errors[0]!.message).toMatch(/1\/0\/3.*5\.001.*1\.001/);
   });
 
   it("points at the parameter that does not fit the type", () => {
-    const errors = errorsOf(bench({ devices: [{ id: "act-1", type: "switch-actuator", name: "A", individualAddress: "1.1.5", parameters: { channels: 12 } }], links: [] }));
-    expect(errors[0]).toMatchObject({ kind: "bench.parameters-invalid", path: "devices[0].parameters.channels", deviceId: "act-1" });
+    const errors = errorsOf(
+      bench({
+        devices: [
+          {
+            id: "act-1",
+            type: "switch-actuator",
+            name: "A",
+            individualAddress: "1.1.5",
+            parameters: { channels: 12 },
+          },
+        ],
+        links: [],
+      }),
+    );
+    expect(errors[0]).toMatchObject({
+      kind: "bench.parameters-invalid",
+      path: "devices[0].parameters.channels",
+      deviceId: "act-1",
+    });
   });
 
   it("points at links to unknown devices, objects and addresses", () => {
@@ -99,20 +151,32 @@ describe("loadBench", () => {
   });
 
   it("refuses a bad address text and names the field", () => {
-    const errors = errorsOf(bench({ groupAddresses: [{ address: "0/0/0", name: "Broadcast", dpt: "1.001" }], links: [] }));
+    const errors = errorsOf(
+      bench({ groupAddresses: [{ address: "0/0/0", name: "Broadcast", dpt: "1.001" }], links: [] }),
+    );
     // knx-reference.md, Addresses: 0/0/0 is broadcast, not a group.
-    expect(errors[0]).toMatchObject({ kind: "bench.address-invalid", path: "groupAddresses[0].address" });
+    expect(errors[0]).toMatchObject({
+      kind: "bench.address-invalid",
+      path: "groupAddresses[0].address",
+    });
   });
 
   it("refuses a unit-link member that is not on the bench", () => {
-    const errors = errorsOf(bench({ unitLinks: [{ id: "wiring", members: ["pb-hall", "nobody"] }] }));
-    expect(errors[0]).toMatchObject({ kind: "bench.unit-link-member-unknown", path: "unitLinks[0].members[1]" });
+    const errors = errorsOf(
+      bench({ unitLinks: [{ id: "wiring", members: ["pb-hall", "nobody"] }] }),
+    );
+    expect(errors[0]).toMatchObject({
+      kind: "bench.unit-link-member-unknown",
+      path: "unitLinks[0].members[1]",
+    });
   });
 
   it("reports schema problems with a JSON path", () => {
     const errors = errorsOf({ ...bench(), lines: [] });
     expect(errors[0]).toMatchObject({ kind: "bench.schema", path: "lines" });
-    expect(errorsOf({ ...bench(), devices: [{ id: "Bad Id", type: "push-button", name: "x" }] })[0]).toMatchObject({ path: "devices[0].id" });
+    expect(
+      errorsOf({ ...bench(), devices: [{ id: "Bad Id", type: "push-button", name: "x" }] })[0],
+    ).toMatchObject({ path: "devices[0].id" });
   });
 
   it("refuses a document without a format, or from a newer version", () => {

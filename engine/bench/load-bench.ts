@@ -80,7 +80,12 @@ export function jsonPath(parts: readonly PropertyKey[]): string {
   return path === "" ? "$" : path;
 }
 
-function schemaErrors(error: z.ZodError, prefix: readonly PropertyKey[], kind: BenchError["kind"], extra: Partial<BenchError> = {}): BenchError[] {
+function schemaErrors(
+  error: z.ZodError,
+  prefix: readonly PropertyKey[],
+  kind: BenchError["kind"],
+  extra: Partial<BenchError> = {},
+): BenchError[] {
   return error.issues.map((issue) => {
     const path = jsonPath([...prefix, ...issue.path]);
     return { ...extra, kind, path, message: `${path}: ${issue.message}` };
@@ -92,7 +97,10 @@ function schemaErrors(error: z.ZodError, prefix: readonly PropertyKey[], kind: B
  * problem found, not just the first, each naming the device, object or address
  * at fault.
  */
-export function loadBench(document: unknown, options: LoadBenchOptions = {}): Result<LoadedBench, readonly BenchError[]> {
+export function loadBench(
+  document: unknown,
+  options: LoadBenchOptions = {},
+): Result<LoadedBench, readonly BenchError[]> {
   const migrated = migrateBench(document);
   if (!migrated.ok) return err([migrated.error]);
   const parsed = benchSchema.safeParse(migrated.value);
@@ -100,7 +108,10 @@ export function loadBench(document: unknown, options: LoadBenchOptions = {}): Re
   return resolveBench(parsed.data, options);
 }
 
-function resolveBench(bench: Bench, options: LoadBenchOptions): Result<LoadedBench, readonly BenchError[]> {
+function resolveBench(
+  bench: Bench,
+  options: LoadBenchOptions,
+): Result<LoadedBench, readonly BenchError[]> {
   const lookupType = options.deviceTypes ?? getDeviceType;
   const errors: BenchError[] = [];
 
@@ -108,19 +119,34 @@ function resolveBench(bench: Bench, options: LoadBenchOptions): Result<LoadedBen
   const lines: LoadedLine[] = [];
   const lineIds = new Set<string>();
   bench.lines.forEach((line, i) => {
-    if (lineIds.has(line.id)) errors.push({ kind: "bench.duplicate-id", path: `lines[${i}].id`, message: `line id "${line.id}" is used twice` });
+    if (lineIds.has(line.id))
+      errors.push({
+        kind: "bench.duplicate-id",
+        path: `lines[${i}].id`,
+        message: `line id "${line.id}" is used twice`,
+      });
     lineIds.add(line.id);
     const [area, lineNumber] = line.address.split(".").map(Number) as [number, number];
     if (area > 15 || lineNumber > 15) {
-      errors.push({ kind: "bench.address-invalid", path: `lines[${i}].address`, message: `line address "${line.address}": area and line are 0..15` });
+      errors.push({
+        kind: "bench.address-invalid",
+        path: `lines[${i}].address`,
+        message: `line address "${line.address}": area and line are 0..15`,
+      });
     }
     lines.push({ id: line.id, name: line.name, lineAddress: (area << 4) | lineNumber });
   });
-  const lineFor = (individualAddress: number): string => lines.find((l) => l.lineAddress === individualAddress >> 8)?.id ?? lines[0]!.id;
+  const lineFor = (individualAddress: number): string =>
+    lines.find((l) => l.lineAddress === individualAddress >> 8)?.id ?? lines[0]!.id;
 
   // Test tool.
   const testTool = parseIndividualAddress(bench.testToolAddress);
-  if (!testTool.ok) errors.push({ kind: "bench.address-invalid", path: "testToolAddress", message: `testToolAddress: ${testTool.error.message}` });
+  if (!testTool.ok)
+    errors.push({
+      kind: "bench.address-invalid",
+      path: "testToolAddress",
+      message: `testToolAddress: ${testTool.error.message}`,
+    });
   const testToolAddress = testTool.ok ? testTool.value : 0;
   const usedIndividual = new Map<number, string>();
   if (testTool.ok) usedIndividual.set(testTool.value, "testToolAddress");
@@ -131,19 +157,40 @@ function resolveBench(bench: Bench, options: LoadBenchOptions): Result<LoadedBen
   bench.groupAddresses.forEach((ga, i) => {
     const raw = parseGroupAddress(ga.address);
     if (!raw.ok) {
-      errors.push({ kind: "bench.address-invalid", path: `groupAddresses[${i}].address`, message: `groupAddresses[${i}].address: ${raw.error.message}`, groupAddress: ga.address });
+      errors.push({
+        kind: "bench.address-invalid",
+        path: `groupAddresses[${i}].address`,
+        message: `groupAddresses[${i}].address: ${raw.error.message}`,
+        groupAddress: ga.address,
+      });
       return;
     }
     const sizeBits = dptSizeBits(ga.dpt);
     if (sizeBits === undefined) {
-      errors.push({ kind: "bench.dpt-unknown", path: `groupAddresses[${i}].dpt`, message: `group address ${ga.address}: unknown DPT "${ga.dpt}"`, groupAddress: ga.address });
+      errors.push({
+        kind: "bench.dpt-unknown",
+        path: `groupAddresses[${i}].dpt`,
+        message: `group address ${ga.address}: unknown DPT "${ga.dpt}"`,
+        groupAddress: ga.address,
+      });
       return;
     }
     if (groupAddresses.has(raw.value)) {
-      errors.push({ kind: "bench.duplicate-group-address", path: `groupAddresses[${i}].address`, message: `group address ${ga.address} is listed twice`, groupAddress: ga.address });
+      errors.push({
+        kind: "bench.duplicate-group-address",
+        path: `groupAddresses[${i}].address`,
+        message: `group address ${ga.address} is listed twice`,
+        groupAddress: ga.address,
+      });
       return;
     }
-    const loaded: LoadedGroupAddress = { raw: raw.value, text: ga.address, name: ga.name, dpt: ga.dpt, sizeBits };
+    const loaded: LoadedGroupAddress = {
+      raw: raw.value,
+      text: ga.address,
+      name: ga.name,
+      dpt: ga.dpt,
+      sizeBits,
+    };
     groupAddresses.set(raw.value, loaded);
     groupAddressByText.set(ga.address, loaded);
   });
@@ -152,9 +199,16 @@ function resolveBench(bench: Bench, options: LoadBenchOptions): Result<LoadedBen
   const unitLinksOf = new Map<string, string[]>();
   const unitLinkIds = new Set<string>();
   bench.unitLinks.forEach((link, i) => {
-    if (unitLinkIds.has(link.id)) errors.push({ kind: "bench.duplicate-id", path: `unitLinks[${i}].id`, message: `unit link id "${link.id}" is used twice` });
+    if (unitLinkIds.has(link.id))
+      errors.push({
+        kind: "bench.duplicate-id",
+        path: `unitLinks[${i}].id`,
+        message: `unit link id "${link.id}" is used twice`,
+      });
     unitLinkIds.add(link.id);
-    link.members.forEach((member) => unitLinksOf.set(member, [...(unitLinksOf.get(member) ?? []), link.id]));
+    link.members.forEach((member) =>
+      unitLinksOf.set(member, [...(unitLinksOf.get(member) ?? []), link.id]),
+    );
   });
 
   // Links grouped by device and object, in bench order (first = sending address).
@@ -163,10 +217,17 @@ function resolveBench(bench: Bench, options: LoadBenchOptions): Result<LoadedBen
   bench.links.forEach((link, i) => {
     const path = `links[${i}]`;
     if (!deviceIds.has(link.device)) {
-      errors.push({ kind: "bench.link-device-unknown", path: `${path}.device`, message: `${path}: no device "${link.device}"`, deviceId: link.device });
+      errors.push({
+        kind: "bench.link-device-unknown",
+        path: `${path}.device`,
+        message: `${path}: no device "${link.device}"`,
+        deviceId: link.device,
+      });
       return;
     }
-    const ga = groupAddressByText.get(link.groupAddress) ?? lookupGroupAddress(link.groupAddress, groupAddresses);
+    const ga =
+      groupAddressByText.get(link.groupAddress) ??
+      lookupGroupAddress(link.groupAddress, groupAddresses);
     if (ga === undefined) {
       errors.push({
         kind: "bench.link-address-unknown",
@@ -178,7 +239,8 @@ function resolveBench(bench: Bench, options: LoadBenchOptions): Result<LoadedBen
       });
       return;
     }
-    const byObject = linksOf.get(link.device) ?? new Map<number, { raw: number; index: number }[]>();
+    const byObject =
+      linksOf.get(link.device) ?? new Map<number, { raw: number; index: number }[]>();
     linksOf.set(link.device, byObject);
     const list = byObject.get(link.object) ?? [];
     if (list.some((l) => l.raw === ga.raw)) {
@@ -201,16 +263,34 @@ function resolveBench(bench: Bench, options: LoadBenchOptions): Result<LoadedBen
   const seenDeviceIds = new Set<string>();
   bench.devices.forEach((device, i) => {
     const path = `devices[${i}]`;
-    if (seenDeviceIds.has(device.id)) errors.push({ kind: "bench.duplicate-id", path: `${path}.id`, message: `device id "${device.id}" is used twice`, deviceId: device.id });
+    if (seenDeviceIds.has(device.id))
+      errors.push({
+        kind: "bench.duplicate-id",
+        path: `${path}.id`,
+        message: `device id "${device.id}" is used twice`,
+        deviceId: device.id,
+      });
     seenDeviceIds.add(device.id);
     const type = lookupType(device.type);
     if (type === undefined) {
-      errors.push({ kind: "bench.device-type-unknown", path: `${path}.type`, message: `device "${device.id}": unknown device type "${device.type}"`, deviceId: device.id });
+      errors.push({
+        kind: "bench.device-type-unknown",
+        path: `${path}.type`,
+        message: `device "${device.id}": unknown device type "${device.type}"`,
+        deviceId: device.id,
+      });
       return;
     }
     const parameters = type.parameters.safeParse(device.parameters);
     if (!parameters.success) {
-      errors.push(...schemaErrors(parameters.error, ["devices", i, "parameters"], "bench.parameters-invalid", { deviceId: device.id }));
+      errors.push(
+        ...schemaErrors(
+          parameters.error,
+          ["devices", i, "parameters"],
+          "bench.parameters-invalid",
+          { deviceId: device.id },
+        ),
+      );
       return;
     }
 
@@ -227,7 +307,12 @@ function resolveBench(bench: Bench, options: LoadBenchOptions): Result<LoadedBen
       } else {
         const ia = parseIndividualAddress(device.individualAddress);
         if (!ia.ok) {
-          errors.push({ kind: "bench.address-invalid", path: `${path}.individualAddress`, message: `device "${device.id}": ${ia.error.message}`, deviceId: device.id });
+          errors.push({
+            kind: "bench.address-invalid",
+            path: `${path}.individualAddress`,
+            message: `device "${device.id}": ${ia.error.message}`,
+            deviceId: device.id,
+          });
         } else {
           const holder = usedIndividual.get(ia.value);
           if (holder !== undefined) {
@@ -243,7 +328,13 @@ function resolveBench(bench: Bench, options: LoadBenchOptions): Result<LoadedBen
         }
       }
       if (device.line !== undefined) {
-        if (!lineIds.has(device.line)) errors.push({ kind: "bench.line-unknown", path: `${path}.line`, message: `device "${device.id}": no line "${device.line}"`, deviceId: device.id });
+        if (!lineIds.has(device.line))
+          errors.push({
+            kind: "bench.line-unknown",
+            path: `${path}.line`,
+            message: `device "${device.id}": no line "${device.line}"`,
+            deviceId: device.id,
+          });
         line = device.line;
       } else {
         line = individualAddress === undefined ? lines[0]!.id : lineFor(individualAddress);
@@ -261,20 +352,35 @@ function resolveBench(bench: Bench, options: LoadBenchOptions): Result<LoadedBen
     const specByNumber = new Map(specs.map((s) => [s.number, s]));
     for (const key of Object.keys(device.objectFlags ?? {})) {
       if (!/^\d+$/.test(key) || !specByNumber.has(Number(key))) {
-        errors.push({ kind: "bench.object-unknown", path: `${path}.objectFlags.${key}`, message: `device "${device.id}" has no group object ${key}`, deviceId: device.id });
+        errors.push({
+          kind: "bench.object-unknown",
+          path: `${path}.objectFlags.${key}`,
+          message: `device "${device.id}" has no group object ${key}`,
+          deviceId: device.id,
+        });
       }
     }
-    const deviceLinks = linksOf.get(device.id) ?? new Map<number, { raw: number; index: number }[]>();
+    const deviceLinks =
+      linksOf.get(device.id) ?? new Map<number, { raw: number; index: number }[]>();
     for (const [object, list] of deviceLinks) {
       if (!specByNumber.has(object)) {
         for (const l of list) {
-          errors.push({ kind: "bench.object-unknown", path: `links[${l.index}].object`, message: `links[${l.index}]: device "${device.id}" has no group object ${object}`, deviceId: device.id, object });
+          errors.push({
+            kind: "bench.object-unknown",
+            path: `links[${l.index}].object`,
+            message: `links[${l.index}]: device "${device.id}" has no group object ${object}`,
+            deviceId: device.id,
+            object,
+          });
         }
       }
     }
     const objects: LoadedObject[] = specs.map((spec) => {
       const sizeBits = dptSizeBits(spec.dpt);
-      if (sizeBits === undefined) throw new Error(`device type "${type.id}" declares object ${spec.number} with unknown DPT "${spec.dpt}"`);
+      if (sizeBits === undefined)
+        throw new Error(
+          `device type "${type.id}" declares object ${spec.number} with unknown DPT "${spec.dpt}"`,
+        );
       return {
         number: spec.number,
         spec,
@@ -284,7 +390,16 @@ function resolveBench(bench: Bench, options: LoadBenchOptions): Result<LoadedBen
         groupAddresses: (deviceLinks.get(spec.number) ?? []).map((l) => l.raw),
       };
     });
-    devices.push({ id: device.id, name: device.name, type, line, individualAddress, parameters: parameters.data, objects, unitLinks: unitLinksOf.get(device.id) ?? [] });
+    devices.push({
+      id: device.id,
+      name: device.name,
+      type,
+      line,
+      individualAddress,
+      parameters: parameters.data,
+      objects,
+      unitLinks: unitLinksOf.get(device.id) ?? [],
+    });
   });
 
   // Unit link members must exist.
@@ -292,7 +407,12 @@ function resolveBench(bench: Bench, options: LoadBenchOptions): Result<LoadedBen
   bench.unitLinks.forEach((link, i) =>
     link.members.forEach((member, m) => {
       if (!deviceIds.has(member)) {
-        errors.push({ kind: "bench.unit-link-member-unknown", path: `unitLinks[${i}].members[${m}]`, message: `unit link "${link.id}": no device "${member}"`, deviceId: member });
+        errors.push({
+          kind: "bench.unit-link-member-unknown",
+          path: `unitLinks[${i}].members[${m}]`,
+          message: `unit link "${link.id}": no device "${member}"`,
+          deviceId: member,
+        });
       }
     }),
   );
@@ -330,7 +450,10 @@ function resolveBench(bench: Bench, options: LoadBenchOptions): Result<LoadedBen
 }
 
 // Links may spell an address differently from the list ("1/257" vs "1/1/1"): fall back to the raw value.
-function lookupGroupAddress(text: string, groupAddresses: ReadonlyMap<number, LoadedGroupAddress>): LoadedGroupAddress | undefined {
+function lookupGroupAddress(
+  text: string,
+  groupAddresses: ReadonlyMap<number, LoadedGroupAddress>,
+): LoadedGroupAddress | undefined {
   const raw = parseGroupAddress(text);
   return raw.ok ? groupAddresses.get(raw.value) : undefined;
 }

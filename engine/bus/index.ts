@@ -1,1 +1,10 @@
-export { Tp1Line, Tp1Sender, NO_ACK_OCTET, winsArbitration, type BusStats, type Telegram, type Tp1LineHost, type Tp1LineOptions } from "./tp1-line";
+export {
+  Tp1Line,
+  Tp1Sender,
+  NO_ACK_OCTET,
+  winsArbitration,
+  type BusStats,
+  type Telegram,
+  type Tp1LineHost,
+  type Tp1LineOptions,
+} from "./tp1-line";

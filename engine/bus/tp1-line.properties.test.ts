@@ -13,12 +13,17 @@ const PRIORITY_RANK: Record<Priority, number> = { system: 0, urgent: 1, normal: 
 const PRIORITIES: readonly Priority[] = ["system", "normal", "urgent", "low"];
 
 type Sent = Extract<TraceEvent, { kind: "telegram.sent" }>;
-const sentFrames = (trace: readonly TraceEvent[]) => trace.filter((e): e is Sent => e.kind === "telegram.sent");
+const sentFrames = (trace: readonly TraceEvent[]) =>
+  trace.filter((e): e is Sent => e.kind === "telegram.sent");
 
 /** Four recorders on 1/1/1 (7.001), one switch actuator with status and a push-button. */
 function busyBench() {
-  const b = benchBuilder().groupAddress("1/1/1", "7.001").groupAddress("1/0/1", "1.001").groupAddress("1/0/2", "1.001");
-  for (let i = 1; i <= 4; i++) b.device(`r${i}`, "test-recorder", `1.1.${10 + i}`).link(`r${i}`, 0, "1/1/1");
+  const b = benchBuilder()
+    .groupAddress("1/1/1", "7.001")
+    .groupAddress("1/0/1", "1.001")
+    .groupAddress("1/0/2", "1.001");
+  for (let i = 1; i <= 4; i++)
+    b.device(`r${i}`, "test-recorder", `1.1.${10 + i}`).link(`r${i}`, 0, "1/1/1");
   return b
     .device("pb", "push-button", "1.1.1")
     .device("act", "switch-actuator", "1.1.2")
@@ -36,19 +41,39 @@ type Input =
   | { readonly kind: "read" }
   | { readonly kind: "press" }
   | { readonly kind: "random-send"; readonly recorder: number }
-  | { readonly kind: "fault"; readonly recorder: number; readonly fault: "bus.busy" | "bus.nak"; readonly on: boolean };
+  | {
+      readonly kind: "fault";
+      readonly recorder: number;
+      readonly fault: "bus.busy" | "bus.nak";
+      readonly on: boolean;
+    };
 
 const inputArb: fc.Arbitrary<Input> = fc.oneof(
   fc.record({ kind: fc.constant("wait" as const), us: fc.integer({ min: 0, max: 200_000 }) }),
-  fc.record({ kind: fc.constant("write" as const), value: fc.integer({ min: 0, max: 65535 }), priority: fc.constantFrom(...PRIORITIES) }),
+  fc.record({
+    kind: fc.constant("write" as const),
+    value: fc.integer({ min: 0, max: 65535 }),
+    priority: fc.constantFrom(...PRIORITIES),
+  }),
   fc.record({ kind: fc.constant("read" as const) }),
   fc.record({ kind: fc.constant("press" as const) }),
-  fc.record({ kind: fc.constant("random-send" as const), recorder: fc.integer({ min: 1, max: 4 }) }),
-  fc.record({ kind: fc.constant("fault" as const), recorder: fc.integer({ min: 1, max: 4 }), fault: fc.constantFrom(BUS_FAULTS.busy, BUS_FAULTS.nak), on: fc.boolean() }),
+  fc.record({
+    kind: fc.constant("random-send" as const),
+    recorder: fc.integer({ min: 1, max: 4 }),
+  }),
+  fc.record({
+    kind: fc.constant("fault" as const),
+    recorder: fc.integer({ min: 1, max: 4 }),
+    fault: fc.constantFrom(BUS_FAULTS.busy, BUS_FAULTS.nak),
+    on: fc.boolean(),
+  }),
 );
 
 /** Plays inputs against a fresh simulation; returns it and the value each test-tool write carried, by telegram id. */
-function play(inputs: readonly Input[], seed: number): { sim: Simulation; written: Map<number, number> } {
+function play(
+  inputs: readonly Input[],
+  seed: number,
+): { sim: Simulation; written: Map<number, number> } {
   const sim = createSimulation(busyBench(), { seed });
   const written = new Map<number, number>();
   let unique = 0;
@@ -99,7 +124,8 @@ describe("TP1 line properties", () => {
     fc.assert(
       fc.property(fc.array(inputArb, { maxLength: 60 }), (inputs) => {
         const frames = sentFrames(play(inputs, 1).sim.trace);
-        for (let i = 1; i < frames.length; i++) expect(frames[i]!.timeUs - frames[i - 1]!.endUs).toBeGreaterThanOrEqual(IDLE_US);
+        for (let i = 1; i < frames.length; i++)
+          expect(frames[i]!.timeUs - frames[i - 1]!.endUs).toBeGreaterThanOrEqual(IDLE_US);
       }),
       { numRuns: 80 },
     );
@@ -109,7 +135,12 @@ describe("TP1 line properties", () => {
     fc.assert(
       fc.property(fc.array(inputArb, { maxLength: 60 }), (inputs) => {
         const { sim, written } = play(inputs, 1);
-        const lists = [1, 2, 3, 4].map((i) => (sim.deviceState(`r${i}`) as RecorderState).writes.filter((v) => typeof v === "number" && v >= TOOL_VALUES_FROM) as number[]);
+        const lists = [1, 2, 3, 4].map(
+          (i) =>
+            (sim.deviceState(`r${i}`) as RecorderState).writes.filter(
+              (v) => typeof v === "number" && v >= TOOL_VALUES_FROM,
+            ) as number[],
+        );
         // At most once: nobody takes a repetition of a frame it already took.
         for (const list of lists) expect(new Set(list).size).toBe(list.length);
         // Exactly once when the sender finally heard ACK from everyone.
@@ -125,61 +156,87 @@ describe("TP1 line properties", () => {
 
   it("never counts more busy time than has elapsed, in any window", () => {
     fc.assert(
-      fc.property(fc.array(inputArb, { maxLength: 60 }), fc.array(fc.integer({ min: 1, max: 5_000_000 }), { minLength: 1, maxLength: 5 }), (inputs, windows) => {
-        const { sim } = play(inputs, 1);
-        const line = sim.line();
-        expect(line.occupiedUsTotal).toBeLessThanOrEqual(sim.nowUs);
-        expect(line.busyUsTotal).toBeLessThanOrEqual(line.occupiedUsTotal);
-        for (const windowUs of windows) {
-          const stats = sim.busStats(windowUs);
-          expect(stats.occupiedUs).toBeLessThanOrEqual(Math.min(windowUs, sim.nowUs));
-          expect(stats.busyUs).toBeLessThanOrEqual(stats.occupiedUs);
-          expect(stats.loadPercent).toBeLessThanOrEqual(100);
-        }
-      }),
+      fc.property(
+        fc.array(inputArb, { maxLength: 60 }),
+        fc.array(fc.integer({ min: 1, max: 5_000_000 }), { minLength: 1, maxLength: 5 }),
+        (inputs, windows) => {
+          const { sim } = play(inputs, 1);
+          const line = sim.line();
+          expect(line.occupiedUsTotal).toBeLessThanOrEqual(sim.nowUs);
+          expect(line.busyUsTotal).toBeLessThanOrEqual(line.occupiedUsTotal);
+          for (const windowUs of windows) {
+            const stats = sim.busStats(windowUs);
+            expect(stats.occupiedUs).toBeLessThanOrEqual(Math.min(windowUs, sim.nowUs));
+            expect(stats.busyUs).toBeLessThanOrEqual(stats.occupiedUs);
+            expect(stats.loadPercent).toBeLessThanOrEqual(100);
+          }
+        },
+      ),
       { numRuns: 80 },
     );
   });
 
   it("always gives the line to the higher priority among senders that start together", () => {
     fc.assert(
-      fc.property(fc.array(fc.constantFrom(...PRIORITIES), { minLength: 2, maxLength: 12 }), (priorities) => {
-        const b = benchBuilder().groupAddress("1/1/1", "7.001").device("sink", "test-recorder", "1.1.200").link("sink", 0, "1/1/1");
-        priorities.forEach((_, i) => b.device(`s${i}`, "test-recorder", `1.1.${i + 1}`));
-        const sim = createSimulation(b.build(), { seed: 1 });
-        priorities.forEach((priority, i) => sim.sendGroupWrite("1/1/1", i, { from: `s${i}`, priority }));
-        sim.runUntilIdle();
-        const ranks = sentFrames(sim.trace).map((f) => PRIORITY_RANK[f.priority]);
-        // knx-reference.md: lower priority code wins arbitration (system > urgent > normal > low).
-        expect(ranks).toEqual([...ranks].sort((x, y) => x - y));
-        expect(ranks).toHaveLength(priorities.length);
-      }),
+      fc.property(
+        fc.array(fc.constantFrom(...PRIORITIES), { minLength: 2, maxLength: 12 }),
+        (priorities) => {
+          const b = benchBuilder()
+            .groupAddress("1/1/1", "7.001")
+            .device("sink", "test-recorder", "1.1.200")
+            .link("sink", 0, "1/1/1");
+          priorities.forEach((_, i) => b.device(`s${i}`, "test-recorder", `1.1.${i + 1}`));
+          const sim = createSimulation(b.build(), { seed: 1 });
+          priorities.forEach((priority, i) =>
+            sim.sendGroupWrite("1/1/1", i, { from: `s${i}`, priority }),
+          );
+          sim.runUntilIdle();
+          const ranks = sentFrames(sim.trace).map((f) => PRIORITY_RANK[f.priority]);
+          // knx-reference.md: lower priority code wins arbitration (system > urgent > normal > low).
+          expect(ranks).toEqual([...ranks].sort((x, y) => x - y));
+          expect(ranks).toHaveLength(priorities.length);
+        },
+      ),
       { numRuns: 100 },
     );
   });
 
   it("settles a saturated line at one short telegram per 193 bit times: 9600/193 ≈ 49.74 per second", () => {
     fc.assert(
-      fc.property(fc.integer({ min: 1, max: 6 }), fc.integer({ min: 5, max: 40 }), (senders, perSender) => {
-        const b = benchBuilder().groupAddress("1/0/1", "1.001").device("sink", "switch-actuator", "1.1.200", { statusObjects: false }).link("sink", 0, "1/0/1");
-        for (let i = 0; i < senders; i++) b.device(`s${i}`, "test-recorder", `1.1.${i + 1}`);
-        const sim = createSimulation(b.build(), { seed: 1 });
-        for (let k = 0; k < perSender; k++) for (let i = 0; i < senders; i++) sim.sendGroupWrite("1/0/1", k % 2 === 0, { from: `s${i}` });
-        sim.runUntilIdle();
-        const starts = sentFrames(sim.trace).map((f) => f.timeUs);
-        expect(starts).toHaveLength(senders * perSender);
-        // Basic course: 50 + 9 × 13 + 15 + 11 = 193 bit times per acknowledged 9-octet telegram.
-        for (let i = 1; i < starts.length; i++) expect(starts[i]! - starts[i - 1]!).toBe(telegramOccupancyUs(9));
-      }),
+      fc.property(
+        fc.integer({ min: 1, max: 6 }),
+        fc.integer({ min: 5, max: 40 }),
+        (senders, perSender) => {
+          const b = benchBuilder()
+            .groupAddress("1/0/1", "1.001")
+            .device("sink", "switch-actuator", "1.1.200", { statusObjects: false })
+            .link("sink", 0, "1/0/1");
+          for (let i = 0; i < senders; i++) b.device(`s${i}`, "test-recorder", `1.1.${i + 1}`);
+          const sim = createSimulation(b.build(), { seed: 1 });
+          for (let k = 0; k < perSender; k++)
+            for (let i = 0; i < senders; i++)
+              sim.sendGroupWrite("1/0/1", k % 2 === 0, { from: `s${i}` });
+          sim.runUntilIdle();
+          const starts = sentFrames(sim.trace).map((f) => f.timeUs);
+          expect(starts).toHaveLength(senders * perSender);
+          // Basic course: 50 + 9 × 13 + 15 + 11 = 193 bit times per acknowledged 9-octet telegram.
+          for (let i = 1; i < starts.length; i++)
+            expect(starts[i]! - starts[i - 1]!).toBe(telegramOccupancyUs(9));
+        },
+      ),
       { numRuns: 30 },
     );
   });
 
   it("states the saturated rate and load: 49.74 telegrams/s and 100 % in the course's accounting", () => {
-    const b = benchBuilder().groupAddress("1/0/1", "1.001").device("sink", "switch-actuator", "1.1.200", { statusObjects: false }).link("sink", 0, "1/0/1");
+    const b = benchBuilder()
+      .groupAddress("1/0/1", "1.001")
+      .device("sink", "switch-actuator", "1.1.200", { statusObjects: false })
+      .link("sink", 0, "1/0/1");
     for (let i = 0; i < 4; i++) b.device(`s${i}`, "test-recorder", `1.1.${i + 1}`);
     const sim = createSimulation(b.build(), { seed: 1, traceCapacity: 0 });
-    for (let k = 0; k < 1000; k++) for (let i = 0; i < 4; i++) sim.sendGroupWrite("1/0/1", k % 2 === 0, { from: `s${i}` });
+    for (let k = 0; k < 1000; k++)
+      for (let i = 0; i < 4; i++) sim.sendGroupWrite("1/0/1", k % 2 === 0, { from: `s${i}` });
     sim.runUntil(60_000_000);
     const stats = sim.busStats(50_000_000);
     // Derived from the Basic course timing: 9600 / 193 = 49.7409... telegrams per second.

@@ -61,7 +61,12 @@ const ACK_SLOT_US = bitTimesToUs(ACK_GAP_BIT_TIMES + ACK_CHARACTER_BIT_TIMES);
 const ACK_CHARACTER_US = bitTimesToUs(ACK_CHARACTER_BIT_TIMES);
 const BUSY_WAIT_US = bitTimesToUs(BUSY_RETRY_WAIT_BIT_TIMES);
 
-const PRIORITY_CODE: Readonly<Record<Priority, number>> = { system: 0, normal: 1, urgent: 2, low: 3 };
+const PRIORITY_CODE: Readonly<Record<Priority, number>> = {
+  system: 0,
+  normal: 1,
+  urgent: 2,
+  low: 3,
+};
 
 /** A telegram from its queueing until it is acknowledged or given up; the same object across repetitions. */
 export interface Telegram {
@@ -230,11 +235,22 @@ export class Tp1Line {
 
   /** Queues a group telegram; it goes out when the line and arbitration allow. */
   queue(sender: Tp1Sender, frame: DataFrame, id: number): Telegram {
-    if (frame.addressType !== "group") throw new Error("Tp1Line.queue: only group telegrams are modelled so far");
+    if (frame.addressType !== "group")
+      throw new Error("Tp1Line.queue: only group telegrams are modelled so far");
     const now = this.scheduler.nowUs;
-    const telegram: Telegram = { id, frame, octets: tp1FrameOctets(frame), sender, transmissions: 0, readyAtUs: now, queuedAtUs: now, takenBy: undefined };
+    const telegram: Telegram = {
+      id,
+      frame,
+      octets: tp1FrameOctets(frame),
+      sender,
+      transmissions: 0,
+      readyAtUs: now,
+      queuedAtUs: now,
+      takenBy: undefined,
+    };
     sender.push(telegram);
-    if (this.trace.active) this.trace.append({ kind: "telegram.queued", ...this.telegramFields(telegram, now) });
+    if (this.trace.active)
+      this.trace.append({ kind: "telegram.queued", ...this.telegramFields(telegram, now) });
     if (sender.contenderIndex < 0) {
       sender.contenderIndex = this.contenders.length;
       this.contenders.push(sender);
@@ -257,7 +273,9 @@ export class Tp1Line {
       payloadHex: toHex(frame.payload),
       shortPayload: frame.shortPayload,
     };
-    return telegram.sender.deviceId === undefined ? fields : { ...fields, deviceId: telegram.sender.deviceId };
+    return telegram.sender.deviceId === undefined
+      ? fields
+      : { ...fields, deviceId: telegram.sender.deviceId };
   }
 
   private requestSlot(readyAtUs: number): void {
@@ -330,21 +348,43 @@ export class Tp1Line {
     this.idleSinceUs = answered ? now : frameEndUs;
     this.busy = false;
     this.current = undefined;
-    this.record(telegram, frameStartUs - IDLE_US, answered ? now : frameEndUs, frameEndUs - frameStartUs + (answered ? ACK_CHARACTER_US : 0));
+    this.record(
+      telegram,
+      frameStartUs - IDLE_US,
+      answered ? now : frameEndUs,
+      frameEndUs - frameStartUs + (answered ? ACK_CHARACTER_US : 0),
+    );
 
     const sender = telegram.sender;
     const attempt = telegram.transmissions - 1;
     if (ack === ACK_OCTET) {
-      if (this.trace.active) this.trace.append({ kind: "telegram.acked", ...this.telegramFields(telegram, now), attempt });
+      if (this.trace.active)
+        this.trace.append({
+          kind: "telegram.acked",
+          ...this.telegramFields(telegram, now),
+          attempt,
+        });
       this.finish(sender, now);
     } else {
       const busy = ack === BUSY_OCTET || ack === 0x00;
       const reason = !answered ? "none" : busy ? "busy" : "nak";
       if (attempt < MAX_REPETITIONS) {
         telegram.readyAtUs = busy ? now + BUSY_WAIT_US : now;
-        if (this.trace.active) this.trace.append({ kind: "telegram.repeated", ...this.telegramFields(telegram, now), attempt, reason });
+        if (this.trace.active)
+          this.trace.append({
+            kind: "telegram.repeated",
+            ...this.telegramFields(telegram, now),
+            attempt,
+            reason,
+          });
       } else {
-        if (this.trace.active) this.trace.append({ kind: "telegram.lost", ...this.telegramFields(telegram, now), attempt, reason });
+        if (this.trace.active)
+          this.trace.append({
+            kind: "telegram.lost",
+            ...this.telegramFields(telegram, now),
+            attempt,
+            reason,
+          });
         this.finish(sender, now);
       }
     }
@@ -375,7 +415,12 @@ export class Tp1Line {
     sender.contenderIndex = -1;
   }
 
-  private record(telegram: Telegram, occupiedStartUs: number, occupiedEndUs: number, busyUs: number): void {
+  private record(
+    telegram: Telegram,
+    occupiedStartUs: number,
+    occupiedEndUs: number,
+    busyUs: number,
+  ): void {
     const repeated = telegram.transmissions > 1;
     const i = this.historyNext;
     this.histOccupiedStart[i] = occupiedStartUs;
@@ -393,7 +438,10 @@ export class Tp1Line {
     if (!repeated) {
       this.telegramsTotal++;
       const destination = telegram.frame.destination;
-      this.telegramsByGroupAddress.set(destination, (this.telegramsByGroupAddress.get(destination) ?? 0) + 1);
+      this.telegramsByGroupAddress.set(
+        destination,
+        (this.telegramsByGroupAddress.get(destination) ?? 0) + 1,
+      );
       const key = telegram.sender.countKey;
       this.telegramsBySender.set(key, (this.telegramsBySender.get(key) ?? 0) + 1);
     }
@@ -404,7 +452,8 @@ export class Tp1Line {
    * Transmissions are clipped to the window; counts go by the frame's start.
    */
   stats(windowUs: number): BusStats {
-    if (!(windowUs > 0) || !Number.isSafeInteger(windowUs)) throw new RangeError(`busStats: windowUs ${windowUs} is not a positive integer`);
+    if (!(windowUs > 0) || !Number.isSafeInteger(windowUs))
+      throw new RangeError(`busStats: windowUs ${windowUs} is not a positive integer`);
     const toUs = this.scheduler.nowUs;
     const fromUs = toUs - windowUs;
     let transmissions = 0;
@@ -437,7 +486,9 @@ export class Tp1Line {
       }
     }
     // A full ring has forgotten older transmissions; say so when the window reaches past the oldest kept.
-    const truncated = this.historyCount === this.historyCapacity && this.histOccupiedStart[this.historyNext]! > fromUs;
+    const truncated =
+      this.historyCount === this.historyCapacity &&
+      this.histOccupiedStart[this.historyNext]! > fromUs;
     return {
       line: this.id,
       fromUs,

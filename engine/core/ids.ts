@@ -7,7 +7,10 @@ import { z } from "zod";
  */
 export const entityIdSchema = z
   .string()
-  .regex(/^[a-z][a-z0-9]*(?:-[a-z0-9]+)*$/, "an id is lower-case letters, digits and single hyphens, starting with a letter");
+  .regex(
+    /^[a-z][a-z0-9]*(?:-[a-z0-9]+)*$/,
+    "an id is lower-case letters, digits and single hyphens, starting with a letter",
+  );
 
 export type EntityId = z.infer<typeof entityIdSchema>;
 

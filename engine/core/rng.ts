@@ -30,7 +30,10 @@ function splitmix32(seed: number): () => number {
  * Creates a generator from a seed (any finite number; it is reduced to 32 bits)
  * or resumes one from a saved state.
  */
-export function createRng(seed: number, fromState?: readonly [number, number, number, number]): Rng {
+export function createRng(
+  seed: number,
+  fromState?: readonly [number, number, number, number],
+): Rng {
   if (!Number.isFinite(seed)) throw new Error(`createRng: seed ${seed} is not a finite number`);
   let a: number, b: number, c: number, d: number;
   if (fromState) {

@@ -67,7 +67,10 @@ describe("Scheduler", () => {
         const s = new Scheduler(16);
         times.forEach((t, i) => s.schedule(t, 0, i));
         const got = drain(s).map(([, , arg]) => arg);
-        const expected = times.map((t, i) => [t, i] as const).sort((a, b) => a[0] - b[0] || a[1] - b[1]).map(([, i]) => i);
+        const expected = times
+          .map((t, i) => [t, i] as const)
+          .sort((a, b) => a[0] - b[0] || a[1] - b[1])
+          .map(([, i]) => i);
         expect(got).toEqual(expected);
       }),
     );
@@ -75,17 +78,20 @@ describe("Scheduler", () => {
 
   it("interleaves scheduling while draining without losing order (property)", () => {
     fc.assert(
-      fc.property(fc.array(fc.tuple(fc.integer({ min: 0, max: 20 }), fc.boolean()), { maxLength: 200 }), (ops) => {
-        const s = new Scheduler(16);
-        let last = 0;
-        for (const [delay, take] of ops) {
-          s.schedule(s.nowUs + delay, 0);
-          if (take && s.next()) {
-            expect(s.nowUs).toBeGreaterThanOrEqual(last);
-            last = s.nowUs;
+      fc.property(
+        fc.array(fc.tuple(fc.integer({ min: 0, max: 20 }), fc.boolean()), { maxLength: 200 }),
+        (ops) => {
+          const s = new Scheduler(16);
+          let last = 0;
+          for (const [delay, take] of ops) {
+            s.schedule(s.nowUs + delay, 0);
+            if (take && s.next()) {
+              expect(s.nowUs).toBeGreaterThanOrEqual(last);
+              last = s.nowUs;
+            }
           }
-        }
-      }),
+        },
+      ),
     );
   });
 });

@@ -63,7 +63,8 @@ export class Scheduler {
   runOne(limitUs = Infinity): boolean {
     if (!this.next(limitUs)) return false;
     const handler = this.handlers[this.firedTag];
-    if (handler === undefined) throw new Error(`Scheduler: no handler registered for tag ${this.firedTag}`);
+    if (handler === undefined)
+      throw new Error(`Scheduler: no handler registered for tag ${this.firedTag}`);
     handler(this.firedArg, this.firedPayload);
     return true;
   }
@@ -74,7 +75,8 @@ export class Scheduler {
     const handlers = this.handlers;
     while (this.next(limitUs)) {
       const handler = handlers[this.firedTag];
-      if (handler === undefined) throw new Error(`Scheduler: no handler registered for tag ${this.firedTag}`);
+      if (handler === undefined)
+        throw new Error(`Scheduler: no handler registered for tag ${this.firedTag}`);
       handler(this.firedArg, this.firedPayload);
       count++;
     }
@@ -97,7 +99,9 @@ export class Scheduler {
    */
   schedule(atUs: number, tag: number, arg = 0, payload?: unknown): void {
     if (!(atUs >= this.nowUs) || !Number.isSafeInteger(atUs)) {
-      throw new Error(`Scheduler.schedule: time ${atUs} µs is not an integer at or after now (${this.nowUs} µs)`);
+      throw new Error(
+        `Scheduler.schedule: time ${atUs} µs is not an integer at or after now (${this.nowUs} µs)`,
+      );
     }
     if (this.freeCount === 0) this.grow();
     const slot = this.freeSlots[--this.freeCount]!;
@@ -132,10 +136,13 @@ export class Scheduler {
 
   /** Moves the clock forward to `timeUs` without taking events (used at the end of a run window). */
   advanceTo(timeUs: number): void {
-    if (!Number.isSafeInteger(timeUs)) throw new Error(`Scheduler.advanceTo: ${timeUs} µs is not an integer`);
+    if (!Number.isSafeInteger(timeUs))
+      throw new Error(`Scheduler.advanceTo: ${timeUs} µs is not an integer`);
     if (timeUs > this.nowUs) {
       if (this.size > 0 && this.peekTimeUs() < timeUs) {
-        throw new Error(`Scheduler.advanceTo: an event is due at ${this.peekTimeUs()} µs, before ${timeUs} µs`);
+        throw new Error(
+          `Scheduler.advanceTo: an event is due at ${this.peekTimeUs()} µs, before ${timeUs} µs`,
+        );
       }
       this.nowUs = timeUs;
     }

@@ -1,7 +1,12 @@
 import { describe, expect, it } from "vitest";
 import { filterTrace, toHex, Trace, type TraceEvent } from "./trace";
 
-const note = (timeUs: number, deviceId = "pb-1"): TraceEvent => ({ kind: "device.note", timeUs, deviceId, text: `t${timeUs}` });
+const note = (timeUs: number, deviceId = "pb-1"): TraceEvent => ({
+  kind: "device.note",
+  timeUs,
+  deviceId,
+  text: `t${timeUs}`,
+});
 const sent = (timeUs: number, destination: number): TraceEvent => ({
   kind: "telegram.sent",
   timeUs,

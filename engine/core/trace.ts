@@ -11,7 +11,6 @@ import type { GroupService, Priority } from "../frame";
  * with recording off and no subscribers builds no event objects at all.
  */
 
-
 /** Why the sender had to repeat a frame or gave up on it. */
 export type AckOutcome = "ack" | "nak" | "busy" | "none";
 
@@ -53,9 +52,17 @@ export type TraceEvent =
   /** The sender heard a positive acknowledgement. */
   | ({ readonly kind: "telegram.acked"; readonly attempt: number } & TelegramTraceFields)
   /** The sender will transmit again with the repeat flag set. */
-  | ({ readonly kind: "telegram.repeated"; readonly attempt: number; readonly reason: Exclude<AckOutcome, "ack"> } & TelegramTraceFields)
+  | ({
+      readonly kind: "telegram.repeated";
+      readonly attempt: number;
+      readonly reason: Exclude<AckOutcome, "ack">;
+    } & TelegramTraceFields)
   /** The sender gave up after the last repetition. */
-  | ({ readonly kind: "telegram.lost"; readonly attempt: number; readonly reason: Exclude<AckOutcome, "ack"> } & TelegramTraceFields)
+  | ({
+      readonly kind: "telegram.lost";
+      readonly attempt: number;
+      readonly reason: Exclude<AckOutcome, "ack">;
+    } & TelegramTraceFields)
   /** A device's transition named what it did and why. */
   | {
       readonly kind: "device.transition";
@@ -66,7 +73,12 @@ export type TraceEvent =
       readonly cause: string;
     }
   /** A line of explanation a device added. */
-  | { readonly kind: "device.note"; readonly timeUs: number; readonly deviceId: string; readonly text: string }
+  | {
+      readonly kind: "device.note";
+      readonly timeUs: number;
+      readonly deviceId: string;
+      readonly text: string;
+    }
   /** A group object's stored value changed. */
   | {
       readonly kind: "object.changed";
@@ -81,7 +93,12 @@ export type TraceEvent =
       readonly groupAddress?: number;
     }
   /** A device timer expired and was handed to the device. */
-  | { readonly kind: "timer.fired"; readonly timeUs: number; readonly deviceId: string; readonly name: string }
+  | {
+      readonly kind: "timer.fired";
+      readonly timeUs: number;
+      readonly deviceId: string;
+      readonly name: string;
+    }
   /** A fault appeared on a device or a unit link, raised by the device itself or injected by a person. */
   | {
       readonly kind: "fault.raised";
@@ -113,7 +130,14 @@ export type TraceEvent =
   | {
       readonly kind: "user.action";
       readonly timeUs: number;
-      readonly action: "group.write" | "group.read" | "button" | "input" | "parameter" | "fault.inject" | "fault.clear";
+      readonly action:
+        | "group.write"
+        | "group.read"
+        | "button"
+        | "input"
+        | "parameter"
+        | "fault.inject"
+        | "fault.clear";
       readonly deviceId?: string;
       readonly unitLink?: string;
       readonly groupAddress?: number;
@@ -215,7 +239,11 @@ export class Trace {
 }
 
 /** Events with fromUs <= timeUs < toUs from a time-ordered list. */
-export function sliceByTime(events: readonly TraceEvent[], fromUs: number, toUs: number): readonly TraceEvent[] {
+export function sliceByTime(
+  events: readonly TraceEvent[],
+  fromUs: number,
+  toUs: number,
+): readonly TraceEvent[] {
   return events.slice(lowerBound(events, fromUs), lowerBound(events, toUs));
 }
 
@@ -231,14 +259,18 @@ function lowerBound(events: readonly TraceEvent[], timeUs: number): number {
 }
 
 /** Keeps the events that match every given criterion, in order. */
-export function filterTrace(events: readonly TraceEvent[], criteria: TraceFilter): readonly TraceEvent[] {
+export function filterTrace(
+  events: readonly TraceEvent[],
+  criteria: TraceFilter,
+): readonly TraceEvent[] {
   const from = criteria.fromUs ?? -Infinity;
   const to = criteria.toUs ?? Infinity;
   const ranged = from === -Infinity && to === Infinity ? events : sliceByTime(events, from, to);
   const kinds = criteria.kinds;
   return ranged.filter(
     (e) =>
-      (kinds === undefined || kinds.some((k) => (k.endsWith(".") ? e.kind.startsWith(k) : e.kind === k))) &&
+      (kinds === undefined ||
+        kinds.some((k) => (k.endsWith(".") ? e.kind.startsWith(k) : e.kind === k))) &&
       (criteria.address === undefined || eventTouchesAddress(e, criteria.address)) &&
       (criteria.deviceId === undefined || eventTouchesDevice(e, criteria.deviceId)),
   );

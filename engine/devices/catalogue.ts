@@ -11,7 +11,9 @@ const types = new Map<string, AnyDeviceType>();
 export function registerDeviceType(type: AnyDeviceType): void {
   const existing = types.get(type.id);
   if (existing !== undefined && existing !== type) {
-    throw new Error(`registerDeviceType: a different device type is already registered as "${type.id}"`);
+    throw new Error(
+      `registerDeviceType: a different device type is already registered as "${type.id}"`,
+    );
   }
   if (!/^[a-z][a-z0-9]*(?:-[a-z0-9]+)*$/.test(type.id)) {
     throw new Error(`registerDeviceType: id "${type.id}" is not kebab-case`);

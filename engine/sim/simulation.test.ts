@@ -1,7 +1,13 @@
 import { beforeAll, describe, expect, it } from "vitest";
 import { benchBuilder, registerTestDevices, SimHarness, type RecorderState } from "@/test/harness";
 import { bitTimesToUs, frameDurationUs } from "../frame";
-import { BUS_FAULTS, UNIT_LINK_BROKEN, UNIT_LINK_DELAY_US, createSimulation, tryCreateSimulation } from "./index";
+import {
+  BUS_FAULTS,
+  UNIT_LINK_BROKEN,
+  UNIT_LINK_DELAY_US,
+  createSimulation,
+  tryCreateSimulation,
+} from "./index";
 import type { TraceEvent } from "../core/trace";
 
 beforeAll(registerTestDevices);
@@ -13,7 +19,9 @@ const BUSY_WAIT_US = bitTimesToUs(150); // wait after BUSY
 const SHORT_FRAME_US = frameDurationUs(9); // 9-octet 1-bit write, 13 bit times per octet
 
 function sent(events: readonly TraceEvent[]) {
-  return events.filter((e): e is Extract<TraceEvent, { kind: "telegram.sent" }> => e.kind === "telegram.sent");
+  return events.filter(
+    (e): e is Extract<TraceEvent, { kind: "telegram.sent" }> => e.kind === "telegram.sent",
+  );
 }
 
 /** A push-button toggling a switch actuator, with the actuator's status fed back to the rocker. */
@@ -32,8 +40,15 @@ function lightBench() {
 describe("push-button and switch actuator on a line", () => {
   it("toggles the relay from the rocker and keeps the rocker in step through the status", () => {
     const h = SimHarness.create(lightBench());
-    h.press("pb", "channel-1").settle().expectState("act", { on: [true] }).expectGroupValue("1/0/2", true).expectObjectValue("pb", 0, true);
-    h.press("pb", "channel-1").settle().expectState("act", { on: [false] }).expectGroupValue("1/0/2", false);
+    h.press("pb", "channel-1")
+      .settle()
+      .expectState("act", { on: [true] })
+      .expectGroupValue("1/0/2", true)
+      .expectObjectValue("pb", 0, true);
+    h.press("pb", "channel-1")
+      .settle()
+      .expectState("act", { on: [false] })
+      .expectGroupValue("1/0/2", false);
     // Each press: the rocker's write and the actuator's status.
     h.expectCount(4).expectCount(2, { address: "1/0/2" });
   });
@@ -42,7 +57,9 @@ describe("push-button and switch actuator on a line", () => {
     const h = SimHarness.create(lightBench());
     h.write("1/0/1", true).settle().expectObjectValue("pb", 0, true);
     // The next press therefore switches off rather than on again.
-    h.press("pb", "channel-1").settle().expectState("act", { on: [false] });
+    h.press("pb", "channel-1")
+      .settle()
+      .expectState("act", { on: [false] });
   });
 
   it("answers a read of the status from the stored value, and the rocker takes the response (update flag)", () => {
@@ -51,7 +68,9 @@ describe("push-button and switch actuator on a line", () => {
     h.sim.setParameter("pb", "channels", [{ function: "toggle" }]); // restart clears the rocker's object
     h.settle().expectObjectValue("pb", 0, undefined);
     h.read("1/0/2").settle();
-    const responses = h.events({ kinds: ["telegram.sent"], address: "1/0/2" }).filter((e) => "service" in e && e.service === "GroupValue_Response");
+    const responses = h
+      .events({ kinds: ["telegram.sent"], address: "1/0/2" })
+      .filter((e) => "service" in e && e.service === "GroupValue_Response");
     expect(responses).toHaveLength(1);
     expect(responses[0]).toMatchObject({ deviceId: "act", payloadHex: "01" });
     h.expectObjectValue("pb", 0, true);
@@ -70,9 +89,15 @@ describe("push-button and switch actuator on a line", () => {
     const bench = lightBench();
     bench.devices![1]!.parameters = { staircaseS: 30 };
     const h = SimHarness.create(bench);
-    h.write("1/0/1", true).runFor("29s").expectState("act", { on: [true] });
-    h.write("1/0/1", true).runFor("29s").expectState("act", { on: [true] }); // restarted
-    h.runFor("2s").expectState("act", { on: [false] }).expectGroupValue("1/0/2", false);
+    h.write("1/0/1", true)
+      .runFor("29s")
+      .expectState("act", { on: [true] });
+    h.write("1/0/1", true)
+      .runFor("29s")
+      .expectState("act", { on: [true] }); // restarted
+    h.runFor("2s")
+      .expectState("act", { on: [false] })
+      .expectGroupValue("1/0/2", false);
     h.expectCount(1, { kinds: ["timer.fired"] });
   });
 });
@@ -83,11 +108,17 @@ describe("TP1 timing", () => {
     h.write("1/0/1", true).write("1/0/1", false).settle();
     // After each write the actuator's status wins the next slot; every start is 193 bit times after the last.
     const frames = sent(h.trace);
-    expect(frames.map((f) => f.deviceId ?? "test-tool")).toEqual(["test-tool", "act", "test-tool", "act"]);
+    expect(frames.map((f) => f.deviceId ?? "test-tool")).toEqual([
+      "test-tool",
+      "act",
+      "test-tool",
+      "act",
+    ]);
     // Basic course: idle 50 + 9 × 13 + 15 + 11 = 193 bit times per acknowledged short telegram.
     expect(frames[0]!.timeUs).toBe(IDLE_US);
     expect(frames[0]!.endUs - frames[0]!.timeUs).toBe(SHORT_FRAME_US);
-    for (let i = 1; i < frames.length; i++) expect(frames[i]!.timeUs - frames[i - 1]!.timeUs).toBe(bitTimesToUs(193));
+    for (let i = 1; i < frames.length; i++)
+      expect(frames[i]!.timeUs - frames[i - 1]!.timeUs).toBe(bitTimesToUs(193));
   });
 
   it("repeats an unacknowledged frame three times with the repeat flag, then gives up", () => {
@@ -103,12 +134,16 @@ describe("TP1 timing", () => {
     ]);
     // A silent acknowledgement slot counts toward the next 50 idle bit times.
     expect(frames[1]!.timeUs - frames[0]!.endUs).toBe(IDLE_US);
-    expect(h.events({ kinds: ["telegram.lost"] })).toEqual([expect.objectContaining({ reason: "none", attempt: 3 })]);
+    expect(h.events({ kinds: ["telegram.lost"] })).toEqual([
+      expect.objectContaining({ reason: "none", attempt: 3 }),
+    ]);
   });
 
   it("waits 150 bit times after BUSY, and the busy listener takes the repetition once it is ready", () => {
     const h = SimHarness.create(lightBench());
-    h.injectFault("act", BUS_FAULTS.busy).write("1/0/1", true).runFor(IDLE_US + SHORT_FRAME_US + ACK_SLOT_US);
+    h.injectFault("act", BUS_FAULTS.busy)
+      .write("1/0/1", true)
+      .runFor(IDLE_US + SHORT_FRAME_US + ACK_SLOT_US);
     h.expectCount(1, { kinds: ["telegram.repeated"] }).expectState("act", { on: [false] });
     h.clearFault("act", BUS_FAULTS.busy).settle();
     const frames = sent(h.trace).filter((f) => f.destination === 0x0801);
@@ -121,7 +156,9 @@ describe("TP1 timing", () => {
   it("repeats after NAK and counts the telegram once in the statistics", () => {
     const h = SimHarness.create(lightBench());
     h.injectFault("act", BUS_FAULTS.nak).write("1/0/1", true).settle();
-    expect(h.events({ kinds: ["telegram.repeated"] }).map((e) => "reason" in e && e.reason)).toEqual(["nak", "nak", "nak"]);
+    expect(
+      h.events({ kinds: ["telegram.repeated"] }).map((e) => "reason" in e && e.reason),
+    ).toEqual(["nak", "nak", "nak"]);
     h.expectCount(1, { kinds: ["telegram.lost"] });
     const stats = h.sim.busStats(1_000_000);
     expect([stats.telegrams, stats.transmissions, stats.repetitions]).toEqual([1, 4, 3]);
@@ -136,7 +173,11 @@ describe("TP1 timing", () => {
       .link("r2", 0, "1/1/1")
       .build();
     const h = SimHarness.create(bench);
-    h.injectFault("r2", BUS_FAULTS.busy).write("1/1/1", 7).runFor("25ms").clearFault("r2", BUS_FAULTS.busy).settle();
+    h.injectFault("r2", BUS_FAULTS.busy)
+      .write("1/1/1", 7)
+      .runFor("25ms")
+      .clearFault("r2", BUS_FAULTS.busy)
+      .settle();
     expect(sent(h.trace)).toHaveLength(2);
     expect((h.sim.deviceState("r1") as RecorderState).writes).toEqual([7]);
     expect((h.sim.deviceState("r2") as RecorderState).writes).toEqual([7]);
@@ -154,14 +195,25 @@ describe("TP1 timing", () => {
       .link("r2", 0, "1/1/1")
       .build();
     const h = SimHarness.create(bench);
-    h.injectFault("r1", BUS_FAULTS.busy).input("r1", "send", 5).write("1/1/1", 10_000, { priority: "system" }).settle();
-    expect(sent(h.trace).map((f) => f.deviceId ?? "test-tool")).toEqual(["test-tool", "r1", "test-tool", "test-tool", "test-tool"]);
+    h.injectFault("r1", BUS_FAULTS.busy)
+      .input("r1", "send", 5)
+      .write("1/1/1", 10_000, { priority: "system" })
+      .settle();
+    expect(sent(h.trace).map((f) => f.deviceId ?? "test-tool")).toEqual([
+      "test-tool",
+      "r1",
+      "test-tool",
+      "test-tool",
+      "test-tool",
+    ]);
     expect((h.sim.deviceState("r2") as RecorderState).writes).toEqual([10_000, 5]);
   });
 
   it("gives the line to the higher priority when two senders start together", () => {
     const h = SimHarness.create(lightBench());
-    h.write("1/0/1", true, { from: "pb", priority: "low" }).write("1/0/2", true, { from: "act", priority: "urgent" }).settle();
+    h.write("1/0/1", true, { from: "pb", priority: "low" })
+      .write("1/0/2", true, { from: "act", priority: "urgent" })
+      .settle();
     // knx-reference.md: lower priority code wins; urgent (10) beats low (11).
     // (The third frame is the actuator's status after the write switched it.)
     const frames = sent(h.trace);
@@ -175,7 +227,11 @@ describe("TP1 timing", () => {
     // recalled from memory), so 1.1.2 wins although its address is the higher number.
     const h = SimHarness.create(lightBench());
     h.write("1/0/1", true, { from: "pb" }).write("1/0/2", true, { from: "act" }).settle();
-    expect(sent(h.trace).map((f) => f.deviceId).slice(0, 2)).toEqual(["act", "pb"]);
+    expect(
+      sent(h.trace)
+        .map((f) => f.deviceId)
+        .slice(0, 2),
+    ).toEqual(["act", "pb"]);
   });
 });
 
@@ -195,36 +251,58 @@ describe("unit links, faults and parameters", () => {
     h.input("a", "link", { link: "wiring", message: { hello: 1 } }).runFor(UNIT_LINK_DELAY_US - 1);
     expect((h.sim.deviceState("b") as RecorderState).received).toEqual(["start"]);
     h.runFor(1);
-    expect((h.sim.deviceState("b") as RecorderState).received).toEqual(["start", 'link.receive:a:{"hello":1}']);
+    expect((h.sim.deviceState("b") as RecorderState).received).toEqual([
+      "start",
+      'link.receive:a:{"hello":1}',
+    ]);
     expect((h.sim.deviceState("c") as RecorderState).received).toHaveLength(2);
     expect((h.sim.deviceState("a") as RecorderState).received).toEqual(["start", "input"]);
   });
 
   it("drops messages on a broken link, including ones already on their way", () => {
     const h = SimHarness.create(linkBench());
-    h.input("a", "link", { link: "wiring", message: 1 }).runFor("5ms").injectFault("wiring", UNIT_LINK_BROKEN).settle();
+    h.input("a", "link", { link: "wiring", message: 1 })
+      .runFor("5ms")
+      .injectFault("wiring", UNIT_LINK_BROKEN)
+      .settle();
     h.input("a", "link", { link: "wiring", message: 2 }).settle();
     h.expectCount(4, { kinds: ["link.dropped"] }).expectFault("wiring", UNIT_LINK_BROKEN);
-    h.clearFault("wiring", UNIT_LINK_BROKEN).input("a", "link", { link: "wiring", message: 3 }).settle();
+    h.clearFault("wiring", UNIT_LINK_BROKEN)
+      .input("a", "link", { link: "wiring", message: 3 })
+      .settle();
     h.expectCount(2, { kinds: ["link.delivered"] });
-    expect(h.sim.injectFault("wiring", "link.noise")).toMatchObject({ ok: false, error: { kind: "sim.fault-unknown", field: "faultId" } });
+    expect(h.sim.injectFault("wiring", "link.noise")).toMatchObject({
+      ok: false,
+      error: { kind: "sim.fault-unknown", field: "faultId" },
+    });
   });
 
   it("hands injected faults to the device and keeps faults the device raised", () => {
     const h = SimHarness.create(linkBench());
     h.injectFault("a", "unit.sensor-open").input("a", "raise", "unit.self-test").settle();
-    expect((h.sim.deviceState("a") as RecorderState).received).toContain("fault.inject:unit.sensor-open");
+    expect((h.sim.deviceState("a") as RecorderState).received).toContain(
+      "fault.inject:unit.sensor-open",
+    );
     expect(h.sim.activeFaults("a")).toEqual(["unit.sensor-open", "unit.self-test"]);
     h.clearFault("a", "unit.sensor-open").input("a", "clear", "unit.self-test");
     expect(h.sim.activeFaults("a")).toEqual([]);
-    expect(h.events({ kinds: ["fault."] }).map((e) => e.kind)).toEqual(["fault.raised", "fault.raised", "fault.cleared", "fault.cleared"]);
+    expect(h.events({ kinds: ["fault."] }).map((e) => e.kind)).toEqual([
+      "fault.raised",
+      "fault.raised",
+      "fault.cleared",
+      "fault.cleared",
+    ]);
   });
 
   it("replaces a timer set again under the same name and forgets a cancelled one", () => {
     const h = SimHarness.create(linkBench());
-    h.input("a", "timer", { name: "t", delayUs: 1000 }).input("a", "timer", { name: "t", delayUs: 5000 }).input("a", "timer", { name: "u", delayUs: 10 });
+    h.input("a", "timer", { name: "t", delayUs: 1000 })
+      .input("a", "timer", { name: "t", delayUs: 5000 })
+      .input("a", "timer", { name: "u", delayUs: 10 });
     h.input("a", "cancel", "u").settle();
-    expect(h.events({ kinds: ["timer.fired"] })).toEqual([{ kind: "timer.fired", timeUs: 5000, deviceId: "a", name: "t" }]);
+    expect(h.events({ kinds: ["timer.fired"] })).toEqual([
+      { kind: "timer.fired", timeUs: 5000, deviceId: "a", name: "t" },
+    ]);
   });
 
   it("reads objects with the read-on-init flag at start", () => {
@@ -233,31 +311,64 @@ describe("unit links, faults and parameters", () => {
     const h = SimHarness.create(bench).settle();
     // The rocker reads 1/0/1 (its sending address); nobody has the read flag there, so no answer.
     h.expectCount(1, { address: "1/0/1" });
-    expect(sent(h.trace)[0]).toMatchObject({ service: "GroupValue_Read", deviceId: "pb", timeUs: IDLE_US });
+    expect(sent(h.trace)[0]).toMatchObject({
+      service: "GroupValue_Read",
+      deviceId: "pb",
+      timeUs: IDLE_US,
+    });
   });
 
   it("re-derives objects and restarts a device when a parameter changes", () => {
     const h = SimHarness.create(lightBench());
-    h.write("1/0/1", true).settle().expectState("act", { on: [true] });
-    h.setParameter("act", "channels", 2).settle().expectState("act", { on: [false, false] });
+    h.write("1/0/1", true)
+      .settle()
+      .expectState("act", { on: [true] });
+    h.setParameter("act", "channels", 2)
+      .settle()
+      .expectState("act", { on: [false, false] });
     expect(h.sim.bench.deviceById.get("act")!.objects.map((o) => o.number)).toEqual([0, 1, 2, 3]);
     h.setParameter("act", "statusObjects", false);
     // The status object is gone, and with it the link to 1/0/2.
-    expect(h.sim.bench.bench.links.filter((l) => l.device === "act")).toEqual([{ device: "act", object: 0, groupAddress: "1/0/1" }]);
-    h.write("1/0/1", true).settle().expectState("act", { on: [true, false] });
+    expect(h.sim.bench.bench.links.filter((l) => l.device === "act")).toEqual([
+      { device: "act", object: 0, groupAddress: "1/0/1" },
+    ]);
+    h.write("1/0/1", true)
+      .settle()
+      .expectState("act", { on: [true, false] });
   });
 
   it("refuses bad requests with typed errors that name the field", () => {
     const sim = createSimulation(lightBench(), { seed: 1 });
-    expect(sim.sendGroupWrite("1/0/1", 5)).toMatchObject({ ok: false, error: { kind: "sim.value-invalid", field: "value" } });
-    expect(sim.sendGroupWrite("9/1/9", true)).toMatchObject({ ok: false, error: { kind: "sim.group-address-unknown", field: "groupAddress" } });
-    expect(sim.sendGroupWrite("1/x", true)).toMatchObject({ ok: false, error: { kind: "sim.group-address-invalid" } });
-    expect(sim.sendGroupWrite("1/0/1", true, { from: "ghost" })).toMatchObject({ ok: false, error: { kind: "sim.device-unknown", field: "from" } });
-    expect(sim.pressButton("pb", "channel-7")).toMatchObject({ ok: false, error: { kind: "sim.button-unknown", field: "buttonId" } });
-    expect(sim.injectFault("nowhere", "x")).toMatchObject({ ok: false, error: { kind: "sim.fault-target-unknown" } });
+    expect(sim.sendGroupWrite("1/0/1", 5)).toMatchObject({
+      ok: false,
+      error: { kind: "sim.value-invalid", field: "value" },
+    });
+    expect(sim.sendGroupWrite("9/1/9", true)).toMatchObject({
+      ok: false,
+      error: { kind: "sim.group-address-unknown", field: "groupAddress" },
+    });
+    expect(sim.sendGroupWrite("1/x", true)).toMatchObject({
+      ok: false,
+      error: { kind: "sim.group-address-invalid" },
+    });
+    expect(sim.sendGroupWrite("1/0/1", true, { from: "ghost" })).toMatchObject({
+      ok: false,
+      error: { kind: "sim.device-unknown", field: "from" },
+    });
+    expect(sim.pressButton("pb", "channel-7")).toMatchObject({
+      ok: false,
+      error: { kind: "sim.button-unknown", field: "buttonId" },
+    });
+    expect(sim.injectFault("nowhere", "x")).toMatchObject({
+      ok: false,
+      error: { kind: "sim.fault-target-unknown" },
+    });
     const bad = sim.setParameter("act", "channels", 9);
     expect(bad.ok).toBe(false);
-    expect(!bad.ok && Array.isArray(bad.error) && bad.error[0]).toMatchObject({ kind: "bench.parameters-invalid", path: "devices[1].parameters.channels" });
+    expect(!bad.ok && Array.isArray(bad.error) && bad.error[0]).toMatchObject({
+      kind: "bench.parameters-invalid",
+      path: "devices[1].parameters.channels",
+    });
     expect(tryCreateSimulation({ format: 1 }, { seed: 1 }).ok).toBe(false);
   });
 

@@ -6,9 +6,23 @@ import { err, ok, type Result } from "../core/result";
 import { createRng, type Rng } from "../core/rng";
 import { Scheduler } from "../core/scheduler";
 import { Trace, type TraceEvent, type TraceListener } from "../core/trace";
-import type { AnyDeviceType, DeviceContext, DeviceEffect, DeviceEvent, GroupObjectFlags } from "../devices/device-type";
+import type {
+  AnyDeviceType,
+  DeviceContext,
+  DeviceEffect,
+  DeviceEvent,
+  GroupObjectFlags,
+} from "../devices/device-type";
 import { getDpt, type DptCodec } from "../dpt";
-import { ACK_OCTET, BUSY_OCTET, DEFAULT_HOP_COUNT, NAK_OCTET, type DataFrame, type GroupService, type Priority } from "../frame";
+import {
+  ACK_OCTET,
+  BUSY_OCTET,
+  DEFAULT_HOP_COUNT,
+  NAK_OCTET,
+  type DataFrame,
+  type GroupService,
+  type Priority,
+} from "../frame";
 import { NO_ACK_OCTET, Tp1Line, Tp1Sender, type BusStats, type Telegram } from "../bus";
 import type { SimError } from "./sim-error";
 
@@ -37,7 +51,14 @@ import type { SimError } from "./sim-error";
  * response likewise for the update flag; a read is answered by the runtime for
  * every linked object with the communication and read flags, from the stored
  * value (all-zero octets when the object never had one, as a device's memory
- * would hold). A device does not hear its own frames.
+ * would hold). A device does not hear its own frames. A device that took a
+ * frame acknowledges but ignores its repetitions, even when other frames pass
+ * in between (exactly once per device, a little stricter than devices that only
+ * compare with the last frame they received).
+ *
+ * Each bench line is its own medium; couplers are not modelled yet, so a
+ * telegram reaches only devices on its sender's line. The test tool sits on the
+ * line matching its individual address (else the first line).
  *
  * Faults the runtime itself interprets on a device (`BUS_FAULTS`): "bus.busy"
  * and "bus.nak" make the device answer BUSY / NAK and not take the frame;
@@ -148,7 +169,10 @@ export class BenchLoadFailure extends Error {
 }
 
 /** Loads a bench document and starts a simulation; every problem comes back as a typed error. */
-export function tryCreateSimulation(document: unknown, options: SimulationOptions): Result<Simulation, readonly BenchError[]> {
+export function tryCreateSimulation(
+  document: unknown,
+  options: SimulationOptions,
+): Result<Simulation, readonly BenchError[]> {
   const loaded = loadBench(document);
   if (!loaded.ok) return loaded;
   return ok(new Simulation(loaded.value, options));
@@ -159,7 +183,10 @@ export function tryCreateSimulation(document: unknown, options: SimulationOption
  * a bad one throws `BenchLoadFailure`). Devices get their `start` event and
  * read-on-init reads are queued at virtual time 0.
  */
-export function createSimulation(bench: LoadedBench | Bench | BenchInput, options: SimulationOptions): Simulation {
+export function createSimulation(
+  bench: LoadedBench | Bench | BenchInput,
+  options: SimulationOptions,
+): Simulation {
   if (isLoadedBench(bench)) return new Simulation(bench, options);
   const loaded = loadBench(bench);
   if (!loaded.ok) throw new BenchLoadFailure(loaded.error);
@@ -205,11 +232,23 @@ export class Simulation {
       throw new RangeError(`unitLinkDelayUs ${this.unitLinkDelayUs} is not a non-negative integer`);
     }
     this.timerTag = this.scheduler.register((_, payload) => this.onTimer(payload as TimerEntry));
-    this.linkTag = this.scheduler.register((_, payload) => this.onLinkMessage(payload as LinkMessage));
+    this.linkTag = this.scheduler.register((_, payload) =>
+      this.onLinkMessage(payload as LinkMessage),
+    );
 
     for (const line of bench.lines) {
-      const runtime: LineRuntime = { id: line.id, line: undefined as unknown as Tp1Line, listeners: new Map() };
-      runtime.line = new Tp1Line(line.id, this.scheduler, this.traceLog, { receiveFrame: (t, r) => this.receiveFrame(runtime, t, r) }, { historyCapacity: options.historyCapacity });
+      const runtime: LineRuntime = {
+        id: line.id,
+        line: undefined as unknown as Tp1Line,
+        listeners: new Map(),
+      };
+      runtime.line = new Tp1Line(
+        line.id,
+        this.scheduler,
+        this.traceLog,
+        { receiveFrame: (t, r) => this.receiveFrame(runtime, t, r) },
+        { historyCapacity: options.historyCapacity },
+      );
       this.lines.set(line.id, runtime);
     }
     this.testToolLine = this.lines.get(bench.testToolLine)!;
@@ -226,7 +265,10 @@ export class Simulation {
         objects: buildObjects(loaded),
         context: undefined as unknown as DeviceContext<unknown>,
         line,
-        sender: line === undefined || loaded.individualAddress === undefined ? undefined : new Tp1Sender(loaded.individualAddress, loaded.id, loaded.id),
+        sender:
+          line === undefined || loaded.individualAddress === undefined
+            ? undefined
+            : new Tp1Sender(loaded.individualAddress, loaded.id, loaded.id),
         faults: new Map(),
         busAnswer: ACK_OCTET,
         timers: new Map(),
@@ -250,7 +292,9 @@ export class Simulation {
   /** Runs every event due up to `timeUs` (absolute, µs) and leaves the clock there. */
   runUntil(timeUs: number): void {
     if (!Number.isSafeInteger(timeUs) || timeUs < this.scheduler.nowUs) {
-      throw new RangeError(`runUntil: timeUs ${timeUs} is not an integer at or after now (${this.scheduler.nowUs})`);
+      throw new RangeError(
+        `runUntil: timeUs ${timeUs} is not an integer at or after now (${this.scheduler.nowUs})`,
+      );
     }
     this.scheduler.run(timeUs);
     this.scheduler.advanceTo(timeUs);
@@ -340,10 +384,16 @@ export class Simulation {
   }
 
   /** Telegram totals since the start, per destination group address and per sender (device id or "test-tool"). */
-  telegramCounts(lineId?: string): { readonly byGroupAddress: ReadonlyMap<number, number>; readonly bySender: ReadonlyMap<string, number> } {
+  telegramCounts(lineId?: string): {
+    readonly byGroupAddress: ReadonlyMap<number, number>;
+    readonly bySender: ReadonlyMap<string, number>;
+  } {
     const line = lineId === undefined ? this.testToolLine : this.lines.get(lineId);
     if (line === undefined) throw new RangeError(`telegramCounts: no line "${lineId}"`);
-    return { byGroupAddress: line.line.telegramsByGroupAddress, bySender: line.line.telegramsBySender };
+    return {
+      byGroupAddress: line.line.telegramsByGroupAddress,
+      bySender: line.line.telegramsBySender,
+    };
   }
 
   /** The TP1 line model by id (the test tool's line by default), for totals and tests. */
@@ -356,22 +406,37 @@ export class Simulation {
   // ---------------------------------------------------------------- acting from outside
 
   /** Sends a GroupValue_Write from the test tool (or a named device). Returns the telegram id. */
-  sendGroupWrite(groupAddress: number | string, value: unknown, options: SendOptions = {}): Result<number, SimError> {
+  sendGroupWrite(
+    groupAddress: number | string,
+    value: unknown,
+    options: SendOptions = {},
+  ): Result<number, SimError> {
     return this.sendFromOutside("GroupValue_Write", groupAddress, value, options);
   }
 
   /** Sends a GroupValue_Read from the test tool (or a named device). Returns the telegram id. */
-  sendGroupRead(groupAddress: number | string, options: SendOptions = {}): Result<number, SimError> {
+  sendGroupRead(
+    groupAddress: number | string,
+    options: SendOptions = {},
+  ): Result<number, SimError> {
     return this.sendFromOutside("GroupValue_Read", groupAddress, undefined, options);
   }
 
   /** Sends a GroupValue_Response from the test tool (or a named device). Returns the telegram id. */
-  sendGroupResponse(groupAddress: number | string, value: unknown, options: SendOptions = {}): Result<number, SimError> {
+  sendGroupResponse(
+    groupAddress: number | string,
+    value: unknown,
+    options: SendOptions = {},
+  ): Result<number, SimError> {
     return this.sendFromOutside("GroupValue_Response", groupAddress, value, options);
   }
 
   /** Presses (or releases) one of a device's local buttons. */
-  pressButton(deviceId: string, buttonId: string, action: "press" | "release" | "long-press" = "press"): Result<void, SimError> {
+  pressButton(
+    deviceId: string,
+    buttonId: string,
+    action: "press" | "release" | "long-press" = "press",
+  ): Result<void, SimError> {
     const device = this.deviceById.get(deviceId);
     if (device === undefined) return unknownDevice(deviceId);
     const buttons = device.type.buttons(device.loaded.parameters);
@@ -397,7 +462,11 @@ export class Simulation {
   }
 
   /** Sets one parameter (top-level key) and restarts the device; see the module comment. */
-  setParameter(deviceId: string, key: string, value: unknown): Result<void, SimError | readonly BenchError[]> {
+  setParameter(
+    deviceId: string,
+    key: string,
+    value: unknown,
+  ): Result<void, SimError | readonly BenchError[]> {
     const device = this.deviceById.get(deviceId);
     if (device === undefined) return unknownDevice(deviceId);
     const current = this.loadedBench.bench.devices.find((d) => d.id === deviceId)!;
@@ -405,16 +474,30 @@ export class Simulation {
   }
 
   /** Replaces a device's parameters and restarts it; the bench is re-checked first. */
-  setParameters(deviceId: string, parameters: Record<string, unknown>): Result<void, SimError | readonly BenchError[]> {
+  setParameters(
+    deviceId: string,
+    parameters: Record<string, unknown>,
+  ): Result<void, SimError | readonly BenchError[]> {
     const device = this.deviceById.get(deviceId);
     if (device === undefined) return unknownDevice(deviceId);
     const bench = this.loadedBench.bench;
-    const document: Bench = { ...bench, devices: bench.devices.map((d) => (d.id === deviceId ? { ...d, parameters } : d)) };
+    const document: Bench = {
+      ...bench,
+      devices: bench.devices.map((d) => (d.id === deviceId ? { ...d, parameters } : d)),
+    };
     // Drop links to objects the new parameters remove; the loader would otherwise refuse them.
-    const objects = new Set(device.type.groupObjects(device.type.parameters.safeParse(parameters).data ?? device.loaded.parameters).map((o) => o.number));
-    const pruned: Bench = { ...document, links: document.links.filter((l) => l.device !== deviceId || objects.has(l.object)) };
+    const objects = new Set(
+      device.type
+        .groupObjects(device.type.parameters.safeParse(parameters).data ?? device.loaded.parameters)
+        .map((o) => o.number),
+    );
+    const pruned: Bench = {
+      ...document,
+      links: document.links.filter((l) => l.device !== deviceId || objects.has(l.object)),
+    };
     const loaded = loadBench(pruned, {
-      deviceTypes: (id) => this.loadedBench.devices.find((d) => d.type.id === id)?.type ?? undefined,
+      deviceTypes: (id) =>
+        this.loadedBench.devices.find((d) => d.type.id === id)?.type ?? undefined,
     });
     if (!loaded.ok) return loaded;
     this.loadedBench = loaded.value;
@@ -472,7 +555,14 @@ export class Simulation {
     for (const [fault, by] of [...device.faults]) {
       if (by !== "device") continue;
       device.faults.delete(fault);
-      if (this.traceLog.active) this.traceLog.append({ kind: "fault.cleared", timeUs: this.nowUs, fault, by: "device", deviceId: device.id });
+      if (this.traceLog.active)
+        this.traceLog.append({
+          kind: "fault.cleared",
+          timeUs: this.nowUs,
+          fault,
+          by: "device",
+          deviceId: device.id,
+        });
     }
     this.rebuildListeners();
     this.startDevice(device);
@@ -502,7 +592,13 @@ export class Simulation {
     const result = device.type.transition(device.state, event, device.context);
     device.state = result.state;
     if (result.transition !== undefined && this.traceLog.active) {
-      this.traceLog.append({ kind: "device.transition", timeUs: this.scheduler.nowUs, deviceId: device.id, transition: result.transition, cause: event.kind });
+      this.traceLog.append({
+        kind: "device.transition",
+        timeUs: this.scheduler.nowUs,
+        deviceId: device.id,
+        transition: result.transition,
+        cause: event.kind,
+      });
     }
     const effects = result.effects;
     for (let i = 0; i < effects.length; i++) this.apply(device, effects[i]!);
@@ -517,8 +613,17 @@ export class Simulation {
         const destination = object.groupAddresses[0];
         if (destination === undefined) return;
         const encoded = object.codec.encode(effect.value);
-        if (!encoded.ok) throw new Error(`device "${device.id}" object ${object.number}: ${encoded.error.message}`);
-        this.queueFromDevice(device, effect.service === "write" ? "GroupValue_Write" : "GroupValue_Response", destination, encoded.value, object.sizeBits);
+        if (!encoded.ok)
+          throw new Error(
+            `device "${device.id}" object ${object.number}: ${encoded.error.message}`,
+          );
+        this.queueFromDevice(
+          device,
+          effect.service === "write" ? "GroupValue_Write" : "GroupValue_Response",
+          destination,
+          encoded.value,
+          object.sizeBits,
+        );
         return;
       }
       case "group.read": {
@@ -527,11 +632,19 @@ export class Simulation {
         return;
       }
       case "object.store":
-        this.store(device, this.objectOf(device, effect.object, effect.kind), effect.value, "store", undefined);
+        this.store(
+          device,
+          this.objectOf(device, effect.object, effect.kind),
+          effect.value,
+          "store",
+          undefined,
+        );
         return;
       case "timer.set": {
         if (!Number.isSafeInteger(effect.delayUs) || effect.delayUs < 0) {
-          throw new Error(`device "${device.id}" timer "${effect.name}": delayUs ${effect.delayUs} is not a non-negative integer`);
+          throw new Error(
+            `device "${device.id}" timer "${effect.name}": delayUs ${effect.delayUs} is not a non-negative integer`,
+          );
         }
         const generation = ++this.timerGeneration;
         device.timers.set(effect.name, generation);
@@ -549,36 +662,81 @@ export class Simulation {
         if (!device.faults.has(effect.fault)) {
           device.faults.set(effect.fault, "device");
           if (this.traceLog.active) {
-            this.traceLog.append({ kind: "fault.raised", timeUs: this.nowUs, fault: effect.fault, by: "device", deviceId: device.id, text: effect.text });
+            this.traceLog.append({
+              kind: "fault.raised",
+              timeUs: this.nowUs,
+              fault: effect.fault,
+              by: "device",
+              deviceId: device.id,
+              text: effect.text,
+            });
           }
         }
         return;
       case "fault.clear":
         if (device.faults.delete(effect.fault) && this.traceLog.active) {
-          this.traceLog.append({ kind: "fault.cleared", timeUs: this.nowUs, fault: effect.fault, by: "device", deviceId: device.id });
+          this.traceLog.append({
+            kind: "fault.cleared",
+            timeUs: this.nowUs,
+            fault: effect.fault,
+            by: "device",
+            deviceId: device.id,
+          });
         }
         return;
       case "note":
-        if (this.traceLog.active) this.traceLog.append({ kind: "device.note", timeUs: this.nowUs, deviceId: device.id, text: effect.text });
+        if (this.traceLog.active)
+          this.traceLog.append({
+            kind: "device.note",
+            timeUs: this.nowUs,
+            deviceId: device.id,
+            text: effect.text,
+          });
         return;
     }
   }
 
   private objectOf(device: DeviceRuntime, number: number, effect: string): ObjectRuntime {
     const object = device.objects.get(number);
-    if (object === undefined) throw new Error(`device "${device.id}" (${device.type.id}) asked for ${effect} on object ${number}, which it does not have`);
+    if (object === undefined)
+      throw new Error(
+        `device "${device.id}" (${device.type.id}) asked for ${effect} on object ${number}, which it does not have`,
+      );
     return object;
   }
 
-  private store(device: DeviceRuntime, object: ObjectRuntime, value: unknown, cause: "write" | "response" | "send" | "store", groupAddress: number | undefined): void {
+  private store(
+    device: DeviceRuntime,
+    object: ObjectRuntime,
+    value: unknown,
+    cause: "write" | "response" | "send" | "store",
+    groupAddress: number | undefined,
+  ): void {
     const previous = object.value;
     if (sameValue(previous, value)) return;
     object.value = value;
     if (this.traceLog.active) {
       this.traceLog.append(
         groupAddress === undefined
-          ? { kind: "object.changed", timeUs: this.scheduler.nowUs, deviceId: device.id, object: object.number, value, previous, cause }
-          : { kind: "object.changed", timeUs: this.scheduler.nowUs, deviceId: device.id, object: object.number, value, previous, cause, groupAddress },
+          ? {
+              kind: "object.changed",
+              timeUs: this.scheduler.nowUs,
+              deviceId: device.id,
+              object: object.number,
+              value,
+              previous,
+              cause,
+            }
+          : {
+              kind: "object.changed",
+              timeUs: this.scheduler.nowUs,
+              deviceId: device.id,
+              object: object.number,
+              value,
+              previous,
+              cause,
+              groupAddress,
+            },
       );
     }
   }
@@ -587,36 +745,78 @@ export class Simulation {
     const device = entry.device;
     if (device.timers.get(entry.name) !== entry.generation) return; // replaced, cancelled or restarted
     device.timers.delete(entry.name);
-    if (this.traceLog.active) this.traceLog.append({ kind: "timer.fired", timeUs: this.nowUs, deviceId: device.id, name: entry.name });
-    this.transition(device, entry.data === undefined ? { kind: "timer", name: entry.name } : { kind: "timer", name: entry.name, data: entry.data });
+    if (this.traceLog.active)
+      this.traceLog.append({
+        kind: "timer.fired",
+        timeUs: this.nowUs,
+        deviceId: device.id,
+        name: entry.name,
+      });
+    this.transition(
+      device,
+      entry.data === undefined
+        ? { kind: "timer", name: entry.name }
+        : { kind: "timer", name: entry.name, data: entry.data },
+    );
   }
 
   // ---------------------------------------------------------------- internals: unit links
 
   private sendOnUnitLink(device: DeviceRuntime, unitLink: string, message: unknown): void {
     if (!device.loaded.unitLinks.includes(unitLink)) {
-      throw new Error(`device "${device.id}" sent on unit link "${unitLink}", which it is not a member of`);
+      throw new Error(
+        `device "${device.id}" sent on unit link "${unitLink}", which it is not a member of`,
+      );
     }
     const link = this.loadedBench.unitLinks.find((l) => l.id === unitLink)!;
     for (const memberId of link.members) {
       if (memberId === device.id) continue;
       const to = this.deviceById.get(memberId)!;
       if (this.brokenUnitLinks.has(unitLink)) {
-        if (this.traceLog.active) this.traceLog.append({ kind: "link.dropped", timeUs: this.nowUs, unitLink, from: device.id, deviceId: memberId, message });
+        if (this.traceLog.active)
+          this.traceLog.append({
+            kind: "link.dropped",
+            timeUs: this.nowUs,
+            unitLink,
+            from: device.id,
+            deviceId: memberId,
+            message,
+          });
         continue;
       }
       const payload: LinkMessage = { unitLink, from: device.id, to, message };
-      this.scheduler.schedule(this.scheduler.nowUs + this.unitLinkDelayUs, this.linkTag, 0, payload);
+      this.scheduler.schedule(
+        this.scheduler.nowUs + this.unitLinkDelayUs,
+        this.linkTag,
+        0,
+        payload,
+      );
     }
   }
 
   private onLinkMessage(message: LinkMessage): void {
     const { unitLink, from, to } = message;
     if (this.brokenUnitLinks.has(unitLink)) {
-      if (this.traceLog.active) this.traceLog.append({ kind: "link.dropped", timeUs: this.nowUs, unitLink, from, deviceId: to.id, message: message.message });
+      if (this.traceLog.active)
+        this.traceLog.append({
+          kind: "link.dropped",
+          timeUs: this.nowUs,
+          unitLink,
+          from,
+          deviceId: to.id,
+          message: message.message,
+        });
       return;
     }
-    if (this.traceLog.active) this.traceLog.append({ kind: "link.delivered", timeUs: this.nowUs, unitLink, from, deviceId: to.id, message: message.message });
+    if (this.traceLog.active)
+      this.traceLog.append({
+        kind: "link.delivered",
+        timeUs: this.nowUs,
+        unitLink,
+        from,
+        deviceId: to.id,
+        message: message.message,
+      });
     this.transition(to, { kind: "link.receive", link: unitLink, from, message: message.message });
   }
 
@@ -630,10 +830,24 @@ export class Simulation {
       const had = device.faults.has(faultId);
       if (active && !had) {
         device.faults.set(faultId, "user");
-        if (this.traceLog.active) this.traceLog.append({ kind: "fault.raised", timeUs: this.nowUs, fault: faultId, by: "user", deviceId: target });
+        if (this.traceLog.active)
+          this.traceLog.append({
+            kind: "fault.raised",
+            timeUs: this.nowUs,
+            fault: faultId,
+            by: "user",
+            deviceId: target,
+          });
       } else if (!active && had) {
         device.faults.delete(faultId);
-        if (this.traceLog.active) this.traceLog.append({ kind: "fault.cleared", timeUs: this.nowUs, fault: faultId, by: "user", deviceId: target });
+        if (this.traceLog.active)
+          this.traceLog.append({
+            kind: "fault.cleared",
+            timeUs: this.nowUs,
+            fault: faultId,
+            by: "user",
+            deviceId: target,
+          });
       } else return ok(undefined);
       device.busAnswer = device.faults.has(BUS_FAULTS.silent)
         ? NO_ACK_OCTET
@@ -642,12 +856,19 @@ export class Simulation {
           : device.faults.has(BUS_FAULTS.nak)
             ? NAK_OCTET
             : ACK_OCTET;
-      this.transition(device, active ? { kind: "fault.inject", fault: faultId } : { kind: "fault.clear", fault: faultId });
+      this.transition(
+        device,
+        active ? { kind: "fault.inject", fault: faultId } : { kind: "fault.clear", fault: faultId },
+      );
       return ok(undefined);
     }
     if (this.loadedBench.unitLinks.some((l) => l.id === target)) {
       if (faultId !== UNIT_LINK_BROKEN) {
-        return err({ kind: "sim.fault-unknown", field: "faultId", message: `a unit link only has the fault "${UNIT_LINK_BROKEN}", not "${faultId}"` });
+        return err({
+          kind: "sim.fault-unknown",
+          field: "faultId",
+          message: `a unit link only has the fault "${UNIT_LINK_BROKEN}", not "${faultId}"`,
+        });
       }
       this.userAction({ action, unitLink: target, detail: faultId });
       if (active === this.brokenUnitLinks.has(target)) return ok(undefined);
@@ -656,18 +877,41 @@ export class Simulation {
       if (this.traceLog.active) {
         this.traceLog.append(
           active
-            ? { kind: "fault.raised", timeUs: this.nowUs, fault: faultId, by: "user", unitLink: target }
-            : { kind: "fault.cleared", timeUs: this.nowUs, fault: faultId, by: "user", unitLink: target },
+            ? {
+                kind: "fault.raised",
+                timeUs: this.nowUs,
+                fault: faultId,
+                by: "user",
+                unitLink: target,
+              }
+            : {
+                kind: "fault.cleared",
+                timeUs: this.nowUs,
+                fault: faultId,
+                by: "user",
+                unitLink: target,
+              },
         );
       }
       return ok(undefined);
     }
-    return err({ kind: "sim.fault-target-unknown", field: "target", message: `no device or unit link "${target}"` });
+    return err({
+      kind: "sim.fault-target-unknown",
+      field: "target",
+      message: `no device or unit link "${target}"`,
+    });
   }
 
   // ---------------------------------------------------------------- internals: bus
 
-  private makeFrame(source: number, destination: number, service: GroupService, payload: Uint8Array, sizeBits: number, priority: Priority): DataFrame {
+  private makeFrame(
+    source: number,
+    destination: number,
+    service: GroupService,
+    payload: Uint8Array,
+    sizeBits: number,
+    priority: Priority,
+  ): DataFrame {
     return {
       priority,
       repeated: false,
@@ -681,13 +925,33 @@ export class Simulation {
     };
   }
 
-  private queueFromDevice(device: DeviceRuntime, service: GroupService, destination: number, payload: Uint8Array, sizeBits: number, priority: Priority = DEFAULT_GROUP_PRIORITY): number | undefined {
+  private queueFromDevice(
+    device: DeviceRuntime,
+    service: GroupService,
+    destination: number,
+    payload: Uint8Array,
+    sizeBits: number,
+    priority: Priority = DEFAULT_GROUP_PRIORITY,
+  ): number | undefined {
     if (device.sender === undefined || device.line === undefined) return undefined; // unit-link-only device
     if (device.busAnswer === NO_ACK_OCTET) {
-      if (this.traceLog.active) this.traceLog.append({ kind: "device.note", timeUs: this.nowUs, deviceId: device.id, text: `not sent: "${BUS_FAULTS.silent}" disconnects the device from the line` });
+      if (this.traceLog.active)
+        this.traceLog.append({
+          kind: "device.note",
+          timeUs: this.nowUs,
+          deviceId: device.id,
+          text: `not sent: "${BUS_FAULTS.silent}" disconnects the device from the line`,
+        });
       return undefined;
     }
-    const frame = this.makeFrame(device.sender.individualAddress, destination, service, payload, sizeBits, priority);
+    const frame = this.makeFrame(
+      device.sender.individualAddress,
+      destination,
+      service,
+      payload,
+      sizeBits,
+      priority,
+    );
     return device.line.line.queue(device.sender, frame, this.telegramIds.next()).id;
   }
 
@@ -698,45 +962,87 @@ export class Simulation {
     this.queueFromDevice(device, "GroupValue_Read", destination, EMPTY_PAYLOAD, object.sizeBits);
   }
 
-  private sendFromOutside(service: GroupService, groupAddress: number | string, value: unknown, options: SendOptions): Result<number, SimError> {
+  private sendFromOutside(
+    service: GroupService,
+    groupAddress: number | string,
+    value: unknown,
+    options: SendOptions,
+  ): Result<number, SimError> {
     let raw: number;
     if (typeof groupAddress === "number") {
       if (!Number.isInteger(groupAddress) || groupAddress < 1 || groupAddress > 0xffff) {
-        return err({ kind: "sim.group-address-invalid", field: "groupAddress", message: `group address ${groupAddress} is not a raw address 1..65535` });
+        return err({
+          kind: "sim.group-address-invalid",
+          field: "groupAddress",
+          message: `group address ${groupAddress} is not a raw address 1..65535`,
+        });
       }
       raw = groupAddress;
     } else {
       const parsed = parseGroupAddress(groupAddress);
-      if (!parsed.ok) return err({ kind: "sim.group-address-invalid", field: "groupAddress", message: parsed.error.message });
+      if (!parsed.ok)
+        return err({
+          kind: "sim.group-address-invalid",
+          field: "groupAddress",
+          message: parsed.error.message,
+        });
       raw = parsed.value;
     }
     const ga = this.loadedBench.groupAddresses.get(raw);
     if (ga === undefined) {
-      return err({ kind: "sim.group-address-unknown", field: "groupAddress", message: `group address ${formatGroupAddress(raw)} is not on this bench, so its DPT is unknown` });
+      return err({
+        kind: "sim.group-address-unknown",
+        field: "groupAddress",
+        message: `group address ${formatGroupAddress(raw)} is not on this bench, so its DPT is unknown`,
+      });
     }
     let payload = EMPTY_PAYLOAD;
     if (service !== "GroupValue_Read") {
       const codec = getDpt(ga.dpt)!;
       const encoded = codec.encode(value);
-      if (!encoded.ok) return err({ kind: "sim.value-invalid", field: "value", message: `${formatGroupAddress(raw)}: ${encoded.error.message}` });
+      if (!encoded.ok)
+        return err({
+          kind: "sim.value-invalid",
+          field: "value",
+          message: `${formatGroupAddress(raw)}: ${encoded.error.message}`,
+        });
       payload = encoded.value;
     }
     const priority = options.priority ?? DEFAULT_GROUP_PRIORITY;
     const action = service === "GroupValue_Read" ? "group.read" : "group.write";
-    const detail = service === "GroupValue_Read" ? "read" : `${service === "GroupValue_Write" ? "write" : "response"} ${JSON.stringify(value)}`;
+    const detail =
+      service === "GroupValue_Read"
+        ? "read"
+        : `${service === "GroupValue_Write" ? "write" : "response"} ${JSON.stringify(value)}`;
     if (options.from !== undefined) {
       const device = this.deviceById.get(options.from);
       if (device === undefined) return unknownDevice(options.from, "from");
       if (device.sender === undefined) {
-        return err({ kind: "sim.device-not-on-line", field: "from", message: `device "${options.from}" is not on a KNX line and cannot send telegrams` });
+        return err({
+          kind: "sim.device-not-on-line",
+          field: "from",
+          message: `device "${options.from}" is not on a KNX line and cannot send telegrams`,
+        });
       }
       this.userAction({ action, deviceId: device.id, groupAddress: raw, detail });
       const id = this.queueFromDevice(device, service, raw, payload, ga.sizeBits, priority);
-      if (id === undefined) return err({ kind: "sim.device-not-on-line", field: "from", message: `device "${options.from}" is disconnected ("${BUS_FAULTS.silent}")` });
+      if (id === undefined)
+        return err({
+          kind: "sim.device-not-on-line",
+          field: "from",
+          message: `device "${options.from}" is disconnected ("${BUS_FAULTS.silent}")`,
+        });
       return ok(id);
     }
     this.userAction({ action, groupAddress: raw, detail });
-    const frame = this.makeFrame(this.loadedBench.testToolAddress, raw, service, payload, ga.sizeBits, priority);
+    const frame = this.makeFrame(
+      this.loadedBench.testToolAddress,
+      raw,
+      service,
+      payload,
+      ga.sizeBits,
+      priority,
+    );
     return ok(this.testToolLine.line.queue(this.testToolSender, frame, this.telegramIds.next()).id);
   }
 
@@ -745,7 +1051,8 @@ export class Simulation {
     const frame = telegram.frame;
     const destination = frame.destination;
     const service = frame.service;
-    if (telegram.transmissions === 1 && service !== "GroupValue_Read") this.recordGroupValue(destination, frame.payload);
+    if (telegram.transmissions === 1 && service !== "GroupValue_Read")
+      this.recordGroupValue(destination, frame.payload);
     const listeners = line.listeners.get(destination);
     if (listeners === undefined) return NO_ACK_OCTET;
     let answer = NO_ACK_OCTET;
@@ -760,9 +1067,14 @@ export class Simulation {
       }
       answer &= ACK_OCTET;
       // Already took an earlier transmission of this telegram: acknowledge, ignore.
-      if (repeated && (device.lastTakenTelegramId === telegram.id || telegram.takenBy?.includes(device) === true)) continue;
+      if (
+        repeated &&
+        (device.lastTakenTelegramId === telegram.id || telegram.takenBy?.includes(device) === true)
+      )
+        continue;
       device.lastTakenTelegramId = telegram.id;
-      for (let j = 0; j < objects.length; j++) this.deliver(device, objects[j]!, telegram, destination, service);
+      for (let j = 0; j < objects.length; j++)
+        this.deliver(device, objects[j]!, telegram, destination, service);
     }
     if (answer !== ACK_OCTET) {
       // A repetition will follow. Frames from other senders may pass in between and
@@ -777,16 +1089,26 @@ export class Simulation {
     return answer;
   }
 
-  private deliver(device: DeviceRuntime, object: ObjectRuntime, telegram: Telegram, destination: number, service: GroupService): void {
+  private deliver(
+    device: DeviceRuntime,
+    object: ObjectRuntime,
+    telegram: Telegram,
+    destination: number,
+    service: GroupService,
+  ): void {
     const flags = object.flags;
     if (!flags.communication) return;
     if (service === "GroupValue_Read") {
       if (!flags.read) return;
       let payload: Uint8Array;
-      if (object.value === undefined) payload = new Uint8Array(object.sizeBits <= 6 ? 1 : Math.ceil(object.sizeBits / 8));
+      if (object.value === undefined)
+        payload = new Uint8Array(object.sizeBits <= 6 ? 1 : Math.ceil(object.sizeBits / 8));
       else {
         const encoded = object.codec.encode(object.value);
-        if (!encoded.ok) throw new Error(`device "${device.id}" object ${object.number} holds a value its DPT refuses: ${encoded.error.message}`);
+        if (!encoded.ok)
+          throw new Error(
+            `device "${device.id}" object ${object.number} holds a value its DPT refuses: ${encoded.error.message}`,
+          );
         payload = encoded.value;
       }
       this.queueFromDevice(device, "GroupValue_Response", destination, payload, object.sizeBits);
@@ -802,13 +1124,24 @@ export class Simulation {
       this.decodedValue = decoded.ok ? decoded.value : decoded.error.message;
     }
     if (!this.decodedOk) {
-      if (this.traceLog.active) this.traceLog.append({ kind: "device.note", timeUs: this.nowUs, deviceId: device.id, text: `object ${object.number}: ${String(this.decodedValue)}` });
+      if (this.traceLog.active)
+        this.traceLog.append({
+          kind: "device.note",
+          timeUs: this.nowUs,
+          deviceId: device.id,
+          text: `object ${object.number}: ${String(this.decodedValue)}`,
+        });
       return;
     }
     const value = this.decodedValue;
     this.deliveryCount++;
     this.store(device, object, value, isWrite ? "write" : "response", destination);
-    this.transition(device, isWrite ? { kind: "group.write", object: object.number, value, source: telegram.frame.source } : { kind: "group.response", object: object.number, value, source: telegram.frame.source });
+    this.transition(
+      device,
+      isWrite
+        ? { kind: "group.write", object: object.number, value, source: telegram.frame.source }
+        : { kind: "group.response", object: object.number, value, source: telegram.frame.source },
+    );
   }
 
   private recordGroupValue(destination: number, payload: Uint8Array): void {
@@ -818,8 +1151,15 @@ export class Simulation {
     if (decoded.ok) this.groupValues.set(destination, decoded.value);
   }
 
-  private userAction(fields: { action: Extract<TraceEvent, { kind: "user.action" }>["action"]; deviceId?: string; unitLink?: string; groupAddress?: number; detail: string }): void {
-    if (this.traceLog.active) this.traceLog.append({ kind: "user.action", timeUs: this.nowUs, ...fields });
+  private userAction(fields: {
+    action: Extract<TraceEvent, { kind: "user.action" }>["action"];
+    deviceId?: string;
+    unitLink?: string;
+    groupAddress?: number;
+    detail: string;
+  }): void {
+    if (this.traceLog.active)
+      this.traceLog.append({ kind: "user.action", timeUs: this.nowUs, ...fields });
   }
 }
 
@@ -841,8 +1181,15 @@ function buildObjects(loaded: LoadedDevice): Map<number, ObjectRuntime> {
   return objects;
 }
 
-function unknownDevice(deviceId: string, field = "deviceId"): { readonly ok: false; readonly error: SimError } {
-  return err({ kind: "sim.device-unknown", field, message: `no device "${deviceId}" on this bench` });
+function unknownDevice(
+  deviceId: string,
+  field = "deviceId",
+): { readonly ok: false; readonly error: SimError } {
+  return err({
+    kind: "sim.device-unknown",
+    field,
+    message: `no device "${deviceId}" on this bench`,
+  });
 }
 
 /** Equality for DPT values: primitives, and flat objects such as {control, value} or {r, g, b}. */
@@ -851,6 +1198,7 @@ function sameValue(a: unknown, b: unknown): boolean {
   if (typeof a !== "object" || typeof b !== "object" || a === null || b === null) return false;
   const keysA = Object.keys(a);
   if (keysA.length !== Object.keys(b).length) return false;
-  for (const key of keysA) if ((a as Record<string, unknown>)[key] !== (b as Record<string, unknown>)[key]) return false;
+  for (const key of keysA)
+    if ((a as Record<string, unknown>)[key] !== (b as Record<string, unknown>)[key]) return false;
   return true;
 }

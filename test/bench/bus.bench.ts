@@ -61,7 +61,8 @@ function runSaturated(traceCapacity: number, virtualSeconds: number) {
   const clock = startClock();
   for (let second = 0; second < virtualSeconds; second++) {
     // Keep the queue ahead of the line: a little more than one second's worth each second.
-    for (let i = 0; i < 60; i++, sent++) sim.sendGroupWrite(1 * 2048 + 1 + (sent % 8), (sent >> 3) % 2 === 0);
+    for (let i = 0; i < 60; i++, sent++)
+      sim.sendGroupWrite(1 * 2048 + 1 + (sent % 8), (sent >> 3) % 2 === 0);
     sim.runFor(1_000_000);
   }
   const { wallS, cpuS } = clock();
@@ -100,7 +101,9 @@ const benchSensorType: DeviceType<{ startC: number }, SensorState> = {
   description: "Random-walk temperature sent on change and cyclically; benchmark only.",
   medium: "knx",
   parameters: z.object({ startC: z.number().default(21) }),
-  groupObjects: () => [{ number: 0, name: "Temperature", dpt: "9.001", flags: flags("CRT"), role: "status" }],
+  groupObjects: () => [
+    { number: 0, name: "Temperature", dpt: "9.001", flags: flags("CRT"), role: "status" },
+  ],
   buttons: () => [],
   initialState: (p) => ({ temperatureC: p.startC, lastSentC: p.startC, lastSentUs: 0 }),
   transition(state, event, context) {
@@ -125,7 +128,9 @@ const benchSensorType: DeviceType<{ startC: number }, SensorState> = {
           };
         }
         const temperatureC = roundToHundredths(state.temperatureC + (context.random() - 0.5) * 0.1);
-        const due = Math.abs(temperatureC - state.lastSentC) >= DELTA_C && context.nowUs - state.lastSentUs >= MIN_INTERVAL_US;
+        const due =
+          Math.abs(temperatureC - state.lastSentC) >= DELTA_C &&
+          context.nowUs - state.lastSentUs >= MIN_INTERVAL_US;
         return due
           ? {
               state: { temperatureC, lastSentC: temperatureC, lastSentUs: context.nowUs },
@@ -134,7 +139,13 @@ const benchSensorType: DeviceType<{ startC: number }, SensorState> = {
                 { kind: "timer.set", name: "sample", delayUs: SAMPLE_US },
               ],
             }
-          : { state: { ...state, temperatureC }, effects: [{ kind: "object.store", object: 0, value: temperatureC }, { kind: "timer.set", name: "sample", delayUs: SAMPLE_US }] };
+          : {
+              state: { ...state, temperatureC },
+              effects: [
+                { kind: "object.store", object: 0, value: temperatureC },
+                { kind: "timer.set", name: "sample", delayUs: SAMPLE_US },
+              ],
+            };
       }
       default:
         return { state, effects: [] };
@@ -145,12 +156,16 @@ const benchSensorType: DeviceType<{ startC: number }, SensorState> = {
 function dayBench(): BenchInput {
   const b = benchBuilder();
   for (let s = 1; s <= 48; s++) {
-    b.groupAddress(`2/0/${s}`, "9.001").device(`sensor-${s}`, "bench-room-sensor", `1.1.${100 + s}`, { startC: 19 + (s % 5) }).link(`sensor-${s}`, 0, `2/0/${s}`);
+    b.groupAddress(`2/0/${s}`, "9.001")
+      .device(`sensor-${s}`, "bench-room-sensor", `1.1.${100 + s}`, { startC: 19 + (s % 5) })
+      .link(`sensor-${s}`, 0, `2/0/${s}`);
   }
   for (let r = 1; r <= 8; r++) {
     b.groupAddress(`1/1/${r}`, "1.001").groupAddress(`1/2/${r}`, "1.001");
     b.device(`pb-${r}`, "push-button", `1.1.${r}`).link(`pb-${r}`, 0, `1/1/${r}`, `1/2/${r}`);
-    b.device(`act-${r}`, "switch-actuator", `1.1.${20 + r}`).link(`act-${r}`, 0, `1/1/${r}`).link(`act-${r}`, 1, `1/2/${r}`);
+    b.device(`act-${r}`, "switch-actuator", `1.1.${20 + r}`)
+      .link(`act-${r}`, 0, `1/1/${r}`)
+      .link(`act-${r}`, 1, `1/2/${r}`);
   }
   return b.build();
 }
@@ -166,14 +181,22 @@ function runDay(traceCapacity: number) {
   }
   const { wallS, cpuS } = clock();
   const line = sim.line();
-  return { wallS, cpuS, telegrams: line.telegramsTotal, deliveries: sim.deliveries, loadPercent: (line.occupiedUsTotal / DAY_US) * 100, traceEvents: sim.traceStore.appended };
+  return {
+    wallS,
+    cpuS,
+    telegrams: line.telegramsTotal,
+    deliveries: sim.deliveries,
+    loadPercent: (line.occupiedUsTotal / DAY_US) * 100,
+    traceEvents: sim.traceStore.appended,
+  };
 }
 
 // ---------------------------------------------------------------- report
 
 registerDeviceType(benchSensorType);
 
-const fmt = (n: number, digits = 0) => n.toLocaleString("en-US", { maximumFractionDigits: digits, minimumFractionDigits: digits });
+const fmt = (n: number, digits = 0) =>
+  n.toLocaleString("en-US", { maximumFractionDigits: digits, minimumFractionDigits: digits });
 
 // Warm up the JIT so the figures describe steady state, as a long live session would see.
 runSaturated(0, 20);
@@ -181,19 +204,33 @@ runDay(0);
 
 console.log("Benchline bus benchmark (single thread, virtual time in integer µs)\n");
 console.log("1. Saturated line: 64 eight-channel actuators, 64 write-flag objects per telegram");
-console.log("   trace            virtual s   wall s    cpu s   telegrams   deliveries   deliveries/wall s   target      ratio   deliveries/cpu s   virtual:wall   load %");
-for (const [label, capacity] of [["off", 0], ["ring 100k", 100_000]] as const) {
+console.log(
+  "   trace            virtual s   wall s    cpu s   telegrams   deliveries   deliveries/wall s   target      ratio   deliveries/cpu s   virtual:wall   load %",
+);
+for (const [label, capacity] of [
+  ["off", 0],
+  ["ring 100k", 100_000],
+] as const) {
   const r = runSaturated(capacity, 300);
   const perS = r.deliveries / r.wallS;
   console.log(
     `   ${label.padEnd(14)} ${fmt(r.virtualS).padStart(9)} ${fmt(r.wallS, 3).padStart(8)} ${fmt(r.cpuS, 3).padStart(8)} ${fmt(r.telegrams).padStart(11)} ${fmt(r.deliveries).padStart(12)} ${fmt(perS).padStart(19)} ${fmt(TARGET_DELIVERIES_PER_S).padStart(10)} ${fmt(perS / TARGET_DELIVERIES_PER_S, 2).padStart(8)}x ${fmt(r.deliveries / r.cpuS).padStart(18)} ${fmt(r.virtualS / r.wallS).padStart(12)}x ${fmt(r.loadPercent, 2).padStart(8)}`,
   );
 }
-console.log(`   line rate ${fmt(9600 / 193, 2)} telegrams/s expected (9600/193, Basic course timing)\n`);
+console.log(
+  `   line rate ${fmt(9600 / 193, 2)} telegrams/s expected (9600/193, Basic course timing)\n`,
+);
 
-console.log("2. A 24-hour day: 48 room sensors, 8 push-buttons, 8 actuators with status (64 devices)");
-console.log("   trace            wall s    cpu s   target s   wall/target   virtual:wall   telegrams   deliveries   trace events   load %");
-for (const [label, capacity] of [["off", 0], ["ring 100k", 100_000]] as const) {
+console.log(
+  "2. A 24-hour day: 48 room sensors, 8 push-buttons, 8 actuators with status (64 devices)",
+);
+console.log(
+  "   trace            wall s    cpu s   target s   wall/target   virtual:wall   telegrams   deliveries   trace events   load %",
+);
+for (const [label, capacity] of [
+  ["off", 0],
+  ["ring 100k", 100_000],
+] as const) {
   const r = runDay(capacity);
   console.log(
     `   ${label.padEnd(14)} ${fmt(r.wallS, 3).padStart(8)} ${fmt(r.cpuS, 3).padStart(8)} ${fmt(TARGET_DAY_WALL_S, 1).padStart(10)} ${fmt(r.wallS / TARGET_DAY_WALL_S, 2).padStart(12)}x ${fmt(86_400 / r.wallS).padStart(12)}x ${fmt(r.telegrams).padStart(11)} ${fmt(r.deliveries).padStart(12)} ${fmt(r.traceEvents).padStart(14)} ${fmt(r.loadPercent, 2).padStart(8)}`,

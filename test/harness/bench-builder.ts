@@ -47,14 +47,28 @@ export class BenchBuilder {
     return this;
   }
 
-  device(id: string, type: string, individualAddress: string | undefined, parameters: Record<string, unknown> = {}, extra: Partial<Device> = {}): this {
-    this.doc.devices.push({ id, type, name: id, ...(individualAddress === undefined ? {} : { individualAddress }), parameters, ...extra });
+  device(
+    id: string,
+    type: string,
+    individualAddress: string | undefined,
+    parameters: Record<string, unknown> = {},
+    extra: Partial<Device> = {},
+  ): this {
+    this.doc.devices.push({
+      id,
+      type,
+      name: id,
+      ...(individualAddress === undefined ? {} : { individualAddress }),
+      parameters,
+      ...extra,
+    });
     return this;
   }
 
   /** Links an object to addresses; the first is its sending address. */
   link(device: string, object: number, ...groupAddresses: string[]): this {
-    for (const groupAddress of groupAddresses) this.doc.links.push({ device, object, groupAddress });
+    for (const groupAddress of groupAddresses)
+      this.doc.links.push({ device, object, groupAddress });
     return this;
   }
 

@@ -1,3 +1,8 @@
 export { SimHarness, type Duration } from "./sim-harness";
 export { BenchBuilder, benchBuilder } from "./bench-builder";
-export { registerTestDevices, testRecorderType, testLinkRecorderType, type RecorderState } from "./test-devices";
+export {
+  registerTestDevices,
+  testRecorderType,
+  testLinkRecorderType,
+  type RecorderState,
+} from "./test-devices";

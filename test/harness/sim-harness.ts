@@ -23,7 +23,10 @@ function toRaw(groupAddress: string | number): number {
   return parsed.value;
 }
 
-function unwrap<T>(result: { ok: true; value: T } | { ok: false; error: unknown }, what: string): T {
+function unwrap<T>(
+  result: { ok: true; value: T } | { ok: false; error: unknown },
+  what: string,
+): T {
   if (!result.ok) throw new Error(`${what} was refused: ${JSON.stringify(result.error)}`);
   return result.value;
 }
@@ -57,7 +60,11 @@ export class SimHarness {
 
   // -------------------------------------------------------------- acting
 
-  write(groupAddress: string | number, value: unknown, options: { from?: string; priority?: Priority } = {}): this {
+  write(
+    groupAddress: string | number,
+    value: unknown,
+    options: { from?: string; priority?: Priority } = {},
+  ): this {
     unwrap(this.sim.sendGroupWrite(groupAddress, value, options), `write ${groupAddress}`);
     return this;
   }
@@ -67,7 +74,11 @@ export class SimHarness {
     return this;
   }
 
-  press(deviceId: string, buttonId: string, action: "press" | "release" | "long-press" = "press"): this {
+  press(
+    deviceId: string,
+    buttonId: string,
+    action: "press" | "release" | "long-press" = "press",
+  ): this {
     unwrap(this.sim.pressButton(deviceId, buttonId, action), `press ${deviceId}/${buttonId}`);
     return this;
   }
@@ -113,12 +124,21 @@ export class SimHarness {
   // -------------------------------------------------------------- asserting
 
   /** Trace events matching a filter (addresses as text or raw). */
-  events(filter: Omit<TraceFilter, "address"> & { address?: string | number } = {}): readonly TraceEvent[] {
+  events(
+    filter: Omit<TraceFilter, "address"> & { address?: string | number } = {},
+  ): readonly TraceEvent[] {
     const { address, ...rest } = filter;
-    return filterTrace(this.sim.trace, address === undefined ? rest : { ...rest, address: toRaw(address) });
+    return filterTrace(
+      this.sim.trace,
+      address === undefined ? rest : { ...rest, address: toRaw(address) },
+    );
   }
 
-  expectGroupValue(groupAddress: string | number, expected: unknown, options: { tolerance?: number } = {}): this {
+  expectGroupValue(
+    groupAddress: string | number,
+    expected: unknown,
+    options: { tolerance?: number } = {},
+  ): this {
     const actual = this.sim.groupValue(groupAddress);
     const where = `group value of ${typeof groupAddress === "number" ? formatGroupAddress(groupAddress) : groupAddress} at ${this.nowUs} µs\n${this.describe({ address: groupAddress })}`;
     if (options.tolerance !== undefined && typeof expected === "number") {
@@ -129,27 +149,42 @@ export class SimHarness {
   }
 
   expectObjectValue(deviceId: string, object: number, expected: unknown): this {
-    expect(this.sim.objectValue(deviceId, object), `object ${object} of "${deviceId}" at ${this.nowUs} µs\n${this.describe({ deviceId })}`).toEqual(expected);
+    expect(
+      this.sim.objectValue(deviceId, object),
+      `object ${object} of "${deviceId}" at ${this.nowUs} µs\n${this.describe({ deviceId })}`,
+    ).toEqual(expected);
     return this;
   }
 
   /** The device state matches (a subset of) `expected`. */
   expectState(deviceId: string, expected: Record<string, unknown>): this {
-    expect(this.sim.deviceState(deviceId), `state of "${deviceId}" at ${this.nowUs} µs\n${this.describe({ deviceId })}`).toMatchObject(expected);
+    expect(
+      this.sim.deviceState(deviceId),
+      `state of "${deviceId}" at ${this.nowUs} µs\n${this.describe({ deviceId })}`,
+    ).toMatchObject(expected);
     return this;
   }
 
   /** Number of trace events of a kind (default "telegram.sent") matching the filter. */
-  expectCount(expected: number, filter: Omit<TraceFilter, "address"> & { address?: string | number } = {}): this {
+  expectCount(
+    expected: number,
+    filter: Omit<TraceFilter, "address"> & { address?: string | number } = {},
+  ): this {
     const kinds = filter.kinds ?? ["telegram.sent"];
     const found = this.events({ ...filter, kinds });
-    expect(found.length, `${kinds.join(", ")} events matching ${JSON.stringify(filter)}\n${format(found)}`).toBe(expected);
+    expect(
+      found.length,
+      `${kinds.join(", ")} events matching ${JSON.stringify(filter)}\n${format(found)}`,
+    ).toBe(expected);
     return this;
   }
 
   expectFault(target: string, fault: string, active = true): this {
     const faults = this.sim.activeFaults(target);
-    expect(faults.includes(fault), `fault "${fault}" on "${target}" (active: ${faults.join(", ") || "none"})`).toBe(active);
+    expect(
+      faults.includes(fault),
+      `fault "${fault}" on "${target}" (active: ${faults.join(", ") || "none"})`,
+    ).toBe(active);
     return this;
   }
 

@@ -38,24 +38,51 @@ function recorder(medium: "knx" | "unit-link"): DeviceType<RecorderParameters, R
     groupObjects: (p) =>
       medium === "knx"
         ? [
-            { number: 0, name: "Counter", dpt: "7.001", flags: flags(p.objectFlags), role: "input" },
+            {
+              number: 0,
+              name: "Counter",
+              dpt: "7.001",
+              flags: flags(p.objectFlags),
+              role: "input",
+            },
             { number: 1, name: "Switch", dpt: "1.001", flags: flags("CWTU"), role: "input" },
           ]
         : [],
     buttons: () => [{ id: "button", label: "Button" }],
     initialState: () => ({ writes: [], responses: [], received: [] }),
     transition(state, event, context) {
-      const received = [...state.received, event.kind === "link.receive" ? `link.receive:${event.from}:${JSON.stringify(event.message)}` : event.kind === "timer" ? `timer:${event.name}` : event.kind === "fault.inject" || event.kind === "fault.clear" ? `${event.kind}:${event.fault}` : event.kind];
+      const received = [
+        ...state.received,
+        event.kind === "link.receive"
+          ? `link.receive:${event.from}:${JSON.stringify(event.message)}`
+          : event.kind === "timer"
+            ? `timer:${event.name}`
+            : event.kind === "fault.inject" || event.kind === "fault.clear"
+              ? `${event.kind}:${event.fault}`
+              : event.kind,
+      ];
       switch (event.kind) {
         case "group.write":
-          return { state: { ...state, received, writes: [...state.writes, event.value] }, effects: [], transition: "recorded.write" };
+          return {
+            state: { ...state, received, writes: [...state.writes, event.value] },
+            effects: [],
+            transition: "recorded.write",
+          };
         case "group.response":
-          return { state: { ...state, received, responses: [...state.responses, event.value] }, effects: [] };
+          return {
+            state: { ...state, received, responses: [...state.responses, event.value] },
+            effects: [],
+          };
         case "input": {
           const v = event.value as never;
           const effect: DeviceEffect | undefined = {
             send: { kind: "group.send", object: 0, service: "write", value: v } as const,
-            "send-random": { kind: "group.send", object: 0, service: "write", value: Math.floor(context.random() * 1000) } as const,
+            "send-random": {
+              kind: "group.send",
+              object: 0,
+              service: "write",
+              value: Math.floor(context.random() * 1000),
+            } as const,
             "send-switch": { kind: "group.send", object: 1, service: "write", value: v } as const,
             read: { kind: "group.read", object: 0 } as const,
             store: { kind: "object.store", object: 0, value: v } as const,

@@ -3,4 +3,9 @@ import { pushButtonType } from "./push-button";
 
 registerDeviceType(pushButtonType);
 
-export { pushButtonType, pushButtonParametersSchema, type PushButtonParameters, type PushButtonState } from "./push-button";
+export {
+  pushButtonType,
+  pushButtonParametersSchema,
+  type PushButtonParameters,
+  type PushButtonState,
+} from "./push-button";

@@ -1,8 +1,15 @@
 import { describe, expect, it } from "vitest";
 import type { DeviceContext } from "../device-type";
-import { pushButtonParametersSchema, pushButtonType, type PushButtonParameters } from "./push-button";
+import {
+  pushButtonParametersSchema,
+  pushButtonType,
+  type PushButtonParameters,
+} from "./push-button";
 
-function context(parameters: PushButtonParameters, values: Record<number, unknown> = {}): DeviceContext<PushButtonParameters> {
+function context(
+  parameters: PushButtonParameters,
+  values: Record<number, unknown> = {},
+): DeviceContext<PushButtonParameters> {
   return {
     nowUs: 0,
     deviceId: "pb-1",
@@ -16,7 +23,12 @@ function context(parameters: PushButtonParameters, values: Record<number, unknow
 
 describe("push-button", () => {
   const parameters = pushButtonParametersSchema.parse({
-    channels: [{ function: "toggle" }, { function: "value", percent: 50 }, { function: "scene", scene: 12 }, { function: "off" }],
+    channels: [
+      { function: "toggle" },
+      { function: "value", percent: 50 },
+      { function: "scene", scene: 12 },
+      { function: "off" },
+    ],
   });
 
   it("declares one object per rocker with the DPT of its function", () => {
@@ -29,7 +41,12 @@ describe("push-button", () => {
       [3, "1.001"],
     ]);
     // A toggle must hear the status it toggles: write and update flags on.
-    expect(objects[0]!.flags).toMatchObject({ communication: true, write: true, transmit: true, update: true });
+    expect(objects[0]!.flags).toMatchObject({
+      communication: true,
+      write: true,
+      transmit: true,
+      update: true,
+    });
     expect(objects[1]!.flags).toMatchObject({ transmit: true, write: false });
   });
 
@@ -41,28 +58,62 @@ describe("push-button", () => {
 
   it("toggles from the object's current value", () => {
     const state = pushButtonType.initialState(parameters);
-    const off = pushButtonType.transition(state, { kind: "button", button: "channel-1", action: "press" }, context(parameters, { 0: false }));
+    const off = pushButtonType.transition(
+      state,
+      { kind: "button", button: "channel-1", action: "press" },
+      context(parameters, { 0: false }),
+    );
     expect(off.effects).toEqual([{ kind: "group.send", object: 0, service: "write", value: true }]);
-    const on = pushButtonType.transition(off.state, { kind: "button", button: "channel-1", action: "press" }, context(parameters, { 0: true }));
+    const on = pushButtonType.transition(
+      off.state,
+      { kind: "button", button: "channel-1", action: "press" },
+      context(parameters, { 0: true }),
+    );
     expect(on.effects).toEqual([{ kind: "group.send", object: 0, service: "write", value: false }]);
     expect(on.state.presses).toEqual([2, 0, 0, 0]);
   });
 
   it("sends the configured value, scene and fixed state", () => {
     const state = pushButtonType.initialState(parameters);
-    const press = (button: string) => pushButtonType.transition(state, { kind: "button", button, action: "press" }, context(parameters)).effects;
-    expect(press("channel-2")).toEqual([{ kind: "group.send", object: 1, service: "write", value: 50 }]);
-    expect(press("channel-3")).toEqual([{ kind: "group.send", object: 2, service: "write", value: 12 }]);
-    expect(press("channel-4")).toEqual([{ kind: "group.send", object: 3, service: "write", value: false }]);
+    const press = (button: string) =>
+      pushButtonType.transition(
+        state,
+        { kind: "button", button, action: "press" },
+        context(parameters),
+      ).effects;
+    expect(press("channel-2")).toEqual([
+      { kind: "group.send", object: 1, service: "write", value: 50 },
+    ]);
+    expect(press("channel-3")).toEqual([
+      { kind: "group.send", object: 2, service: "write", value: 12 },
+    ]);
+    expect(press("channel-4")).toEqual([
+      { kind: "group.send", object: 3, service: "write", value: false },
+    ]);
   });
 
   it("ignores releases and notes an unknown rocker", () => {
     const state = pushButtonType.initialState(parameters);
-    expect(pushButtonType.transition(state, { kind: "button", button: "channel-1", action: "release" }, context(parameters)).effects).toEqual([]);
-    expect(pushButtonType.transition(state, { kind: "button", button: "channel-9", action: "press" }, context(parameters)).effects[0]).toMatchObject({ kind: "note" });
+    expect(
+      pushButtonType.transition(
+        state,
+        { kind: "button", button: "channel-1", action: "release" },
+        context(parameters),
+      ).effects,
+    ).toEqual([]);
+    expect(
+      pushButtonType.transition(
+        state,
+        { kind: "button", button: "channel-9", action: "press" },
+        context(parameters),
+      ).effects[0],
+    ).toMatchObject({ kind: "note" });
   });
 
   it("refuses a scene outside 1..64 (DPT spec 17.001 carries scenes 1..64 as 0..63)", () => {
-    expect(pushButtonParametersSchema.safeParse({ channels: [{ function: "scene", scene: 65 }] }).success).toBe(false);
+    expect(
+      pushButtonParametersSchema.safeParse({ channels: [{ function: "scene", scene: 65 }] })
+        .success,
+    ).toBe(false);
   });
 });

@@ -1,5 +1,11 @@
 import { z } from "zod";
-import { flags, type DeviceEffect, type DeviceType, type GroupObjectSpec, type LocalButtonSpec } from "../device-type";
+import {
+  flags,
+  type DeviceEffect,
+  type DeviceType,
+  type GroupObjectSpec,
+  type LocalButtonSpec,
+} from "../device-type";
 
 /**
  * A wall push-button with up to eight rockers ("channels"). Each channel has one
@@ -24,7 +30,11 @@ export const pushButtonChannelSchema = z.object({
 });
 
 export const pushButtonParametersSchema = z.object({
-  channels: z.array(pushButtonChannelSchema).min(1).max(8).default([{ function: "toggle", percent: 100, scene: 1 }]),
+  channels: z
+    .array(pushButtonChannelSchema)
+    .min(1)
+    .max(8)
+    .default([{ function: "toggle", percent: 100, scene: 1 }]),
 });
 
 export type PushButtonChannel = z.infer<typeof pushButtonChannelSchema>;
@@ -58,7 +68,8 @@ function buttonId(channel: number): string {
 export const pushButtonType: DeviceType<PushButtonParameters, PushButtonState> = {
   id: "push-button",
   label: "Push-button",
-  description: "Wall push-button with up to eight rockers: toggle, on, off, value (5.001) or scene (17.001) per rocker.",
+  description:
+    "Wall push-button with up to eight rockers: toggle, on, off, value (5.001) or scene (17.001) per rocker.",
   medium: "knx",
   parameters: pushButtonParametersSchema,
 
@@ -74,7 +85,10 @@ export const pushButtonType: DeviceType<PushButtonParameters, PushButtonState> =
   },
 
   buttons(parameters): readonly LocalButtonSpec[] {
-    return parameters.channels.map((_, index) => ({ id: buttonId(index), label: `Rocker ${index + 1}` }));
+    return parameters.channels.map((_, index) => ({
+      id: buttonId(index),
+      label: `Rocker ${index + 1}`,
+    }));
   },
 
   initialState(parameters) {
@@ -85,7 +99,8 @@ export const pushButtonType: DeviceType<PushButtonParameters, PushButtonState> =
     if (event.kind !== "button" || event.action !== "press") return { state, effects: [] };
     const index = context.parameters.channels.findIndex((_, i) => buttonId(i) === event.button);
     const channel = context.parameters.channels[index];
-    if (channel === undefined) return { state, effects: [{ kind: "note", text: `no rocker "${event.button}"` }] };
+    if (channel === undefined)
+      return { state, effects: [{ kind: "note", text: `no rocker "${event.button}"` }] };
     const presses = state.presses.map((count, i) => (i === index ? count + 1 : count));
     let effect: DeviceEffect;
     let transition: string;
@@ -98,7 +113,12 @@ export const pushButtonType: DeviceType<PushButtonParameters, PushButtonState> =
       }
       case "on":
       case "off":
-        effect = { kind: "group.send", object: index, service: "write", value: channel.function === "on" };
+        effect = {
+          kind: "group.send",
+          object: index,
+          service: "write",
+          value: channel.function === "on",
+        };
         transition = `rocker.switched-${channel.function}`;
         break;
       case "value":

@@ -1,5 +1,11 @@
 import { z } from "zod";
-import { flags, type DeviceEffect, type DeviceType, type GroupObjectSpec, type LocalButtonSpec } from "../device-type";
+import {
+  flags,
+  type DeviceEffect,
+  type DeviceType,
+  type GroupObjectSpec,
+  type LocalButtonSpec,
+} from "../device-type";
 
 /**
  * A switch actuator with 1..8 relay outputs. Per channel c (0-based):
@@ -51,12 +57,22 @@ function switchChannel(
   if (parameters.staircaseS > 0) {
     effects.push(
       on
-        ? { kind: "timer.set", name: staircaseTimer(channel), delayUs: parameters.staircaseS * 1_000_000 }
+        ? {
+            kind: "timer.set",
+            name: staircaseTimer(channel),
+            delayUs: parameters.staircaseS * 1_000_000,
+          }
         : { kind: "timer.cancel", name: staircaseTimer(channel) },
     );
   }
   if (state.on[channel] === on) return { state, effects };
-  if (parameters.statusObjects) effects.push({ kind: "group.send", object: statusObject(channel), service: "write", value: on });
+  if (parameters.statusObjects)
+    effects.push({
+      kind: "group.send",
+      object: statusObject(channel),
+      service: "write",
+      value: on,
+    });
   const next = state.on.slice();
   next[channel] = on;
   return { state: { on: next }, effects, transition: `${why}.${on ? "on" : "off"}` };
@@ -65,23 +81,39 @@ function switchChannel(
 export const switchActuatorType: DeviceType<SwitchActuatorParameters, SwitchActuatorState> = {
   id: "switch-actuator",
   label: "Switch actuator",
-  description: "Relay outputs switched by 1-bit writes, with optional status feedback and a staircase timer.",
+  description:
+    "Relay outputs switched by 1-bit writes, with optional status feedback and a staircase timer.",
   medium: "knx",
   parameters: switchActuatorParametersSchema,
 
   groupObjects(parameters): readonly GroupObjectSpec[] {
     const objects: GroupObjectSpec[] = [];
     for (let c = 0; c < parameters.channels; c++) {
-      objects.push({ number: switchObject(c), name: `Switch ${c + 1}`, dpt: "1.001", flags: flags("CW"), role: "command" });
+      objects.push({
+        number: switchObject(c),
+        name: `Switch ${c + 1}`,
+        dpt: "1.001",
+        flags: flags("CW"),
+        role: "command",
+      });
       if (parameters.statusObjects) {
-        objects.push({ number: statusObject(c), name: `Status ${c + 1}`, dpt: "1.001", flags: flags("CRT"), role: "status" });
+        objects.push({
+          number: statusObject(c),
+          name: `Status ${c + 1}`,
+          dpt: "1.001",
+          flags: flags("CRT"),
+          role: "status",
+        });
       }
     }
     return objects;
   },
 
   buttons(parameters): readonly LocalButtonSpec[] {
-    return Array.from({ length: parameters.channels }, (_, c) => ({ id: `channel-${c + 1}`, label: `Manual ${c + 1}` }));
+    return Array.from({ length: parameters.channels }, (_, c) => ({
+      id: `channel-${c + 1}`,
+      label: `Manual ${c + 1}`,
+    }));
   },
 
   initialState(parameters) {
@@ -96,13 +128,18 @@ export const switchActuatorType: DeviceType<SwitchActuatorParameters, SwitchActu
         const effects: DeviceEffect[] = [];
         if (parameters.statusObjects) {
           for (let c = 0; c < parameters.channels; c++) {
-            effects.push({ kind: "object.store", object: statusObject(c), value: state.on[c] === true });
+            effects.push({
+              kind: "object.store",
+              object: statusObject(c),
+              value: state.on[c] === true,
+            });
           }
         }
         return { state, effects };
       }
       case "group.write": {
-        if (event.object % 2 !== 0 || typeof event.value !== "boolean") return { state, effects: [] };
+        if (event.object % 2 !== 0 || typeof event.value !== "boolean")
+          return { state, effects: [] };
         return switchChannel(state, event.object / 2, event.value, parameters, "relay.switched");
       }
       case "timer": {
@@ -113,8 +150,15 @@ export const switchActuatorType: DeviceType<SwitchActuatorParameters, SwitchActu
       case "button": {
         const match = /^channel-(\d+)$/.exec(event.button);
         const channel = match ? Number(match[1]) - 1 : -1;
-        if (event.action !== "press" || channel < 0 || channel >= parameters.channels) return { state, effects: [] };
-        return switchChannel(state, channel, state.on[channel] !== true, parameters, "manual.switched");
+        if (event.action !== "press" || channel < 0 || channel >= parameters.channels)
+          return { state, effects: [] };
+        return switchChannel(
+          state,
+          channel,
+          state.on[channel] !== true,
+          parameters,
+          "manual.switched",
+        );
       }
       default:
         return { state, effects: [] };
