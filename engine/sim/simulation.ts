@@ -530,6 +530,7 @@ export class Simulation {
         return scheduler.nowUs;
       },
       deviceId: device.id,
+      // Unit-link-only devices have no address; they see the unprogrammed default 15.15.255.
       individualAddress: device.loaded.individualAddress ?? 0xffff,
       parameters: device.loaded.parameters,
       links,
