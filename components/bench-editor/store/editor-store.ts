@@ -32,6 +32,8 @@ export interface EditorState {
   readonly selection: EditorSelection;
   readonly notice: EditorNotice | null;
   readonly clipboard: DeviceClipboard | null;
+  /** A request to bring a node into view; `seq` changes on every request so the same node can be asked for twice. */
+  readonly reveal: { readonly node: NodeRef; readonly seq: number } | null;
 
   /** Applies a pure edit; a refusal leaves the bench as it is and shows the message. Returns whether it applied. */
   apply(edit: (bench: Bench) => EditResult | Bench, info?: string): boolean;
@@ -39,6 +41,8 @@ export interface EditorState {
   redo(): void;
   select(selection: Partial<EditorSelection> & { devices?: readonly string[] }): void;
   selectNode(node: NodeRef | null, object?: number): void;
+  /** Selects a node and asks the canvas to centre it (from the address table, the check list, search). */
+  revealNode(node: NodeRef, object?: number): void;
   /** Deletes the selected devices and bus-bars (with their links). */
   deleteSelection(): void;
   copySelection(): void;
@@ -80,6 +84,7 @@ export function createEditorStore(initial: Bench): StoreApi<EditorState> {
       selection: emptySelection,
       notice: null,
       clipboard: null,
+      reveal: null,
 
       apply(edit, info) {
         const outcome = edit(get().bench);
@@ -127,6 +132,10 @@ export function createEditorStore(initial: Bench): StoreApi<EditorState> {
             },
           });
         else set({ selection: { devices: [], groupAddresses: [node.address] } });
+      },
+      revealNode(node, object) {
+        get().selectNode(node, object);
+        set({ reveal: { node, seq: (get().reveal?.seq ?? 0) + 1 } });
       },
       deleteSelection() {
         const { selection, bench } = get();

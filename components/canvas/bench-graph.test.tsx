@@ -1,0 +1,52 @@
+import { describe, expect, it } from "vitest";
+import { testBench } from "@/components/bench-editor/model/test-bench";
+import { benchGraph } from "./bench-graph";
+import { dptFamily } from "./dpt-family";
+
+describe("benchGraph", () => {
+  it("draws a card per device, a bus-bar per address and marks each object's sending link", () => {
+    const { nodes, edges } = benchGraph(testBench());
+    expect(nodes.filter((n) => n.type === "device").map((n) => n.id)).toEqual([
+      "d:pb-hall",
+      "d:act-hall",
+    ]);
+    expect(nodes.filter((n) => n.type === "busBar")).toHaveLength(4);
+    const links = edges.filter((e) => e.type === "link");
+    expect(links.map((e) => [e.source, e.sourceHandle, e.target, e.data?.sending])).toEqual([
+      ["d:pb-hall", "o:0", "g:2049", true],
+      ["d:act-hall", "o:0", "g:2049", true],
+      ["d:act-hall", "o:1", "g:2050", true],
+    ]);
+  });
+
+  it("chains a unit link through its members and lays out nodes without positions apart", () => {
+    const bench = testBench();
+    bench.devices.push(
+      {
+        id: "gw",
+        type: "hvac-gateway",
+        name: "Gateway",
+        individualAddress: "1.1.9",
+        parameters: {},
+      },
+      { id: "iu", type: "indoor-unit", name: "Indoor", parameters: {} },
+    );
+    bench.unitLinks.push({ id: "wiring", members: ["gw", "iu"] });
+    const { nodes, edges } = benchGraph(bench);
+    expect(edges.filter((e) => e.type === "unitLink").map((e) => [e.source, e.target])).toEqual([
+      ["d:gw", "d:iu"],
+    ]);
+    const positions = new Set(nodes.map((n) => `${n.position.x},${n.position.y}`));
+    expect(positions.size).toBe(nodes.length);
+  });
+
+  it("tints ports by DPT family", () => {
+    // DPT spec §3: the main number is the family (1 = 1 bit, 9 = 2-octet float).
+    expect(dptFamily("1.001").key).toBe("bit");
+    expect(dptFamily("1.019").key).toBe("bit");
+    expect(dptFamily("9.001").key).toBe("float");
+    expect(dptFamily("17.001").key).toBe(dptFamily("18.001").key);
+    expect(dptFamily("20.105").key).toBe("hvac");
+    expect(dptFamily("16.000").key).toBe("text");
+  });
+});

@@ -1,0 +1,106 @@
+"use client";
+
+import { Handle, Position, type NodeProps } from "@xyflow/react";
+import { memo } from "react";
+import { cx } from "@/components/ui/cx";
+import { deviceAddressLabel, type DeviceNode } from "./bench-graph";
+import { dptFamily } from "./dpt-family";
+import { flagLetters } from "./flag-letters";
+import { objectHandleId, UNIT_LINK_HANDLE } from "./node-ids";
+
+const severityRing = {
+  error: "ring-2 ring-fault",
+  warning: "ring-2 ring-copper-bright",
+  info: "",
+} as const;
+
+/**
+ * A device card: header with name, type and individual address, then one row
+ * per group object with a port on the right tinted by the object's DPT family.
+ * An object's sending address is printed on its row; devices wired to a unit
+ * link get a second port on the header for the unit link.
+ */
+function DeviceNodeView({ data, selected }: NodeProps<DeviceNode>) {
+  const { device, objects } = data;
+  return (
+    <div
+      className={cx(
+        "w-[248px] rounded-md border bg-graphite-raised text-graphite-text shadow-md",
+        selected ? "border-copper-bright" : "border-graphite-line",
+        data.severity ? severityRing[data.severity] : "",
+      )}
+      data-testid={`device-card-${device.id}`}
+    >
+      <div className="relative flex h-[52px] flex-col justify-center border-b border-graphite-line px-3">
+        <div className="flex items-baseline justify-between gap-2">
+          <span className="truncate text-sm font-semibold">{device.name}</span>
+          <span className="shrink-0 font-mono text-[11px] text-copper-bright">
+            {deviceAddressLabel(device)}
+          </span>
+        </div>
+        <span className="truncate text-[11px] text-graphite-muted">{data.typeLabel}</span>
+        {data.unitLinkPort ? (
+          <Handle
+            type="source"
+            id={UNIT_LINK_HANDLE}
+            position={Position.Left}
+            title="Unit link: drag to another HVAC device to wire them"
+            className="!h-3 !w-3 !rounded-sm !border-2 !border-graphite-text !bg-graphite"
+          />
+        ) : null}
+      </div>
+      {objects.length === 0 ? (
+        <div className="px-3 py-1 text-[11px] text-graphite-muted">no group objects</div>
+      ) : (
+        <ul>
+          {objects.map((object) => {
+            const family = dptFamily(object.dpt);
+            return (
+              <li
+                key={object.number}
+                className={cx(
+                  "relative flex h-6 items-center gap-2 pr-4 pl-3 text-[11px]",
+                  data.focusObject === object.number && "bg-copper/25",
+                  object.severity === "error" && "text-fault-soft",
+                )}
+                title={`${object.number} ${object.name} · DPT ${object.dpt} · flags ${flagLetters(object.flags)}`}
+              >
+                <span className="w-4 shrink-0 font-mono text-graphite-muted">{object.number}</span>
+                <span className="min-w-0 flex-1 truncate">{object.name}</span>
+                {object.sendingAddress !== undefined ? (
+                  <span className="shrink-0 font-mono text-copper-bright" title="Sending address">
+                    ▸{object.sendingAddress}
+                    {object.linkCount > 1 ? (
+                      <span className="text-graphite-muted"> +{object.linkCount - 1}</span>
+                    ) : null}
+                  </span>
+                ) : (
+                  <span className="shrink-0 font-mono text-graphite-muted">{object.dpt}</span>
+                )}
+                {object.severity === "error" || object.severity === "warning" ? (
+                  <span
+                    aria-label={`check ${object.severity}`}
+                    className={object.severity === "error" ? "text-fault" : "text-copper-bright"}
+                  >
+                    ●
+                  </span>
+                ) : null}
+                <Handle
+                  type="source"
+                  id={objectHandleId(object.number)}
+                  position={Position.Right}
+                  aria-label={`Port of object ${object.number} ${object.name}`}
+                  data-testid={`port-${device.id}-${object.number}`}
+                  style={{ background: family.color, borderColor: "#24272c" }}
+                  className="!h-3 !w-3 !border-2"
+                />
+              </li>
+            );
+          })}
+        </ul>
+      )}
+    </div>
+  );
+}
+
+export const DeviceNodeComponent = memo(DeviceNodeView);

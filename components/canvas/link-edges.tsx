@@ -1,0 +1,101 @@
+"use client";
+
+import { BaseEdge, getBezierPath, getSmoothStepPath, type EdgeProps } from "@xyflow/react";
+import { memo } from "react";
+import type { LinkEdge, UnitLinkEdge } from "./bench-graph";
+
+/**
+ * A link from an object's port to a bus-bar. The object's sending link is a
+ * solid copper wire with an arrow into the bar; the addresses it only listens
+ * to are dashed.
+ */
+function LinkEdgeView({
+  id,
+  sourceX,
+  sourceY,
+  targetX,
+  targetY,
+  sourcePosition,
+  targetPosition,
+  data,
+  selected,
+}: EdgeProps<LinkEdge>) {
+  const [path] = getBezierPath({
+    sourceX,
+    sourceY,
+    targetX,
+    targetY,
+    sourcePosition,
+    targetPosition,
+  });
+  const sending = data?.sending ?? false;
+  return (
+    <BaseEdge
+      id={id}
+      path={path}
+      markerEnd={sending ? "url(#benchline-sending)" : undefined}
+      style={{
+        stroke: selected ? "#f0b078" : sending ? "#d98b4e" : "#a3a7ae",
+        strokeWidth: selected ? 3 : sending ? 2 : 1.5,
+        strokeDasharray: sending ? undefined : "5 4",
+      }}
+    />
+  );
+}
+
+/** The HVAC wiring between a gateway, its indoor unit and wall controllers: a grey double-dotted cable. */
+function UnitLinkEdgeView({
+  id,
+  sourceX,
+  sourceY,
+  targetX,
+  targetY,
+  sourcePosition,
+  targetPosition,
+}: EdgeProps<UnitLinkEdge>) {
+  const [path] = getSmoothStepPath({
+    sourceX,
+    sourceY,
+    targetX,
+    targetY,
+    sourcePosition,
+    targetPosition,
+    offset: 28,
+  });
+  return (
+    <BaseEdge
+      id={id}
+      path={path}
+      style={{
+        stroke: "#e7e3da",
+        strokeWidth: 2.5,
+        strokeDasharray: "1 5",
+        strokeLinecap: "round",
+      }}
+    />
+  );
+}
+
+export const LinkEdgeComponent = memo(LinkEdgeView);
+export const UnitLinkEdgeComponent = memo(UnitLinkEdgeView);
+
+/** Arrow marker for sending links; rendered once inside the canvas. */
+export function EdgeMarkers() {
+  return (
+    <svg width="0" height="0" aria-hidden="true" style={{ position: "absolute" }}>
+      <defs>
+        <marker
+          id="benchline-sending"
+          viewBox="0 0 10 10"
+          refX="8"
+          refY="5"
+          markerWidth="7"
+          markerHeight="7"
+          orient="auto-start-reverse"
+        >
+          <path d="M 0 0 L 10 5 L 0 10 z" fill="#d98b4e" />
+        </marker>
+      </defs>
+    </svg>
+  );
+}
