@@ -12,7 +12,14 @@ describe("benchGraph", () => {
     ]);
     expect(nodes.filter((n) => n.type === "busBar")).toHaveLength(4);
     const links = edges.filter((e) => e.type === "link");
-    expect(links.map((e) => [e.source, e.sourceHandle, e.target, e.data?.sending])).toEqual([
+    expect(
+      links.map((e) => [
+        e.source,
+        e.sourceHandle,
+        e.target,
+        e.data && "sending" in e.data && e.data.sending,
+      ]),
+    ).toEqual([
       ["d:pb-hall", "o:0", "g:2049", true],
       ["d:act-hall", "o:0", "g:2049", true],
       ["d:act-hall", "o:1", "g:2050", true],
