@@ -167,3 +167,65 @@ export { BUS_FAULTS } from "./sim";
 export { UNIT_LINK_BROKEN } from "./sim";
 /** Load and counts of a line over a window (µs, percent of the window, per address and per sender). */
 export type { BusStats } from "./bus";
+
+// ---------------------------------------------------------------- scenarios, suites and bench checks
+
+/** Scenario document schema (`format: 1`), its step union and the suite schema; durations stay text ("500ms"). */
+export {
+  scenarioSchema,
+  stepSchema,
+  stepKinds,
+  type Scenario,
+  type ScenarioDocument,
+  type Step,
+  type StepKind,
+  type BenchReference,
+} from "./scenario/scenario-schema";
+/** Validates a scenario (JSON value or text); errors point at the step and field ("steps[3].within: ..."). */
+export { parseScenario, parseScenarioText, type ScenarioError } from "./scenario/parse-scenario";
+/** A named list of scenario files, paths relative to the suite file. */
+export { suiteSchema, parseSuite, type Suite, type SuiteError } from "./scenario/suite-schema";
+/** "500ms", "30s", "2m", "1h" <-> integer µs of virtual time; typed `duration.invalid` errors. */
+export { parseDuration, formatDuration, type DurationError } from "./scenario/duration";
+/** Replays a scenario on a fresh simulation: per-step verdicts with trace slices; wall clock injected as `now()` (ms). */
+export {
+  runScenario,
+  stepLabel,
+  DEFAULT_SCENARIO_BUDGET_MS,
+  type RunScenarioOptions,
+} from "./scenario/run-scenario";
+/** Runs a list of prepared scenarios and aggregates them into a suite result. */
+export { runSuite, type SuiteEntry, type RunSuiteOptions } from "./scenario/run-suite";
+/** Scenario and suite results: outcome (expectedToFail applied), step verdicts, virtual µs, wall ms. */
+export type {
+  ScenarioResult,
+  ScenarioOutcome,
+  StepResult,
+  StepStatus,
+  SuiteResult,
+  SuiteTotals,
+} from "./scenario/scenario-result";
+/** JUnit XML for CI: one testsuite per suite, one testcase per scenario. */
+export { junitXml } from "./scenario/junit-xml";
+/** One readable line for a trace event (time, kind, addresses, payload hex). */
+export { describeTraceEvent } from "./scenario/describe-trace-event";
+/** Live-console actions and the replies they drew -> a scenario draft (windows rounded up to readable durations). */
+export {
+  recordScenario,
+  type ConsoleAction,
+  type ObservedTelegram,
+  type RecordedAction,
+  type RecordOptions,
+} from "./scenario/recorder";
+/** Checks a bench document before it runs: findings with rule id, severity, message and location, errors first. */
+export { checkBench, benchCheckRules, type CheckBenchOptions } from "./checks/check-bench";
+/** A bench-check finding and its location (device, object, group address text, unit link, line, parameter path). */
+export type { CheckFinding, CheckLocation, CheckSeverity } from "./checks/check-finding";
+/** Load bounds of the checks: warn above 30 %, error above 60 % of line capacity by default. */
+export {
+  defaultCheckOptions,
+  type CheckOptions,
+  type BenchCheckRule,
+} from "./checks/bench-check-rule";
+/** Expected load per line from configured sending conditions (telegrams/s, percent of capacity, contributions). */
+export { estimateLineLoad, type LineLoadEstimate, type LoadContribution } from "./checks/line-load";
