@@ -48,12 +48,12 @@ export const navItems: readonly NavItem[] = [
     href: "/members",
     label: "Members",
     summary: "Who belongs to the workspace and in which role.",
-    ready: false,
+    ready: true,
   },
   {
     href: "/outbox",
     label: "Outbox",
     summary: "Invitation and password-reset mail the app has sent or queued.",
-    ready: false,
+    ready: true,
   },
 ];

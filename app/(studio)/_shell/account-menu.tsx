@@ -49,7 +49,8 @@ export function AccountMenu({
   async function signOut() {
     setPending(true);
     await fetch("/api/session", { method: "DELETE" }).catch(() => null);
-    window.location.assign("/sign-in");
+    router.replace("/sign-in");
+    router.refresh();
   }
 
   return (
