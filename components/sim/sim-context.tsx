@@ -1,0 +1,69 @@
+"use client";
+
+import { createContext, useContext, useEffect, useRef, useState } from "react";
+import { useStore } from "zustand";
+import { SimClient, startSimWorker } from "./sim-client";
+import type { SimCommand } from "./sim-protocol";
+import { createSimStore, type SimActions, type SimState, type SimStore } from "./sim-store";
+
+interface SimContextValue {
+  readonly store: SimStore;
+  readonly send: (command: SimCommand) => void;
+}
+
+const SimContext = createContext<SimContextValue | null>(null);
+
+/**
+ * Starts the simulation worker for one bench and gives the console components
+ * its store and a `send` function. The worker lives as long as the provider.
+ */
+export function SimProvider({
+  bench,
+  seed = 1,
+  children,
+}: {
+  bench: unknown;
+  seed?: number;
+  children: React.ReactNode;
+}) {
+  const [store] = useState(() => createSimStore());
+  const client = useRef<SimClient | null>(null);
+
+  useEffect(() => {
+    const created = new SimClient(startSimWorker(), store);
+    created.send({ type: "load", bench, seed });
+    client.current = created;
+    return () => {
+      client.current = null;
+      created.dispose();
+    };
+  }, [bench, seed, store]);
+
+  // One send function for the provider's life; it reads the live client when called.
+  const [value] = useState<SimContextValue>(() => ({
+    store,
+    send: (command) => client.current?.send(command),
+  }));
+  return <SimContext.Provider value={value}>{children}</SimContext.Provider>;
+}
+
+function useSimContext(): SimContextValue {
+  const value = useContext(SimContext);
+  if (value === null) throw new Error("useSim must be used inside <SimProvider>");
+  return value;
+}
+
+/** The function that sends commands to the simulation worker. */
+export function useSimSend(): (command: SimCommand) => void {
+  return useSimContext().send;
+}
+
+/** A slice of the live simulation state; re-renders only when the slice changes. */
+export function useSimState<T>(selector: (state: SimState & SimActions) => T): T {
+  return useStore(useSimContext().store, selector);
+}
+
+/** The store itself, for reading the log ring outside React's render (export, windowing). */
+export function useSimStore(): SimStore {
+  return useSimContext().store;
+}

@@ -1,0 +1,811 @@
+import { formatGroupAddress } from "@/engine/address";
+import { loadBench, type LoadedBench } from "@/engine/bench";
+import type { TraceEvent } from "@/engine/core/trace";
+import { getDpt } from "@/engine/dpt";
+import { DEFAULT_HOP_COUNT, describeTelegram, fromHex, type DataFrame } from "@/engine/frame";
+import type { ConsoleAction, ObservedTelegram, RecordedAction } from "@/engine/scenario/recorder";
+import { Simulation } from "@/engine/sim";
+import { summarizeBench } from "./bench-summary";
+import {
+  parseSimCommand,
+  type Ack,
+  type ActiveFault,
+  type AddressRateSample,
+  type BusLoadSample,
+  type DeviceSnapshot,
+  type LogRow,
+  type ParsedSimCommand,
+  type RoomSample,
+  type SceneDryRunResult,
+  type SimClock,
+  type SimMessage,
+  type SimSpeed,
+} from "./sim-protocol";
+
+export interface SimHostOptions {
+  /** Where messages for the page go (postMessage in the worker). */
+  readonly post: (message: SimMessage) => void;
+  /** Wall clock in milliseconds (performance.now in the worker; a fake in tests). */
+  readonly now: () => number;
+  /** Most log rows in one batch message. */
+  readonly maxRowsPerBatch?: number;
+  /** Rows kept waiting for the page; older ones are dropped (and counted) beyond this. */
+  readonly backlogCapacity?: number;
+  /** Wall time one tick may spend running the simulation, ms. */
+  readonly tickBudgetMs?: number;
+}
+
+/** Defaults: the worker ticks every 50 ms, so 5,000 rows a batch is 100,000 rows a second at most. */
+export const DEFAULT_MAX_ROWS_PER_BATCH = 5_000;
+export const DEFAULT_BACKLOG_CAPACITY = 100_000;
+export const DEFAULT_TICK_BUDGET_MS = 30;
+
+const SECOND_US = 1_000_000;
+/** "max" runs at most this many virtual seconds per tick (a quiet bench would otherwise race through hours). */
+const MAX_SECONDS_PER_TICK = 600;
+/** Chart samples kept waiting between batches; older ones would scroll off the charts anyway. */
+const MAX_PENDING_SAMPLES = 600;
+
+interface MutableRecordedAction {
+  readonly action: ConsoleAction;
+  readonly observed: ObservedTelegram[];
+}
+
+/**
+ * Runs one simulation for the live console, driven by commands, and turns its
+ * trace into batches for the page: log rows (each telegram once its
+ * acknowledgement is known), snapshots of the devices that changed, active
+ * faults, and chart samples taken at whole virtual seconds.
+ *
+ * Virtual time follows wall time at the chosen speed: at 10x, 50 ms of wall
+ * time runs 500 ms of virtual time. When the simulation cannot keep up inside
+ * its tick budget, the mapping is re-anchored rather than letting a debt pile
+ * up. "max" runs whole virtual seconds until the budget is spent or a batch's
+ * worth of rows is waiting, which is the back-pressure that keeps the page fed
+ * but never flooded.
+ *
+ * Pure apart from the two functions it is given, so a node test can drive it
+ * with a fake clock and no Worker.
+ */
+export class SimHost {
+  private readonly post: (message: SimMessage) => void;
+  private readonly now: () => number;
+  private readonly maxRowsPerBatch: number;
+  private readonly backlogCapacity: number;
+  private readonly tickBudgetMs: number;
+
+  private document: unknown = undefined;
+  private seed = 1;
+  private sim: Simulation | undefined;
+  private loaded: LoadedBench | undefined;
+  private unsubscribe: (() => void) | undefined;
+
+  private running = false;
+  private speed: SimSpeed = 1;
+  private anchorUs = 0;
+  private anchorWallMs = 0;
+  private lastPostedClock = "";
+
+  private rowSeq = 0;
+  private batchSeq = 0;
+  private backlog: LogRow[] = [];
+  private backlogHead = 0;
+  private dropped = 0;
+  /** Rows whose transmission has not ended yet, by telegram id. */
+  private readonly awaiting = new Map<number, LogRow>();
+
+  private readonly dirtyDevices = new Set<string>();
+  private readonly transitions = new Map<string, { name: string; atUs: number }>();
+  private readonly faultSources = new Map<string, "device" | "user">();
+  private faultsDirty = false;
+
+  private roomSample: RoomSample[] | undefined;
+  private busLoad: BusLoadSample[] = [];
+  private rates: AddressRateSample[] = [];
+
+  private recording: MutableRecordedAction[] | undefined;
+  /** Devices that took a telegram or changed during a scene dry-run; undefined outside one. */
+  private responders: Set<string> | undefined;
+
+  constructor(options: SimHostOptions) {
+    this.post = options.post;
+    this.now = options.now;
+    this.maxRowsPerBatch = options.maxRowsPerBatch ?? DEFAULT_MAX_ROWS_PER_BATCH;
+    this.backlogCapacity = options.backlogCapacity ?? DEFAULT_BACKLOG_CAPACITY;
+    this.tickBudgetMs = options.tickBudgetMs ?? DEFAULT_TICK_BUDGET_MS;
+  }
+
+  /** Virtual time now, µs (0 before a bench is loaded). */
+  get nowUs(): number {
+    return this.sim?.nowUs ?? 0;
+  }
+
+  /** Rows waiting for the next batch. */
+  get backlogLength(): number {
+    return this.backlog.length - this.backlogHead;
+  }
+
+  /** Handles one command from the page; a bad one comes back as a command-error naming the field. */
+  handle(raw: unknown): void {
+    const parsed = parseSimCommand(raw);
+    if (!parsed.ok) {
+      const type =
+        typeof raw === "object" && raw !== null ? String((raw as { type?: unknown }).type) : "?";
+      this.post({
+        type: "command-error",
+        command: type,
+        field: parsed.field,
+        message: parsed.message,
+      });
+      return;
+    }
+    const command = parsed.value;
+    if (command.type === "load") {
+      this.document = command.bench;
+      this.seed = command.seed;
+      this.start(true);
+      return;
+    }
+    const sim = this.sim;
+    if (sim === undefined) {
+      this.post({
+        type: "command-error",
+        command: command.type,
+        field: "type",
+        message: "no bench is loaded yet",
+      });
+      return;
+    }
+    this.run(sim, command);
+  }
+
+  /** Advances the simulation for the wall time that passed and posts one batch; the worker calls this every 50 ms. */
+  tick(): void {
+    this.advance();
+    this.flush();
+  }
+
+  // ---------------------------------------------------------------- commands
+
+  private run(sim: Simulation, command: Exclude<ParsedSimCommand, { type: "load" }>): void {
+    switch (command.type) {
+      case "play":
+        this.speed = command.speed;
+        this.running = true;
+        this.anchor();
+        return;
+      case "pause":
+        this.running = false;
+        return;
+      case "step": {
+        this.running = false;
+        const beforeUs = sim.nowUs;
+        if (!sim.step()) {
+          this.post({
+            type: "command-error",
+            command: "step",
+            field: "type",
+            message: "nothing is scheduled",
+          });
+          return;
+        }
+        if (Math.floor(sim.nowUs / SECOND_US) > Math.floor(beforeUs / SECOND_US)) {
+          this.sampleSecond(Math.floor(sim.nowUs / SECOND_US) * SECOND_US);
+        }
+        return;
+      }
+      case "jump":
+        this.runTo(sim.nowUs + command.durationUs, Infinity);
+        this.anchor();
+        return;
+      case "reset":
+        this.start(true);
+        return;
+      case "write": {
+        const result = sim.sendGroupWrite(
+          command.groupAddress,
+          command.value,
+          command.from === undefined ? {} : { from: command.from },
+        );
+        if (this.refused("write", result)) return;
+        this.recordAction({
+          kind: "write",
+          atUs: sim.nowUs,
+          groupAddress: command.groupAddress,
+          value: command.value,
+          ...(command.from ? { from: command.from } : {}),
+        });
+        return;
+      }
+      case "read": {
+        const result = sim.sendGroupRead(
+          command.groupAddress,
+          command.from === undefined ? {} : { from: command.from },
+        );
+        if (this.refused("read", result)) return;
+        this.recordAction({
+          kind: "read",
+          atUs: sim.nowUs,
+          groupAddress: command.groupAddress,
+          ...(command.from ? { from: command.from } : {}),
+        });
+        return;
+      }
+      case "press": {
+        const atUs = sim.nowUs;
+        if (
+          this.refused("press", sim.pressButton(command.deviceId, command.buttonId, command.action))
+        )
+          return;
+        this.recordAction({
+          kind: "press",
+          atUs,
+          device: command.deviceId,
+          button: command.buttonId,
+          ...(command.action === "press" ? {} : { action: command.action }),
+        });
+        return;
+      }
+      case "set-input": {
+        const atUs = sim.nowUs;
+        if (this.refused("set-input", sim.setInput(command.deviceId, command.input, command.value)))
+          return;
+        this.recordAction({
+          kind: "set-input",
+          atUs,
+          device: command.deviceId,
+          input: command.input,
+          value: command.value,
+        });
+        return;
+      }
+      case "set-parameter": {
+        const atUs = sim.nowUs;
+        if (
+          this.refused(
+            "set-parameter",
+            sim.setParameter(command.deviceId, command.key, command.value),
+          )
+        )
+          return;
+        this.recordAction({
+          kind: "set-parameter",
+          atUs,
+          device: command.deviceId,
+          parameter: command.key,
+          value: command.value,
+        });
+        this.loaded = sim.bench;
+        this.dirtyDevices.add(command.deviceId);
+        this.post({
+          type: "loaded",
+          bench: summarizeBench(sim.bench),
+          clock: this.clock(),
+          fresh: false,
+        });
+        return;
+      }
+      case "inject-fault":
+      case "clear-fault": {
+        const atUs = sim.nowUs;
+        const result =
+          command.type === "inject-fault"
+            ? sim.injectFault(command.target, command.faultId)
+            : sim.clearFault(command.target, command.faultId);
+        if (this.refused(command.type, result)) return;
+        this.faultsDirty = true;
+        this.recordAction({
+          kind: command.type,
+          atUs,
+          device: command.target,
+          fault: command.faultId,
+        });
+        return;
+      }
+      case "flood": {
+        // The test tool queues every telegram at once; the line sends them back to back, which is what a flood is.
+        for (let i = 0; i < command.count; i++) {
+          if (this.refused("flood", sim.sendGroupWrite(command.groupAddress, command.value)))
+            return;
+        }
+        return;
+      }
+      case "record":
+        if (command.on) {
+          this.recording = [];
+        } else {
+          const actions: RecordedAction[] = this.recording ?? [];
+          this.recording = undefined;
+          this.post({
+            type: "recording",
+            on: false,
+            actions,
+            settleUs: actions[0]?.action.atUs ?? sim.nowUs,
+          });
+          return;
+        }
+        this.post({ type: "recording", on: true, actions: [], settleUs: 0 });
+        return;
+      case "scene-dry-run":
+        this.sceneDryRun(sim, command.groupAddress, command.scene, command.settleUs);
+        return;
+    }
+  }
+
+  /** Posts the error of a refused request; true when it was refused. */
+  private refused(command: string, result: { ok: true } | { ok: false; error: unknown }): boolean {
+    if (result.ok) return false;
+    const errors = Array.isArray(result.error) ? result.error : [result.error];
+    const first = errors[0] as { field?: string; path?: string; message?: string } | undefined;
+    this.post({
+      type: "command-error",
+      command,
+      field: first?.field ?? first?.path ?? "value",
+      message: errors.map((e) => (e as { message?: string }).message ?? String(e)).join("; "),
+    });
+    return true;
+  }
+
+  private recordAction(action: ConsoleAction): void {
+    this.recording?.push({ action, observed: [] });
+  }
+
+  // ---------------------------------------------------------------- lifecycle
+
+  private start(fresh: boolean): void {
+    this.unsubscribe?.();
+    this.unsubscribe = undefined;
+    this.sim = undefined;
+    this.running = false;
+    this.backlog = [];
+    this.backlogHead = 0;
+    this.dropped = 0;
+    this.awaiting.clear();
+    this.dirtyDevices.clear();
+    this.transitions.clear();
+    this.faultSources.clear();
+    this.roomSample = undefined;
+    this.busLoad = [];
+    this.rates = [];
+    this.rowSeq = 0;
+    if (this.recording !== undefined) {
+      this.recording = undefined;
+      this.post({ type: "recording", on: false, actions: [], settleUs: 0 });
+    }
+    const loaded = loadBench(this.document);
+    if (!loaded.ok) {
+      this.loaded = undefined;
+      this.post({
+        type: "load-failed",
+        errors: loaded.error.map((e) => ({ message: e.message, path: e.path })),
+      });
+      return;
+    }
+    this.loaded = loaded.value;
+    // Nothing is kept inside the engine: the host takes every event as it happens.
+    const sim = new Simulation(loaded.value, { seed: this.seed, traceCapacity: 0 });
+    this.sim = sim;
+    this.unsubscribe = sim.subscribe((event) => this.onTrace(event));
+    for (const device of loaded.value.devices) this.dirtyDevices.add(device.id);
+    this.faultsDirty = true;
+    this.anchor();
+    this.post({ type: "loaded", bench: summarizeBench(loaded.value), clock: this.clock(), fresh });
+    this.sampleRooms();
+    this.flush();
+  }
+
+  private anchor(): void {
+    this.anchorUs = this.sim?.nowUs ?? 0;
+    this.anchorWallMs = this.now();
+  }
+
+  private clock(): SimClock {
+    return { nowUs: this.sim?.nowUs ?? 0, running: this.running, speed: this.speed };
+  }
+
+  // ---------------------------------------------------------------- running
+
+  private advance(): void {
+    const sim = this.sim;
+    if (sim === undefined || !this.running) return;
+    const startMs = this.now();
+    const deadlineMs = startMs + this.tickBudgetMs;
+    if (this.speed === "max") {
+      for (
+        let s = 0;
+        s < MAX_SECONDS_PER_TICK &&
+        this.backlogLength < this.maxRowsPerBatch &&
+        this.now() < deadlineMs;
+        s++
+      ) {
+        this.runTo(Math.floor(sim.nowUs / SECOND_US) * SECOND_US + SECOND_US, deadlineMs);
+      }
+      return;
+    }
+    const targetUs = this.anchorUs + Math.floor((startMs - this.anchorWallMs) * 1000 * this.speed);
+    if (targetUs <= sim.nowUs) return;
+    // Behind: start counting again from here instead of racing to catch up.
+    if (!this.runTo(targetUs, deadlineMs)) this.anchor();
+  }
+
+  /** Runs to `targetUs` in steps that end on whole seconds (for the per-second samples). False if the deadline cut it short. */
+  private runTo(targetUs: number, deadlineMs: number): boolean {
+    const sim = this.sim!;
+    while (sim.nowUs < targetUs) {
+      const boundaryUs = Math.floor(sim.nowUs / SECOND_US) * SECOND_US + SECOND_US;
+      const nextUs = Math.min(boundaryUs, targetUs);
+      sim.runUntil(nextUs);
+      if (nextUs === boundaryUs) this.sampleSecond(boundaryUs);
+      if (deadlineMs !== Infinity && this.now() >= deadlineMs) return sim.nowUs >= targetUs;
+    }
+    return true;
+  }
+
+  /** Samples taken when virtual second `endUs / 1 s` ends: bus load and telegram counts per address, room temperatures. */
+  private sampleSecond(endUs: number): void {
+    const sim = this.sim!;
+    const loaded = this.loaded!;
+    const second = endUs / SECOND_US - 1;
+    const counts: Record<string, number> = {};
+    let any = false;
+    for (const line of loaded.lines) {
+      const stats = sim.busStats(SECOND_US, line.id);
+      this.busLoad.push({
+        second,
+        line: line.id,
+        loadPercent: stats.loadPercent,
+        telegrams: stats.telegrams,
+      });
+      for (const [raw, count] of stats.byGroupAddress) {
+        const key = formatGroupAddress(raw);
+        counts[key] = (counts[key] ?? 0) + count;
+        any = true;
+      }
+    }
+    if (any) this.rates.push({ second, counts });
+    if (this.busLoad.length > MAX_PENDING_SAMPLES * loaded.lines.length)
+      this.busLoad.splice(0, this.busLoad.length - MAX_PENDING_SAMPLES * loaded.lines.length);
+    if (this.rates.length > MAX_PENDING_SAMPLES)
+      this.rates.splice(0, this.rates.length - MAX_PENDING_SAMPLES);
+    this.sampleRooms();
+  }
+
+  /** The latest room temperature and setpoint of every indoor unit; only the newest is kept per batch. */
+  private sampleRooms(): void {
+    const sim = this.sim!;
+    const samples: RoomSample[] = [];
+    for (const device of this.loaded!.devices) {
+      if (device.type.id !== "indoor-unit") continue;
+      const state = sim.deviceState(device.id) as
+        { roomC?: unknown; setpointC?: unknown; power?: unknown } | undefined;
+      if (typeof state?.roomC !== "number" || typeof state.setpointC !== "number") continue;
+      samples.push({
+        timeUs: sim.nowUs,
+        unitId: device.id,
+        roomC: state.roomC,
+        setpointC: state.setpointC,
+        power: state.power === true,
+      });
+    }
+    if (samples.length > 0) this.roomSample = samples;
+  }
+
+  // ---------------------------------------------------------------- trace -> rows
+
+  private onTrace(event: TraceEvent): void {
+    switch (event.kind) {
+      case "telegram.sent": {
+        this.awaiting.set(event.telegramId, this.telegramRow(event));
+        if (this.recording !== undefined && event.attempt === 0) this.observe(event);
+        return;
+      }
+      case "telegram.acked":
+        this.finish(event.telegramId, "ack");
+        return;
+      case "telegram.repeated":
+      case "telegram.lost":
+        this.finish(event.telegramId, event.reason);
+        return;
+      case "fault.raised":
+      case "fault.cleared": {
+        const target = event.deviceId ?? event.unitLink ?? "";
+        const key = `${target}\u0000${event.fault}`;
+        if (event.kind === "fault.raised") this.faultSources.set(key, event.by);
+        else this.faultSources.delete(key);
+        this.faultsDirty = true;
+        if (event.deviceId !== undefined) this.dirtyDevices.add(event.deviceId);
+        const device =
+          event.deviceId === undefined ? undefined : this.loaded?.deviceById.get(event.deviceId);
+        const text = event.kind === "fault.raised" && event.text ? ` (${event.text})` : "";
+        this.enqueue({
+          seq: this.rowSeq++,
+          kind: "fault",
+          timeUs: event.timeUs,
+          source: device?.name ?? target,
+          deviceId: event.deviceId ?? "",
+          destination: event.unitLink ?? "",
+          destinationName: "",
+          service: event.kind === "fault.raised" ? "fault raised" : "fault cleared",
+          value: `${event.fault}${text}, by ${event.by}`,
+          priority: "",
+          repeated: false,
+          ack: "",
+          rawHex: "",
+        });
+        return;
+      }
+      case "device.transition":
+        this.transitions.set(event.deviceId, { name: event.transition, atUs: event.timeUs });
+        this.dirtyDevices.add(event.deviceId);
+        this.responders?.add(event.deviceId);
+        return;
+      case "object.changed":
+        if (event.cause === "write" || event.cause === "response")
+          this.responders?.add(event.deviceId);
+        this.dirtyDevices.add(event.deviceId);
+        return;
+      case "link.delivered":
+      case "link.dropped":
+      case "timer.fired":
+      case "device.note":
+        this.dirtyDevices.add(event.deviceId);
+        return;
+      default:
+        return;
+    }
+  }
+
+  private telegramRow(event: Extract<TraceEvent, { kind: "telegram.sent" }>): LogRow {
+    const ga = this.loaded?.groupAddresses.get(event.destination);
+    const frame: DataFrame = {
+      priority: event.priority,
+      repeated: event.repeated,
+      source: event.source,
+      destination: event.destination,
+      addressType: "group",
+      hopCount: DEFAULT_HOP_COUNT,
+      service: event.service,
+      payload: fromHex(event.payloadHex) ?? new Uint8Array(0),
+      shortPayload: event.shortPayload,
+    };
+    const description = describeTelegram(
+      frame,
+      ga === undefined ? {} : { dpt: ga.dpt, groupAddressName: ga.name },
+    );
+    return {
+      seq: this.rowSeq++,
+      kind: "telegram",
+      timeUs: event.timeUs,
+      source: description.source,
+      deviceId: event.deviceId ?? "",
+      destination: description.destination,
+      destinationName: ga?.name ?? "",
+      service: event.service,
+      value:
+        event.service === "GroupValue_Read"
+          ? ""
+          : (description.value ?? description.valueError ?? description.payloadHex),
+      priority: event.priority,
+      repeated: event.repeated,
+      ack: "",
+      rawHex: description.rawHex,
+    };
+  }
+
+  private finish(telegramId: number, ack: Ack): void {
+    const row = this.awaiting.get(telegramId);
+    if (row === undefined) return;
+    this.awaiting.delete(telegramId);
+    this.enqueue({ ...row, ack });
+  }
+
+  private enqueue(row: LogRow): void {
+    this.backlog.push(row);
+    if (this.backlog.length - this.backlogHead > this.backlogCapacity) {
+      this.backlogHead++;
+      this.dropped++;
+    }
+  }
+
+  private observe(event: Extract<TraceEvent, { kind: "telegram.sent" }>): void {
+    const last = this.recording![this.recording!.length - 1];
+    if (last === undefined) return;
+    const service =
+      event.service === "GroupValue_Read"
+        ? "read"
+        : event.service === "GroupValue_Write"
+          ? "write"
+          : "response";
+    let value: unknown;
+    if (service !== "read") {
+      const ga = this.loaded?.groupAddresses.get(event.destination);
+      const codec = ga === undefined ? undefined : getDpt(ga.dpt);
+      const decoded = codec?.decode(fromHex(event.payloadHex) ?? new Uint8Array(0));
+      if (decoded?.ok) value = decoded.value;
+    }
+    last.observed.push({
+      atUs: event.timeUs,
+      groupAddress: formatGroupAddress(event.destination),
+      service,
+      ...(value === undefined ? {} : { value }),
+      ...(event.deviceId === undefined ? {} : { device: event.deviceId }),
+    });
+  }
+
+  // ---------------------------------------------------------------- batches
+
+  private flush(): void {
+    const sim = this.sim;
+    if (sim === undefined) return;
+    const take = Math.min(this.backlogLength, this.maxRowsPerBatch);
+    const rows = this.backlog.slice(this.backlogHead, this.backlogHead + take);
+    this.backlogHead += take;
+    if (this.backlogHead === this.backlog.length) {
+      this.backlog = [];
+      this.backlogHead = 0;
+    } else if (this.backlogHead > 4096 && this.backlogHead * 2 > this.backlog.length) {
+      this.backlog = this.backlog.slice(this.backlogHead);
+      this.backlogHead = 0;
+    }
+    const devices = [...this.dirtyDevices].map((id) => this.snapshot(sim, id));
+    this.dirtyDevices.clear();
+    const faults = this.faultsDirty ? this.activeFaults(sim) : undefined;
+    this.faultsDirty = false;
+    const rooms = this.roomSample ?? [];
+    this.roomSample = undefined;
+    const clock = this.clock();
+    const clockKey = `${clock.nowUs}|${clock.running}|${clock.speed}`;
+    const idle =
+      rows.length === 0 &&
+      devices.length === 0 &&
+      faults === undefined &&
+      rooms.length === 0 &&
+      this.busLoad.length === 0 &&
+      this.rates.length === 0 &&
+      this.dropped === 0;
+    if (idle && clockKey === this.lastPostedClock) return;
+    this.lastPostedClock = clockKey;
+    const message: SimMessage = {
+      type: "batch",
+      seq: this.batchSeq++,
+      clock,
+      rows,
+      dropped: this.dropped,
+      devices,
+      ...(faults === undefined ? {} : { faults }),
+      rooms,
+      busLoad: this.busLoad,
+      rates: this.rates,
+    };
+    this.dropped = 0;
+    this.busLoad = [];
+    this.rates = [];
+    this.post(message);
+  }
+
+  private snapshot(sim: Simulation, deviceId: string): DeviceSnapshot {
+    const device = sim.bench.deviceById.get(deviceId);
+    const transition = this.transitions.get(deviceId);
+    return {
+      id: deviceId,
+      state: sim.deviceState(deviceId),
+      objects: (device?.objects ?? []).map((object) => {
+        const raw = sim.objectValue(deviceId, object.number);
+        return {
+          number: object.number,
+          value: raw === undefined ? null : formatValue(object.dpt, raw),
+          raw,
+        };
+      }),
+      faults: [...sim.activeFaults(deviceId)],
+      transition: transition?.name ?? null,
+      transitionAtUs: transition?.atUs ?? null,
+    };
+  }
+
+  private activeFaults(sim: Simulation): ActiveFault[] {
+    const faults: ActiveFault[] = [];
+    const targets = [
+      ...sim.bench.devices.map((d) => d.id),
+      ...sim.bench.unitLinks.map((l) => l.id),
+    ];
+    for (const target of targets) {
+      for (const fault of sim.activeFaults(target)) {
+        faults.push({
+          target,
+          fault,
+          by: this.faultSources.get(`${target}\u0000${fault}`) ?? "device",
+        });
+      }
+    }
+    return faults;
+  }
+
+  // ---------------------------------------------------------------- scene dry-run
+
+  private sceneDryRun(
+    sim: Simulation,
+    groupAddress: string,
+    scene: number,
+    settleUs: number,
+  ): void {
+    const loaded = sim.bench;
+    const before = new Map(loaded.devices.map((d) => [d.id, describeDevice(sim, d.id)]));
+    const atUs = sim.nowUs;
+    const result = sim.sendGroupWrite(groupAddress, scene);
+    if (this.refused("scene-dry-run", result)) return;
+    this.recordAction({ kind: "write", atUs, groupAddress, value: scene });
+    const responders = new Set<string>();
+    this.responders = responders;
+    try {
+      this.runTo(atUs + settleUs, Infinity);
+    } finally {
+      this.responders = undefined;
+    }
+    this.anchor();
+    const listening = new Set(
+      loaded.devices
+        .filter((d) =>
+          d.objects.some((o) => o.groupAddresses.some((raw) => sameAddress(raw, groupAddress))),
+        )
+        .map((d) => d.id),
+    );
+    const changed: SceneDryRunResult["changed"] = [];
+    const silent: SceneDryRunResult["silent"] = [];
+    for (const device of loaded.devices) {
+      const after = describeDevice(sim, device.id);
+      const previous = before.get(device.id) ?? new Map<string, string>();
+      const changes: string[] = [];
+      for (const [label, value] of after) {
+        const old = previous.get(label);
+        if (old !== value) changes.push(`${label}: ${old ?? "–"} → ${value}`);
+      }
+      if (changes.length > 0 && responders.has(device.id))
+        changed.push({ deviceId: device.id, name: device.name, changes });
+      else if (listening.has(device.id)) silent.push({ deviceId: device.id, name: device.name });
+    }
+    this.post({
+      type: "scene-result",
+      result: { groupAddress, scene, atUs, settleUs, changed, silent },
+    });
+  }
+}
+
+function sameAddress(raw: number, text: string): boolean {
+  return formatGroupAddress(raw) === text || String(raw) === text;
+}
+
+/** A value formatted by its DPT, or as JSON when the codec refuses it. */
+export function formatValue(dpt: string, value: unknown): string {
+  const codec = getDpt(dpt);
+  if (codec === undefined) return JSON.stringify(value);
+  try {
+    return codec.format(value);
+  } catch {
+    return JSON.stringify(value);
+  }
+}
+
+// State fields and objects that drift on their own (clocks, the room model) and would drown a scene summary.
+const DRIFTING_STATE_KEY = /(Us|^roomC|^reportedRoomC)$/;
+const DRIFTING_OBJECT_NAME = /room temperature/i;
+
+/** Object values and plain state fields of a device, as label -> text, for before/after comparison. */
+function describeDevice(sim: Simulation, deviceId: string): Map<string, string> {
+  const fields = new Map<string, string>();
+  const device = sim.bench.deviceById.get(deviceId);
+  for (const object of device?.objects ?? []) {
+    if (DRIFTING_OBJECT_NAME.test(object.spec.name)) continue;
+    const raw = sim.objectValue(deviceId, object.number);
+    if (raw !== undefined) fields.set(object.spec.name, formatValue(object.dpt, raw));
+  }
+  const state = sim.deviceState(deviceId);
+  if (typeof state === "object" && state !== null) {
+    for (const [key, value] of Object.entries(state)) {
+      if (DRIFTING_STATE_KEY.test(key)) continue;
+      if (typeof value === "boolean" || typeof value === "string") fields.set(key, String(value));
+      else if (typeof value === "number") fields.set(key, String(Math.round(value * 100) / 100));
+    }
+  }
+  return fields;
+}
