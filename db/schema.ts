@@ -268,6 +268,46 @@ export const suiteScenarios = sqliteTable(
 
 // ---------------------------------------------------------------- runs
 
+/**
+ * One replay of a suite: a parent of one `runs` row per scenario, so history,
+ * diffs and reports per scenario read the same rows whether the scenario ran
+ * alone or in a suite. `benchRevisionId` is set when the person forced every
+ * scenario onto one revision; otherwise each ran on its bench's latest.
+ */
+export const suiteRuns = sqliteTable(
+  "suite_runs",
+  {
+    id: id(),
+    workspaceId: text("workspace_id")
+      .notNull()
+      .references(() => workspaces.id, { onDelete: "cascade" }),
+    suiteId: text("suite_id").references(() => suites.id, { onDelete: "set null" }),
+    /** The suite's name when it ran, kept for history after a rename or delete. */
+    suiteName: text("suite_name").notNull(),
+    benchRevisionId: text("bench_revision_id").references(() => benchRevisions.id, {
+      onDelete: "restrict",
+    }),
+    /** Seed forced on every scenario, or null when each used its own document's seed. */
+    seed: integer("seed"),
+    status: text("status", { enum: runStatuses }).notNull().default("queued"),
+    verdict: text("verdict", { enum: runVerdicts }),
+    scenariosTotal: integer("scenarios_total").notNull().default(0),
+    scenariosDone: integer("scenarios_done").notNull().default(0),
+    /** Scenarios whose outcome counts as passing (passed, or failed as expected). */
+    scenariosOk: integer("scenarios_ok").notNull().default(0),
+    startedBy: text("started_by").references(() => users.id, { onDelete: "set null" }),
+    createdAt: createdAt(),
+    startedAt: timestamp("started_at"),
+    finishedAt: timestamp("finished_at"),
+    /** Wall-clock milliseconds from the first scenario starting to the last finishing. */
+    durationMs: integer("duration_ms"),
+  },
+  (t) => [
+    index("suite_runs_workspace_time_idx").on(t.workspaceId, t.createdAt),
+    check("suite_runs_status_check", inList("status", runStatuses)),
+  ],
+);
+
 /** One replay of a scenario (or a suite) against one bench revision with one seed. */
 export const runs = sqliteTable(
   "runs",
@@ -294,9 +334,24 @@ export const runs = sqliteTable(
     createdAt: createdAt(),
     startedAt: timestamp("started_at"),
     finishedAt: timestamp("finished_at"),
+    /** The suite run this scenario run belongs to, if it ran in a suite. */
+    suiteRunId: text("suite_run_id").references((): AnySQLiteColumn => suiteRuns.id, {
+      onDelete: "cascade",
+    }),
+    /** Position in the suite run, from 0. */
+    position: integer("position").notNull().default(0),
+    /** The scenario's name when it ran, kept for history after a rename or delete. */
+    scenarioName: text("scenario_name").notNull().default(""),
+    /** The scenario document that ran (JSON text), so a report and a re-run need nothing else. */
+    scenarioDocument: text("scenario_document"),
+    /** Wall-clock milliseconds the runner took. */
+    durationMs: integer("duration_ms"),
+    /** Why the run could not finish (bench did not load, worker failed). */
+    errorMessage: text("error_message"),
   },
   (t) => [
     index("runs_workspace_time_idx").on(t.workspaceId, t.createdAt),
+    index("runs_suite_run_idx").on(t.suiteRunId),
     index("runs_scenario_idx").on(t.scenarioId),
     index("runs_started_by_idx").on(t.startedBy),
     check("runs_status_check", inList("status", runStatuses)),
@@ -370,6 +425,11 @@ export const labs = sqliteTable(
     gradingScenarioId: text("grading_scenario_id")
       .notNull()
       .references(() => scenarios.id, { onDelete: "restrict" }),
+    /**
+     * Faults the trainer hid in the apprentices' copies, as JSON text (a list of
+     * edits to the bench document, see app/_lib/labs/hidden-faults.ts).
+     */
+    hiddenFaults: text("hidden_faults").notNull().default("[]"),
     createdBy: text("created_by").references(() => users.id, { onDelete: "set null" }),
     createdAt: createdAt(),
     archivedAt: timestamp("archived_at"),

@@ -1,4 +1,4 @@
-import { mkdtempSync, rmSync } from "node:fs";
+import { mkdtempSync, readFileSync, rmSync } from "node:fs";
 import { tmpdir } from "node:os";
 import path from "node:path";
 import bcrypt from "bcryptjs";
@@ -9,8 +9,22 @@ import { demoPeople, demoWorkspaces } from "./demo-world";
 import { findMembership } from "./queries/memberships";
 import { findUserByEmail } from "./queries/users";
 import { findWorkspaceBySlug } from "./queries/workspaces";
-import { memberships, roles, users, workspaces } from "./schema";
-import { seedDemoWorld } from "./seed";
+import {
+  benches,
+  benchRevisions,
+  memberships,
+  roles,
+  scenarios,
+  suites,
+  suiteScenarios,
+  users,
+  workspaces,
+} from "./schema";
+import { demoContent, demoContentRoot, demoSuiteFile, seedDemoWorld } from "./seed";
+
+const shippedSuite = JSON.parse(
+  readFileSync(path.join(demoContentRoot(), demoSuiteFile), "utf8"),
+) as { name: string; scenarios: string[] };
 
 describe("migrations and demo seed on a fresh database", () => {
   let dir: string;
@@ -49,9 +63,19 @@ describe("migrations and demo seed on a fresh database", () => {
       workspacesCreated: demoWorkspaces.length,
       usersCreated: demoPeople.length,
       membershipsCreated: demoPeople.flatMap((p) => p.memberships).length,
+      benchesCreated: demoContent.length,
+      scenariosCreated: shippedSuite.scenarios.length,
+      suitesCreated: demoContent.length,
     });
     const second = seedDemoWorld(db);
-    expect(second).toEqual({ workspacesCreated: 0, usersCreated: 0, membershipsCreated: 0 });
+    expect(second).toEqual({
+      workspacesCreated: 0,
+      usersCreated: 0,
+      membershipsCreated: 0,
+      benchesCreated: 0,
+      scenariosCreated: 0,
+      suitesCreated: 0,
+    });
 
     const countOf = (table: typeof workspaces | typeof users | typeof memberships) =>
       db.select({ n: count() }).from(table).get()?.n;
@@ -77,6 +101,50 @@ describe("migrations and demo seed on a fresh database", () => {
     expect(findMembership({ db, userId: engineer!.id, workspaceId: quayside!.id })?.role).toBe(
       "engineer",
     );
+  });
+
+  it("stores the shipped benches, scenarios and suite in the demo workspaces", () => {
+    const fernhill = findWorkspaceBySlug({ db, slug: "fernhill" })!;
+    const quayside = findWorkspaceBySlug({ db, slug: "quayside-dental" })!;
+    const benchNames = (workspaceId: string) =>
+      db
+        .select({ name: benches.name })
+        .from(benches)
+        .where(eq(benches.workspaceId, workspaceId))
+        .all()
+        .map((row) => row.name);
+    expect(benchNames(fernhill.id)).toEqual(["Fernhill Training Centre"]);
+    expect(benchNames(quayside.id)).toEqual(["Quayside Dental, level 2"]);
+    // One revision per bench, holding the shipped file unchanged.
+    const revisions = db.select().from(benchRevisions).all();
+    expect(revisions.map((r) => r.number)).toEqual([1, 1]);
+    expect(JSON.parse(revisions[0]!.document).format).toBe(1);
+
+    const scenarioCount = (workspaceId: string) =>
+      db.select({ n: count() }).from(scenarios).where(eq(scenarios.workspaceId, workspaceId)).get()
+        ?.n;
+    const fernhillFiles = shippedSuite.scenarios.filter((f) => f.startsWith("fernhill/"));
+    expect(scenarioCount(fernhill.id)).toBe(fernhillFiles.length);
+    expect(scenarioCount(quayside.id)).toBe(shippedSuite.scenarios.length - fernhillFiles.length);
+
+    // The suite keeps the shipped order, per workspace.
+    const suite = db.select().from(suites).where(eq(suites.workspaceId, fernhill.id)).get()!;
+    expect(suite.name).toBe(shippedSuite.name);
+    const ordered = db
+      .select({ name: scenarios.name, document: scenarios.document })
+      .from(suiteScenarios)
+      .innerJoin(scenarios, eq(suiteScenarios.scenarioId, scenarios.id))
+      .where(eq(suiteScenarios.suiteId, suite.id))
+      .orderBy(suiteScenarios.position)
+      .all();
+    const expectedNames = fernhillFiles.map(
+      (file) =>
+        (JSON.parse(readFileSync(path.join(demoContentRoot(), file), "utf8")) as { name: string })
+          .name,
+    );
+    expect(ordered.map((row) => row.name)).toEqual(expectedNames);
+    // In the app a scenario names its bench by name, not by a file path.
+    expect(JSON.parse(ordered[0]!.document).bench).toEqual({ name: "Fernhill Training Centre" });
   });
 
   it("stores only bcrypt hashes of the demo passwords", () => {
