@@ -60,8 +60,18 @@ export function verifyPassword(password: string, hash: string): Promise<boolean>
 }
 
 // Compared against when the account does not exist, so an unknown e-mail takes
-// as long as a wrong password (cost 12, like the real hashes).
-const absentAccountHash = "$2b$12$kFocHEos/quDlMtAKzKz0.H70nz8sffwKeUFBp2//NnVa0DfiLXGi";
+// as long as a wrong password: made once per process at the configured cost
+// (12 in production, like the stored hashes).
+const absentAccountHashes = new Map<number, string>();
+function absentAccountHash(): string {
+  const cost = passwordHashCost();
+  let hash = absentAccountHashes.get(cost);
+  if (!hash) {
+    hash = bcrypt.hashSync("no account has this password", cost);
+    absentAccountHashes.set(cost, hash);
+  }
+  return hash;
+}
 
 /**
  * The address a sign-in came from, for rate limiting: the right-most
@@ -108,7 +118,7 @@ export async function signInWithPassword({
   }
 
   const user = findUserByEmail({ email: normalized });
-  const matches = await verifyPassword(password, user?.passwordHash ?? absentAccountHash);
+  const matches = await verifyPassword(password, user?.passwordHash ?? absentAccountHash());
   const workspace = user ? listWorkspacesForUser({ userId: user.id })[0] : undefined;
   const succeeded = Boolean(user && matches && user.disabledAt === null && workspace);
   recordLoginAttempt({ email: normalized, clientAddress, succeeded, at: now });
