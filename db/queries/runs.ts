@@ -246,6 +246,7 @@ const historyColumns = {
   scenarioName: runs.scenarioName,
   suiteId: runs.suiteId,
   suiteRunId: runs.suiteRunId,
+  position: runs.position,
   benchRevisionId: runs.benchRevisionId,
   revisionNumber: benchRevisions.number,
   benchId: benches.id,
