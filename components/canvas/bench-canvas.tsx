@@ -37,12 +37,14 @@ import { FloorPlanNodeComponent } from "./floor-plan-node";
 import { EdgeMarkers, LinkEdgeComponent, UnitLinkEdgeComponent } from "./link-edges";
 import {
   busBarNodeId,
+  DEVICE_TYPE_DRAG,
   deviceNodeId,
   nodeRefOf,
   objectOfHandle,
   UNIT_LINK_HANDLE,
 } from "./node-ids";
 import { CanvasSearch } from "./canvas-search";
+import { addDevice } from "@/components/bench-editor/model/devices";
 
 const nodeTypes: NodeTypes = {
   device: DeviceNodeComponent,
@@ -262,12 +264,40 @@ export function BenchCanvas({ findings, floorPlan }: BenchCanvasProps) {
     });
   }, [reveal, flow]);
 
+  const onDragOver = useCallback((event: React.DragEvent) => {
+    if (event.dataTransfer.types.includes(DEVICE_TYPE_DRAG)) {
+      event.preventDefault();
+      event.dataTransfer.dropEffect = "copy";
+    }
+  }, []);
+
+  const onDrop = useCallback(
+    (event: React.DragEvent) => {
+      const raw = event.dataTransfer.getData(DEVICE_TYPE_DRAG);
+      if (raw === "") return;
+      event.preventDefault();
+      const { type, line } = JSON.parse(raw) as { type: string; line?: string };
+      const position = flow.screenToFlowPosition({ x: event.clientX, y: event.clientY });
+      let added: string | undefined;
+      storeApi.getState().apply((b) => {
+        const result = addDevice(b, { type, ...(line ? { line } : {}), position });
+        if (!result.ok) return result;
+        added = result.value.deviceId;
+        return { ok: true, value: result.value.bench };
+      }, "Added a device");
+      if (added) storeApi.getState().selectNode({ kind: "device", id: added });
+    },
+    [flow, storeApi],
+  );
+
   const onReveal = useCallback((node: NodeRef) => storeApi.getState().revealNode(node), [storeApi]);
 
   return (
     <div
       className="relative h-full w-full bg-graphite"
       onKeyDown={onKeyDown}
+      onDragOver={onDragOver}
+      onDrop={onDrop}
       role="application"
       aria-label="Bench canvas"
       tabIndex={-1}

@@ -35,3 +35,6 @@ export function nodeRefOf(
   }
   return undefined;
 }
+
+/** MIME type of a device-shelf item dragged onto the canvas: JSON { type, line }. */
+export const DEVICE_TYPE_DRAG = "application/x-benchline-device-type";
