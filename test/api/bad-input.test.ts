@@ -333,7 +333,7 @@ describe("documents are checked by the engine", () => {
   it("names the field at fault in a bench document", async () => {
     const { POST } = await import("@/app/api/benches/route");
     const document = benchDocument();
-    document.links[0]!.groupAddress = "9/9/9";
+    (document.links ?? [])[0]!.groupAddress = "9/9/9";
     const before = databaseSnapshot();
     const response = await call(POST, {
       method: "POST",
