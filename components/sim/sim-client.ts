@@ -24,14 +24,12 @@ export class SimClient {
   send(command: SimCommand): void {
     const parsed = parseSimCommand(command);
     if (!parsed.ok) {
-      this.store
-        .getState()
-        .apply({
-          type: "command-error",
-          command: command.type,
-          field: parsed.field,
-          message: parsed.message,
-        });
+      this.store.getState().apply({
+        type: "command-error",
+        command: command.type,
+        field: parsed.field,
+        message: parsed.message,
+      });
       return;
     }
     this.port.postMessage(parsed.value);

@@ -1,6 +1,6 @@
 "use client";
 
-import { createContext, useContext, useEffect, useRef, useState } from "react";
+import { createContext, useContext, useEffect, useMemo, useRef, useState } from "react";
 import { useStore } from "zustand";
 import { SimClient, startSimWorker } from "./sim-client";
 import type { SimCommand } from "./sim-protocol";
@@ -40,10 +40,21 @@ export function SimProvider({
   }, [bench, seed, store]);
 
   // One send function for the provider's life; it reads the live client when called.
-  const [value] = useState<SimContextValue>(() => ({
-    store,
-    send: (command) => client.current?.send(command),
-  }));
+  const [send] = useState(() => (command: SimCommand) => client.current?.send(command));
+  return (
+    <SimStoreProvider store={store} send={send}>
+      {children}
+    </SimStoreProvider>
+  );
+}
+
+/** Hands a given store and send function to the console components (tests, benchmarks, other hosts). */
+export function SimStoreProvider({
+  store,
+  send,
+  children,
+}: SimContextValue & { children: React.ReactNode }) {
+  const value = useMemo<SimContextValue>(() => ({ store, send }), [store, send]);
   return <SimContext.Provider value={value}>{children}</SimContext.Provider>;
 }
 

@@ -1,0 +1,32 @@
+"use client";
+
+import { useMemo } from "react";
+import { useSimState } from "@/components/sim/sim-context";
+import { AddressRateChart } from "./address-rate-chart";
+import { BusLoadChart } from "./bus-load-chart";
+import { RoomTemperatureChart } from "./room-temperature-chart";
+
+/** The console's charts, fed from the store: rooms per indoor unit, bus load per line, rates per address. */
+export function ConsoleCharts() {
+  const bench = useSimState((s) => s.bench);
+  const rooms = useSimState((s) => s.rooms);
+  const busLoad = useSimState((s) => s.busLoad);
+  const rates = useSimState((s) => s.rates);
+  const names = useMemo(
+    () => Object.fromEntries((bench?.groupAddresses ?? []).map((ga) => [ga.address, ga.name])),
+    [bench],
+  );
+  if (bench === null) return null;
+  const units = bench.devices.filter((d) => d.type === "indoor-unit");
+  return (
+    <div className="space-y-4">
+      {units.map((unit) => (
+        <RoomTemperatureChart key={unit.id} name={unit.name} samples={rooms[unit.id] ?? []} />
+      ))}
+      {bench.lines.map((line) => (
+        <BusLoadChart key={line.id} line={line.id} samples={busLoad} />
+      ))}
+      <AddressRateChart samples={rates} names={names} />
+    </div>
+  );
+}
