@@ -1,0 +1,134 @@
+import { authorize, authorizeOn, verifyApiSession } from "@/app/_lib/dal";
+import { AppError } from "@/app/_lib/errors";
+import { json, readBodyText, route, type RouteParams } from "@/app/_lib/http";
+import { loadVisibleBench, resourceIdSchema } from "@/app/_lib/resources";
+import { findFloorPlan, removeFloorPlan, replaceFloorPlan } from "./floor-plan-store";
+import { sanitizeSvg } from "./sanitize-svg";
+
+type Params = RouteParams<{ benchId: string }>;
+
+/** Largest floor-plan image accepted. */
+export const FLOOR_PLAN_LIMIT_BYTES = 2 * 1024 * 1024;
+
+const imageTypes = ["image/png", "image/jpeg", "image/svg+xml"] as const;
+
+async function benchIdOf(context: Params) {
+  const parsed = resourceIdSchema.safeParse((await context.params).benchId);
+  if (!parsed.success) throw new AppError("not_found", "no such bench");
+  return parsed.data;
+}
+
+/** Reads the raw body up to the limit. */
+async function readBytes(request: Request): Promise<Buffer> {
+  const declared = request.headers.get("content-length");
+  if (declared !== null && Number(declared) > FLOOR_PLAN_LIMIT_BYTES) {
+    throw new AppError(
+      "body_too_large",
+      `a floor plan is at most ${FLOOR_PLAN_LIMIT_BYTES / 1024 / 1024} MiB`,
+      { field: "file" },
+    );
+  }
+  const bytes = Buffer.from(await request.arrayBuffer());
+  if (bytes.byteLength > FLOOR_PLAN_LIMIT_BYTES) {
+    throw new AppError(
+      "body_too_large",
+      `a floor plan is at most ${FLOOR_PLAN_LIMIT_BYTES / 1024 / 1024} MiB`,
+      { field: "file" },
+    );
+  }
+  return bytes;
+}
+
+// The file's own first bytes must agree with its declared type (PNG and JPEG signatures).
+function matchesSignature(type: string, bytes: Buffer): boolean {
+  if (type === "image/png")
+    return bytes
+      .subarray(0, 8)
+      .equals(Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]));
+  if (type === "image/jpeg") return bytes[0] === 0xff && bytes[1] === 0xd8 && bytes[2] === 0xff;
+  return true;
+}
+
+/** The bench's floor plan image; SVG is served inert (no script, nothing fetched). */
+export const GET = route(async (request, context: Params) => {
+  const benchId = await benchIdOf(context);
+  const session = await verifyApiSession(request);
+  authorize(session, "benches.read");
+  const bench = loadVisibleBench(session, benchId);
+  const plan = findFloorPlan({ workspaceId: session.workspaceId, benchId: bench.id });
+  if (!plan) throw new AppError("not_found", "this bench has no floor plan");
+  return new Response(new Uint8Array(plan.content), {
+    headers: {
+      "Content-Type": plan.contentType,
+      "Content-Security-Policy":
+        "default-src 'none'; style-src 'unsafe-inline'; img-src data:; sandbox",
+      "X-Content-Type-Options": "nosniff",
+      "Cache-Control": "private, no-cache",
+      ETag: `"${plan.sha256}"`,
+    },
+  });
+});
+
+/** Upload a floor plan: the body is the image itself, PNG, JPEG or SVG (sanitised), at most 2 MiB. */
+export const PUT = route(async (request, context: Params) => {
+  const benchId = await benchIdOf(context);
+  const type = request.headers.get("content-type")?.split(";")[0]?.trim().toLowerCase() ?? "";
+  if (!(imageTypes as readonly string[]).includes(type)) {
+    throw new AppError(
+      "unsupported_media_type",
+      `a floor plan is PNG, JPEG or SVG (got ${type ? `"${type}"` : "no content type"})`,
+      { field: "file" },
+    );
+  }
+  const bytes = await readBytes(request);
+  const session = await verifyApiSession(request);
+  const bench = loadVisibleBench(session, benchId);
+  authorizeOn(session, "benches.edit", bench.privateOwnerId);
+  if (bytes.byteLength === 0)
+    throw new AppError("invalid_input", "the file is empty", { field: "file" });
+  if (!matchesSignature(type, bytes))
+    throw new AppError("invalid_input", `the file is not a ${type.slice(6).toUpperCase()} image`, {
+      field: "file",
+    });
+  let content = bytes;
+  let removed: readonly string[] = [];
+  if (type === "image/svg+xml") {
+    let text: string;
+    try {
+      text = new TextDecoder("utf-8", { fatal: true }).decode(bytes);
+    } catch {
+      throw new AppError("invalid_input", "the SVG is not valid UTF-8 text", { field: "file" });
+    }
+    const sanitized = sanitizeSvg(text);
+    if (sanitized === null)
+      throw new AppError("invalid_input", "the file has no <svg> element", { field: "file" });
+    content = Buffer.from(sanitized.svg, "utf8");
+    removed = sanitized.removed;
+  }
+  const stored = replaceFloorPlan({
+    workspaceId: session.workspaceId,
+    benchId: bench.id,
+    uploadedBy: session.userId,
+    contentType: type,
+    content,
+  });
+  return json(
+    {
+      floorPlan: {
+        url: `/api/benches/${bench.id}/floor-plan?v=${stored.sha256.slice(0, 12)}`,
+        removed,
+      },
+    },
+    { status: 201 },
+  );
+});
+
+/** Remove the bench's floor plan. */
+export const DELETE = route(async (request, context: Params) => {
+  const benchId = await benchIdOf(context);
+  const session = await verifyApiSession(request);
+  const bench = loadVisibleBench(session, benchId);
+  authorizeOn(session, "benches.edit", bench.privateOwnerId);
+  removeFloorPlan({ workspaceId: session.workspaceId, benchId: bench.id });
+  return new Response(null, { status: 204, headers: { "Cache-Control": "no-store" } });
+});

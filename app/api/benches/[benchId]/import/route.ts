@@ -1,0 +1,52 @@
+import { authorizeOn, verifyApiSession } from "@/app/_lib/dal";
+import { AppError } from "@/app/_lib/errors";
+import { documentBodyLimitBytes, json, readJson, route, type RouteParams } from "@/app/_lib/http";
+import {
+  checkedBenchDocument,
+  checkedScenarioDocument,
+  loadVisibleBench,
+  resourceIdSchema,
+} from "@/app/_lib/resources";
+import { saveRevision } from "@/db/queries/benches";
+import { createScenario } from "@/db/queries/scenarios";
+import { importBodySchema } from "./schema";
+
+type Params = RouteParams<{ benchId: string }>;
+
+/** Import a bench file as a new revision, or a scenario file onto this bench. */
+export const POST = route(async (request, context: Params) => {
+  const parsed = resourceIdSchema.safeParse((await context.params).benchId);
+  if (!parsed.success) throw new AppError("not_found", "no such bench");
+  const body = await readJson(request, importBodySchema, { limitBytes: documentBodyLimitBytes });
+  const session = await verifyApiSession(request);
+  const bench = loadVisibleBench(session, parsed.data);
+  if (body.kind === "bench") {
+    authorizeOn(session, "benches.edit", bench.privateOwnerId);
+    const document = checkedBenchDocument(body.document);
+    const revision = saveRevision({
+      benchId: bench.id,
+      document: document.text,
+      authorId: session.userId,
+      summary: `Imported ${body.fileName}`.slice(0, 200),
+    });
+    return json(
+      { kind: "bench", revision: { number: revision.number, id: revision.id } },
+      { status: 201 },
+    );
+  }
+  authorizeOn(session, "scenarios.edit", bench.privateOwnerId);
+  const document = checkedScenarioDocument(body.document);
+  const scenario = createScenario({
+    values: {
+      workspaceId: session.workspaceId,
+      benchId: bench.id,
+      name: document.name,
+      document: document.text,
+      createdBy: session.userId,
+    },
+  });
+  return json(
+    { kind: "scenario", scenario: { id: scenario.id, name: scenario.name } },
+    { status: 201 },
+  );
+});
