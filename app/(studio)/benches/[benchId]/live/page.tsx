@@ -1,0 +1,45 @@
+import type { Metadata } from "next";
+import { notFound } from "next/navigation";
+import { can, canOn } from "@/app/_lib/capabilities";
+import { requireCapability } from "@/app/_lib/dal";
+import { findBench, latestRevision } from "@/db/queries/benches";
+import { LiveConsole } from "@/components/console/live-console";
+import { SimulatorCaution } from "@/components/console/simulator-caution";
+import { PageHeader } from "@/components/ui/page-header";
+
+export const metadata: Metadata = { title: "Live console" };
+
+/**
+ * A bench's latest revision running live. The document is read on the server
+ * and handed to the console, which runs it in a Web Worker. A bench the member
+ * may not open live is answered as not found, never as forbidden.
+ */
+export default async function LiveBenchPage({ params }: { params: Promise<{ benchId: string }> }) {
+  const { benchId } = await params;
+  const session = await requireCapability("console.use");
+  const bench = findBench({ workspaceId: session.workspaceId, benchId });
+  if (!bench || bench.archivedAt !== null) notFound();
+  // Someone else's private copy is visible only to lab managers; "own" scope only on one's own copies.
+  if (
+    bench.privateOwnerId !== null &&
+    bench.privateOwnerId !== session.userId &&
+    !can(session.role, "labs.manage")
+  )
+    notFound();
+  if (!canOn(session, "console.use", bench.privateOwnerId)) notFound();
+  const revision = latestRevision({ benchId: bench.id });
+  if (!revision) notFound();
+  let document: unknown;
+  try {
+    document = JSON.parse(revision.document);
+  } catch {
+    document = null;
+  }
+  return (
+    <div className="flex flex-col gap-4 px-4 py-6 md:px-6">
+      <PageHeader title={bench.name} lead={`Live console · revision ${revision.number}`} />
+      <LiveConsole benchId={bench.id} document={document} />
+      <SimulatorCaution />
+    </div>
+  );
+}
