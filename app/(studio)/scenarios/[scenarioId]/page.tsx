@@ -1,0 +1,91 @@
+import type { Metadata } from "next";
+import Link from "next/link";
+import { notFound } from "next/navigation";
+import { can, canOn } from "@/app/_lib/capabilities";
+import { requireCapability } from "@/app/_lib/dal";
+import { findBench } from "@/db/queries/benches";
+import { listRunHistory } from "@/db/queries/runs";
+import { findScenario } from "@/db/queries/scenarios";
+import { VerdictBadge } from "@/components/runs/verdict-badge";
+import { ScenarioEditor } from "@/components/scenario-editor/scenario-editor";
+import { PageHeader } from "@/components/ui/page-header";
+import { Panel } from "@/components/ui/panel";
+import { editorBench } from "../bench-facts";
+
+export const metadata: Metadata = { title: "Scenario" };
+
+export default async function ScenarioPage({
+  params,
+}: {
+  params: Promise<{ scenarioId: string }>;
+}) {
+  const { scenarioId } = await params;
+  const session = await requireCapability("scenarios.read");
+  const scenario = findScenario({ workspaceId: session.workspaceId, scenarioId });
+  if (!scenario) notFound();
+  const bench = findBench({ workspaceId: session.workspaceId, benchId: scenario.benchId });
+  if (
+    !bench ||
+    (bench.privateOwnerId !== null &&
+      bench.privateOwnerId !== session.userId &&
+      !can(session.role, "labs.manage"))
+  ) {
+    notFound();
+  }
+  let document: unknown = null;
+  try {
+    document = JSON.parse(scenario.document);
+  } catch {
+    document = null;
+  }
+  const canEdit = canOn(session, "scenarios.edit", scenario.createdBy);
+  // Apprentices replay only on their own copies.
+  const canRun = canOn(session, "runs.start", bench.privateOwnerId);
+  const history = listRunHistory({
+    workspaceId: session.workspaceId,
+    scenarioId: scenario.id,
+    limit: 10,
+    ...(session.role === "apprentice" ? { startedBy: session.userId } : {}),
+  });
+  return (
+    <div className="mx-auto flex max-w-5xl flex-col gap-6 px-6 py-8 md:px-10">
+      <PageHeader
+        title={scenario.name}
+        lead={
+          <>
+            On <span className="font-medium">{bench.name}</span>.{" "}
+            <Link href="/scenarios" className="text-copper-deep underline">
+              All scenarios
+            </Link>
+          </>
+        }
+      />
+      <ScenarioEditor
+        scenarioId={scenario.id}
+        initialDocument={document}
+        bench={editorBench(bench)}
+        canEdit={canEdit}
+        canRun={canRun}
+      />
+      <Panel title="Recent runs">
+        {history.length === 0 ? (
+          <p className="text-sm text-ink-soft">Not run yet.</p>
+        ) : (
+          <ul className="flex flex-col gap-2 text-sm">
+            {history.map((run) => (
+              <li key={run.id} className="flex flex-wrap items-center gap-3">
+                <VerdictBadge verdict={run.verdict} status={run.status} />
+                <Link href={`/runs/${run.id}`} className="text-copper-deep underline">
+                  {run.createdAt.toISOString().slice(0, 16).replace("T", " ")}
+                </Link>
+                <span className="text-ink-soft">
+                  rev. {run.revisionNumber}, seed {run.seed}, {run.startedByName ?? "former member"}
+                </span>
+              </li>
+            ))}
+          </ul>
+        )}
+      </Panel>
+    </div>
+  );
+}

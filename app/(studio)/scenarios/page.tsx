@@ -1,0 +1,140 @@
+import type { Metadata } from "next";
+import Link from "next/link";
+import { can } from "@/app/_lib/capabilities";
+import { requireCapability } from "@/app/_lib/dal";
+import { listVisibleBenches } from "@/db/queries/bench-history";
+import { latestRunsByScenario } from "@/db/queries/runs";
+import { listScenarios } from "@/db/queries/scenarios";
+import { listSuites } from "@/db/queries/suites";
+import { RunButton } from "@/components/runs/run-button";
+import { VerdictBadge } from "@/components/runs/verdict-badge";
+import { PageHeader } from "@/components/ui/page-header";
+import { Panel } from "@/components/ui/panel";
+
+export const metadata: Metadata = { title: "Scenarios" };
+
+function stepCount(document: string): number | null {
+  try {
+    const steps = (JSON.parse(document) as { steps?: unknown }).steps;
+    return Array.isArray(steps) ? steps.length : null;
+  } catch {
+    return null;
+  }
+}
+
+/** Scenarios per bench with each one's last result, and the workspace's suites. */
+export default async function ScenariosPage() {
+  const session = await requireCapability("scenarios.read");
+  const benches = listVisibleBenches({
+    workspaceId: session.workspaceId,
+    userId: session.userId,
+    includeAllPrivate: false,
+  });
+  const scenarios = listScenarios({ workspaceId: session.workspaceId });
+  const latest = latestRunsByScenario({
+    workspaceId: session.workspaceId,
+    scenarioIds: scenarios.map((s) => s.id),
+    ...(session.role === "apprentice" ? { startedBy: session.userId } : {}),
+  });
+  const canEdit = can(session.role, "scenarios.edit", { scope: "workspace" });
+  const canRunSuites = can(session.role, "runs.start", { scope: "workspace" });
+  const suites = listSuites({ workspaceId: session.workspaceId });
+
+  return (
+    <div className="mx-auto flex max-w-5xl flex-col gap-6 px-6 py-8 md:px-10">
+      <PageHeader
+        title="Scenarios"
+        lead="Telegram sequences in virtual time with the status feedback they expect, per bench."
+      />
+      {suites.length > 0 ? (
+        <Panel title="Suites">
+          <ul className="flex flex-col gap-3">
+            {suites.map((suite) => (
+              <li
+                key={suite.id}
+                className="flex flex-wrap items-center justify-between gap-3"
+                aria-label={`Suite ${suite.name}`}
+              >
+                <span className="font-medium">{suite.name}</span>
+                {canRunSuites ? (
+                  <RunButton target={{ suiteId: suite.id }} label="Run suite" />
+                ) : null}
+              </li>
+            ))}
+          </ul>
+        </Panel>
+      ) : null}
+      {benches.length === 0 ? (
+        <p className="text-ink-soft">No benches in this workspace yet.</p>
+      ) : null}
+      {benches.map((bench) => {
+        const ofBench = scenarios.filter((s) => s.benchId === bench.id);
+        return (
+          <section
+            key={bench.id}
+            aria-label={`Scenarios on ${bench.name}`}
+            className="flex flex-col gap-3"
+          >
+            <div className="flex flex-wrap items-center justify-between gap-3">
+              <h2 className="text-lg font-semibold">{bench.name}</h2>
+              {canEdit || bench.privateOwnerId === session.userId ? (
+                <Link
+                  href={`/scenarios/new?benchId=${bench.id}`}
+                  className="rounded-md border border-paper-line px-3 py-1.5 text-sm hover:bg-paper-deep"
+                >
+                  New scenario
+                </Link>
+              ) : null}
+            </div>
+            {ofBench.length === 0 ? (
+              <p className="text-sm text-ink-soft">No scenarios on this bench yet.</p>
+            ) : (
+              <table className="w-full text-left text-sm">
+                <thead>
+                  <tr className="border-b border-paper-line text-ink-soft">
+                    <th className="py-2 pr-3 font-medium">Scenario</th>
+                    <th className="py-2 pr-3 font-medium">Steps</th>
+                    <th className="py-2 font-medium">Last result</th>
+                  </tr>
+                </thead>
+                <tbody>
+                  {ofBench.map((scenario) => {
+                    const last = latest.get(scenario.id);
+                    return (
+                      <tr key={scenario.id} className="border-b border-paper-line/60">
+                        <td className="py-2 pr-3">
+                          <Link
+                            href={`/scenarios/${scenario.id}`}
+                            className="text-copper-deep underline"
+                          >
+                            {scenario.name}
+                          </Link>
+                        </td>
+                        <td className="py-2 pr-3">{stepCount(scenario.document) ?? "—"}</td>
+                        <td className="py-2">
+                          {last ? (
+                            <span className="flex flex-wrap items-center gap-2">
+                              <VerdictBadge verdict={last.verdict} status={last.status} />
+                              <Link
+                                href={`/runs/${last.id}`}
+                                className="text-xs text-ink-soft underline"
+                              >
+                                {last.createdAt.toISOString().slice(0, 16).replace("T", " ")}
+                              </Link>
+                            </span>
+                          ) : (
+                            <span className="text-ink-soft">not run</span>
+                          )}
+                        </td>
+                      </tr>
+                    );
+                  })}
+                </tbody>
+              </table>
+            )}
+          </section>
+        );
+      })}
+    </div>
+  );
+}
