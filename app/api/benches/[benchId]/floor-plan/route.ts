@@ -1,6 +1,6 @@
 import { authorize, authorizeOn, verifyApiSession } from "@/app/_lib/dal";
 import { AppError } from "@/app/_lib/errors";
-import { json, readBodyText, route, type RouteParams } from "@/app/_lib/http";
+import { json, route, type RouteParams } from "@/app/_lib/http";
 import { loadVisibleBench, resourceIdSchema } from "@/app/_lib/resources";
 import { findFloorPlan, removeFloorPlan, replaceFloorPlan } from "./floor-plan-store";
 import { sanitizeSvg } from "./sanitize-svg";

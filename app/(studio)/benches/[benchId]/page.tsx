@@ -1,0 +1,48 @@
+import type { Metadata } from "next";
+import { notFound } from "next/navigation";
+import { can, canOn } from "@/app/_lib/capabilities";
+import { requireCapability } from "@/app/_lib/dal";
+import { benchSchema } from "@/engine/bench";
+import { findBench, latestRevision } from "@/db/queries/benches";
+import { findFloorPlan } from "@/app/api/benches/[benchId]/floor-plan/floor-plan-store";
+import { EditorPage } from "./editor-page";
+
+export const metadata: Metadata = { title: "Bench editor" };
+
+/** Loads the bench's latest revision on the server and hands the document to the client editor. */
+export default async function BenchEditorPage({
+  params,
+}: {
+  params: Promise<{ benchId: string }>;
+}) {
+  const { benchId } = await params;
+  const session = await requireCapability("benches.read");
+  const bench = findBench({ workspaceId: session.workspaceId, benchId });
+  if (!bench || bench.archivedAt !== null) notFound();
+  if (
+    bench.privateOwnerId !== null &&
+    bench.privateOwnerId !== session.userId &&
+    !can(session.role, "labs.manage")
+  )
+    notFound();
+  const revision = latestRevision({ benchId: bench.id });
+  if (!revision) notFound();
+  // Stored documents were checked on the way in; parse again so the editor gets the defaults filled.
+  const document = benchSchema.parse(JSON.parse(revision.document));
+  const plan = findFloorPlan({ workspaceId: session.workspaceId, benchId: bench.id });
+  return (
+    <EditorPage
+      benchId={bench.id}
+      bench={document}
+      revision={{
+        number: revision.number,
+        summary: revision.summary,
+        createdAt: revision.createdAt.toISOString(),
+      }}
+      canEdit={canOn(session, "benches.edit", bench.privateOwnerId)}
+      floorPlanUrl={
+        plan ? `/api/benches/${bench.id}/floor-plan?v=${plan.sha256.slice(0, 12)}` : null
+      }
+    />
+  );
+}
