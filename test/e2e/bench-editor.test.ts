@@ -118,13 +118,11 @@ describe("bench editor in headless Chromium", () => {
       testToolAddress: "1.1.250",
       devices: [{ id: "x-1", type: "toaster", name: "Toaster", individualAddress: "1.1.9" }],
     };
-    await page
-      .getByTestId("import-input")
-      .setInputFiles({
-        name: "broken.bench.json",
-        mimeType: "application/json",
-        buffer: Buffer.from(JSON.stringify(broken)),
-      });
+    await page.getByTestId("import-input").setInputFiles({
+      name: "broken.bench.json",
+      mimeType: "application/json",
+      buffer: Buffer.from(JSON.stringify(broken)),
+    });
     const result = page.getByRole("alert", { name: "Import result" });
     await result.waitFor();
     const text = await result.innerText();
