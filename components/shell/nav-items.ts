@@ -42,7 +42,7 @@ export const navItems: readonly NavItem[] = [
     href: "/labs",
     label: "Labs",
     summary: "Training benches with faults to find, assigned to apprentices and graded.",
-    ready: false,
+    ready: true,
   },
   {
     href: "/members",

@@ -1,0 +1,24 @@
+import { authorize, verifyApiSession } from "@/app/_lib/dal";
+import { AppError } from "@/app/_lib/errors";
+import { json, readJson, route, type RouteParams } from "@/app/_lib/http";
+import { assignLab } from "@/app/_lib/labs/lab-service";
+import { findLab } from "@/db/queries/labs";
+import { assignLabSchema } from "./schema";
+
+/** POST /api/labs/:labId/assignments — assign to apprentices; each new one gets an e-mail. */
+export const POST = route(async (request, context: RouteParams<{ labId: string }>) => {
+  const { labId } = await context.params;
+  const body = await readJson(request, assignLabSchema);
+  const session = await verifyApiSession(request);
+  const found = findLab({ workspaceId: session.workspaceId, labId });
+  if (!found) throw new AppError("not_found", "no such lab");
+  authorize(session, "labs.manage");
+  const dueAt = body.dueAt
+    ? new Date(body.dueAt.length === 10 ? `${body.dueAt}T23:59:59Z` : body.dueAt)
+    : null;
+  const created = await assignLab(session, found.lab, { apprenticeIds: body.apprenticeIds, dueAt });
+  return json(
+    { assigned: created.map((row) => ({ id: row.id, apprenticeId: row.apprenticeId })) },
+    { status: 201 },
+  );
+});
