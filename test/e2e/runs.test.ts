@@ -1,5 +1,5 @@
 import type { Browser, Page } from "playwright-core";
-import { afterAll, beforeAll, describe, expect, inject, it } from "vitest";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { launchChromium } from "./chromium";
 import { demoPassword, signIn } from "./support/sign-in";
 
@@ -10,7 +10,6 @@ import { demoPassword, signIn } from "./support/sign-in";
  * report prints to PDF through Chromium and is e-mailed to a colleague.
  */
 describe("server runs in headless Chromium", () => {
-  const baseURL = inject("baseURL");
   const qa = "priya.qa@fernhill.example";
   const exercise = "Exercise: the door rocker should switch the bench lights";
   let browser: Browser;
