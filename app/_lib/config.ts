@@ -17,6 +17,12 @@ import path from "node:path";
  * | APP_URL                 | origin used in e-mailed links and the Origin check     | production: none (error when a link is built); else http://localhost:3000 |
  * | PASSWORD_HASH_COST      | bcrypt cost for new hashes                             | 12 (production never goes below 12)                |
  * | SMTP_URL / MAIL_FROM    | nodemailer SMTP transport / sender address             | none: mail is stored in the outbox table           |
+ * | BENCHLINE_DEMO          | "true": the local demo (`npm run demo`) over plain http | off                                                |
+ *
+ * The demo serves a production build on http://localhost:3000 for one person
+ * trying Benchline; with BENCHLINE_DEMO=true the production-only requirements
+ * (a configured secret, a Secure cookie, APP_URL) fall back to the development
+ * defaults. Never set it on a server others reach.
  */
 
 export class ConfigError extends Error {
@@ -28,6 +34,16 @@ export class ConfigError extends Error {
 
 export function isProduction(): boolean {
   return process.env.NODE_ENV === "production";
+}
+
+/** The local demo: a production build served over plain http to the person running it. */
+function isLocalDemo(): boolean {
+  return booleanFromEnv("BENCHLINE_DEMO", false);
+}
+
+/** Whether the strict production defaults apply (secret, Secure cookie, APP_URL required). */
+function strictDefaults(): boolean {
+  return isProduction() && !isLocalDemo();
 }
 
 const minimumSecretLength = 32;
@@ -66,7 +82,7 @@ export function sessionSecret(): string {
     }
     return secret;
   }
-  if (isProduction()) {
+  if (strictDefaults()) {
     throw new ConfigError(
       "SESSION_SECRET is not set. In production Benchline refuses to start sessions without it: set SESSION_SECRET to a random string of at least 32 characters (e.g. `openssl rand -base64 32`).",
     );
@@ -90,7 +106,7 @@ export interface SessionCookieConfig {
 
 /** Cookie settings: strict in production, overridable so browser tests over plain http work. */
 export function sessionCookieConfig(): SessionCookieConfig {
-  const secure = booleanFromEnv("SESSION_COOKIE_SECURE", isProduction());
+  const secure = booleanFromEnv("SESSION_COOKIE_SECURE", strictDefaults());
   // The __Host- prefix makes the browser insist on Secure, Path=/ and no Domain,
   // so only usable when the cookie is secure.
   const name =
@@ -116,7 +132,7 @@ export function appUrl(): string {
   // Links in mail must never be built from a request's Host header (a forged
   // host would send a reset token to someone else's server), so production
   // needs it spelled out.
-  if (isProduction()) {
+  if (strictDefaults()) {
     throw new ConfigError(
       "APP_URL is not set. In production the links in invitation and password-reset mail need it, e.g. APP_URL=https://bench.example.",
     );
