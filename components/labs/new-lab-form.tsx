@@ -93,6 +93,7 @@ export function NewLabForm({ benches }: { benches: readonly LabBenchChoice[] }) 
         <label className="flex flex-col gap-1 text-sm">
           Bench
           <select
+            aria-label="Bench"
             className={inputClass}
             value={benchId}
             onChange={(e) => {
@@ -120,6 +121,7 @@ export function NewLabForm({ benches }: { benches: readonly LabBenchChoice[] }) 
         <label className="flex flex-col gap-1 text-sm sm:col-span-2">
           Grading scenario
           <select
+            aria-label="Grading scenario"
             className={inputClass}
             required
             value={scenarioId}
