@@ -1,17 +1,20 @@
 "use client";
 
 import { useMemo } from "react";
-import { useSimState } from "@/components/sim/sim-context";
+import { useSimState, useThrottledSimState } from "@/components/sim/sim-context";
 import { AddressRateChart } from "./address-rate-chart";
 import { BusLoadChart } from "./bus-load-chart";
 import { RoomTemperatureChart } from "./room-temperature-chart";
 
+const CHART_REFRESH_MS = 1000;
+
 /** The console's charts, fed from the store: rooms per indoor unit, bus load per line, rates per address. */
 export function ConsoleCharts() {
   const bench = useSimState((s) => s.bench);
-  const rooms = useSimState((s) => s.rooms);
-  const busLoad = useSimState((s) => s.busLoad);
-  const rates = useSimState((s) => s.rates);
+  // Charts are the heaviest thing on the page: redraw them once a second, not per batch.
+  const rooms = useThrottledSimState((s) => s.rooms, CHART_REFRESH_MS);
+  const busLoad = useThrottledSimState((s) => s.busLoad, CHART_REFRESH_MS);
+  const rates = useThrottledSimState((s) => s.rates, CHART_REFRESH_MS);
   const names = useMemo(
     () => Object.fromEntries((bench?.groupAddresses ?? []).map((ga) => [ga.address, ga.name])),
     [bench],

@@ -1,7 +1,7 @@
 "use client";
 
 import { useState } from "react";
-import { useSimSend, useSimState } from "@/components/sim/sim-context";
+import { useSimSend, useSimState, useThrottledSimState } from "@/components/sim/sim-context";
 import { Button } from "@/components/ui/button";
 import { Mono } from "@/components/ui/mono";
 import { StatusBadge } from "@/components/ui/status-badge";
@@ -15,7 +15,7 @@ const fieldClass = "rounded-md border border-paper-line bg-white px-2 py-1 text-
 export function FaultsPanel() {
   const bench = useSimState((s) => s.bench);
   const faults = useSimState((s) => s.faults);
-  const devices = useSimState((s) => s.devices);
+  const devices = useThrottledSimState((s) => s.devices, 250);
   const send = useSimSend();
   const [disconnect, setDisconnect] = useState("");
   const [floodAddress, setFloodAddress] = useState("");

@@ -1,6 +1,6 @@
 "use client";
 
-import { useSimState } from "@/components/sim/sim-context";
+import { useSimState, useThrottledSimState } from "@/components/sim/sim-context";
 import { Mono } from "@/components/ui/mono";
 import { StatusBadge } from "@/components/ui/status-badge";
 import { Flash } from "./flash";
@@ -24,7 +24,7 @@ function stateFields(state: unknown): [string, string][] {
 /** Each device's state and group object values, highlighted as they change, with the latest transition's name. */
 export function StateInspector() {
   const bench = useSimState((s) => s.bench);
-  const devices = useSimState((s) => s.devices);
+  const devices = useThrottledSimState((s) => s.devices, 250);
   if (bench === null) return null;
   return (
     <ul className="space-y-3" aria-label="Devices">

@@ -1,6 +1,15 @@
 "use client";
 
-import { createContext, useContext, useEffect, useMemo, useRef, useState } from "react";
+import {
+  createContext,
+  useCallback,
+  useContext,
+  useEffect,
+  useMemo,
+  useRef,
+  useState,
+  useSyncExternalStore,
+} from "react";
 import { useStore } from "zustand";
 import { SimClient, startSimWorker } from "./sim-client";
 import type { SimCommand } from "./sim-protocol";
@@ -77,4 +86,38 @@ export function useSimState<T>(selector: (state: SimState & SimActions) => T): T
 /** The store itself, for reading the log ring outside React's render (export, windowing). */
 export function useSimStore(): SimStore {
   return useSimContext().store;
+}
+
+/**
+ * Like `useSimState`, but re-renders at most once per `intervalMs` of wall
+ * time: for heavy views (charts, the inspector) that need not follow every
+ * batch. The selector must return a value from the store, not a new object.
+ */
+export function useThrottledSimState<T>(
+  selector: (state: SimState & SimActions) => T,
+  intervalMs: number,
+): T {
+  const store = useSimStore();
+  const subscribe = useCallback(
+    (notify: () => void) => {
+      let timer: ReturnType<typeof setTimeout> | undefined;
+      let lastMs = 0;
+      const unsubscribe = store.subscribe(() => {
+        if (timer !== undefined) return;
+        const waitMs = Math.max(0, lastMs + intervalMs - Date.now());
+        timer = setTimeout(() => {
+          timer = undefined;
+          lastMs = Date.now();
+          notify();
+        }, waitMs);
+      });
+      return () => {
+        unsubscribe();
+        if (timer !== undefined) clearTimeout(timer);
+      };
+    },
+    [store, intervalMs],
+  );
+  const snapshot = () => selector(store.getState());
+  return useSyncExternalStore(subscribe, snapshot, snapshot);
 }
