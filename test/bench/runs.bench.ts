@@ -94,7 +94,7 @@ async function startServer(executor: "workers" | "inline") {
     if (server.exitCode === null) server.kill("SIGKILL");
     rmSync(dir, { recursive: true, force: true });
   };
-  return { baseURL, stop };
+  return { baseURL, stop, output: () => output };
 }
 
 async function signIn(baseURL: string): Promise<string> {
@@ -138,7 +138,7 @@ async function finished(baseURL: string, cookie: string, eventsUrl: string): Pro
 }
 
 async function measure(executor: "workers" | "inline") {
-  const { baseURL, stop } = await startServer(executor);
+  const { baseURL, stop, output } = await startServer(executor);
   try {
     const cookie = await signIn(baseURL);
     const suites = (await (
@@ -181,6 +181,10 @@ async function measure(executor: "workers" | "inline") {
     const loaded = await probe(baseURL, cookie, all);
     await all;
     const seconds = (performance.now() - started) / 1000;
+    // The pool says so on the server's stderr when it had to fall back to inline.
+    const fellBack = output().includes("running scenarios inline");
+    if (executor === "workers" && fellBack)
+      console.log("bench:runs: the worker pool fell back to inline!");
     return {
       executor,
       scenarios: SUITE_RUNS * scenariosPerSuite,

@@ -1,6 +1,7 @@
 import { performance } from "node:perf_hooks";
 import { runScenario } from "@/engine/scenario/run-scenario";
 import type { RunJob, RunJobOutcome } from "./run-job";
+import { resultForStorage } from "./stored-result";
 
 /** Wall-clock budget of one scenario on the server, milliseconds. */
 export const SERVER_SCENARIO_BUDGET_MS = 20_000;
@@ -18,7 +19,8 @@ export function executeRunJob(job: RunJob): RunJobOutcome {
       now: () => performance.now(),
       budgetMs: SERVER_SCENARIO_BUDGET_MS,
     });
-    return { runId: job.runId, ok: true, result };
+    // Trimmed here, in the worker, so only failing steps' trace slices cross to the main thread.
+    return { runId: job.runId, ok: true, result: resultForStorage(result) };
   } catch (error) {
     // A throw is an engine bug; the run is marked errored with the reason instead of hanging.
     return {
