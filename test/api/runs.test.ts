@@ -2,7 +2,9 @@ import { and, eq } from "drizzle-orm";
 import fc from "fast-check";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { getDb } from "@/db/client";
-import { latestRevision } from "@/db/queries/benches";
+import { duplicateBench } from "@/db/queries/bench-history";
+import { createBench, latestRevision } from "@/db/queries/benches";
+import { findUserByEmail } from "@/db/queries/users";
 import { findRun, listSuiteRunRuns } from "@/db/queries/runs";
 import { benches, scenarios, suites } from "@/db/schema";
 import { main as cliMain } from "@/engine/cli/main";
@@ -165,6 +167,51 @@ describe("POST /api/runs/start", () => {
       params({}),
     );
     expect(crossSite.status).toBe(403);
+  });
+
+  it("runs a scenario on a copy of its bench, and refuses a revision of an unrelated bench", async () => {
+    const db = getDb();
+    const scenario = scenarioByName("fernhill", "Door push-button toggles the ceiling lights");
+    const source = db.select().from(benches).where(eq(benches.id, scenario.benchId)).get()!;
+    const leo = findUserByEmail({ email: apprentice })!;
+    const copy = duplicateBench({
+      source,
+      document: latestRevision({ benchId: source.id })!.document,
+      name: "Leo's sandbox",
+      createdBy: leo.id,
+      privateOwnerId: leo.id,
+    });
+    const cookie = await cookieFor(apprentice);
+    const onCopy = await startRun(
+      postJson(
+        "/api/runs/start",
+        { scenarioId: scenario.id, benchRevisionId: copy.revision.id },
+        cookie,
+      ),
+      params({}),
+    );
+    expect(onCopy.status).toBe(202);
+    const { runId } = (await onCopy.json()) as { runId: string };
+    await waitForRun(runId);
+    const stored = findRun({ workspaceId: workspaceIdOf("fernhill"), runId })!;
+    expect(stored).toMatchObject({ verdict: "pass", benchRevisionId: copy.revision.id });
+
+    const unrelated = createBench({
+      values: { workspaceId: workspaceIdOf("fernhill"), name: "Unrelated", createdBy: leo.id },
+      document: latestRevision({ benchId: source.id })!.document,
+    });
+    const refused = await startRun(
+      postJson(
+        "/api/runs/start",
+        { scenarioId: scenario.id, benchRevisionId: unrelated.revision.id },
+        qaCookie,
+      ),
+      params({}),
+    );
+    expect(refused.status).toBe(400);
+    expect(((await refused.json()) as { error: { field: string } }).error.field).toBe(
+      "benchRevisionId",
+    );
   });
 
   it("lets an apprentice replay only on their own copies", async () => {

@@ -38,8 +38,10 @@ export function loadVisibleRunOrSuiteRun(
 }
 
 /**
- * The revision a scenario runs against: the one asked for (it must be a
- * revision of the scenario's bench), else the bench's latest.
+ * The revision a scenario runs against: the one asked for, else the latest of
+ * the scenario's bench. A revision asked for must be of the scenario's bench or
+ * of a copy made from it (an apprentice's sandbox or lab copy), and the member
+ * must be able to see that bench. Returns the bench the revision belongs to.
  */
 export function revisionForScenario(
   who: Who,
@@ -47,11 +49,13 @@ export function revisionForScenario(
   benchRevisionId: string | undefined,
   db: Db = getDb(),
 ) {
-  const bench = loadVisibleBench(who, benchId);
+  const scenarioBench = loadVisibleBench(who, benchId);
   if (benchRevisionId === undefined) {
     const latest = latestRevision({ db, benchId });
-    if (!latest) throw new AppError("conflict", `bench "${bench.name}" has no saved revision`);
-    return { bench, revision: latest };
+    if (!latest) {
+      throw new AppError("conflict", `bench "${scenarioBench.name}" has no saved revision`);
+    }
+    return { bench: scenarioBench, revision: latest };
   }
   const found = findRevisionInWorkspace({
     db,
@@ -61,10 +65,11 @@ export function revisionForScenario(
   if (!found) {
     throw new AppError("not_found", "bench revision not found", { field: "benchRevisionId" });
   }
-  if (found.bench.id !== bench.id) {
+  const bench = loadVisibleBench(who, found.bench.id);
+  if (bench.id !== scenarioBench.id && bench.copiedFromBenchId !== scenarioBench.id) {
     throw new AppError(
       "invalid_input",
-      `benchRevisionId: revision ${found.revision.number} belongs to bench "${found.bench.name}", not to "${bench.name}" the scenario runs on`,
+      `benchRevisionId: revision ${found.revision.number} belongs to bench "${bench.name}", which is neither "${scenarioBench.name}" (the scenario's bench) nor a copy of it`,
       { field: "benchRevisionId" },
     );
   }
