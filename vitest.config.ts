@@ -19,6 +19,8 @@ export default defineConfig({
             "db/**/*.test.ts",
             "app/**/*.test.ts",
             "test/**/*.test.ts",
+            // Pure logic beside components (models, protocols, filters) runs in node.
+            "components/**/*.test.ts",
           ],
           exclude: ["test/e2e/**", "node_modules/**"],
         },

@@ -1,5 +1,3 @@
-// @vitest-environment node
-// (.tsx only so the components project picks it up; the host is plain TypeScript and runs in node.)
 import { describe, expect, it } from "vitest";
 import { recordScenario, type RecordedAction } from "@/engine/scenario/recorder";
 import { scenarioSchema } from "@/engine/scenario/scenario-schema";

@@ -1,4 +1,3 @@
-// @vitest-environment node
 import { describe, expect, it } from "vitest";
 import { LogRing } from "@/components/sim/log-ring";
 import type { LogRow } from "@/components/sim/sim-protocol";
