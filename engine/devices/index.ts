@@ -12,11 +12,18 @@ import "./wall-controller";
 import "./room-temperature-sensor";
 import "./presence-detector";
 import "./binary-input";
+import "./control-panel";
 
 export { getDeviceType, listDeviceTypes, registerDeviceType } from "./catalogue";
 export * from "./device-type";
 export { pushButtonType, type PushButtonParameters, type PushButtonState } from "./push-button";
-export { switchActuatorType, statusObject, switchObject, type SwitchActuatorParameters, type SwitchActuatorState } from "./switch-actuator";
+export {
+  switchActuatorType,
+  statusObject,
+  switchObject,
+  type SwitchActuatorParameters,
+  type SwitchActuatorState,
+} from "./switch-actuator";
 export {
   hvacGatewayType,
   gatewayObjects,
@@ -41,6 +48,12 @@ export {
   type PresenceDetectorParameters,
 } from "./presence-detector";
 export { binaryInputType, BINARY_INPUT_OBJECT, type BinaryInputParameters } from "./binary-input";
+export {
+  controlPanelType,
+  controlPanelButtonId,
+  type ControlPanelParameters,
+  type ControlPanelTile,
+} from "./control-panel";
 export {
   checkHvacBench,
   validateHvacBench,
