@@ -37,6 +37,10 @@ export type RunVerdict = (typeof runVerdicts)[number];
 export const outboxStatuses = ["pending", "sent", "failed"] as const;
 export type OutboxStatus = (typeof outboxStatuses)[number];
 
+/** What an upload is for; an upload with a purpose belongs to one bench. */
+export const uploadPurposes = ["floor-plan"] as const;
+export type UploadPurpose = (typeof uploadPurposes)[number];
+
 const id = () =>
   text("id")
     .primaryKey()
@@ -360,7 +364,10 @@ export const runs = sqliteTable(
 
 // ---------------------------------------------------------------- files and mail
 
-/** Files members upload (bench or scenario JSON to import); small, so kept in the database. */
+/**
+ * Files members upload (bench or scenario JSON to import, a bench's floor-plan
+ * image); small, so kept in the database.
+ */
 export const uploads = sqliteTable(
   "uploads",
   {
@@ -369,6 +376,10 @@ export const uploads = sqliteTable(
       .notNull()
       .references(() => workspaces.id, { onDelete: "cascade" }),
     uploadedBy: text("uploaded_by").references(() => users.id, { onDelete: "set null" }),
+    /** The bench the file belongs to (a floor plan); goes with the bench. */
+    benchId: text("bench_id").references(() => benches.id, { onDelete: "cascade" }),
+    /** What the file is for on its bench; null for a plain upload. */
+    purpose: text("purpose", { enum: uploadPurposes }),
     fileName: text("file_name").notNull(),
     contentType: text("content_type").notNull(),
     sizeBytes: integer("size_bytes").notNull(),
@@ -376,7 +387,17 @@ export const uploads = sqliteTable(
     content: blob("content", { mode: "buffer" }).notNull(),
     createdAt: createdAt(),
   },
-  (t) => [index("uploads_workspace_idx").on(t.workspaceId)],
+  (t) => [
+    index("uploads_workspace_idx").on(t.workspaceId),
+    index("uploads_bench_idx").on(t.benchId),
+    // A bench has at most one floor plan: a new one replaces the old in one transaction.
+    uniqueIndex("uploads_bench_floor_plan_unique")
+      .on(t.benchId)
+      .where(sql.raw("purpose = 'floor-plan'")),
+    check("uploads_purpose_check", inList("purpose", uploadPurposes)),
+    // A purpose only means something on a bench.
+    check("uploads_purpose_bench_check", sql.raw("purpose is null or bench_id is not null")),
+  ],
 );
 
 /**

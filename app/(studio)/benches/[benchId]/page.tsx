@@ -4,7 +4,7 @@ import { can, canOn } from "@/app/_lib/capabilities";
 import { requireCapability } from "@/app/_lib/dal";
 import { benchSchema } from "@/engine/bench";
 import { findBench, latestRevision } from "@/db/queries/benches";
-import { findFloorPlan } from "@/app/api/benches/[benchId]/floor-plan/floor-plan-store";
+import { findFloorPlan } from "@/db/queries/uploads";
 import { EditorPage } from "./editor-page";
 
 export const metadata: Metadata = { title: "Bench editor" };

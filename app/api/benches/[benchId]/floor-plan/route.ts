@@ -2,7 +2,7 @@ import { authorize, authorizeOn, verifyApiSession } from "@/app/_lib/dal";
 import { AppError } from "@/app/_lib/errors";
 import { json, route, type RouteParams } from "@/app/_lib/http";
 import { loadVisibleBench, resourceIdSchema } from "@/app/_lib/resources";
-import { findFloorPlan, removeFloorPlan, replaceFloorPlan } from "./floor-plan-store";
+import { findFloorPlan, removeFloorPlan, replaceFloorPlan } from "@/db/queries/uploads";
 import { sanitizeSvg } from "./sanitize-svg";
 
 type Params = RouteParams<{ benchId: string }>;
