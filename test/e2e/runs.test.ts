@@ -85,6 +85,39 @@ describe("server runs in headless Chromium", () => {
     await form.getByRole("status").getByText("Sent to ada.trainer@fernhill.example.").waitFor();
   });
 
+  it("edits a scenario with the parser's messages, and runs it now with a progress bar", async () => {
+    await page.goto(page.url().replace(/\/runs\/.*$/, "/scenarios"));
+    await page
+      .getByRole("link", { name: "Front unit fan levels, clamping and automatic fan" })
+      .click();
+    await page.waitForURL(/\/scenarios\/[^/]+$/);
+    const steps = page.getByRole("list", { name: "Steps" });
+    await steps.waitFor();
+    const before = await steps.getByRole("listitem").count();
+    await page.getByLabel("Kind of new step").selectOption("wait");
+    await page.getByRole("button", { name: "Add step" }).click();
+    expect(await steps.getByRole("listitem").count()).toBe(before + 1);
+    const waitFor = page.getByLabel("Wait for").last();
+    await waitFor.fill("soon");
+    // The engine's parser names the step and field at fault.
+    const problems = page.getByRole("alert", { name: "Problems" });
+    await problems.getByText(`steps[${before}].for`).waitFor();
+    await waitFor.fill("2s");
+    await problems.waitFor({ state: "detached" });
+
+    await page.getByRole("tab", { name: "Raw JSON" }).click();
+    expect(await page.getByLabel("Scenario document (JSON, format 1)").inputValue()).toContain(
+      '"for": "2s"',
+    );
+    await page.getByRole("tab", { name: "Steps" }).click();
+
+    const run = page.getByRole("region", { name: "Run", exact: true });
+    await run.getByRole("button", { name: "Run now" }).click();
+    await run.getByRole("progressbar", { name: "Run now progress" }).waitFor();
+    await run.getByRole("link", { name: "View result" }).waitFor({ timeout: 60_000 });
+    expect(await run.getByText("passed", { exact: true }).isVisible()).toBe(true);
+  });
+
   it("logs no page errors", () => {
     expect(pageErrors).toEqual([]);
   });
