@@ -4,8 +4,6 @@ import type { RouteParams } from "@/app/_lib/http";
 import { loadVisibleRunOrSuiteRun } from "@/app/_lib/runs/run-access";
 import { type RunProgressEvent, subscribeToRun } from "@/app/_lib/runs/run-events";
 
-export const dynamic = "force-dynamic";
-
 /** A comment line every so often keeps proxies from closing a quiet stream. */
 const HEARTBEAT_MS = 15_000;
 
