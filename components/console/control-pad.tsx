@@ -6,10 +6,12 @@ import type { BenchGroupAddressSummary } from "@/components/sim/sim-protocol";
 import { Button } from "@/components/ui/button";
 import { Mono } from "@/components/ui/mono";
 import { getDpt } from "@/engine/dpt";
+import { ControlTiles } from "./control-tiles";
 import { checkDptValue, defaultDptValue } from "./dpt-value";
+import { LocalButtons } from "./local-buttons";
 import { ValueEditor } from "./value-editor";
 
-/** Pick a group address by address or name, write a value made for its DPT or read it; quick tiles and local buttons below. */
+/** Pick a group address by address or name, write a value made for its DPT or read it; control-panel tiles and local buttons below. */
 export function ControlPad() {
   const bench = useSimState((s) => s.bench);
   const send = useSimSend();
@@ -34,7 +36,10 @@ export function ControlPad() {
   };
   const check = selected === null ? null : checkDptValue(selected.dpt, value);
   const codec = selected === null ? undefined : getDpt(selected.dpt);
-  const buttonDevices = bench.devices.filter((d) => d.buttons.length > 0);
+  // Control panels' buttons are their tiles, shown above with their values.
+  const buttonDevices = bench.devices.filter(
+    (d) => d.buttons.length > 0 && d.type !== "control-panel",
+  );
 
   return (
     <div className="space-y-4">
@@ -106,54 +111,14 @@ export function ControlPad() {
           </div>
         </div>
       ) : null}
-      {bench.controlPanelTiles.length > 0 ? (
-        <div>
-          <h3 className="text-xs font-medium text-ink-soft">Control panel</h3>
-          <div className="mt-1 flex flex-wrap gap-2">
-            {bench.controlPanelTiles.map((tile, i) => (
-              <Button
-                key={`${tile.deviceId}-${i}`}
-                variant="secondary"
-                onClick={() =>
-                  send({ type: "write", groupAddress: tile.groupAddress, value: tile.value })
-                }
-              >
-                {tile.label}
-              </Button>
-            ))}
-          </div>
-        </div>
-      ) : null}
+      <ControlTiles />
       {buttonDevices.length > 0 ? (
         <div>
           <h3 className="text-xs font-medium text-ink-soft">Local buttons</h3>
           <ul className="mt-1 space-y-2">
             {buttonDevices.map((device) => (
-              <li
-                key={device.id}
-                className="rounded-md border border-paper-line bg-white/60 p-2"
-                aria-label={`Buttons of ${device.name}`}
-              >
-                <p className="text-xs">
-                  {device.name}{" "}
-                  {device.individualAddress ? (
-                    <Mono className="text-ink-soft">{device.individualAddress}</Mono>
-                  ) : null}
-                </p>
-                <div className="mt-1 flex flex-wrap gap-1.5">
-                  {device.buttons.map((button) => (
-                    <button
-                      key={button.id}
-                      type="button"
-                      className="rounded border border-graphite-line bg-graphite px-2 py-1 text-xs text-graphite-text hover:bg-graphite-raised"
-                      onClick={() =>
-                        send({ type: "press", deviceId: device.id, buttonId: button.id })
-                      }
-                    >
-                      {button.label}
-                    </button>
-                  ))}
-                </div>
+              <li key={device.id} className="rounded-md border border-paper-line bg-white/60 p-2">
+                <LocalButtons device={device} />
               </li>
             ))}
           </ul>

@@ -1,5 +1,11 @@
 import { formatGroupAddress, formatIndividualAddress } from "@/engine/address";
 import type { LoadedBench } from "@/engine/bench";
+import {
+  controlPanelButtonId,
+  controlPanelType,
+  isCommandTile,
+  type ControlPanelParameters,
+} from "@/engine/devices/control-panel";
 import type { BenchSummary } from "./sim-protocol";
 
 /** Device types whose parameters carry a controller role on the unit link. */
@@ -62,23 +68,29 @@ export function summarizeBench(loaded: LoadedBench): BenchSummary {
 }
 
 /**
- * Tiles of any control-panel device on the bench. The catalogue has no such
- * type yet, so the parameters are read leniently: `tiles: [{ label,
- * groupAddress, value }]`; anything else is ignored.
+ * Tiles of every control-panel device on the bench, from the parameters the
+ * loader already parsed with the type's schema.
  */
 function controlPanelTiles(loaded: LoadedBench): BenchSummary["controlPanelTiles"] {
   const tiles: BenchSummary["controlPanelTiles"] = [];
-  for (const device of loaded.bench.devices) {
-    if (device.type !== "control-panel") continue;
-    const list = (device.parameters as { tiles?: unknown }).tiles;
-    if (!Array.isArray(list)) continue;
-    for (const tile of list as unknown[]) {
-      if (typeof tile !== "object" || tile === null) continue;
-      const { label, groupAddress, value } = tile as Record<string, unknown>;
-      if (typeof label === "string" && typeof groupAddress === "string") {
-        tiles.push({ deviceId: device.id, label, groupAddress, value });
-      }
-    }
+  for (const device of loaded.devices) {
+    if (device.type.id !== controlPanelType.id) continue;
+    const parameters = device.parameters as ControlPanelParameters;
+    parameters.tiles.forEach((tile, index) => {
+      const object = device.objects.find((o) => o.number === index);
+      const sending = object?.groupAddresses[0];
+      tiles.push({
+        deviceId: device.id,
+        deviceName: device.name,
+        object: index,
+        label: tile.label,
+        kind: tile.kind,
+        dpt: tile.dpt,
+        buttonId: isCommandTile(tile) ? controlPanelButtonId(index) : null,
+        groupAddress: sending === undefined ? null : formatGroupAddress(sending),
+        value: tile.value,
+      });
+    });
   }
   return tiles;
 }

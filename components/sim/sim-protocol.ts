@@ -209,12 +209,21 @@ export const benchSummarySchema = z.object({
     }),
   ),
   unitLinks: z.array(z.object({ id: z.string(), name: z.string(), members: z.array(z.string()) })),
-  /** Tiles of control-panel devices: a label and the write it sends. */
+  /** Tiles of control-panel devices (engine/devices/control-panel), in bench order. */
   controlPanelTiles: z.array(
     z.object({
       deviceId: z.string(),
+      deviceName: z.string(),
+      /** The tile's group object number (= tile index). */
+      object: z.number().int(),
       label: z.string(),
-      groupAddress: z.string(),
+      kind: z.enum(["toggle", "value", "scene", "status"]),
+      dpt: z.string(),
+      /** Local button a press goes through; null for a status tile. */
+      buttonId: z.string().nullable(),
+      /** The object's first linked address (where a command tile sends), null when not linked. */
+      groupAddress: z.string().nullable(),
+      /** Preset a value or scene tile sends; undefined for toggle and status tiles. */
       value: z.unknown(),
     }),
   ),
