@@ -1,5 +1,6 @@
 "use client";
 
+import { useQueryClient } from "@tanstack/react-query";
 import { ReactFlowProvider } from "@xyflow/react";
 import { useEffect, useMemo, useRef, useState } from "react";
 import { useStore } from "zustand";
@@ -18,6 +19,8 @@ import { renameDevice, setIndividualAddress } from "./model/devices";
 import { summarizeChanges } from "./model/summarize-changes";
 import { ObjectList } from "./object-list";
 import { ParameterPanel } from "./parameter-panel";
+import { RevisionHistory, revisionQueryKeys, type RevisionEntry } from "./revision-history";
+import { RevisionView } from "./revision-view";
 import { EditorStoreProvider, useEditor, useEditorStoreApi } from "./store/editor-context";
 import { createEditorStore } from "./store/editor-store";
 
@@ -32,9 +35,23 @@ export interface BenchEditorActions {
   ): Promise<{ message: string; issues?: readonly ImportIssue[] }>;
   /** Uploads a floor-plan image; resolves to the URL to draw. */
   uploadFloorPlan(file: File): Promise<string>;
+  /** The bench's saved revisions, newest first. */
+  listRevisions(): Promise<readonly RevisionEntry[]>;
+  /** One saved revision's bench; rejects with a readable message. */
+  loadRevision(number: number): Promise<Bench>;
+}
+
+/** Where the editor links to; null when the member may not open the page. */
+export interface BenchEditorLinks {
+  /** This bench running in the live console. */
+  readonly live: string | null;
+  /** The scenarios written against this bench. */
+  readonly scenarios: string | null;
 }
 
 export interface BenchEditorProps {
+  /** The stored bench's id (query keys for its history). */
+  readonly benchId: string;
   readonly bench: Bench;
   readonly revision: {
     readonly number: number;
@@ -44,9 +61,10 @@ export interface BenchEditorProps {
   readonly canEdit: boolean;
   readonly floorPlanUrl: string | null;
   readonly actions: BenchEditorActions;
+  readonly links: BenchEditorLinks;
 }
 
-type SideTab = "selection" | "addresses" | "checks";
+type SideTab = "selection" | "addresses" | "checks" | "history";
 
 /** Floor plans are drawn at their natural size, or this when an SVG has none. */
 const DEFAULT_PLAN_SIZE = { width: 1600, height: 1000 };
@@ -85,12 +103,15 @@ function useFloorPlan(url: string | null): FloorPlanNodeData | null {
 }
 
 function EditorLayout({
+  benchId,
   revision: initialRevision,
   canEdit,
   floorPlanUrl: initialPlanUrl,
   actions,
+  links,
 }: BenchEditorProps) {
   const storeApi = useEditorStoreApi();
+  const queryClient = useQueryClient();
   const bench = useEditor((s) => s.bench);
   const savedBench = useEditor((s) => s.savedBench);
   const selection = useEditor((s) => s.selection);
@@ -107,6 +128,9 @@ function EditorLayout({
   } | null>(null);
   const [planUrl, setPlanUrl] = useState(initialPlanUrl);
   const [planError, setPlanError] = useState<string | null>(null);
+  // An earlier revision on view (read only) instead of the editing canvas.
+  const [viewing, setViewing] = useState<number | null>(null);
+  const [restoring, setRestoring] = useState(false);
   const importInput = useRef<HTMLInputElement>(null);
   const planInput = useRef<HTMLInputElement>(null);
   const floorPlan = useFloorPlan(planUrl);
@@ -137,6 +161,7 @@ function EditorLayout({
       const saved = await actions.save(bench, summary);
       storeApi.getState().markSaved(bench);
       setRevision({ number: saved.revision, summary, createdAt: new Date().toISOString() });
+      void queryClient.invalidateQueries({ queryKey: revisionQueryKeys.list(benchId) });
       storeApi
         .getState()
         .notify({ tone: "info", text: `Saved revision ${saved.revision}: ${summary}` });
@@ -144,6 +169,40 @@ function EditorLayout({
       setSaveError(error instanceof Error ? error.message : "the bench could not be saved");
     } finally {
       setSaving(false);
+    }
+  };
+
+  // Restoring saves the old document as a new revision; the history itself is never rewritten.
+  const restore = async (number: number, restored: Bench) => {
+    if (
+      dirty &&
+      !window.confirm(
+        `Restoring revision ${number} replaces the bench in the editor. Discard your unsaved changes?`,
+      )
+    )
+      return;
+    const restoreSummary = `Restored revision ${number}`;
+    setRestoring(true);
+    setSaveError(null);
+    try {
+      const saved = await actions.save(restored, restoreSummary);
+      storeApi.getState().replaceBench(restored, restoreSummary);
+      storeApi.getState().markSaved(restored);
+      setRevision({
+        number: saved.revision,
+        summary: restoreSummary,
+        createdAt: new Date().toISOString(),
+      });
+      setViewing(null);
+      void queryClient.invalidateQueries({ queryKey: revisionQueryKeys.list(benchId) });
+      storeApi.getState().notify({
+        tone: "info",
+        text: `Saved revision ${saved.revision}: ${restoreSummary}`,
+      });
+    } catch (error) {
+      setSaveError(error instanceof Error ? error.message : "the revision could not be restored");
+    } finally {
+      setRestoring(false);
     }
   };
 
@@ -215,6 +274,24 @@ function EditorLayout({
           errors
         </span>
         <div className="ml-auto flex flex-wrap items-center gap-2">
+          {/* Plain links on purpose: a full navigation lets the unsaved-changes prompt speak. */}
+          {links.live ? (
+            <a
+              href={links.live}
+              className="rounded-md px-2 py-1 text-sm text-copper-deep underline"
+              title="The live console runs the last saved revision"
+            >
+              Live console
+            </a>
+          ) : null}
+          {links.scenarios ? (
+            <a
+              href={links.scenarios}
+              className="rounded-md px-2 py-1 text-sm text-copper-deep underline"
+            >
+              Scenarios
+            </a>
+          ) : null}
           <Button
             variant="secondary"
             onClick={() => storeApi.getState().undo()}
@@ -346,7 +423,22 @@ function EditorLayout({
           </p>
         </aside>
         <div className="min-w-0 flex-1">
-          <BenchCanvas findings={findings} floorPlan={floorPlan} />
+          {viewing !== null ? (
+            <RevisionView
+              key={viewing}
+              benchId={benchId}
+              number={viewing}
+              loadRevision={actions.loadRevision}
+              current={bench}
+              floorPlan={floorPlan}
+              canRestore={canEdit}
+              restoring={restoring}
+              onRestore={(restored) => void restore(viewing, restored)}
+              onClose={() => setViewing(null)}
+            />
+          ) : (
+            <BenchCanvas findings={findings} floorPlan={floorPlan} />
+          )}
         </div>
         <aside className="flex w-[26rem] shrink-0 flex-col border-l border-paper-line bg-paper">
           <div
@@ -359,6 +451,7 @@ function EditorLayout({
                 ["selection", "Selection"],
                 ["addresses", `Addresses (${bench.groupAddresses.length})`],
                 ["checks", `Checks (${findings.length})`],
+                ["history", "History"],
               ] as const
             ).map(([key, label]) => (
               <button
@@ -366,7 +459,11 @@ function EditorLayout({
                 role="tab"
                 type="button"
                 aria-selected={tab === key}
-                onClick={() => setTab(key)}
+                onClick={() => {
+                  setTab(key);
+                  // The other panels speak of the bench in the editor, so its canvas comes back.
+                  if (key !== "history") setViewing(null);
+                }}
                 className={`flex-1 px-2 py-2 ${tab === key ? "border-b-2 border-copper font-semibold" : "text-ink-soft"}`}
               >
                 {label}
@@ -384,8 +481,16 @@ function EditorLayout({
               )
             ) : tab === "addresses" ? (
               <AddressTable bench={bench} findings={findings} />
-            ) : (
+            ) : tab === "checks" ? (
               <CheckList findings={findings} />
+            ) : (
+              <RevisionHistory
+                benchId={benchId}
+                listRevisions={actions.listRevisions}
+                currentNumber={revision?.number ?? null}
+                openNumber={viewing}
+                onOpen={setViewing}
+              />
             )}
           </div>
         </aside>

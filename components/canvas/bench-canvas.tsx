@@ -66,6 +66,13 @@ function isTyping(target: EventTarget | null): boolean {
 export interface BenchCanvasProps {
   readonly findings?: readonly CheckFinding[];
   readonly floorPlan?: FloorPlanNodeData | null;
+  /**
+   * An earlier revision on view: nodes can be selected, searched and fitted
+   * but not moved, wired, dropped, deleted or pasted.
+   */
+  readonly readOnly?: boolean;
+  /** The canvas's accessible name; two canvases on one page need different names. */
+  readonly label?: string;
 }
 
 /**
@@ -73,7 +80,12 @@ export interface BenchCanvasProps {
  * (connect, move, delete, paste) goes through the model's pure edits, so the
  * canvas never holds a second copy of the bench beyond the drag in progress.
  */
-export function BenchCanvas({ findings, floorPlan }: BenchCanvasProps) {
+export function BenchCanvas({
+  findings,
+  floorPlan,
+  readOnly = false,
+  label = "Bench canvas",
+}: BenchCanvasProps) {
   const storeApi = useEditorStoreApi();
   const bench = useEditor((s) => s.bench);
   const selection = useEditor((s) => s.selection);
@@ -219,6 +231,8 @@ export function BenchCanvas({ findings, floorPlan }: BenchCanvasProps) {
       if (isTyping(event.target)) return;
       const state = storeApi.getState();
       const mod = event.ctrlKey || event.metaKey;
+      const edits = event.key === "Delete" || event.key === "Backspace" || mod;
+      if (readOnly && edits && !(mod && event.key.toLowerCase() === "f")) return;
       if (event.key === "Delete" || event.key === "Backspace") {
         event.preventDefault();
         deleteSelected();
@@ -244,7 +258,7 @@ export function BenchCanvas({ findings, floorPlan }: BenchCanvasProps) {
         void flow.fitView({ padding: 0.1, duration: 200 });
       }
     },
-    [storeApi, deleteSelected, flow],
+    [storeApi, deleteSelected, flow, readOnly],
   );
 
   // Centre a node another panel asked for (address table, check list, search).
@@ -296,10 +310,9 @@ export function BenchCanvas({ findings, floorPlan }: BenchCanvasProps) {
     <div
       className="relative h-full w-full bg-graphite"
       onKeyDown={onKeyDown}
-      onDragOver={onDragOver}
-      onDrop={onDrop}
+      {...(readOnly ? {} : { onDragOver, onDrop })}
       role="application"
-      aria-label="Bench canvas"
+      aria-label={label}
       tabIndex={-1}
     >
       <EdgeMarkers />
@@ -312,6 +325,8 @@ export function BenchCanvas({ findings, floorPlan }: BenchCanvasProps) {
         onEdgesChange={onEdgesChange}
         onNodeDragStop={onNodeDragStop}
         onConnect={onConnect}
+        nodesDraggable={!readOnly}
+        nodesConnectable={!readOnly}
         connectionMode={ConnectionMode.Loose}
         deleteKeyCode={null}
         onlyRenderVisibleElements={nodes.length > VISIBLE_ONLY_THRESHOLD}

@@ -1,24 +1,29 @@
 import { and, asc, desc, eq, isNull, or } from "drizzle-orm";
 import { type Db, getDb } from "../client";
 import { wrapDriverError } from "../db-error";
-import { benches, benchRevisions } from "../schema";
+import { benches, benchRevisions, users } from "../schema";
 
 /**
  * Bench queries beyond the basics in benches.ts: revision history, archiving,
  * duplicating and the listing trainers and admins see (with private copies).
  */
 
-/** Every revision of a bench, newest first, without the documents. */
+/**
+ * Every revision of a bench, newest first, without the documents; the author's
+ * name is null once their account is gone.
+ */
 export function listRevisions({ db = getDb(), benchId }: { db?: Db; benchId: string }) {
   return db
     .select({
       id: benchRevisions.id,
       number: benchRevisions.number,
       authorId: benchRevisions.authorId,
+      authorName: users.name,
       summary: benchRevisions.summary,
       createdAt: benchRevisions.createdAt,
     })
     .from(benchRevisions)
+    .leftJoin(users, eq(benchRevisions.authorId, users.id))
     .where(eq(benchRevisions.benchId, benchId))
     .orderBy(desc(benchRevisions.number))
     .all();

@@ -1,9 +1,14 @@
 "use client";
 
 import { useRef } from "react";
-import type { Bench } from "@/engine/bench";
-import { BenchEditor, type BenchEditorActions } from "@/components/bench-editor/bench-editor";
-import { ApiError, sendJson } from "../../_shell/api-client";
+import { benchSchema, type Bench } from "@/engine/bench";
+import {
+  BenchEditor,
+  type BenchEditorActions,
+  type BenchEditorLinks,
+} from "@/components/bench-editor/bench-editor";
+import type { RevisionEntry } from "@/components/bench-editor/revision-history";
+import { ApiError, getJson, sendJson } from "../../_shell/api-client";
 
 interface EditorPageProps {
   readonly benchId: string;
@@ -15,6 +20,7 @@ interface EditorPageProps {
   };
   readonly canEdit: boolean;
   readonly floorPlanUrl: string | null;
+  readonly links: BenchEditorLinks;
 }
 
 function messageOf(error: unknown): string {
@@ -22,8 +28,15 @@ function messageOf(error: unknown): string {
   return error instanceof Error ? error.message : "something went wrong";
 }
 
-/** Wires the editor to the bench API: save as a revision, import, floor-plan upload. */
-export function EditorPage({ benchId, bench, revision, canEdit, floorPlanUrl }: EditorPageProps) {
+/** Wires the editor to the bench API: save as a revision, import, floor-plan upload, history. */
+export function EditorPage({
+  benchId,
+  bench,
+  revision,
+  canEdit,
+  floorPlanUrl,
+  links,
+}: EditorPageProps) {
   // The revision the next save builds on; a save refused with 409 means someone else saved since.
   const baseRevision = useRef(revision.number);
   const actions: BenchEditorActions = {
@@ -80,14 +93,47 @@ export function EditorPage({ benchId, bench, revision, canEdit, floorPlanUrl }: 
         throw new Error(body.error?.message ?? `the server answered ${response.status}`);
       return body.floorPlan.url;
     },
+    async listRevisions() {
+      try {
+        const body = await getJson<{ revisions: RevisionEntry[] }>(
+          `/api/benches/${benchId}/revisions`,
+        );
+        return body.revisions;
+      } catch (error) {
+        throw new Error(messageOf(error));
+      }
+    },
+    async loadRevision(number) {
+      let document: unknown;
+      try {
+        ({
+          revision: { document },
+        } = await getJson<{ revision: { document: unknown } }>(
+          `/api/benches/${benchId}/revisions/${number}`,
+        ));
+      } catch (error) {
+        throw new Error(messageOf(error));
+      }
+      // Parsed like the latest revision on the server, so the defaults are filled.
+      const parsed = benchSchema.safeParse(document);
+      if (!parsed.success) {
+        const issue = parsed.error.issues[0];
+        throw new Error(
+          `it no longer reads as a bench${issue ? ` (${issue.path.join(".") || "document"}: ${issue.message})` : ""}`,
+        );
+      }
+      return parsed.data;
+    },
   };
   return (
     <BenchEditor
+      benchId={benchId}
       bench={bench}
       revision={revision}
       canEdit={canEdit}
       floorPlanUrl={floorPlanUrl}
       actions={actions}
+      links={links}
     />
   );
 }

@@ -40,6 +40,13 @@ export default async function BenchEditorPage({
         createdAt: revision.createdAt.toISOString(),
       }}
       canEdit={canOn(session, "benches.edit", bench.privateOwnerId)}
+      links={{
+        live: canOn(session, "console.use", bench.privateOwnerId)
+          ? `/benches/${bench.id}/live`
+          : null,
+        // Scenarios are listed per bench on one page; there is no page per bench.
+        scenarios: can(session.role, "scenarios.read") ? "/scenarios" : null,
+      }}
       floorPlanUrl={
         plan ? `/api/benches/${bench.id}/floor-plan?v=${plan.sha256.slice(0, 12)}` : null
       }

@@ -6,7 +6,7 @@ import { listRevisions } from "@/db/queries/bench-history";
 
 type Params = RouteParams<{ benchId: string }>;
 
-/** The bench's revision history, newest first (numbers, authors, summaries; no documents). */
+/** The bench's revision history, newest first (numbers, authors with names, summaries; no documents). */
 export const GET = route(async (request, context: Params) => {
   const parsed = resourceIdSchema.safeParse((await context.params).benchId);
   if (!parsed.success) throw new AppError("not_found", "no such bench");
