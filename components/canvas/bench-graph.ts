@@ -34,6 +34,8 @@ export type DeviceNodeData = {
   readonly severity?: CheckSeverity;
   /** Object row highlighted from a finding or the object list. */
   readonly focusObject?: number;
+  /** Faults active on the device in a running simulation (live console); drawn in fault red. */
+  readonly faults?: readonly string[];
 };
 
 export type BusBarNodeData = {
@@ -122,6 +124,8 @@ export interface GraphOptions {
   readonly selectedAddresses?: ReadonlySet<string>;
   readonly focusObject?: number;
   readonly floorPlan?: FloorPlanNodeData | null;
+  /** Active fault ids per device id, from a running simulation. */
+  readonly faults?: ReadonlyMap<string, readonly string[]>;
 }
 
 /** The canvas view of a bench: one card per device, one bus-bar per group address, one edge per link and unit link. */
@@ -213,6 +217,7 @@ export function benchGraph(
       };
     });
     const severity = deviceSeverity.get(device.id);
+    const faults = options.faults?.get(device.id);
     const selected = options.selectedDevices?.has(device.id) ?? false;
     nodes.push({
       id: deviceNodeId(device.id),
@@ -225,6 +230,7 @@ export function benchGraph(
         objects,
         unitLinkPort: joinsUnitLinks(device.type),
         ...(severity === undefined ? {} : { severity }),
+        ...(faults === undefined || faults.length === 0 ? {} : { faults }),
         ...(selected && options.focusObject !== undefined
           ? { focusObject: options.focusObject }
           : {}),

@@ -21,16 +21,34 @@ const severityRing = {
  * link get a second port on the header for the unit link.
  */
 function DeviceNodeView({ data, selected }: NodeProps<DeviceNode>) {
-  const { device, objects } = data;
+  const { device, objects, faults } = data;
+  const faulty = faults !== undefined && faults.length > 0;
   return (
     <div
       className={cx(
-        "w-[248px] rounded-md border bg-graphite-raised text-graphite-text shadow-md",
+        "relative w-[248px] rounded-md border bg-graphite-raised text-graphite-text shadow-md",
         selected ? "border-copper-bright" : "border-graphite-line",
-        data.severity ? severityRing[data.severity] : "",
+        faulty ? "ring-2 ring-fault" : data.severity ? severityRing[data.severity] : "",
       )}
       data-testid={`device-card-${device.id}`}
+      data-faults={faulty ? faults.join(" ") : undefined}
     >
+      {faulty ? (
+        // Above the card, in the gap between cards, so the card keeps its laid-out height.
+        <ul
+          className="absolute bottom-full left-0 mb-1 flex max-w-full flex-wrap gap-1"
+          aria-label={`Faults of ${device.name}`}
+        >
+          {faults.map((fault) => (
+            <li
+              key={fault}
+              className="rounded bg-fault px-1.5 py-0.5 font-mono text-[10px] text-white"
+            >
+              {fault}
+            </li>
+          ))}
+        </ul>
+      ) : null}
       <div className="relative flex h-[52px] flex-col justify-center border-b border-graphite-line px-3">
         <div className="flex items-baseline justify-between gap-2">
           <span className="truncate text-sm font-semibold">{device.name}</span>
