@@ -73,6 +73,8 @@ export interface BenchCanvasProps {
   readonly readOnly?: boolean;
   /** The canvas's accessible name; two canvases on one page need different names. */
   readonly label?: string;
+  /** Active fault ids per device id from a running simulation (live console), drawn in fault red. */
+  readonly faults?: ReadonlyMap<string, readonly string[]>;
 }
 
 /**
@@ -85,6 +87,7 @@ export function BenchCanvas({
   floorPlan,
   readOnly = false,
   label = "Bench canvas",
+  faults,
 }: BenchCanvasProps) {
   const storeApi = useEditorStoreApi();
   const bench = useEditor((s) => s.bench);
@@ -101,8 +104,9 @@ export function BenchCanvas({
         selectedAddresses: new Set(selection.groupAddresses.map(groupAddressKey)),
         ...(selection.object === undefined ? {} : { focusObject: selection.object }),
         floorPlan: floorPlan ?? null,
+        ...(faults ? { faults } : {}),
       }),
-    [bench, findings, selection, floorPlan],
+    [bench, findings, selection, floorPlan, faults],
   );
   const [nodes, setNodes] = useState<BenchNode[]>(graph.nodes);
   const [edges, setEdges] = useState<BenchEdge[]>(graph.edges);
