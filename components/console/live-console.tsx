@@ -6,6 +6,7 @@ import { SimProvider, useSimState, useSimStore } from "@/components/sim/sim-cont
 import { Panel } from "@/components/ui/panel";
 import { ControlPad } from "./control-pad";
 import { FaultsPanel } from "./faults-panel";
+import { LiveCanvas } from "./live-canvas";
 import { RecordPanel } from "./record-panel";
 import { SceneDryRun } from "./scene-dry-run";
 import { StateInspector } from "./state-inspector";
@@ -27,12 +28,12 @@ export function LiveConsole({
 }) {
   return (
     <SimProvider bench={document} seed={seed}>
-      <ConsoleBody benchId={benchId} />
+      <ConsoleBody benchId={benchId} document={document} />
     </SimProvider>
   );
 }
 
-function ConsoleBody({ benchId }: { benchId: string }) {
+function ConsoleBody({ benchId, document }: { benchId: string; document: unknown }) {
   const status = useSimState((s) => s.status);
   const loadErrors = useSimState((s) => s.loadErrors);
   if (status === "failed") {
@@ -70,9 +71,14 @@ function ConsoleBody({ benchId }: { benchId: string }) {
           </Panel>
         </div>
         <div className="min-w-0 space-y-4">
-          <Panel title="Telegram log">
-            <TelegramLog />
-          </Panel>
+          <div className="grid gap-4 2xl:grid-cols-2">
+            <Panel title="Bench" className="min-w-0">
+              <LiveCanvas key={benchId} document={document} />
+            </Panel>
+            <Panel title="Telegram log" className="min-w-0">
+              <TelegramLog />
+            </Panel>
+          </div>
           <Panel title="Charts">
             <ConsoleCharts />
           </Panel>

@@ -1,0 +1,76 @@
+"use client";
+
+import { ReactFlowProvider } from "@xyflow/react";
+import { useMemo, useState } from "react";
+import { BenchCanvas } from "@/components/canvas/bench-canvas";
+import { EditorStoreProvider, useEditor } from "@/components/bench-editor/store/editor-context";
+import { createEditorStore } from "@/components/bench-editor/store/editor-store";
+import { useSimState } from "@/components/sim/sim-context";
+import { StatusBadge } from "@/components/ui/status-badge";
+import { benchSchema } from "@/engine/bench";
+import { faultsByDevice } from "./faults-by-device";
+import { LocalButtons } from "./local-buttons";
+
+/**
+ * The bench canvas beside the log, read only: the bench editor's canvas over
+ * its own store of the running bench, with devices that have active faults in
+ * fault red. Clicking a card shows that device's local buttons.
+ */
+export function LiveCanvas({ document }: { document: unknown }) {
+  const [store] = useState(() => {
+    const parsed = benchSchema.safeParse(document);
+    return parsed.success ? createEditorStore(parsed.data) : null;
+  });
+  // The worker reports a bench that does not parse; the canvas just stays away.
+  if (store === null) return null;
+  return (
+    <EditorStoreProvider store={store}>
+      <ReactFlowProvider>
+        <LiveCanvasBody />
+      </ReactFlowProvider>
+    </EditorStoreProvider>
+  );
+}
+
+function LiveCanvasBody() {
+  const bench = useSimState((s) => s.bench);
+  const faults = useSimState((s) => s.faults);
+  const selected = useEditor((s) => s.selection.devices);
+  const byDevice = useMemo(
+    () => (bench === null ? new Map<string, string[]>() : faultsByDevice(faults, bench)),
+    [faults, bench],
+  );
+  if (bench === null) return null;
+  const device =
+    selected.length === 1 ? bench.devices.find((d) => d.id === selected[0]) : undefined;
+  const deviceFaults = device === undefined ? [] : (byDevice.get(device.id) ?? []);
+
+  return (
+    <div className="space-y-2">
+      <div className="h-[26rem] overflow-hidden rounded-md">
+        <BenchCanvas readOnly label="Live bench canvas" faults={byDevice} />
+      </div>
+      <section aria-label="Selected device" className="text-sm">
+        {device === undefined ? (
+          <p className="text-xs text-ink-soft">
+            Click a device card to press its local buttons. Devices with an active fault are ringed
+            in red.
+          </p>
+        ) : (
+          <div className="rounded-md border border-paper-line bg-white/60 p-2">
+            <LocalButtons device={device} />
+            {deviceFaults.length > 0 ? (
+              <p className="mt-1 flex flex-wrap gap-1">
+                {deviceFaults.map((fault) => (
+                  <StatusBadge key={fault} tone="fault">
+                    {fault}
+                  </StatusBadge>
+                ))}
+              </p>
+            ) : null}
+          </div>
+        )}
+      </section>
+    </div>
+  );
+}
