@@ -279,17 +279,18 @@ function EditorLayout({
             <a
               href={links.live}
               className="rounded-md px-2 py-1 text-sm text-copper-deep underline"
-              title="The live console runs the last saved revision"
+              title="Opens the live console on the last saved revision"
             >
-              Live console
+              Run live
             </a>
           ) : null}
           {links.scenarios ? (
             <a
               href={links.scenarios}
               className="rounded-md px-2 py-1 text-sm text-copper-deep underline"
+              title="Scenarios are listed by bench"
             >
-              Scenarios
+              Bench scenarios
             </a>
           ) : null}
           <Button

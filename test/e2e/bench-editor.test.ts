@@ -1,5 +1,6 @@
 import type { Browser, Locator, Page } from "playwright-core";
 import { readFileSync } from "node:fs";
+import { deflateSync } from "node:zlib";
 import { afterAll, beforeAll, describe, expect, inject, it } from "vitest";
 import { largeBench } from "../bench/large-bench";
 import { launchChromium } from "./chromium";
@@ -22,6 +23,40 @@ async function drag(page: Page, from: Locator, to: Locator) {
   await page.mouse.move((a.x + b.x) / 2, (a.y + b.y) / 2, { steps: 8 });
   await page.mouse.move(b.x, b.y, { steps: 8 });
   await page.mouse.up();
+}
+
+// PNG spec §5.5: CRC-32 (ISO 3309 polynomial, reflected 0xEDB88320) over chunk type and data.
+function crc32(bytes: Buffer): number {
+  let crc = 0xffffffff;
+  for (const byte of bytes) {
+    crc ^= byte;
+    for (let bit = 0; bit < 8; bit++) crc = (crc >>> 1) ^ (0xedb88320 & -(crc & 1));
+  }
+  return (crc ^ 0xffffffff) >>> 0;
+}
+
+function pngChunk(type: string, data: Buffer): Buffer {
+  const length = Buffer.alloc(4);
+  length.writeUInt32BE(data.length);
+  const body = Buffer.concat([Buffer.from(type, "ascii"), data]);
+  const crc = Buffer.alloc(4);
+  crc.writeUInt32BE(crc32(body));
+  return Buffer.concat([length, body, crc]);
+}
+
+/** A plain grey RGB PNG (PNG spec §11.2.2 IHDR: bit depth 8, colour type 2; filter 0 per row). */
+function greyPng(width: number, height: number): Buffer {
+  const header = Buffer.alloc(13);
+  header.writeUInt32BE(width, 0);
+  header.writeUInt32BE(height, 4);
+  header.set([8, 2, 0, 0, 0], 8);
+  const row = Buffer.concat([Buffer.from([0]), Buffer.alloc(width * 3, 0x99)]);
+  return Buffer.concat([
+    Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]), // PNG spec §5.2 signature
+    pngChunk("IHDR", header),
+    pngChunk("IDAT", deflateSync(Buffer.concat(Array.from({ length: height }, () => row)))),
+    pngChunk("IEND", Buffer.alloc(0)),
+  ]);
 }
 
 describe("bench editor in headless Chromium", () => {
@@ -147,6 +182,56 @@ describe("bench editor in headless Chromium", () => {
     expect(exported.format).toBe(1);
     expect(exported.devices.map((d) => d.id)).toEqual(["push-button-1", "switch-actuator-1"]);
     expect(exported.links).toHaveLength(2);
+  });
+
+  it("draws an uploaded PNG floor plan under the canvas", async () => {
+    // Every PNG ends with the IEND chunk CRC AE 42 60 82 (recalled from memory, PNG spec §5.5).
+    expect(crc32(Buffer.from("IEND", "ascii"))).toBe(0xae426082);
+    await page.getByTestId("floor-plan-input").setInputFiles({
+      name: "ground-floor.png",
+      mimeType: "image/png",
+      buffer: greyPng(64, 40),
+    });
+    const plan = page
+      .getByRole("application", { name: "Bench canvas" })
+      .locator(".react-flow__node-floorPlan")
+      .getByRole("img", { name: "Floor plan" });
+    await plan.waitFor();
+    expect(await plan.getAttribute("src")).toMatch(/^\/api\/benches\/[^/]+\/floor-plan\?v=/);
+    // Decoded by the browser at its own size, so it really is the uploaded image.
+    await expect
+      .poll(() => plan.evaluate((img: HTMLImageElement) => [img.naturalWidth, img.naturalHeight]))
+      .toEqual([64, 40]);
+  });
+
+  it("lists the revisions after a save, opens an earlier one read-only and restores it", async () => {
+    const benchId = new URL(benchUrl).pathname.split("/").pop()!;
+    expect(await page.getByRole("link", { name: "Run live" }).getAttribute("href")).toBe(
+      `/benches/${benchId}/live`,
+    );
+    expect(await page.getByRole("link", { name: "Bench scenarios" }).getAttribute("href")).toBe(
+      "/scenarios",
+    );
+    await page.getByRole("tab", { name: "History" }).click();
+    const history = page.getByRole("list", { name: "Revision history" });
+    await history.waitFor();
+    const latest = history.getByRole("listitem", { name: "Revision 2" });
+    expect(await latest.innerText()).toContain("Tomas Ravelin");
+    expect(await latest.innerText()).toContain("current");
+    expect(await history.getByRole("listitem").count()).toBe(2);
+
+    await page.getByRole("button", { name: "Open revision 1 read-only" }).click();
+    const view = page.getByRole("region", { name: "Revision 1, read only" });
+    await view.getByRole("application", { name: "Revision 1 canvas" }).waitFor();
+    await expect.poll(() => view.innerText()).toContain("0 devices");
+    expect(await view.getByTestId("device-card-push-button-1").count()).toBe(0);
+
+    await view.getByRole("button", { name: "Restore as new revision" }).click();
+    await expect.poll(() => page.getByTestId("revision-label").innerText()).toBe("revision 3");
+    await expect
+      .poll(() => history.getByRole("listitem").first().innerText())
+      .toContain("Restored revision 1");
+    expect(await page.getByTestId("device-card-push-button-1").count()).toBe(0);
   });
 
   it("opens a generated 300-device, 1,000-address bench and pans it without errors", async () => {
