@@ -140,6 +140,8 @@ export function LabWorkbench({
     act(async () => {
       const data = await post(`/api/labs/assignments/${assignmentId}/submit`);
       setGrading(String(data.eventsUrl));
+      // The new attempt shows at once; the attempts list follows it until it is graded.
+      router.refresh();
     });
 
   return (

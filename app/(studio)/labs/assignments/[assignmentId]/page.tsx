@@ -9,6 +9,7 @@ import { findBench, latestRevision } from "@/db/queries/benches";
 import { listAttempts } from "@/db/queries/labs";
 import { AttemptChecks } from "@/components/labs/attempt-checks";
 import { LabWorkbench, type WorkbenchCopy } from "@/components/labs/lab-workbench";
+import { RefreshWhenFinished } from "@/components/runs/refresh-when-finished";
 import { VerdictBadge } from "@/components/runs/verdict-badge";
 import { PageHeader } from "@/components/ui/page-header";
 import { Panel } from "@/components/ui/panel";
@@ -104,6 +105,9 @@ export default async function AssignmentPage({
                       >
                         report
                       </Link>
+                    ) : null}
+                    {a.attempt.runId && (a.runStatus === "queued" || a.runStatus === "running") ? (
+                      <RefreshWhenFinished runId={a.attempt.runId} />
                     ) : null}
                   </span>
                   {result ? <AttemptChecks result={result} /> : null}
