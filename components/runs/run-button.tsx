@@ -14,7 +14,7 @@ interface Started {
 }
 
 /**
- * "Run now": starts a replay on the server (POST /api/runs/start), follows its
+ * "Run now": starts a replay on the server (POST /api/runs), follows its
  * progress over server-sent events, and links to the result when done.
  */
 export function RunButton({
@@ -48,7 +48,7 @@ export function RunButton({
     setPending(true);
     try {
       if (beforeRun && !(await beforeRun())) return;
-      const response = await fetch("/api/runs/start", {
+      const response = await fetch("/api/runs", {
         method: "POST",
         headers: { "Content-Type": "application/json" },
         body: JSON.stringify({ ...target, seed, benchRevisionId }),

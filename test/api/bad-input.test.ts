@@ -130,7 +130,7 @@ const writeRoutes: readonly WriteRoute[] = [
     name: "POST /api/runs",
     load: () => import("@/app/api/runs/route"),
     method: "POST",
-    schema: async () => (await import("@/app/api/runs/schema")).createRunBodySchema,
+    schema: async () => (await import("@/app/api/runs/schema")).startRunBodySchema,
     validBody: (w) => ({ scenarioId: w.a.scenarioId }),
     limit: defaultBodyLimitBytes,
   },

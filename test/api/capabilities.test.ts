@@ -141,7 +141,7 @@ describe("each role can do exactly what the capability table allows", () => {
       cookie,
       body: { scenarioId: world.a.scenarioId, benchRevisionId: world.sandboxRevisionId },
     });
-    expect(started.status).toBe(201);
+    expect(started.status, await started.clone().text()).toBe(202);
     const listed = (await (
       await call(runs.GET, { method: "GET", path: "/api/runs", cookie })
     ).json()) as {

@@ -9,7 +9,7 @@ import { findRun, listSuiteRunRuns } from "@/db/queries/runs";
 import { benches, scenarios, suites } from "@/db/schema";
 import { main as cliMain } from "@/engine/cli/main";
 import { GET as runEvents } from "@/app/api/runs/[runId]/events/route";
-import { POST as startRun } from "@/app/api/runs/start/route";
+import { POST as startRun } from "@/app/api/runs/route";
 import { startScenarioRun } from "@/app/_lib/runs/run-service";
 import { createRunPool } from "@/app/_lib/runs/run-pool";
 import { parseStoredResult } from "@/app/_lib/runs/stored-result";
@@ -56,11 +56,11 @@ beforeAll(async () => {
 
 afterAll(() => cleanup?.());
 
-describe("POST /api/runs/start", () => {
+describe("POST /api/runs", () => {
   it("starts a scenario run outside the request and stores verdicts, totals, duration, seed, revision and who ran it", async () => {
     const scenario = scenarioByName("fernhill", "Door push-button toggles the ceiling lights");
     const response = await startRun(
-      postJson("/api/runs/start", { scenarioId: scenario.id, seed: 7 }, qaCookie),
+      postJson("/api/runs", { scenarioId: scenario.id, seed: 7 }, qaCookie),
       params({}),
     );
     expect(response.status).toBe(202);
@@ -90,7 +90,7 @@ describe("POST /api/runs/start", () => {
       "Exercise: the door rocker should switch the bench lights",
     );
     const response = await startRun(
-      postJson("/api/runs/start", { scenarioId: scenario.id }, qaCookie),
+      postJson("/api/runs", { scenarioId: scenario.id }, qaCookie),
       params({}),
     );
     const { runId } = (await response.json()) as { runId: string };
@@ -112,7 +112,7 @@ describe("POST /api/runs/start", () => {
 
   it("names the field at fault and keeps other workspaces' scenarios out of reach", async () => {
     const call = async (body: unknown, cookie = qaCookie) => {
-      const response = await startRun(postJson("/api/runs/start", body, cookie), params({}));
+      const response = await startRun(postJson("/api/runs", body, cookie), params({}));
       return {
         status: response.status,
         body: (await response.json()) as { error: { code: string; field?: string } },
@@ -153,15 +153,15 @@ describe("POST /api/runs/start", () => {
     });
 
     // Not JSON, no session, wrong origin.
-    const notJson = await startRun(postJson("/api/runs/start", "{", qaCookie), params({}));
+    const notJson = await startRun(postJson("/api/runs", "{", qaCookie), params({}));
     expect(notJson.status).toBe(400);
     const noSession = await startRun(
-      postJson("/api/runs/start", { scenarioId: fernhillScenario.id }),
+      postJson("/api/runs", { scenarioId: fernhillScenario.id }),
       params({}),
     );
     expect(noSession.status).toBe(401);
     const crossSite = await startRun(
-      postJson("/api/runs/start", { scenarioId: fernhillScenario.id }, qaCookie, {
+      postJson("/api/runs", { scenarioId: fernhillScenario.id }, qaCookie, {
         origin: "http://elsewhere.example",
       }),
       params({}),
@@ -183,11 +183,7 @@ describe("POST /api/runs/start", () => {
     });
     const cookie = await cookieFor(apprentice);
     const onCopy = await startRun(
-      postJson(
-        "/api/runs/start",
-        { scenarioId: scenario.id, benchRevisionId: copy.revision.id },
-        cookie,
-      ),
+      postJson("/api/runs", { scenarioId: scenario.id, benchRevisionId: copy.revision.id }, cookie),
       params({}),
     );
     expect(onCopy.status).toBe(202);
@@ -202,7 +198,7 @@ describe("POST /api/runs/start", () => {
     });
     const refused = await startRun(
       postJson(
-        "/api/runs/start",
+        "/api/runs",
         { scenarioId: scenario.id, benchRevisionId: unrelated.revision.id },
         qaCookie,
       ),
@@ -218,12 +214,12 @@ describe("POST /api/runs/start", () => {
     const cookie = await cookieFor(apprentice);
     const scenario = scenarioByName("fernhill", "Door push-button toggles the ceiling lights");
     const response = await startRun(
-      postJson("/api/runs/start", { scenarioId: scenario.id }, cookie),
+      postJson("/api/runs", { scenarioId: scenario.id }, cookie),
       params({}),
     );
     expect(response.status).toBe(403);
     const suite = await startRun(
-      postJson("/api/runs/start", { suiteId: demoSuite("fernhill").id }, cookie),
+      postJson("/api/runs", { suiteId: demoSuite("fernhill").id }, cookie),
       params({}),
     );
     expect(suite.status).toBe(403);
@@ -234,7 +230,7 @@ describe("GET /api/runs/:id/events", () => {
   it("streams a suite run's progress scenario by scenario to the end", async () => {
     const suite = demoSuite("fernhill");
     const started = await startRun(
-      postJson("/api/runs/start", { suiteId: suite.id }, qaCookie),
+      postJson("/api/runs", { suiteId: suite.id }, qaCookie),
       params({}),
     );
     expect(started.status).toBe(202);
@@ -266,7 +262,7 @@ describe("GET /api/runs/:id/events", () => {
       "Front unit fan levels, clamping and automatic fan",
     );
     const started = await startRun(
-      postJson("/api/runs/start", { scenarioId: scenario.id }, qaCookie),
+      postJson("/api/runs", { scenarioId: scenario.id }, qaCookie),
       params({}),
     );
     const { runId } = (await started.json()) as { runId: string };
@@ -329,7 +325,7 @@ describe("server runs and the CLI", () => {
     ] as const) {
       const cookie = await cookieFor(email, slug);
       const response = await startRun(
-        postJson("/api/runs/start", { suiteId: demoSuite(slug).id }, cookie),
+        postJson("/api/runs", { suiteId: demoSuite(slug).id }, cookie),
         params({}),
       );
       const { suiteRunId } = (await response.json()) as { suiteRunId: string };

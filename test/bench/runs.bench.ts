@@ -4,7 +4,7 @@
  * Serves the production build (`next start`, built first when .next/ is
  * missing) on a loopback port against a fresh seeded database, signs in as the
  * demo QA member, and starts 50 runs of the Fernhill demo suite through
- * POST /api/runs/start at once. While they run, a second client keeps asking
+ * POST /api/runs at once. While they run, a second client keeps asking
  * other API routes (GET /api/scenarios, /api/suites, /api/runs) one after
  * another and records each latency. Printed: scenarios per second, and the
  * p50/p95 latency of those other requests while idle and under the suite
@@ -148,7 +148,7 @@ async function measure(executor: "workers" | "inline") {
     };
     const suiteId = suites.suites[0]!.id;
     // Warm up: one suite run, so compilation and first-use costs are not measured.
-    const warm = await fetch(`${baseURL}/api/runs/start`, {
+    const warm = await fetch(`${baseURL}/api/runs`, {
       method: "POST",
       headers: { cookie, Origin: baseURL, "Content-Type": "application/json" },
       body: JSON.stringify({ suiteId }),
@@ -167,7 +167,7 @@ async function measure(executor: "workers" | "inline") {
     const all = Promise.all(
       Array.from({ length: SUITE_RUNS }, async () => {
         const t0 = performance.now();
-        const response = await fetch(`${baseURL}/api/runs/start`, {
+        const response = await fetch(`${baseURL}/api/runs`, {
           method: "POST",
           headers: { cookie, Origin: baseURL, "Content-Type": "application/json" },
           body: JSON.stringify({ suiteId }),
@@ -229,7 +229,7 @@ const row = (label: string, a: number, b: number, digits = 1) =>
 row("scenarios replayed", w.scenarios, i.scenarios, 0);
 row("wall time, s", w.seconds, i.seconds, 2);
 row("scenarios per second", w.scenariosPerSecond, i.scenariosPerSecond);
-row("POST /api/runs/start p95, ms", w.startP95, i.startP95);
+row("POST /api/runs p95, ms", w.startP95, i.startP95);
 row("other API requests idle p50, ms", w.idleP50, i.idleP50);
 row("other API requests idle p95, ms", w.idleP95, i.idleP95);
 row("other API requests loaded p50, ms", w.loadedP50, i.loadedP50);

@@ -1,14 +1,13 @@
-import { randomInt } from "node:crypto";
 import { authorize, verifyApiSession } from "@/app/_lib/dal";
 import { AppError } from "@/app/_lib/errors";
 import { json, readJson, readQuery, route } from "@/app/_lib/http";
-import { loadSuite, loadVisibleBench, loadVisibleScenario } from "@/app/_lib/resources";
-import { latestRevision } from "@/db/queries/benches";
-import { findRevisionInWorkspace } from "@/db/queries/bench-history";
-import { createRun, listRuns } from "@/db/queries/runs";
-import { listSuiteScenarios } from "@/db/queries/suites";
+import { revisionForScenario } from "@/app/_lib/runs/run-access";
+import { startScenarioRun, startSuiteRun } from "@/app/_lib/runs/run-service";
+import { listRuns } from "@/db/queries/runs";
+import { findScenario } from "@/db/queries/scenarios";
+import { findSuite, listSuiteScenarios } from "@/db/queries/suites";
 import { runJson } from "./run-json";
-import { createRunBodySchema, listRunsQuerySchema } from "./schema";
+import { listRunsQuerySchema, startRunBodySchema } from "./schema";
 
 /** Run history: the whole workspace, or only the member's own runs (apprentices). */
 export const GET = route(async (request) => {
@@ -24,64 +23,82 @@ export const GET = route(async (request) => {
 });
 
 /**
- * Queue a run record. Executing it is the run worker's job; this only checks
- * that everything it names exists in the workspace and may be run by the member.
+ * POST /api/runs — replay a scenario or a suite on the server. Answers
+ * 202 at once with the run id and its event stream; the replay runs in the
+ * run pool, outside this request.
  */
 export const POST = route(async (request) => {
-  const body = await readJson(request, createRunBodySchema);
+  const body = await readJson(request, startRunBodySchema);
   const session = await verifyApiSession(request);
-  const scope = authorize(session, "runs.start");
 
-  let benchId: string;
   if (body.scenarioId !== undefined) {
-    benchId = loadVisibleScenario(session, body.scenarioId).benchId;
-  } else {
-    const suite = loadSuite(session, body.suiteId!);
-    const first = listSuiteScenarios({ suiteId: suite.id })[0];
-    if (!first) throw new AppError("conflict", "the suite has no scenarios", { field: "suiteId" });
-    benchId = first.scenario.benchId;
-  }
-
-  let revision;
-  if (body.benchRevisionId !== undefined) {
-    const found = findRevisionInWorkspace({
+    const scenario = findScenario({
       workspaceId: session.workspaceId,
-      revisionId: body.benchRevisionId,
+      scenarioId: body.scenarioId,
     });
-    if (!found) {
-      throw new AppError("not_found", "benchRevisionId: no such bench revision", {
-        field: "benchRevisionId",
-      });
-    }
-    loadVisibleBench(session, found.bench.id);
-    revision = found.revision;
-    benchId = found.bench.id;
-  } else {
-    revision = latestRevision({ benchId });
-    if (!revision) throw new AppError("conflict", "the bench has no revision to run");
-  }
-
-  // "own attempts": an apprentice replays only against a bench of their own.
-  if (scope === "own") {
-    const bench = loadVisibleBench(session, benchId);
-    if (bench.privateOwnerId !== session.userId) {
+    if (!scenario) throw new AppError("not_found", "scenario not found", { field: "scenarioId" });
+    const { bench, revision } = revisionForScenario(
+      session,
+      scenario.benchId,
+      body.benchRevisionId,
+    );
+    const scope = authorize(session, "runs.start");
+    // "own" scope (apprentices): only on their own private copies.
+    if (scope !== "workspace" && bench.privateOwnerId !== session.userId) {
       throw new AppError(
         "forbidden",
-        `your role (${session.role}) may run scenarios only on your own benches`,
+        `your role (${session.role}) may replay scenarios only on your own copies`,
       );
     }
+    const { run } = startScenarioRun({
+      workspaceId: session.workspaceId,
+      startedBy: session.userId,
+      scenario,
+      revision,
+      seed: body.seed,
+    });
+    return json(
+      {
+        kind: "scenario",
+        runId: run.id,
+        status: run.status,
+        seed: run.seed,
+        benchRevisionId: revision.id,
+        eventsUrl: `/api/runs/${run.id}/events`,
+      },
+      { status: 202 },
+    );
   }
 
-  const run = createRun({
-    values: {
-      workspaceId: session.workspaceId,
-      scenarioId: body.scenarioId ?? null,
-      suiteId: body.suiteId ?? null,
-      benchRevisionId: revision.id,
-      seed: body.seed ?? randomInt(0, 2 ** 31 - 1),
-      status: "queued",
-      startedBy: session.userId,
-    },
+  const suite = findSuite({ workspaceId: session.workspaceId, suiteId: body.suiteId! });
+  if (!suite) throw new AppError("not_found", "suite not found", { field: "suiteId" });
+  const members = listSuiteScenarios({ suiteId: suite.id });
+  if (members.length === 0) {
+    throw new AppError("conflict", `suite "${suite.name}" has no scenarios`, { field: "suiteId" });
+  }
+  const entries = members.map(({ scenario }) => ({
+    scenario,
+    revision: revisionForScenario(session, scenario.benchId, body.benchRevisionId).revision,
+  }));
+  if (authorize(session, "runs.start") !== "workspace") {
+    throw new AppError("forbidden", `your role (${session.role}) may not replay suites`);
+  }
+  const { suiteRun, runs } = startSuiteRun({
+    workspaceId: session.workspaceId,
+    startedBy: session.userId,
+    suite,
+    entries,
+    benchRevisionId: body.benchRevisionId,
+    seed: body.seed,
   });
-  return json({ run: runJson(run) }, { status: 201 });
+  return json(
+    {
+      kind: "suite",
+      suiteRunId: suiteRun.id,
+      runIds: runs.map((run) => run.id),
+      status: suiteRun.status,
+      eventsUrl: `/api/runs/${suiteRun.id}/events`,
+    },
+    { status: 202 },
+  );
 });

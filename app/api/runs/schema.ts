@@ -2,28 +2,28 @@ import { z } from "zod";
 import { resourceIdSchema } from "@/app/_lib/resources";
 
 /**
- * POST /api/runs: queue a replay of one scenario or one suite. The bench
- * revision defaults to the latest revision of the (first) scenario's bench;
- * give `benchRevisionId` to run against another, e.g. an apprentice's copy.
+ * POST /api/runs: replay one scenario or one suite on the server. The bench
+ * revision defaults to the latest revision of each scenario's bench; give
+ * `benchRevisionId` to run against another, e.g. an apprentice's copy.
  */
-export const createRunBodySchema = z
+export const startRunBodySchema = z
   .strictObject({
     scenarioId: resourceIdSchema.optional(),
     suiteId: resourceIdSchema.optional(),
     benchRevisionId: resourceIdSchema.optional(),
-    /** Seed of the engine's generator; same inputs and seed give the same trace. */
+    /** Seed of the engine's generator; default: each scenario document's own seed. */
     seed: z
-      .number()
-      .int()
-      .min(0)
-      .max(2 ** 31 - 1)
+      .number({ error: "seed must be a whole number" })
+      .int("seed must be a whole number")
+      .min(0, "seed must be 0 or more")
+      .max(2 ** 32 - 1, "seed must fit in 32 bits")
       .optional(),
   })
   .refine((body) => (body.scenarioId === undefined) !== (body.suiteId === undefined), {
     message: "give exactly one of scenarioId or suiteId",
     path: ["scenarioId"],
   });
-export type CreateRunBody = z.infer<typeof createRunBodySchema>;
+export type StartRunBody = z.infer<typeof startRunBodySchema>;
 
 /** GET /api/runs?limit=...: newest first, at most `limit` (default 50). */
 export const listRunsQuerySchema = z.strictObject({

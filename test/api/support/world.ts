@@ -145,6 +145,8 @@ export function createWorld(): World {
       name: "Sandbox",
       createdBy: users.apprentice.userId,
       privateOwnerId: users.apprentice.userId,
+      // A sandbox is the apprentice's private copy of a workspace bench.
+      copiedFromBenchId: a.benchId,
     },
     document: JSON.stringify(benchDocument("Sandbox")),
   });
