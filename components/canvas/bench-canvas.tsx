@@ -355,7 +355,13 @@ export function BenchCanvas({
           <MiniMap
             pannable
             zoomable
-            nodeColor={(n) => (n.type === "busBar" ? "#b3662c" : "#41464f")}
+            nodeColor={(n) =>
+              n.type === "busBar"
+                ? "#b3662c"
+                : n.type === "device" && n.data.faults !== undefined
+                  ? "#c42e28" // --color-fault: a faulty device stays visible however far out
+                  : "#41464f"
+            }
             maskColor="rgba(36,39,44,0.7)"
             bgColor="#2f333a"
           />

@@ -47,7 +47,7 @@ function LiveCanvasBody() {
 
   return (
     <div className="space-y-2">
-      <div className="h-[26rem] overflow-hidden rounded-md">
+      <div className="h-[30rem] overflow-hidden rounded-md">
         <BenchCanvas readOnly label="Live bench canvas" faults={byDevice} />
       </div>
       <section aria-label="Selected device" className="text-sm">

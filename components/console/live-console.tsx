@@ -71,14 +71,13 @@ function ConsoleBody({ benchId, document }: { benchId: string; document: unknown
           </Panel>
         </div>
         <div className="min-w-0 space-y-4">
-          <div className="grid gap-4 2xl:grid-cols-2">
-            <Panel title="Bench" className="min-w-0">
-              <LiveCanvas key={benchId} document={document} />
-            </Panel>
-            <Panel title="Telegram log" className="min-w-0">
-              <TelegramLog />
-            </Panel>
-          </div>
+          {/* Stacked, not side by side: both need the column's width to be readable. */}
+          <Panel title="Bench">
+            <LiveCanvas key={benchId} document={document} />
+          </Panel>
+          <Panel title="Telegram log">
+            <TelegramLog />
+          </Panel>
           <Panel title="Charts">
             <ConsoleCharts />
           </Panel>

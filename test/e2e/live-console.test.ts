@@ -103,6 +103,22 @@ describe("live console in headless Chromium", () => {
     expect(body.scenarios.map((s) => s.name)).toContain("Recorded from the live console");
   });
 
+  it("presses a control-panel tile: the panel itself sends, and the tile shows the status it hears", async () => {
+    const tile = page.getByRole("group", { name: "Tiles of Trainer control panel" });
+    await tile.getByRole("button", { name: "Rear power", exact: true }).click();
+    await filterLog("3/1/1");
+    await logRows()
+      .filter({ hasText: "Rear unit power status" })
+      .filter({ hasText: "On" })
+      .first()
+      .waitFor({ timeout: 20_000 });
+    await filterLog("3/0/1");
+    await logRows().filter({ hasText: "1.1.40" }).first().waitFor({ timeout: 10_000 });
+    await expect
+      .poll(() => page.locator('[data-tile="cp-lab-5"]').innerText(), { timeout: 20_000 })
+      .toContain("On");
+  });
+
   it("makes both front controllers primary and shows the conflict fault", async () => {
     await page
       .getByRole("combobox", { name: "Role of Front unit wall controller" })
@@ -111,6 +127,24 @@ describe("live console in headless Chromium", () => {
     await active.getByText("link.two-primaries").first().waitFor({ timeout: 30_000 });
     await filterLog("", "fault");
     await logRows().filter({ hasText: "link.two-primaries" }).first().waitFor({ timeout: 10_000 });
+  });
+
+  it("marks the conflicting devices on the bench canvas, and a card click shows its local buttons", async () => {
+    const canvas = page.getByRole("application", { name: "Live bench canvas" });
+    const card = canvas.getByTestId("device-card-wc-front");
+    await expect
+      .poll(() => card.getAttribute("data-faults"), { timeout: 20_000 })
+      .toContain("link.two-primaries");
+    await expect
+      .poll(() => canvas.getByRole("list", { name: "Faults of Front indoor unit" }).innerText())
+      .toContain("link.two-primaries");
+    // Healthy devices carry no mark.
+    expect(await canvas.getByTestId("device-card-pb-door").getAttribute("data-faults")).toBeNull();
+    await card.click();
+    const selected = page.getByRole("region", { name: "Selected device" });
+    const buttons = selected.getByRole("group", { name: "Buttons of Front unit wall controller" });
+    await buttons.getByRole("button", { name: "Power" }).waitFor({ timeout: 10_000 });
+    await selected.getByText("link.two-primaries").waitFor();
   });
 
   it("throws no page errors", () => {
