@@ -1,66 +1,20 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { decodeCemi, encodeCemi, type CemiLData } from "./cemi";
-import type { DataFrame } from "./data-frame";
-import { fromHex, toHex } from "./hex";
-
-const frameArbitrary: fc.Arbitrary<DataFrame> = fc
-  .record({
-    priority: fc.constantFrom("system", "normal", "urgent", "low"),
-    repeated: fc.boolean(),
-    source: fc.integer({ min: 0, max: 0xffff }),
-    destination: fc.integer({ min: 0, max: 0xffff }),
-    addressType: fc.constantFrom("group", "individual"),
-    hopCount: fc.integer({ min: 0, max: 7 }),
-    kind: fc.oneof(
-      fc.constant({
-        service: "GroupValue_Read" as const,
-        payload: new Uint8Array(0),
-        shortPayload: false,
-      }),
-      fc.record({
-        service: fc.constantFrom("GroupValue_Response" as const, "GroupValue_Write" as const),
-        payload: fc.integer({ min: 0, max: 0x3f }).map((v) => Uint8Array.of(v)),
-        shortPayload: fc.constant(true),
-      }),
-      fc.record({
-        service: fc.constantFrom("GroupValue_Response" as const, "GroupValue_Write" as const),
-        payload: fc.uint8Array({ minLength: 1, maxLength: 14 }),
-        shortPayload: fc.constant(false),
-      }),
-    ),
-  })
-  .map(({ kind, ...rest }) => ({ ...rest, ...kind }));
-
-const worked: DataFrame = {
-  priority: "low",
-  repeated: false,
-  source: 0x1101,
-  destination: 0x0801,
-  addressType: "group",
-  hopCount: 6,
-  service: "GroupValue_Write",
-  payload: Uint8Array.of(1),
-  shortPayload: true,
-};
-
-function bytes(text: string): Uint8Array {
-  const b = fromHex(text);
-  if (b === undefined) throw new Error(text);
-  return b;
-}
+import { toHex } from "./hex";
+import { dataFrameArbitrary, hexBytes, workedFrame } from "../../test/harness/frame-fixtures";
 
 describe("cEMI L_Data", () => {
-  it("carries the worked frame as L_Data.ind", () => {
-    // knx-reference.md cEMI layout + message code 0x29, with the Basic course worked frame's
+  it("carries the workedFrame frame as L_Data.ind", () => {
+    // knx-reference.md cEMI layout + message code 0x29, with the Basic course workedFrame frame's
     // fields (1.1.1 writes ON to 1/0/1); Ctrl1 0xBC / Ctrl2 0xE0 recalled from memory.
-    const encoded = encodeCemi({ messageCode: "L_Data.ind", frame: worked });
+    const encoded = encodeCemi({ messageCode: "L_Data.ind", frame: workedFrame });
     expect(toHex(encoded)).toBe("29 00 BC E0 11 01 08 01 01 00 81");
     expect(decodeCemi(encoded)).toEqual({
       ok: true,
       value: {
         messageCode: "L_Data.ind",
-        frame: worked,
+        frame: workedFrame,
         additionalInfo: new Uint8Array(0),
         ackRequest: false,
         confirmError: false,
@@ -70,14 +24,14 @@ describe("cEMI L_Data", () => {
 
   it("uses the message codes of the reference", () => {
     // knx-reference.md: L_Data.req 0x11, L_Data.con 0x2E, L_Data.ind 0x29.
-    expect(encodeCemi({ messageCode: "L_Data.req", frame: worked })[0]).toBe(0x11);
-    expect(encodeCemi({ messageCode: "L_Data.con", frame: worked, confirmError: true })[0]).toBe(
-      0x2e,
-    );
+    expect(encodeCemi({ messageCode: "L_Data.req", frame: workedFrame })[0]).toBe(0x11);
+    expect(
+      encodeCemi({ messageCode: "L_Data.con", frame: workedFrame, confirmError: true })[0],
+    ).toBe(0x2e);
     // Long data follows the APCI octet: 21.00 °C as 9.001 is 0C 1A (DPT spec §3.10).
     const long = encodeCemi({
       messageCode: "L_Data.req",
-      frame: { ...worked, payload: Uint8Array.of(0x0c, 0x1a), shortPayload: false },
+      frame: { ...workedFrame, payload: Uint8Array.of(0x0c, 0x1a), shortPayload: false },
     });
     expect(toHex(long)).toBe("11 00 BC E0 11 01 08 01 03 00 80 0C 1A");
   });
@@ -93,7 +47,7 @@ describe("cEMI L_Data", () => {
       ["29 05 BC E0", "frame.truncated"],
     ];
     for (const [hex, kind] of cases) {
-      const r = decodeCemi(bytes(hex));
+      const r = decodeCemi(hexBytes(hex));
       expect(r.ok, hex).toBe(false);
       if (!r.ok) expect(r.error.kind, hex).toBe(kind);
     }
@@ -102,7 +56,7 @@ describe("cEMI L_Data", () => {
   it("round-trips arbitrary messages", () => {
     const message: fc.Arbitrary<CemiLData> = fc.record({
       messageCode: fc.constantFrom("L_Data.req", "L_Data.con", "L_Data.ind"),
-      frame: frameArbitrary,
+      frame: dataFrameArbitrary,
       additionalInfo: fc.uint8Array({ maxLength: 8 }),
       ackRequest: fc.boolean(),
       confirmError: fc.boolean(),

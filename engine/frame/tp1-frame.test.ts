@@ -1,69 +1,23 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import type { DataFrame } from "./data-frame";
-import { fromHex, toHex } from "./hex";
+import { toHex } from "./hex";
 import { decodeTp1Frame, encodeTp1Frame } from "./tp1-frame";
-
-/** Any frame the engine may build: reads, short payloads (0..0x3F) and long ones (1..14 octets). */
-const dataFrameArbitrary: fc.Arbitrary<DataFrame> = fc
-  .record({
-    priority: fc.constantFrom("system", "normal", "urgent", "low"),
-    repeated: fc.boolean(),
-    source: fc.integer({ min: 0, max: 0xffff }),
-    destination: fc.integer({ min: 0, max: 0xffff }),
-    addressType: fc.constantFrom("group", "individual"),
-    hopCount: fc.integer({ min: 0, max: 7 }),
-    kind: fc.oneof(
-      fc.constant({
-        service: "GroupValue_Read" as const,
-        payload: new Uint8Array(0),
-        shortPayload: false,
-      }),
-      fc.record({
-        service: fc.constantFrom("GroupValue_Response" as const, "GroupValue_Write" as const),
-        payload: fc.integer({ min: 0, max: 0x3f }).map((v) => Uint8Array.of(v)),
-        shortPayload: fc.constant(true),
-      }),
-      fc.record({
-        service: fc.constantFrom("GroupValue_Response" as const, "GroupValue_Write" as const),
-        payload: fc.uint8Array({ minLength: 1, maxLength: 14 }),
-        shortPayload: fc.constant(false),
-      }),
-    ),
-  })
-  .map(({ kind, ...rest }) => ({ ...rest, ...kind }));
-
-const worked: DataFrame = {
-  priority: "low",
-  repeated: false,
-  source: 0x1101,
-  destination: 0x0801,
-  addressType: "group",
-  hopCount: 6,
-  service: "GroupValue_Write",
-  payload: Uint8Array.of(1),
-  shortPayload: true,
-};
-
-function bytes(text: string): Uint8Array {
-  const b = fromHex(text);
-  if (b === undefined) throw new Error(`bad hex ${text}`);
-  return b;
-}
+import { dataFrameArbitrary, hexBytes, workedFrame } from "../../test/harness/frame-fixtures";
 
 describe("TP1 frames, reference vectors", () => {
-  it("encodes the worked frame: 1.1.1 writes ON to 1/0/1", () => {
+  it("encodes the workedFrame frame: 1.1.1 writes ON to 1/0/1", () => {
     // Basic course / knx-reference.md: BC 11 01 08 01 E1 00 81 3A.
-    expect(toHex(encodeTp1Frame(worked))).toBe("BC 11 01 08 01 E1 00 81 3A");
-    expect(decodeTp1Frame(bytes("BC 11 01 08 01 E1 00 81 3A"))).toEqual({
+    expect(toHex(encodeTp1Frame(workedFrame))).toBe("BC 11 01 08 01 E1 00 81 3A");
+    expect(decodeTp1Frame(hexBytes("BC 11 01 08 01 E1 00 81 3A"))).toEqual({
       ok: true,
-      value: worked,
+      value: workedFrame,
     });
   });
 
   it("puts priority and the repeat flag in the control octet", () => {
     // knx-reference.md TP1 standard frame: system 0xB0, urgent 0xB8, normal 0xB4, low 0xBC; R = 0 on a repetition.
-    const ctrl = (f: Partial<DataFrame>) => encodeTp1Frame({ ...worked, ...f })[0];
+    const ctrl = (f: Partial<DataFrame>) => encodeTp1Frame({ ...workedFrame, ...f })[0];
     expect(ctrl({ priority: "system" })).toBe(0xb0);
     expect(ctrl({ priority: "urgent" })).toBe(0xb8);
     expect(ctrl({ priority: "normal" })).toBe(0xb4);
@@ -74,14 +28,14 @@ describe("TP1 frames, reference vectors", () => {
   it("codes read, response and write in the APCI", () => {
     // knx-reference.md: GroupValue_Read 0x000, GroupValue_Response 0x040, GroupValue_Write 0x080.
     const read = encodeTp1Frame({
-      ...worked,
+      ...workedFrame,
       service: "GroupValue_Read",
       payload: new Uint8Array(0),
       shortPayload: false,
     });
     expect(toHex(read.subarray(5, 8))).toBe("E1 00 00");
     const response = encodeTp1Frame({
-      ...worked,
+      ...workedFrame,
       service: "GroupValue_Response",
       payload: Uint8Array.of(0),
     });
@@ -91,7 +45,11 @@ describe("TP1 frames, reference vectors", () => {
   it("sends data of one octet or more after the APCI octet", () => {
     // DPT spec §1.3.1: data of an octet or more follows the APCI octet, whose data bits are 0.
     // 21.00 °C as DPT 9.001 is 0C 1A (DPT spec §3.10); LG = 3 -> NPCI 0xE3.
-    const frame: DataFrame = { ...worked, payload: Uint8Array.of(0x0c, 0x1a), shortPayload: false };
+    const frame: DataFrame = {
+      ...workedFrame,
+      payload: Uint8Array.of(0x0c, 0x1a),
+      shortPayload: false,
+    };
     const encoded = encodeTp1Frame(frame);
     expect(encoded.length).toBe(11);
     expect(toHex(encoded.subarray(5, 10))).toBe("E3 00 80 0C 1A");
@@ -99,12 +57,12 @@ describe("TP1 frames, reference vectors", () => {
   });
 
   it("throws when asked to encode an impossible frame (a bug in the caller)", () => {
-    expect(() => encodeTp1Frame({ ...worked, hopCount: 8 })).toThrow(/hopCount/);
-    expect(() => encodeTp1Frame({ ...worked, payload: Uint8Array.of(0x40) })).toThrow(/short/);
+    expect(() => encodeTp1Frame({ ...workedFrame, hopCount: 8 })).toThrow(/hopCount/);
+    expect(() => encodeTp1Frame({ ...workedFrame, payload: Uint8Array.of(0x40) })).toThrow(/short/);
     expect(() =>
-      encodeTp1Frame({ ...worked, shortPayload: false, payload: new Uint8Array(15) }),
+      encodeTp1Frame({ ...workedFrame, shortPayload: false, payload: new Uint8Array(15) }),
     ).toThrow(/1\.\.14/);
-    expect(() => encodeTp1Frame({ ...worked, source: 0x10000 })).toThrow(/source/);
+    expect(() => encodeTp1Frame({ ...workedFrame, source: 0x10000 })).toThrow(/source/);
   });
 });
 
@@ -121,7 +79,7 @@ describe("TP1 frames, refusing bad bytes", () => {
   ];
   for (const [what, hex, kind] of cases) {
     it(`refuses a frame with ${what}`, () => {
-      const b = bytes(hex);
+      const b = hexBytes(hex);
       // Fix the check octet of the deliberately wrong frames so the intended fault is what is found.
       if (kind !== "frame.checksum" && kind !== "frame.truncated") {
         let x = 0;
