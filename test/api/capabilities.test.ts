@@ -2,9 +2,24 @@ import { readdirSync, statSync } from "node:fs";
 import path from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { can, capabilities, capabilityTable } from "@/app/_lib/capabilities";
-import { roles } from "@/db/schema";
-import { guardedRoutes, pathOf, publicRoutes, sessionOnlyRoutes } from "./support/routes";
-import { call, cookieFor, createWorld, destroyWorld, type World } from "./support/world";
+import { roles, type Role } from "@/db/schema";
+import {
+  type GuardedRoute,
+  guardedRoutes,
+  pathOf,
+  publicRoutes,
+  sessionOnlyRoutes,
+} from "./support/routes";
+import {
+  call,
+  type CallOptions,
+  cookieFor,
+  createWorld,
+  benchDocument,
+  destroyWorld,
+  floorPlanSvg,
+  type World,
+} from "./support/world";
 
 const httpMethods = ["GET", "POST", "PUT", "PATCH", "DELETE"] as const;
 
@@ -17,20 +32,6 @@ function routeFiles(dir = "app/api"): string[] {
     else if (entry === "route.ts") out.push(`/${path.dirname(full).replace(/^app\//, "")}`);
   }
   return out;
-}
-
-/**
- * The route folders this matrix answers for. Routes the app contract gives to
- * other engineers (bench import/export/floor plan, run execution and streaming,
- * labs) are matrix-tested by their owners; add them to guardedRoutes to have
- * them checked here too.
- */
-function coveredHere(route: string): boolean {
-  if (/^\/api\/benches\/\[benchId\]\/(import|export|floor-plan)(\/|$)/.test(route)) return false;
-  if (/^\/api\/runs\/(start|\[runId\]\/.)/.test(route)) return false;
-  return /^\/api\/(members|invitations|benches|scenarios|suites|runs|session|health)(\/|$)/.test(
-    route,
-  );
 }
 
 let world: World;
@@ -48,7 +49,6 @@ describe("the route list covers every route handler", () => {
     );
     const missing: string[] = [];
     for (const route of routeFiles()) {
-      if (!coveredHere(route)) continue;
       const mod = (await import(
         /* @vite-ignore */ `@/app${route.replace(/^\/api/, "/api")}/route`
       )) as Record<string, unknown>;
@@ -66,30 +66,59 @@ describe("the route list covers every route handler", () => {
   });
 });
 
+/** What the capability table says a role gets on a route: allowed, or refused with 403 or 404. */
+function expectedFor(route: GuardedRoute, role: Role): "allowed" | 403 | 404 {
+  const scope = capabilityTable[route.capability][role];
+  const allowed =
+    route.reach === "any"
+      ? can(role, route.capability)
+      : route.reach === "owner"
+        ? role === "apprentice" && can(role, route.capability)
+        : can(role, route.capability, { scope: "workspace" });
+  if (allowed) return "allowed";
+  return route.hidesFromOwnScope && scope === "own" ? 404 : 403;
+}
+
+/** The call options of one case: its params, body (JSON or raw) and path. */
+function requestOf(route: GuardedRoute, extra: Partial<CallOptions> = {}): CallOptions {
+  const params = route.params?.(world) ?? {};
+  const raw = route.rawBody?.();
+  return {
+    method: route.method,
+    path: pathOf(route.route, params),
+    params,
+    ...(route.body ? { body: route.body(world) } : {}),
+    ...(raw ? { rawBody: raw.text, headers: { "content-type": raw.contentType } } : {}),
+    ...extra,
+  };
+}
+
 describe("each role can do exactly what the capability table allows", () => {
   for (const route of guardedRoutes) {
     for (const role of roles) {
       const scope = capabilityTable[route.capability][role];
-      const allowed =
-        route.reach === "any"
-          ? can(role, route.capability)
-          : can(role, route.capability, { scope: "workspace" });
-      it(`${role} ${route.method} ${route.route} (${route.capability}: ${scope}) -> ${allowed ? "allowed" : "403"}`, async () => {
+      const expected = expectedFor(route, role);
+      it(`${role} ${route.method} ${route.route} (${route.capability}: ${scope}, ${route.reach}) -> ${expected}`, async () => {
         const handlers = await route.load();
-        const params = route.params?.(world) ?? {};
-        const response = await call(handlers[route.method], {
-          method: route.method,
-          path: pathOf(route.route, params),
-          params,
-          cookie: await cookieFor(world.users[role].userId, world.a.workspaceId),
-          ...(route.body ? { body: route.body(world) } : {}),
-        });
-        if (allowed) {
-          expect(response.status, await response.clone().text()).toBeLessThan(300);
+        const response = await call(
+          handlers[route.method],
+          requestOf(route, {
+            cookie: await cookieFor(world.users[role].userId, world.a.workspaceId),
+          }),
+        );
+        if (expected === "allowed") {
+          if (route.stream) {
+            // An event stream is checked for its status and type only.
+            expect(response.status).toBe(200);
+            expect(response.headers.get("content-type")).toMatch(/^text\/event-stream/);
+            await response.body?.cancel();
+          } else {
+            expect(response.status, await response.clone().text()).toBeLessThan(300);
+          }
         } else {
-          expect(response.status).toBe(403);
+          expect(response.status).toBe(expected);
           const body = (await response.json()) as { error: { code: string; message: string } };
-          expect(body.error.code).toBe("forbidden");
+          expect(body.error.code).toBe(expected === 403 ? "forbidden" : "not_found");
         }
       });
     }
@@ -98,15 +127,40 @@ describe("each role can do exactly what the capability table allows", () => {
   it("answers 401 on every guarded route without a session", async () => {
     for (const route of [...guardedRoutes]) {
       const handlers = await route.load();
-      const params = route.params?.(world) ?? {};
-      const response = await call(handlers[route.method], {
-        method: route.method,
-        path: pathOf(route.route, params),
-        params,
-        ...(route.body ? { body: route.body(world) } : {}),
-      });
+      const response = await call(handlers[route.method], requestOf(route));
       expect(response.status, `${route.method} ${route.route}`).toBe(401);
     }
+  });
+
+  it("lets an apprentice follow and share their own run, though not others'", async () => {
+    const cookie = await cookieFor(world.users.apprentice.userId, world.a.workspaceId);
+    const runs = await import("@/app/api/runs/route");
+    const started = await call(runs.POST, {
+      method: "POST",
+      path: "/api/runs",
+      cookie,
+      body: { scenarioId: world.a.scenarioId, benchRevisionId: world.sandboxRevisionId },
+    });
+    expect(started.status, await started.clone().text()).toBe(202);
+    const { runId } = (await started.json()) as { runId: string };
+    const events = await import("@/app/api/runs/[runId]/events/route");
+    const stream = await call(events.GET, {
+      method: "GET",
+      path: `/api/runs/${runId}/events`,
+      params: { runId },
+      cookie,
+    });
+    expect(stream.status).toBe(200);
+    await stream.body?.cancel();
+    const share = await import("@/app/api/runs/[runId]/share/route");
+    const shared = await call(share.POST, {
+      method: "POST",
+      path: `/api/runs/${runId}/share`,
+      params: { runId },
+      cookie,
+      body: { to: world.users.trainer.email },
+    });
+    expect(shared.status, await shared.clone().text()).toBe(202);
   });
 
   it("lets a trainer invite apprentices only", async () => {
@@ -184,25 +238,78 @@ describe("data never crosses workspaces", () => {
       body: { name: "x" },
     },
     { route: "/api/runs/[runId]", methods: ["GET"], params: (w: World) => ({ runId: w.b.runId }) },
+    {
+      route: "/api/benches/[benchId]/export",
+      methods: ["GET"],
+      params: (w: World) => ({ benchId: w.b.benchId }),
+    },
+    {
+      route: "/api/benches/[benchId]/import",
+      methods: ["POST"],
+      params: (w: World) => ({ benchId: w.b.benchId }),
+      body: { kind: "bench", fileName: "x.bench.json", document: benchDocument("x") },
+    },
+    {
+      route: "/api/benches/[benchId]/floor-plan",
+      methods: ["GET", "PUT", "DELETE"],
+      params: (w: World) => ({ benchId: w.b.floorPlanBenchId }),
+      rawBody: { contentType: "image/svg+xml", text: floorPlanSvg },
+    },
+    {
+      route: "/api/runs/[runId]/events",
+      methods: ["GET"],
+      params: (w: World) => ({ runId: w.b.runId }),
+    },
+    {
+      route: "/api/runs/[runId]/share",
+      methods: ["POST"],
+      params: (w: World) => ({ runId: w.b.runId }),
+      body: { to: "engineer@a.example" },
+    },
+    {
+      route: "/api/labs/[labId]/assignments",
+      methods: ["POST"],
+      params: (w: World) => ({ labId: w.b.labId }),
+      body: { apprenticeIds: ["x"] },
+    },
+    // Only the assigned apprentice may open or submit, so A's apprentice asks for B's.
+    {
+      route: "/api/labs/assignments/[assignmentId]/open",
+      methods: ["POST"],
+      params: (w: World) => ({ assignmentId: w.b.assignmentId }),
+      as: "apprentice",
+    },
+    {
+      route: "/api/labs/assignments/[assignmentId]/submit",
+      methods: ["POST"],
+      params: (w: World) => ({ assignmentId: w.b.assignmentId }),
+      as: "apprentice",
+    },
   ] as const;
 
   for (const crossCase of crossCases) {
+    const role: Role = "as" in crossCase ? crossCase.as : "admin";
     for (const method of crossCase.methods) {
-      it(`an admin of A gets 404 for ${method} ${crossCase.route} with B's id`, async () => {
+      it(`an ${role} of A gets 404 for ${method} ${crossCase.route} with B's id`, async () => {
         const handlers = (await import(
           /* @vite-ignore */ `@/app${crossCase.route}/route`
         )) as Record<string, unknown>;
         const params = crossCase.params(world);
+        const sendsBody = method !== "GET" && method !== "DELETE";
         const response = await call(handlers[method], {
           method,
           path: pathOf(crossCase.route, params),
           params,
-          cookie: await cookieFor(world.users.admin.userId, world.a.workspaceId),
-          ...("body" in crossCase && method !== "GET" && method !== "DELETE"
-            ? { body: crossCase.body }
+          cookie: await cookieFor(world.users[role].userId, world.a.workspaceId),
+          ...("body" in crossCase && sendsBody ? { body: crossCase.body } : {}),
+          ...("rawBody" in crossCase && sendsBody
+            ? {
+                rawBody: crossCase.rawBody.text,
+                headers: { "content-type": crossCase.rawBody.contentType },
+              }
             : {}),
         });
-        expect(response.status).toBe(404);
+        expect(response.status, await response.clone().text()).toBe(404);
       });
     }
   }
@@ -229,6 +336,40 @@ describe("data never crosses workspaces", () => {
     expect(((await suite.json()) as { error: { field: string } }).error.field).toBe(
       "scenarioIds[1]",
     );
+    const labs = await import("@/app/api/labs/route");
+    for (const body of [
+      { title: "Foreign bench", benchId: world.b.benchId, gradingScenarioId: world.a.scenarioId },
+      {
+        title: "Foreign scenario",
+        benchId: world.a.benchId,
+        gradingScenarioId: world.b.scenarioId,
+      },
+    ]) {
+      const response = await call(labs.POST, { method: "POST", path: "/api/labs", cookie, body });
+      expect(response.status, JSON.stringify(body)).toBe(404);
+    }
+  });
+
+  it("does not list B's labs to A's trainer nor B's assignments to A's apprentice", async () => {
+    const { GET } = await import("@/app/api/labs/route");
+    const trainer = (await (
+      await call(GET, {
+        method: "GET",
+        path: "/api/labs",
+        cookie: await cookieFor(world.users.trainer.userId, world.a.workspaceId),
+      })
+    ).json()) as { labs: { id: string }[] };
+    expect(trainer.labs.map((lab) => lab.id)).toContain(world.a.labId);
+    expect(trainer.labs.map((lab) => lab.id)).not.toContain(world.b.labId);
+    const apprentice = (await (
+      await call(GET, {
+        method: "GET",
+        path: "/api/labs",
+        cookie: await cookieFor(world.users.apprentice.userId, world.a.workspaceId),
+      })
+    ).json()) as { assignments: { id: string }[] };
+    expect(apprentice.assignments.map((a) => a.id)).toContain(world.a.assignmentId);
+    expect(apprentice.assignments.map((a) => a.id)).not.toContain(world.b.assignmentId);
   });
 
   it("does not list B's benches, scenarios, suites or runs to A", async () => {

@@ -1,11 +1,13 @@
 import type { Capability } from "@/app/_lib/capabilities";
+import { replaceFloorPlan } from "@/db/queries/uploads";
 import { createInvitation } from "@/db/queries/invitations";
+import { createLab } from "@/db/queries/labs";
 import { createMembership } from "@/db/queries/memberships";
 import { createBench } from "@/db/queries/benches";
 import { createScenario } from "@/db/queries/scenarios";
 import { createSuite } from "@/db/queries/suites";
 import { createUser } from "@/db/queries/users";
-import { benchDocument, scenarioDocument, type World } from "./world";
+import { benchDocument, floorPlanSvg, labFixture, scenarioDocument, type World } from "./world";
 
 /**
  * Every JSON route of the app with the capability that guards it. The API
@@ -14,19 +16,32 @@ import { benchDocument, scenarioDocument, type World } from "./world";
  *
  * `reach`: "any" when holding the capability at all is enough for the case
  * (lists, creating one's own), "workspace" when the case touches someone
- * else's resource, so "own" scope must be refused.
+ * else's resource, so "own" scope must be refused, "owner" when the case acts
+ * on the world's apprentice's own resource (a lab assignment) that only its
+ * owner may act on: allowed for the apprentice alone, when the role holds the
+ * capability, and refused to everyone else whatever their scope.
  */
 export interface GuardedRoute {
-  readonly method: "GET" | "POST" | "PATCH" | "DELETE";
+  readonly method: "GET" | "POST" | "PUT" | "PATCH" | "DELETE";
   /** Route pattern as in app/api, e.g. "/api/benches/[benchId]". */
   readonly route: string;
   readonly load: () => Promise<Record<string, unknown>>;
   readonly capability: Capability;
-  readonly reach: "any" | "workspace";
+  readonly reach: "any" | "workspace" | "owner";
+  /**
+   * The route answers 404, not 403, when an "own"-scope member asks for someone
+   * else's resource, so it does not reveal that the id exists (runs seen
+   * through run-access).
+   */
+  readonly hidesFromOwnScope?: boolean;
+  /** A server-sent event stream: only the status is checked, then the stream is cancelled. */
+  readonly stream?: boolean;
   /** Fresh params (and resources) for one call. */
   readonly params?: (world: World) => Record<string, string>;
   /** A valid body for one call. */
   readonly body?: (world: World) => unknown;
+  /** A non-JSON body (an uploaded file) with its content type, instead of `body`. */
+  readonly rawBody?: () => { readonly contentType: string; readonly text: string };
 }
 
 /** Routes open without a session (sign-in, invitation links, password reset, health). */
@@ -71,6 +86,44 @@ function freshScenario(world: World) {
       createdBy: world.users.admin.userId,
     },
   }).id;
+}
+
+/** A throwaway shared bench in A with a floor plan. */
+function freshPlannedBench(world: World) {
+  const benchId = freshBench(world);
+  replaceFloorPlan({
+    workspaceId: world.a.workspaceId,
+    benchId,
+    uploadedBy: world.users.admin.userId,
+    contentType: "image/svg+xml",
+    content: Buffer.from(floorPlanSvg, "utf8"),
+  });
+  return benchId;
+}
+
+/** A fresh lab in A, assigned to no one yet. */
+function freshLab(world: World) {
+  return createLab({
+    values: {
+      workspaceId: world.a.workspaceId,
+      title: unique("lab"),
+      benchId: world.a.benchId,
+      gradingScenarioId: world.a.scenarioId,
+      createdBy: world.users.trainer.userId,
+    },
+  }).id;
+}
+
+/** A fresh lab in A assigned to A's apprentice, opened or not. */
+function freshAssignment(world: World, opened: boolean) {
+  return labFixture({
+    workspaceId: world.a.workspaceId,
+    benchId: world.a.benchId,
+    scenarioId: world.a.scenarioId,
+    trainerId: world.users.trainer.userId,
+    apprenticeId: world.users.apprentice.userId,
+    opened,
+  });
 }
 
 function freshSuite(world: World) {
@@ -172,6 +225,66 @@ export const guardedRoutes: readonly GuardedRoute[] = [
     reach: "any",
     params: (w) => ({ benchId: w.a.benchId }),
     body: () => ({}),
+  },
+  {
+    method: "GET",
+    route: "/api/benches/[benchId]/export",
+    load: () => import("@/app/api/benches/[benchId]/export/route"),
+    capability: "benches.read",
+    reach: "any",
+    params: (w) => ({ benchId: w.a.benchId }),
+  },
+  {
+    method: "POST",
+    route: "/api/benches/[benchId]/import",
+    load: () => import("@/app/api/benches/[benchId]/import/route"),
+    capability: "benches.edit",
+    reach: "workspace",
+    params: (w) => ({ benchId: freshBench(w) }),
+    body: () => ({
+      kind: "bench",
+      fileName: "imported.bench.json",
+      document: benchDocument("Imported"),
+    }),
+  },
+  {
+    // Importing a scenario file onto a bench is writing a scenario, not the bench.
+    method: "POST",
+    route: "/api/benches/[benchId]/import",
+    load: () => import("@/app/api/benches/[benchId]/import/route"),
+    capability: "scenarios.edit",
+    reach: "workspace",
+    params: (w) => ({ benchId: w.a.benchId }),
+    body: () => ({
+      kind: "scenario",
+      fileName: "imported.scenario.json",
+      document: scenarioDocument(unique("imported")),
+    }),
+  },
+  {
+    method: "GET",
+    route: "/api/benches/[benchId]/floor-plan",
+    load: () => import("@/app/api/benches/[benchId]/floor-plan/route"),
+    capability: "benches.read",
+    reach: "any",
+    params: (w) => ({ benchId: w.a.floorPlanBenchId }),
+  },
+  {
+    method: "PUT",
+    route: "/api/benches/[benchId]/floor-plan",
+    load: () => import("@/app/api/benches/[benchId]/floor-plan/route"),
+    capability: "benches.edit",
+    reach: "workspace",
+    params: (w) => ({ benchId: freshBench(w) }),
+    rawBody: () => ({ contentType: "image/svg+xml", text: floorPlanSvg }),
+  },
+  {
+    method: "DELETE",
+    route: "/api/benches/[benchId]/floor-plan",
+    load: () => import("@/app/api/benches/[benchId]/floor-plan/route"),
+    capability: "benches.edit",
+    reach: "workspace",
+    params: (w) => ({ benchId: freshPlannedBench(w) }),
   },
   // scenarios
   {
@@ -278,6 +391,71 @@ export const guardedRoutes: readonly GuardedRoute[] = [
     capability: "runs.read",
     reach: "workspace",
     params: (w) => ({ runId: w.a.runId }),
+  },
+  {
+    method: "GET",
+    route: "/api/runs/[runId]/events",
+    load: () => import("@/app/api/runs/[runId]/events/route"),
+    capability: "runs.read",
+    reach: "workspace",
+    hidesFromOwnScope: true,
+    stream: true,
+    params: (w) => ({ runId: w.a.runId }),
+  },
+  {
+    method: "POST",
+    route: "/api/runs/[runId]/share",
+    load: () => import("@/app/api/runs/[runId]/share/route"),
+    capability: "runs.read",
+    reach: "workspace",
+    hidesFromOwnScope: true,
+    params: (w) => ({ runId: w.a.runId }),
+    body: (w) => ({ to: w.users.engineer.email, note: "Have a look" }),
+  },
+  // labs
+  {
+    method: "GET",
+    route: "/api/labs",
+    load: () => import("@/app/api/labs/route"),
+    capability: "labs.read",
+    reach: "any",
+  },
+  {
+    method: "POST",
+    route: "/api/labs",
+    load: () => import("@/app/api/labs/route"),
+    capability: "labs.manage",
+    reach: "any",
+    body: (w) => ({
+      title: unique("lab"),
+      benchId: w.a.benchId,
+      gradingScenarioId: w.a.scenarioId,
+    }),
+  },
+  {
+    method: "POST",
+    route: "/api/labs/[labId]/assignments",
+    load: () => import("@/app/api/labs/[labId]/assignments/route"),
+    capability: "labs.manage",
+    reach: "any",
+    params: (w) => ({ labId: freshLab(w) }),
+    body: (w) => ({ apprenticeIds: [w.users.apprentice.userId], dueAt: "2031-06-30" }),
+  },
+  {
+    method: "POST",
+    route: "/api/labs/assignments/[assignmentId]/open",
+    load: () => import("@/app/api/labs/assignments/[assignmentId]/open/route"),
+    capability: "labs.read",
+    reach: "owner",
+    params: (w) => ({ assignmentId: freshAssignment(w, false).assignmentId }),
+  },
+  {
+    method: "POST",
+    route: "/api/labs/assignments/[assignmentId]/submit",
+    load: () => import("@/app/api/labs/assignments/[assignmentId]/submit/route"),
+    capability: "labs.read",
+    reach: "owner",
+    params: (w) => ({ assignmentId: freshAssignment(w, true).assignmentId }),
   },
   // members
   {

@@ -3,11 +3,14 @@ import { tmpdir } from "node:os";
 import path from "node:path";
 import bcrypt from "bcryptjs";
 import { closeDb, getDb } from "@/db/client";
-import { createBench } from "@/db/queries/benches";
+import { duplicateBench } from "@/db/queries/bench-history";
+import { createBench, findBench } from "@/db/queries/benches";
+import { createAssignments, createLab, setAssignmentBench } from "@/db/queries/labs";
 import { createMembership } from "@/db/queries/memberships";
-import { createRun } from "@/db/queries/runs";
+import { createRun, finishRun } from "@/db/queries/runs";
 import { createScenario } from "@/db/queries/scenarios";
 import { createSuite } from "@/db/queries/suites";
+import { replaceFloorPlan } from "@/db/queries/uploads";
 import { createUser, findUserById } from "@/db/queries/users";
 import { createWorkspace } from "@/db/queries/workspaces";
 import { roles, type Role } from "@/db/schema";
@@ -16,8 +19,9 @@ import { benchBuilder } from "@/test/harness/bench-builder";
 
 /**
  * A temporary database with two invented workspaces, one member per role in
- * the first, an admin in the second, and a bench, scenario, suite and run in
- * each. Route handlers are called directly with real Requests; the session
+ * the first, an admin and an apprentice in the second, and in each a bench,
+ * scenario, suite, finished run, a bench with a floor plan, and a lab assigned
+ * to the apprentice, who has opened it (a private copy). Route handlers are called directly with real Requests; the session
  * layer reads the cookie from the Request, so nothing of Next is mocked.
  */
 
@@ -30,7 +34,14 @@ export interface WorkspaceFixture {
   readonly revisionId: string;
   readonly scenarioId: string;
   readonly suiteId: string;
+  /** A finished run of the scenario, started by the workspace's admin. */
   readonly runId: string;
+  /** A shared bench with an SVG floor plan (kept apart from benchId, whose plan tests change). */
+  readonly floorPlanBenchId: string;
+  /** A lab on the bench, graded by the scenario. */
+  readonly labId: string;
+  /** The lab's assignment to the workspace's apprentice, opened (its private copy exists). */
+  readonly assignmentId: string;
 }
 
 export interface World {
@@ -70,7 +81,80 @@ export function scenarioDocument(name = "Light answers") {
   };
 }
 
-function workspaceFixture(slug: string, ownerId: string): WorkspaceFixture {
+/** A small inert SVG floor plan. */
+export const floorPlanSvg =
+  '<svg xmlns="http://www.w3.org/2000/svg" width="40" height="20"><rect width="40" height="20"/></svg>';
+
+// A stored result as the run pool writes it (app/_lib/runs/stored-result.ts): both steps passed.
+function passedResult(seed: number) {
+  const steps = scenarioDocument().steps.map((step, index) => ({
+    index,
+    kind: step.kind,
+    label: step.kind === "write" ? `write ${step.groupAddress}` : `wait ${step.for}`,
+    status: "pass" as const,
+    startUs: 0,
+    endUs: index === 0 ? 0 : 500_000,
+    trace: [],
+  }));
+  return {
+    name: "Light answers",
+    seed,
+    expectedToFail: false,
+    outcome: "passed",
+    ok: true,
+    steps,
+    totals: { pass: steps.length, fail: 0, error: 0, skipped: 0 },
+    virtualTimeUs: 500_000,
+    wallMs: 1,
+  };
+}
+
+let labCounter = 0;
+
+/**
+ * A lab on a workspace bench, graded by a scenario on it, assigned to one
+ * apprentice; `opened` also makes the apprentice's private copy, as opening the
+ * assignment does. Made through the queries, so no assignment e-mail is queued.
+ */
+export function labFixture(input: {
+  workspaceId: string;
+  benchId: string;
+  scenarioId: string;
+  trainerId: string;
+  apprenticeId: string;
+  opened: boolean;
+}): { labId: string; assignmentId: string; privateBenchId: string | null } {
+  const lab = createLab({
+    values: {
+      workspaceId: input.workspaceId,
+      title: `Lab ${++labCounter}`,
+      benchId: input.benchId,
+      gradingScenarioId: input.scenarioId,
+      createdBy: input.trainerId,
+    },
+  });
+  const [assignment] = createAssignments({
+    labId: lab.id,
+    apprenticeIds: [input.apprenticeId],
+    dueAt: null,
+    assignedBy: input.trainerId,
+  });
+  if (!assignment) throw new Error("the assignment was not created");
+  if (!input.opened) return { labId: lab.id, assignmentId: assignment.id, privateBenchId: null };
+  const source = findBench({ workspaceId: input.workspaceId, benchId: input.benchId });
+  if (!source) throw new Error(`no bench ${input.benchId}`);
+  const copy = duplicateBench({
+    source,
+    document: JSON.stringify(benchDocument(`${lab.title} copy`)),
+    name: `${lab.title} copy`,
+    createdBy: input.apprenticeId,
+    privateOwnerId: input.apprenticeId,
+  });
+  setAssignmentBench({ assignmentId: assignment.id, benchId: copy.bench.id });
+  return { labId: lab.id, assignmentId: assignment.id, privateBenchId: copy.bench.id };
+}
+
+function workspaceFixture(slug: string, ownerId: string, apprenticeId: string): WorkspaceFixture {
   const workspace = createWorkspace({ values: { slug, name: `Workspace ${slug}` } });
   const { bench, revision } = createBench({
     values: { workspaceId: workspace.id, name: `Bench ${slug}`, createdBy: ownerId },
@@ -98,6 +182,37 @@ function workspaceFixture(slug: string, ownerId: string): WorkspaceFixture {
       startedBy: ownerId,
     },
   });
+  const result = passedResult(run.seed);
+  finishRun({
+    runId: run.id,
+    result: {
+      verdict: "pass",
+      stepsPassed: result.totals.pass,
+      stepsFailed: 0,
+      stepsTotal: result.steps.length,
+      results: JSON.stringify(result),
+      durationMs: result.wallMs,
+    },
+  });
+  const planned = createBench({
+    values: { workspaceId: workspace.id, name: `Planned bench ${slug}`, createdBy: ownerId },
+    document: JSON.stringify(benchDocument()),
+  });
+  replaceFloorPlan({
+    workspaceId: workspace.id,
+    benchId: planned.bench.id,
+    uploadedBy: ownerId,
+    contentType: "image/svg+xml",
+    content: Buffer.from(floorPlanSvg, "utf8"),
+  });
+  const lab = labFixture({
+    workspaceId: workspace.id,
+    benchId: bench.id,
+    scenarioId: scenario.id,
+    trainerId: ownerId,
+    apprenticeId,
+    opened: true,
+  });
   return {
     workspaceId: workspace.id,
     benchId: bench.id,
@@ -105,6 +220,9 @@ function workspaceFixture(slug: string, ownerId: string): WorkspaceFixture {
     scenarioId: scenario.id,
     suiteId: suite.id,
     runId: run.id,
+    floorPlanBenchId: planned.bench.id,
+    labId: lab.labId,
+    assignmentId: lab.assignmentId,
   };
 }
 
@@ -125,18 +243,23 @@ export function createWorld(): World {
   const makeUser = (email: string, name: string) =>
     createUser({ values: { email, name, passwordHash } });
 
-  const admin = makeUser("admin@a.example", "Avery Admin");
-  const a = workspaceFixture("a", admin.id);
   const users = {} as Record<Role, { userId: string; email: string }>;
   for (const role of roles) {
-    const user = role === "admin" ? admin : makeUser(`${role}@a.example`, `Sam ${role}`);
-    createMembership({ values: { userId: user.id, workspaceId: a.workspaceId, role } });
+    const user = makeUser(`${role}@a.example`, role === "admin" ? "Avery Admin" : `Sam ${role}`);
     users[role] = { userId: user.id, email: user.email };
   }
+  const a = workspaceFixture("a", users.admin.userId, users.apprentice.userId);
+  for (const role of roles) {
+    createMembership({ values: { userId: users[role].userId, workspaceId: a.workspaceId, role } });
+  }
   const outsiderUser = makeUser("admin@b.example", "Blair Outsider");
-  const b = workspaceFixture("b", outsiderUser.id);
+  const apprenticeOfB = makeUser("apprentice@b.example", "Robin Outsider");
+  const b = workspaceFixture("b", outsiderUser.id, apprenticeOfB.id);
   createMembership({
     values: { userId: outsiderUser.id, workspaceId: b.workspaceId, role: "admin" },
+  });
+  createMembership({
+    values: { userId: apprenticeOfB.id, workspaceId: b.workspaceId, role: "apprentice" },
   });
 
   const sandbox = createBench({
