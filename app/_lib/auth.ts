@@ -24,6 +24,25 @@ export const signInLimits = {
   failuresPerAddress: 20,
 } as const;
 
+/**
+ * Password-reset request limits: every request counts (each may send a mail),
+ * per e-mail address asked for, whether or not it has an account, so being
+ * limited tells nothing about the account, and per client address.
+ */
+export const passwordResetLimits = {
+  windowMs: 60 * 60 * 1000,
+  /** The 4th request for one e-mail address within the window is refused. */
+  requestsPerEmail: 3,
+  /** The 11th request from one client address within the window is refused. */
+  requestsPerAddress: 10,
+} as const;
+
+/** The one answer to a reset request that was taken, whether or not the account exists. */
+export const passwordResetAcceptedMessage =
+  "if that address has an account, a reset link is on its way";
+export const passwordResetLimitedMessage =
+  "too many password-reset requests; wait an hour and try again";
+
 /** One message for every sign-in failure: it never tells whether the account exists. */
 export const signInFailedMessage = "that e-mail and password do not match an active account";
 export const signInLimitedMessage =
@@ -131,4 +150,38 @@ export async function signInWithPassword({
     sessionVersion: user.sessionVersion,
     issuedAt: now.getTime(),
   };
+}
+
+// Reset requests share sign-in's attempts table and counting queries under keys
+// of their own (no e-mail or address contains a space), so neither limit eats
+// into the other's count. A request is stored as a failed attempt: it counts.
+const passwordResetKey = (value: string) => `password-reset ${value}`;
+
+/**
+ * Count a password-reset request against its limits, or refuse it with 429 when
+ * the e-mail address or the client address has asked too often in the window.
+ * Refused requests are not counted, as at sign-in.
+ */
+export function admitPasswordResetRequest({
+  email,
+  clientAddress,
+  now = new Date(),
+}: {
+  email: string;
+  clientAddress: string | null;
+  now?: Date;
+}): void {
+  const emailKey = passwordResetKey(normalizeEmail(email));
+  const addressKey = clientAddress === null ? null : passwordResetKey(clientAddress);
+  const since = new Date(now.getTime() - passwordResetLimits.windowMs);
+  if (
+    countRecentAccountFailures({ email: emailKey, since }) >=
+      passwordResetLimits.requestsPerEmail ||
+    (addressKey !== null &&
+      countRecentAddressFailures({ clientAddress: addressKey, since }) >=
+        passwordResetLimits.requestsPerAddress)
+  ) {
+    throw new AppError("rate_limited", passwordResetLimitedMessage);
+  }
+  recordLoginAttempt({ email: emailKey, clientAddress: addressKey, succeeded: false, at: now });
 }

@@ -1,13 +1,20 @@
+import {
+  admitPasswordResetRequest,
+  clientAddressOf,
+  passwordResetAcceptedMessage,
+} from "@/app/_lib/auth";
 import { json, readJson, route } from "@/app/_lib/http";
 import { requestPasswordReset } from "@/app/_lib/invitations";
 import { requestResetBodySchema } from "./schema";
 
-/** Always 202 with the same body, whether or not the account exists. */
+/**
+ * Always 202 with the same body, whether or not the account exists; 429 with
+ * one message when the e-mail address or the client address asked too often
+ * (counted alike for addresses with and without an account).
+ */
 export const POST = route(async (request) => {
   const body = await readJson(request, requestResetBodySchema);
+  admitPasswordResetRequest({ email: body.email, clientAddress: clientAddressOf(request) });
   await requestPasswordReset(body.email);
-  return json(
-    { ok: true, message: "if that address has an account, a reset link is on its way" },
-    { status: 202 },
-  );
+  return json({ ok: true, message: passwordResetAcceptedMessage }, { status: 202 });
 });
