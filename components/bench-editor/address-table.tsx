@@ -169,14 +169,17 @@ function DeleteButton({ address, onDelete }: { address: string; onDelete: () => 
  * The group addresses as a three-level table (main group, middle group,
  * address) with names, DPT, linked objects, the sending objects and the bench
  * checks' findings inline. Names, numbers and DPTs are edited in place; a
- * renumbered address keeps its links.
+ * renumbered address keeps its links. With `readOnly` they are shown as text,
+ * with no adding or deleting.
  */
 export function AddressTable({
   bench,
   findings,
+  readOnly = false,
 }: {
   bench: Bench;
   findings: readonly CheckFinding[];
+  readOnly?: boolean;
 }) {
   const store = useEditorStoreApi();
   const data = useMemo(() => addressRows(bench, findings), [bench, findings]);
@@ -192,40 +195,49 @@ export function AddressTable({
       column.accessor("middle", { header: "Middle", cell: (c) => c.getValue() }),
       column.accessor("address", {
         header: "Address",
-        cell: (c) => (
-          <EditableCell
-            mono
-            value={c.getValue()}
-            label={`Number of ${c.getValue()}`}
-            onCommit={(next) =>
-              apply(
-                (b) => renumberGroupAddress(b, c.getValue(), next),
-                `Renumbered ${c.getValue()} to ${next}`,
-              )
-            }
-          />
-        ),
+        cell: (c) =>
+          readOnly ? (
+            <span className="px-1 font-mono">{c.getValue()}</span>
+          ) : (
+            <EditableCell
+              mono
+              value={c.getValue()}
+              label={`Number of ${c.getValue()}`}
+              onCommit={(next) =>
+                apply(
+                  (b) => renumberGroupAddress(b, c.getValue(), next),
+                  `Renumbered ${c.getValue()} to ${next}`,
+                )
+              }
+            />
+          ),
       }),
       column.accessor("name", {
         header: "Name",
-        cell: (c) => (
-          <EditableCell
-            value={c.getValue()}
-            label={`Name of ${c.row.original.address}`}
-            onCommit={(next) => apply((b) => renameGroupAddress(b, c.row.original.address, next))}
-          />
-        ),
+        cell: (c) =>
+          readOnly ? (
+            <span className="px-1">{c.getValue()}</span>
+          ) : (
+            <EditableCell
+              value={c.getValue()}
+              label={`Name of ${c.row.original.address}`}
+              onCommit={(next) => apply((b) => renameGroupAddress(b, c.row.original.address, next))}
+            />
+          ),
       }),
       column.accessor("dpt", {
         header: "DPT",
-        cell: (c) => (
-          <EditableCell
-            mono
-            value={c.getValue()}
-            label={`DPT of ${c.row.original.address}`}
-            onCommit={(next) => apply((b) => setGroupAddressDpt(b, c.row.original.address, next))}
-          />
-        ),
+        cell: (c) =>
+          readOnly ? (
+            <span className="px-1 font-mono">{c.getValue()}</span>
+          ) : (
+            <EditableCell
+              mono
+              value={c.getValue()}
+              label={`DPT of ${c.row.original.address}`}
+              onCommit={(next) => apply((b) => setGroupAddressDpt(b, c.row.original.address, next))}
+            />
+          ),
       }),
       column.accessor("linked", {
         header: "Linked objects",
@@ -273,14 +285,18 @@ export function AddressTable({
         ),
       }),
     ],
-    [apply],
+    [apply, readOnly],
   );
 
   // eslint-disable-next-line react-hooks/incompatible-library -- TanStack Table v8 returns fresh functions by design; this component is not memoised.
   const table = useReactTable({
     data,
     columns,
-    state: { grouping, expanded, columnVisibility: { main: false, middle: false } },
+    state: {
+      grouping,
+      expanded,
+      columnVisibility: { main: false, middle: false, actions: !readOnly },
+    },
     onExpandedChange: setExpanded,
     getRowId: (row) => row.key,
     getCoreRowModel: getCoreRowModel(),
@@ -291,7 +307,7 @@ export function AddressTable({
 
   return (
     <div className="flex flex-col gap-2">
-      <AddAddressForm />
+      {readOnly ? null : <AddAddressForm />}
       <table className="w-full text-xs" aria-label="Group addresses">
         <thead>
           {table.getHeaderGroups().map((group) => (

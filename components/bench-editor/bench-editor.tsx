@@ -417,11 +417,18 @@ function EditorLayout({
               </li>
             ))}
           </ul>
-          <p className="mt-4 text-[11px] leading-snug text-ink-soft">
-            Drag a port onto a bus-bar to link it; an object&apos;s first link is its sending
-            address (solid wire). Del deletes, Ctrl+C / Ctrl+V copy devices, F fits the view, /
-            searches.
-          </p>
+          {canEdit ? (
+            <p className="mt-4 text-[11px] leading-snug text-ink-soft">
+              Drag a port onto a bus-bar to link it; an object&apos;s first link is its sending
+              address (solid wire). Del deletes, Ctrl+C / Ctrl+V copy devices, F fits the view, /
+              searches.
+            </p>
+          ) : (
+            <p className="mt-4 text-[11px] leading-snug text-ink-soft">
+              Your role may look at this bench but not change it. An object&apos;s first link is its
+              sending address (solid wire). F fits the view, / searches.
+            </p>
+          )}
         </aside>
         <div className="min-w-0 flex-1">
           {viewing !== null ? (
@@ -438,7 +445,7 @@ function EditorLayout({
               onClose={() => setViewing(null)}
             />
           ) : (
-            <BenchCanvas findings={findings} floorPlan={floorPlan} />
+            <BenchCanvas findings={findings} floorPlan={floorPlan} readOnly={!canEdit} />
           )}
         </div>
         <aside className="flex w-[26rem] shrink-0 flex-col border-l border-paper-line bg-paper">
@@ -474,14 +481,19 @@ function EditorLayout({
           <div className="min-h-0 flex-1 overflow-y-auto p-3">
             {tab === "selection" ? (
               selectedDevice ? (
-                <DevicePanel key={selectedDevice.id} deviceId={selectedDevice.id} />
+                <DevicePanel
+                  key={selectedDevice.id}
+                  deviceId={selectedDevice.id}
+                  readOnly={!canEdit}
+                />
               ) : (
                 <p className="text-sm text-ink-soft">
-                  Select a device on the canvas to edit its parameters and group objects.
+                  Select a device on the canvas to {canEdit ? "edit" : "see"} its parameters and
+                  group objects.
                 </p>
               )
             ) : tab === "addresses" ? (
-              <AddressTable bench={bench} findings={findings} />
+              <AddressTable bench={bench} findings={findings} readOnly={!canEdit} />
             ) : tab === "checks" ? (
               <CheckList findings={findings} />
             ) : (
@@ -500,7 +512,8 @@ function EditorLayout({
   );
 }
 
-function DevicePanel({ deviceId }: { deviceId: string }) {
+/** The selected device's name, address, parameters and objects; shown, not editable, when `readOnly`. */
+function DevicePanel({ deviceId, readOnly }: { deviceId: string; readOnly: boolean }) {
   const storeApi = useEditorStoreApi();
   const bench = useEditor((s) => s.bench);
   const device = bench.devices.find((d) => d.id === deviceId);
@@ -513,6 +526,7 @@ function DevicePanel({ deviceId }: { deviceId: string }) {
           <input
             key={`name:${device.name}`}
             defaultValue={device.name}
+            readOnly={readOnly}
             onBlur={(e) =>
               e.target.value !== device.name &&
               storeApi.getState().apply((b) => renameDevice(b, device.id, e.target.value))
@@ -526,6 +540,7 @@ function DevicePanel({ deviceId }: { deviceId: string }) {
             <input
               key={`ia:${device.individualAddress}`}
               defaultValue={device.individualAddress}
+              readOnly={readOnly}
               onBlur={(e) =>
                 e.target.value !== device.individualAddress &&
                 storeApi
@@ -548,11 +563,11 @@ function DevicePanel({ deviceId }: { deviceId: string }) {
       </section>
       <section aria-label="Parameters">
         <h3 className="mb-2 text-sm font-semibold">Parameters</h3>
-        <ParameterPanel device={device} />
+        <ParameterPanel device={device} readOnly={readOnly} />
       </section>
       <section aria-label="Group objects">
         <h3 className="mb-2 text-sm font-semibold">Group objects</h3>
-        <ObjectList device={device} bench={bench} />
+        <ObjectList device={device} bench={bench} readOnly={readOnly} />
       </section>
     </div>
   );

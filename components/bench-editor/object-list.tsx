@@ -12,9 +12,18 @@ import { useEditor, useEditorStoreApi } from "./store/editor-context";
 /**
  * The selected device's group objects: DPT, the six flags as checkboxes, and
  * the linked addresses with the sending one first and marked. A listening
- * address can be made the sending one, and any link removed.
+ * address can be made the sending one, and any link removed; with `readOnly`
+ * all of it is shown and nothing can be changed.
  */
-export function ObjectList({ device, bench }: { device: BenchDevice; bench: Bench }) {
+export function ObjectList({
+  device,
+  bench,
+  readOnly = false,
+}: {
+  device: BenchDevice;
+  bench: Bench;
+  readOnly?: boolean;
+}) {
   const store = useEditorStoreApi();
   const focus = useEditor((s) => s.selection.object);
   const objects = deviceObjects(device);
@@ -70,42 +79,54 @@ export function ObjectList({ device, bench }: { device: BenchDevice; bench: Benc
                         key={link.groupAddress}
                         className="flex items-center gap-1 rounded bg-paper-deep px-1"
                       >
-                        <button
-                          type="button"
-                          className={`font-mono ${index === 0 ? "font-semibold text-copper-deep" : ""}`}
-                          title={
-                            index === 0
-                              ? `Sending address: ${name}`
-                              : `Listens to ${name}; click to make it the sending address`
-                          }
-                          onClick={() =>
-                            index > 0 &&
-                            store
-                              .getState()
-                              .apply(
-                                (b) => setSendingAddress(b, target),
-                                `${link.groupAddress} is now the sending address`,
-                              )
-                          }
-                        >
-                          {index === 0 ? "▸" : ""}
-                          {link.groupAddress}
-                        </button>
-                        <button
-                          type="button"
-                          aria-label={`Unlink ${link.groupAddress}`}
-                          className="text-ink-soft hover:text-fault"
-                          onClick={() =>
-                            store
-                              .getState()
-                              .apply(
-                                (b) => disconnectObject(b, target),
-                                `Unlinked ${link.groupAddress}`,
-                              )
-                          }
-                        >
-                          ×
-                        </button>
+                        {readOnly ? (
+                          <span
+                            className={`font-mono ${index === 0 ? "font-semibold text-copper-deep" : ""}`}
+                            title={index === 0 ? `Sending address: ${name}` : `Listens to ${name}`}
+                          >
+                            {index === 0 ? "▸" : ""}
+                            {link.groupAddress}
+                          </span>
+                        ) : (
+                          <>
+                            <button
+                              type="button"
+                              className={`font-mono ${index === 0 ? "font-semibold text-copper-deep" : ""}`}
+                              title={
+                                index === 0
+                                  ? `Sending address: ${name}`
+                                  : `Listens to ${name}; click to make it the sending address`
+                              }
+                              onClick={() =>
+                                index > 0 &&
+                                store
+                                  .getState()
+                                  .apply(
+                                    (b) => setSendingAddress(b, target),
+                                    `${link.groupAddress} is now the sending address`,
+                                  )
+                              }
+                            >
+                              {index === 0 ? "▸" : ""}
+                              {link.groupAddress}
+                            </button>
+                            <button
+                              type="button"
+                              aria-label={`Unlink ${link.groupAddress}`}
+                              className="text-ink-soft hover:text-fault"
+                              onClick={() =>
+                                store
+                                  .getState()
+                                  .apply(
+                                    (b) => disconnectObject(b, target),
+                                    `Unlinked ${link.groupAddress}`,
+                                  )
+                              }
+                            >
+                              ×
+                            </button>
+                          </>
+                        )}
                       </li>
                     );
                   })}
@@ -117,8 +138,10 @@ export function ObjectList({ device, bench }: { device: BenchDevice; bench: Benc
                     type="checkbox"
                     className="accent-copper"
                     checked={object.flags[f.key]}
+                    disabled={readOnly}
                     aria-label={`${f.label} flag of object ${object.number}`}
                     onChange={(e) =>
+                      !readOnly &&
                       store.getState().apply((b) =>
                         setObjectFlags(b, device.id, object.number, {
                           [f.key]: e.target.checked,

@@ -42,9 +42,11 @@ interface FieldProps {
   readonly control: Control<Values>;
   readonly errors: FieldErrors<Values>;
   readonly submit: () => void;
+  /** Shown but not changeable: no adding or removing items either. */
+  readonly readOnly: boolean;
 }
 
-function FieldView({ field, path, register, control, errors, submit }: FieldProps) {
+function FieldView({ field, path, register, control, errors, submit, readOnly }: FieldProps) {
   const label = fieldLabel(fieldKey(field));
   const error = errorAt(errors, path);
   const id = `param-${path}`;
@@ -145,6 +147,7 @@ function FieldView({ field, path, register, control, errors, submit }: FieldProp
               control={control}
               errors={errors}
               submit={submit}
+              readOnly={readOnly}
             />
           ))}
         </fieldset>
@@ -158,6 +161,7 @@ function FieldView({ field, path, register, control, errors, submit }: FieldProp
           control={control}
           errors={errors}
           submit={submit}
+          readOnly={readOnly}
         />
       ) : (
         <p className="text-xs text-ink-soft">{label}: edit in the bench file</p>
@@ -174,12 +178,13 @@ function ArrayFieldView({
   control,
   errors,
   submit,
+  readOnly,
 }: FieldProps & { field: Extract<ParameterField, { kind: "array" }> }) {
   const { fields, append, remove } = useFieldArray({ control, name: path as never });
   const label = fieldLabel(fieldKey(field));
   const element = field.element;
-  const canAdd = field.maxItems === undefined || fields.length < field.maxItems;
-  const canRemove = fields.length > (field.minItems ?? 0);
+  const canAdd = !readOnly && (field.maxItems === undefined || fields.length < field.maxItems);
+  const canRemove = !readOnly && fields.length > (field.minItems ?? 0);
   return (
     <fieldset className="flex flex-col gap-2 rounded border border-paper-line p-2">
       <legend className="px-1 text-xs font-semibold">
@@ -214,6 +219,7 @@ function ArrayFieldView({
                   control={control}
                   errors={errors}
                   submit={submit}
+                  readOnly={readOnly}
                 />
               ))
             : null}
@@ -239,8 +245,15 @@ function ArrayFieldView({
  * The selected device's parameters as a form generated from its type's zod
  * schema. Every valid change is applied at once (so the object list and the
  * card follow), invalid values are shown beside the field and not applied.
+ * With `readOnly` the values are shown in disabled fields and nothing applies.
  */
-export function ParameterPanel({ device }: { device: BenchDevice }) {
+export function ParameterPanel({
+  device,
+  readOnly = false,
+}: {
+  device: BenchDevice;
+  readOnly?: boolean;
+}) {
   const type = getDeviceType(device.type);
   if (type === undefined)
     return <p className="text-sm text-fault">Unknown device type “{device.type}”.</p>;
@@ -250,11 +263,20 @@ export function ParameterPanel({ device }: { device: BenchDevice }) {
       key={`${device.id}:${JSON.stringify(device.parameters)}`}
       device={device}
       schema={type.parameters}
+      readOnly={readOnly}
     />
   );
 }
 
-function ParameterForm({ device, schema }: { device: BenchDevice; schema: z.ZodType }) {
+function ParameterForm({
+  device,
+  schema,
+  readOnly,
+}: {
+  device: BenchDevice;
+  schema: z.ZodType;
+  readOnly: boolean;
+}) {
   const store = useEditorStoreApi();
   const type = getDeviceType(device.type)!;
   const fields = useMemo(() => parameterFields(schema), [schema]);
@@ -264,6 +286,7 @@ function ParameterForm({ device, schema }: { device: BenchDevice; schema: z.ZodT
     mode: "onChange",
   });
   const submit = () => {
+    if (readOnly) return;
     // Deferred one task so react-hook-form has the changed value before validating.
     setTimeout(
       () =>
@@ -285,17 +308,21 @@ function ParameterForm({ device, schema }: { device: BenchDevice; schema: z.ZodT
       className="flex flex-col gap-3"
       onSubmit={(e) => e.preventDefault()}
     >
-      {fields.map((field) => (
-        <FieldView
-          key={field.name}
-          field={field}
-          path={fieldKey(field)}
-          register={form.register}
-          control={form.control}
-          errors={form.formState.errors}
-          submit={submit}
-        />
-      ))}
+      {/* A disabled fieldset disables every field inside it, however deeply nested. */}
+      <fieldset disabled={readOnly} className="contents">
+        {fields.map((field) => (
+          <FieldView
+            key={field.name}
+            field={field}
+            path={fieldKey(field)}
+            register={form.register}
+            control={form.control}
+            errors={form.formState.errors}
+            submit={submit}
+            readOnly={readOnly}
+          />
+        ))}
+      </fieldset>
     </form>
   );
 }
