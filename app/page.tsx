@@ -1,5 +1,7 @@
+import { navItemsFor } from "@/app/_lib/capabilities";
+import { getSession } from "@/app/_lib/dal";
 import { AppShell } from "@/components/shell/app-shell";
-import { navItems } from "@/components/shell/nav-items";
+import { type NavItem, navItems } from "@/components/shell/nav-items";
 import { Mono } from "@/components/ui/mono";
 import { PageHeader } from "@/components/ui/page-header";
 import { Panel } from "@/components/ui/panel";
@@ -28,9 +30,22 @@ const audiences = [
   },
 ] as const;
 
-export default function HomePage() {
+/** What a signed-out visitor can open: the studio pages would only redirect to it. */
+const signedOutItems: readonly NavItem[] = [
+  {
+    href: "/sign-in",
+    label: "Sign in",
+    summary: "Sign in to open your workspace's benches, scenarios and labs.",
+    ready: true,
+  },
+];
+
+export default async function HomePage() {
+  // The home page is public; the navigation offers the studio only to someone signed in,
+  // so a visitor's browser never prefetches pages that would redirect to sign-in.
+  const session = await getSession();
   return (
-    <AppShell>
+    <AppShell items={session ? navItemsFor(session.role, navItems) : signedOutItems}>
       <div className="mx-auto flex max-w-5xl flex-col gap-8 px-6 py-8 md:px-10">
         <PageHeader
           title="A KNX test bench in the browser"
