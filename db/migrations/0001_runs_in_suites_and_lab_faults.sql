@@ -24,7 +24,7 @@ CREATE TABLE `suite_runs` (
 --> statement-breakpoint
 CREATE INDEX `suite_runs_workspace_time_idx` ON `suite_runs` (`workspace_id`,`created_at`);--> statement-breakpoint
 ALTER TABLE `labs` ADD `hidden_faults` text DEFAULT '[]' NOT NULL;--> statement-breakpoint
-ALTER TABLE `runs` ADD `suite_run_id` text REFERENCES suite_runs(id);--> statement-breakpoint
+ALTER TABLE `runs` ADD `suite_run_id` text REFERENCES suite_runs(id) ON DELETE cascade;--> statement-breakpoint
 ALTER TABLE `runs` ADD `position` integer DEFAULT 0 NOT NULL;--> statement-breakpoint
 ALTER TABLE `runs` ADD `scenario_name` text DEFAULT '' NOT NULL;--> statement-breakpoint
 ALTER TABLE `runs` ADD `scenario_document` text;--> statement-breakpoint
