@@ -2,40 +2,16 @@ import { describe, expect, it } from "vitest";
 import type { BenchInput } from "./bench-schema";
 import { migrateBench } from "./bench-migrations";
 import { loadBench } from "./load-bench";
+import { hallFixture } from "@/test/harness/fixture-benches";
 
 function bench(overrides: Partial<BenchInput> = {}): BenchInput {
   return {
-    format: 1,
-    name: "Lab bench",
-    lines: [{ id: "main", address: "1.1", name: "Main line" }],
-    testToolAddress: "1.1.250",
-    groupAddresses: [
-      { address: "1/0/1", name: "Hall light", dpt: "1.001" },
-      { address: "1/0/2", name: "Hall light status", dpt: "1.001" },
-      { address: "1/0/3", name: "Hall dim value", dpt: "5.001" },
-    ],
-    devices: [
-      {
-        id: "pb-hall",
-        type: "push-button",
-        name: "Hall rocker",
-        individualAddress: "1.1.1",
-        parameters: {},
-      },
-      {
-        id: "act-hall",
-        type: "switch-actuator",
-        name: "Hall relay",
-        individualAddress: "1.1.2",
-        parameters: { channels: 1 },
-      },
-    ],
-    links: [
-      { device: "pb-hall", object: 0, groupAddress: "1/0/1" },
-      { device: "pb-hall", object: 0, groupAddress: "1/0/2" },
-      { device: "act-hall", object: 0, groupAddress: "1/0/1" },
-      { device: "act-hall", object: 1, groupAddress: "1/0/2" },
-    ],
+    ...hallFixture()
+      .named("Lab bench")
+      .link("pb-hall", 0, "1/0/1", "1/0/2")
+      .link("act-hall", 0, "1/0/1")
+      .link("act-hall", 1, "1/0/2")
+      .build(),
     ...overrides,
   };
 }

@@ -9,6 +9,7 @@ import { telegramOccupancyUs } from "../frame";
 import { benchCheckRules, checkBench } from "./check-bench";
 import { estimateLineLoad } from "./line-load";
 import { benchView } from "./bench-view";
+import { lightsFixture } from "@/test/harness/fixture-benches";
 
 // A test-only sensor: one 9.001 status object and the HVAC family's room-temperature sending block.
 const loadSensorType: DeviceType<
@@ -54,34 +55,7 @@ function bench(input: Partial<BenchInput>): Bench {
 }
 
 // A button switching an actuator, with the status fed back to the button: nothing to report.
-const lightsOk = {
-  groupAddresses: [
-    { address: "1/0/1", name: "Lights switch", dpt: "1.001" },
-    { address: "1/1/1", name: "Lights status", dpt: "1.001" },
-  ],
-  devices: [
-    {
-      id: "pb-1",
-      type: "push-button",
-      name: "Door button",
-      individualAddress: "1.1.1",
-      parameters: {},
-    },
-    {
-      id: "act-1",
-      type: "switch-actuator",
-      name: "Lights actuator",
-      individualAddress: "1.1.2",
-      parameters: {},
-    },
-  ],
-  links: [
-    { device: "pb-1", object: 0, groupAddress: "1/0/1" },
-    { device: "pb-1", object: 0, groupAddress: "1/1/1" },
-    { device: "act-1", object: 0, groupAddress: "1/0/1" },
-    { device: "act-1", object: 1, groupAddress: "1/1/1" },
-  ],
-};
+const lightsOk = lightsFixture().named("fixture").build();
 
 const rulesOf = (b: Bench, rule: string) => checkBench(b, { rules: [rule] });
 

@@ -1,42 +1,11 @@
 import { describe, expect, it } from "vitest";
-import type { BenchInput } from "../bench";
+import { lightsFixture } from "@/test/harness/fixture-benches";
 import { parseScenario } from "./parse-scenario";
 import { runScenario } from "./run-scenario";
 import type { ScenarioDocument } from "./scenario-schema";
 
 // A push-button toggling a switch actuator whose status feeds back to the button.
-const lightsBench: BenchInput = {
-  format: 1,
-  name: "Runner fixture",
-  lines: [{ id: "line-1", address: "1.1", name: "Line 1" }],
-  testToolAddress: "1.1.250",
-  groupAddresses: [
-    { address: "1/0/1", name: "Lights switch", dpt: "1.001" },
-    { address: "1/1/1", name: "Lights status", dpt: "1.001" },
-  ],
-  devices: [
-    {
-      id: "pb-1",
-      type: "push-button",
-      name: "Door button",
-      individualAddress: "1.1.1",
-      parameters: {},
-    },
-    {
-      id: "act-1",
-      type: "switch-actuator",
-      name: "Lights actuator",
-      individualAddress: "1.1.2",
-      parameters: {},
-    },
-  ],
-  links: [
-    { device: "pb-1", object: 0, groupAddress: "1/0/1" },
-    { device: "pb-1", object: 0, groupAddress: "1/1/1" },
-    { device: "act-1", object: 0, groupAddress: "1/0/1" },
-    { device: "act-1", object: 1, groupAddress: "1/1/1" },
-  ],
-};
+const lightsBench = lightsFixture().named("Runner fixture").build();
 
 function scenario(steps: ScenarioDocument["steps"], extra: Partial<ScenarioDocument> = {}) {
   const parsed = parseScenario({

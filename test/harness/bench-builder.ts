@@ -5,6 +5,14 @@ type Link = NonNullable<BenchInput["links"]>[number];
 type GroupAddress = NonNullable<BenchInput["groupAddresses"]>[number];
 type UnitLink = NonNullable<BenchInput["unitLinks"]>[number];
 
+/** What `build()` returns: a bench document whose lists are always there, so a test can spread or index them. */
+export type BuiltBench = BenchInput & {
+  groupAddresses: GroupAddress[];
+  devices: Device[];
+  links: Link[];
+  unitLinks: UnitLink[];
+};
+
 /**
  * Builds bench documents for tests without repeating the boilerplate:
  *
@@ -32,8 +40,19 @@ export class BenchBuilder {
     unitLinks: [],
   };
 
-  line(id: string, address: string): this {
-    this.doc.lines.push({ id, address, name: id });
+  named(name: string): this {
+    this.doc.name = name;
+    return this;
+  }
+
+  /** Replaces the first line ("main", 1.1), the one devices sit on unless they name another. */
+  mainLine(id: string, address: string, name = id): this {
+    this.doc.lines[0] = { id, address, name };
+    return this;
+  }
+
+  line(id: string, address: string, name = id): this {
+    this.doc.lines.push({ id, address, name });
     return this;
   }
 
@@ -77,7 +96,7 @@ export class BenchBuilder {
     return this;
   }
 
-  build(): BenchInput {
+  build(): BuiltBench {
     return { format: 1, ...structuredClone(this.doc) };
   }
 }

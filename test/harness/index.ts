@@ -1,5 +1,6 @@
 export { SimHarness, type Duration } from "./sim-harness";
-export { BenchBuilder, benchBuilder } from "./bench-builder";
+export { BenchBuilder, benchBuilder, type BuiltBench } from "./bench-builder";
+export { hallFixture, lightsFixture } from "./fixture-benches";
 export {
   registerTestDevices,
   testRecorderType,
