@@ -4,30 +4,31 @@ import { BaseEdge, getBezierPath, getSmoothStepPath, type EdgeProps } from "@xyf
 import { memo } from "react";
 import type { LinkEdge, UnitLinkEdge } from "./bench-graph";
 
-/**
- * A link from an object's port to a bus-bar. The object's sending link is a
- * solid copper wire with an arrow into the bar; the addresses it only listens
- * to are dashed.
- */
-function LinkEdgeView({
-  id,
+type EdgeEnds = Pick<
+  EdgeProps,
+  "sourceX" | "sourceY" | "targetX" | "targetY" | "sourcePosition" | "targetPosition"
+>;
+
+/** Where an edge starts and ends, picked from its props for xyflow's path functions. */
+function edgeEnds({
   sourceX,
   sourceY,
   targetX,
   targetY,
   sourcePosition,
   targetPosition,
-  data,
-  selected,
-}: EdgeProps<LinkEdge>) {
-  const [path] = getBezierPath({
-    sourceX,
-    sourceY,
-    targetX,
-    targetY,
-    sourcePosition,
-    targetPosition,
-  });
+}: EdgeEnds): EdgeEnds {
+  return { sourceX, sourceY, targetX, targetY, sourcePosition, targetPosition };
+}
+
+/**
+ * A link from an object's port to a bus-bar. The object's sending link is a
+ * solid copper wire with an arrow into the bar; the addresses it only listens
+ * to are dashed.
+ */
+function LinkEdgeView(props: EdgeProps<LinkEdge>) {
+  const { id, data, selected } = props;
+  const [path] = getBezierPath(edgeEnds(props));
   const sending = data?.sending ?? false;
   return (
     <BaseEdge
@@ -44,27 +45,11 @@ function LinkEdgeView({
 }
 
 /** The HVAC wiring between a gateway, its indoor unit and wall controllers: a grey double-dotted cable. */
-function UnitLinkEdgeView({
-  id,
-  sourceX,
-  sourceY,
-  targetX,
-  targetY,
-  sourcePosition,
-  targetPosition,
-}: EdgeProps<UnitLinkEdge>) {
-  const [path] = getSmoothStepPath({
-    sourceX,
-    sourceY,
-    targetX,
-    targetY,
-    sourcePosition,
-    targetPosition,
-    offset: 28,
-  });
+function UnitLinkEdgeView(props: EdgeProps<UnitLinkEdge>) {
+  const [path] = getSmoothStepPath({ ...edgeEnds(props), offset: 28 });
   return (
     <BaseEdge
-      id={id}
+      id={props.id}
       path={path}
       style={{
         stroke: "#e7e3da",
