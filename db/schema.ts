@@ -46,10 +46,15 @@ const id = () =>
     .primaryKey()
     .$defaultFn(() => crypto.randomUUID());
 
-const createdAt = () =>
-  integer("created_at", { mode: "timestamp_ms" })
+/** A time the row is given when it is written, unless the insert sets one. */
+const timestampNow = (name: string) =>
+  integer(name, { mode: "timestamp_ms" })
     .notNull()
     .$defaultFn(() => new Date());
+
+const createdAt = () => timestampNow("created_at");
+
+const updatedAt = () => timestampNow("updated_at");
 
 const timestamp = (name: string) => integer(name, { mode: "timestamp_ms" });
 
@@ -65,6 +70,12 @@ export const workspaces = sqliteTable("workspaces", {
   name: text("name").notNull(),
   createdAt: createdAt(),
 });
+
+/** The workspace a row belongs to; deleting the workspace deletes the row. */
+const workspaceId = () =>
+  text("workspace_id")
+    .notNull()
+    .references(() => workspaces.id, { onDelete: "cascade" });
 
 export const users = sqliteTable("users", {
   id: id(),
@@ -83,6 +94,10 @@ export const users = sqliteTable("users", {
   createdAt: createdAt(),
 });
 
+/** The user who did something to a row (created, started, reviewed it); the row outlives the account. */
+const actingUserId = (column: string) =>
+  text(column).references(() => users.id, { onDelete: "set null" });
+
 export const memberships = sqliteTable(
   "memberships",
   {
@@ -90,9 +105,7 @@ export const memberships = sqliteTable(
     userId: text("user_id")
       .notNull()
       .references(() => users.id, { onDelete: "cascade" }),
-    workspaceId: text("workspace_id")
-      .notNull()
-      .references(() => workspaces.id, { onDelete: "cascade" }),
+    workspaceId: workspaceId(),
     role: text("role", { enum: roles }).notNull(),
     createdAt: createdAt(),
   },
@@ -107,9 +120,7 @@ export const invitations = sqliteTable(
   "invitations",
   {
     id: id(),
-    workspaceId: text("workspace_id")
-      .notNull()
-      .references(() => workspaces.id, { onDelete: "cascade" }),
+    workspaceId: workspaceId(),
     email: text("email").notNull(),
     role: text("role", { enum: roles }).notNull(),
     /** SHA-256 of the token sent by e-mail; the token itself is never stored. */
@@ -166,12 +177,10 @@ export const benches = sqliteTable(
   "benches",
   {
     id: id(),
-    workspaceId: text("workspace_id")
-      .notNull()
-      .references(() => workspaces.id, { onDelete: "cascade" }),
+    workspaceId: workspaceId(),
     name: text("name").notNull(),
     description: text("description").notNull().default(""),
-    createdBy: text("created_by").references(() => users.id, { onDelete: "set null" }),
+    createdBy: actingUserId("created_by"),
     /**
      * Set for a private copy (an apprentice's sandbox or lab copy): only this
      * user and the workspace's trainers and admins see it.
@@ -182,9 +191,7 @@ export const benches = sqliteTable(
       onDelete: "set null",
     }),
     createdAt: createdAt(),
-    updatedAt: integer("updated_at", { mode: "timestamp_ms" })
-      .notNull()
-      .$defaultFn(() => new Date()),
+    updatedAt: updatedAt(),
     archivedAt: timestamp("archived_at"),
   },
   (t) => [
@@ -205,7 +212,7 @@ export const benchRevisions = sqliteTable(
     number: integer("number").notNull(),
     /** The bench document as JSON text, in the engine's bench format. */
     document: text("document").notNull(),
-    authorId: text("author_id").references(() => users.id, { onDelete: "set null" }),
+    authorId: actingUserId("author_id"),
     summary: text("summary").notNull().default(""),
     createdAt: createdAt(),
   },
@@ -216,20 +223,16 @@ export const scenarios = sqliteTable(
   "scenarios",
   {
     id: id(),
-    workspaceId: text("workspace_id")
-      .notNull()
-      .references(() => workspaces.id, { onDelete: "cascade" }),
+    workspaceId: workspaceId(),
     benchId: text("bench_id")
       .notNull()
       .references(() => benches.id, { onDelete: "cascade" }),
     name: text("name").notNull(),
     /** The scenario document as JSON text, in the engine's scenario format. */
     document: text("document").notNull(),
-    createdBy: text("created_by").references(() => users.id, { onDelete: "set null" }),
+    createdBy: actingUserId("created_by"),
     createdAt: createdAt(),
-    updatedAt: integer("updated_at", { mode: "timestamp_ms" })
-      .notNull()
-      .$defaultFn(() => new Date()),
+    updatedAt: updatedAt(),
   },
   (t) => [
     index("scenarios_workspace_idx").on(t.workspaceId),
@@ -241,12 +244,10 @@ export const suites = sqliteTable(
   "suites",
   {
     id: id(),
-    workspaceId: text("workspace_id")
-      .notNull()
-      .references(() => workspaces.id, { onDelete: "cascade" }),
+    workspaceId: workspaceId(),
     name: text("name").notNull(),
     description: text("description").notNull().default(""),
-    createdBy: text("created_by").references(() => users.id, { onDelete: "set null" }),
+    createdBy: actingUserId("created_by"),
     createdAt: createdAt(),
   },
   (t) => [index("suites_workspace_idx").on(t.workspaceId)],
@@ -282,9 +283,7 @@ export const suiteRuns = sqliteTable(
   "suite_runs",
   {
     id: id(),
-    workspaceId: text("workspace_id")
-      .notNull()
-      .references(() => workspaces.id, { onDelete: "cascade" }),
+    workspaceId: workspaceId(),
     suiteId: text("suite_id").references(() => suites.id, { onDelete: "set null" }),
     /** The suite's name when it ran, kept for history after a rename or delete. */
     suiteName: text("suite_name").notNull(),
@@ -299,7 +298,7 @@ export const suiteRuns = sqliteTable(
     scenariosDone: integer("scenarios_done").notNull().default(0),
     /** Scenarios whose outcome counts as passing (passed, or failed as expected). */
     scenariosOk: integer("scenarios_ok").notNull().default(0),
-    startedBy: text("started_by").references(() => users.id, { onDelete: "set null" }),
+    startedBy: actingUserId("started_by"),
     createdAt: createdAt(),
     startedAt: timestamp("started_at"),
     finishedAt: timestamp("finished_at"),
@@ -317,9 +316,7 @@ export const runs = sqliteTable(
   "runs",
   {
     id: id(),
-    workspaceId: text("workspace_id")
-      .notNull()
-      .references(() => workspaces.id, { onDelete: "cascade" }),
+    workspaceId: workspaceId(),
     scenarioId: text("scenario_id").references(() => scenarios.id, { onDelete: "set null" }),
     suiteId: text("suite_id").references(() => suites.id, { onDelete: "set null" }),
     benchRevisionId: text("bench_revision_id")
@@ -334,7 +331,7 @@ export const runs = sqliteTable(
     stepsTotal: integer("steps_total").notNull().default(0),
     /** Per-step verdicts with their trace slices, as JSON text. */
     results: text("results"),
-    startedBy: text("started_by").references(() => users.id, { onDelete: "set null" }),
+    startedBy: actingUserId("started_by"),
     createdAt: createdAt(),
     startedAt: timestamp("started_at"),
     finishedAt: timestamp("finished_at"),
@@ -372,10 +369,8 @@ export const uploads = sqliteTable(
   "uploads",
   {
     id: id(),
-    workspaceId: text("workspace_id")
-      .notNull()
-      .references(() => workspaces.id, { onDelete: "cascade" }),
-    uploadedBy: text("uploaded_by").references(() => users.id, { onDelete: "set null" }),
+    workspaceId: workspaceId(),
+    uploadedBy: actingUserId("uploaded_by"),
     /** The bench the file belongs to (a floor plan); goes with the bench. */
     benchId: text("bench_id").references(() => benches.id, { onDelete: "cascade" }),
     /** What the file is for on its bench; null for a plain upload. */
@@ -435,9 +430,7 @@ export const labs = sqliteTable(
   "labs",
   {
     id: id(),
-    workspaceId: text("workspace_id")
-      .notNull()
-      .references(() => workspaces.id, { onDelete: "cascade" }),
+    workspaceId: workspaceId(),
     title: text("title").notNull(),
     brief: text("brief").notNull().default(""),
     benchId: text("bench_id")
@@ -451,7 +444,7 @@ export const labs = sqliteTable(
      * edits to the bench document, see app/_lib/labs/hidden-faults.ts).
      */
     hiddenFaults: text("hidden_faults").notNull().default("[]"),
-    createdBy: text("created_by").references(() => users.id, { onDelete: "set null" }),
+    createdBy: actingUserId("created_by"),
     createdAt: createdAt(),
     archivedAt: timestamp("archived_at"),
   },
@@ -469,7 +462,7 @@ export const labAssignments = sqliteTable(
     apprenticeId: text("apprentice_id")
       .notNull()
       .references(() => users.id, { onDelete: "cascade" }),
-    assignedBy: text("assigned_by").references(() => users.id, { onDelete: "set null" }),
+    assignedBy: actingUserId("assigned_by"),
     dueAt: timestamp("due_at"),
     /** The apprentice's private copy of the lab bench, made when the lab is first opened. */
     privateBenchId: text("private_bench_id").references(() => benches.id, {
@@ -495,12 +488,10 @@ export const labAttempts = sqliteTable(
       .notNull()
       .references(() => benchRevisions.id, { onDelete: "restrict" }),
     runId: text("run_id").references(() => runs.id, { onDelete: "set null" }),
-    submittedAt: integer("submitted_at", { mode: "timestamp_ms" })
-      .notNull()
-      .$defaultFn(() => new Date()),
+    submittedAt: timestampNow("submitted_at"),
     /** Trainer's note when reviewing. */
     reviewNote: text("review_note"),
-    reviewedBy: text("reviewed_by").references(() => users.id, { onDelete: "set null" }),
+    reviewedBy: actingUserId("reviewed_by"),
     reviewedAt: timestamp("reviewed_at"),
   },
   (t) => [index("lab_attempts_assignment_idx").on(t.assignmentId)],
