@@ -5,7 +5,7 @@ import { findBench } from "@/db/queries/benches";
 import { findRun } from "@/db/queries/runs";
 import { findScenario } from "@/db/queries/scenarios";
 import { findSuite } from "@/db/queries/suites";
-import { can, scopeOf } from "./capabilities";
+import { maySeeBench, scopeOf } from "./capabilities";
 import type { VerifiedSession } from "./dal";
 import { AppError } from "./errors";
 
@@ -30,13 +30,7 @@ export const resourceIdSchema = z
 export function loadVisibleBench(session: Who, benchId: string) {
   const bench = findBench({ workspaceId: session.workspaceId, benchId });
   if (!bench || bench.archivedAt !== null) throw new AppError("not_found", "no such bench");
-  if (
-    bench.privateOwnerId !== null &&
-    bench.privateOwnerId !== session.userId &&
-    !can(session.role, "labs.manage")
-  ) {
-    throw new AppError("not_found", "no such bench");
-  }
+  if (!maySeeBench(session, bench)) throw new AppError("not_found", "no such bench");
   return bench;
 }
 

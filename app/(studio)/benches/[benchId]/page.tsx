@@ -1,6 +1,6 @@
 import type { Metadata } from "next";
 import { notFound } from "next/navigation";
-import { can, canOn } from "@/app/_lib/capabilities";
+import { can, canOn, maySeeBench } from "@/app/_lib/capabilities";
 import { requireCapability } from "@/app/_lib/dal";
 import { benchSchema } from "@/engine/bench";
 import { findBench, latestRevision } from "@/db/queries/benches";
@@ -19,12 +19,7 @@ export default async function BenchEditorPage({
   const session = await requireCapability("benches.read");
   const bench = findBench({ workspaceId: session.workspaceId, benchId });
   if (!bench || bench.archivedAt !== null) notFound();
-  if (
-    bench.privateOwnerId !== null &&
-    bench.privateOwnerId !== session.userId &&
-    !can(session.role, "labs.manage")
-  )
-    notFound();
+  if (!maySeeBench(session, bench)) notFound();
   const revision = latestRevision({ benchId: bench.id });
   if (!revision) notFound();
   // Stored documents were checked on the way in; parse again so the editor gets the defaults filled.

@@ -1,7 +1,7 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
-import { can, canOn } from "@/app/_lib/capabilities";
+import { canOn, maySeeBench } from "@/app/_lib/capabilities";
 import { requireCapability } from "@/app/_lib/dal";
 import { findBench } from "@/db/queries/benches";
 import { listRunHistory } from "@/db/queries/runs";
@@ -24,14 +24,7 @@ export default async function ScenarioPage({
   const scenario = findScenario({ workspaceId: session.workspaceId, scenarioId });
   if (!scenario) notFound();
   const bench = findBench({ workspaceId: session.workspaceId, benchId: scenario.benchId });
-  if (
-    !bench ||
-    (bench.privateOwnerId !== null &&
-      bench.privateOwnerId !== session.userId &&
-      !can(session.role, "labs.manage"))
-  ) {
-    notFound();
-  }
+  if (!bench || !maySeeBench(session, bench)) notFound();
   let document: unknown = null;
   try {
     document = JSON.parse(scenario.document);

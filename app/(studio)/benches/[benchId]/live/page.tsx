@@ -1,6 +1,6 @@
 import type { Metadata } from "next";
 import { notFound } from "next/navigation";
-import { can, canOn } from "@/app/_lib/capabilities";
+import { canOn, maySeeBench } from "@/app/_lib/capabilities";
 import { requireCapability } from "@/app/_lib/dal";
 import { findBench, latestRevision } from "@/db/queries/benches";
 import { LiveConsole } from "@/components/console/live-console";
@@ -20,12 +20,7 @@ export default async function LiveBenchPage({ params }: { params: Promise<{ benc
   const bench = findBench({ workspaceId: session.workspaceId, benchId });
   if (!bench || bench.archivedAt !== null) notFound();
   // Someone else's private copy is visible only to lab managers; "own" scope only on one's own copies.
-  if (
-    bench.privateOwnerId !== null &&
-    bench.privateOwnerId !== session.userId &&
-    !can(session.role, "labs.manage")
-  )
-    notFound();
+  if (!maySeeBench(session, bench)) notFound();
   if (!canOn(session, "console.use", bench.privateOwnerId)) notFound();
   const revision = latestRevision({ benchId: bench.id });
   if (!revision) notFound();
