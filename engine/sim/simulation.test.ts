@@ -37,6 +37,17 @@ function lightBench() {
     .build();
 }
 
+// Two recorders r1 (1.1.11) and r2 (1.1.12) both listening to the 7.001 address 1/1/1.
+function twoListenersBench() {
+  return benchBuilder()
+    .groupAddress("1/1/1", "7.001")
+    .device("r1", "test-recorder", "1.1.11")
+    .device("r2", "test-recorder", "1.1.12")
+    .link("r1", 0, "1/1/1")
+    .link("r2", 0, "1/1/1")
+    .build();
+}
+
 describe("push-button and switch actuator on a line", () => {
   it("toggles the relay from the rocker and keeps the rocker in step through the status", () => {
     const h = SimHarness.create(lightBench());
@@ -165,14 +176,7 @@ describe("TP1 timing", () => {
   });
 
   it("lets a listener that already took the frame ignore the repetition", () => {
-    const bench = benchBuilder()
-      .groupAddress("1/1/1", "7.001")
-      .device("r1", "test-recorder", "1.1.11")
-      .device("r2", "test-recorder", "1.1.12")
-      .link("r1", 0, "1/1/1")
-      .link("r2", 0, "1/1/1")
-      .build();
-    const h = SimHarness.create(bench);
+    const h = SimHarness.create(twoListenersBench());
     h.injectFault("r2", BUS_FAULTS.busy)
       .write("1/1/1", 7)
       .runFor("25ms")
@@ -187,14 +191,7 @@ describe("TP1 timing", () => {
     // r1 is BUSY, so the test tool's write is repeated; r1's own telegram goes on the line
     // between the first transmission and the repetition. r2 took the first transmission and
     // must not take the repetition again.
-    const bench = benchBuilder()
-      .groupAddress("1/1/1", "7.001")
-      .device("r1", "test-recorder", "1.1.11")
-      .device("r2", "test-recorder", "1.1.12")
-      .link("r1", 0, "1/1/1")
-      .link("r2", 0, "1/1/1")
-      .build();
-    const h = SimHarness.create(bench);
+    const h = SimHarness.create(twoListenersBench());
     h.injectFault("r1", BUS_FAULTS.busy)
       .input("r1", "send", 5)
       .write("1/1/1", 10_000, { priority: "system" })
