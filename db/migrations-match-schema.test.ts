@@ -13,8 +13,8 @@ import * as schema from "./schema";
 const db = openDatabase(":memory:");
 afterAll(() => db.$client.close());
 
-const tables = Object.values(schema).filter((value): value is SQLiteTable =>
-  is(value, SQLiteTable),
+const tables: SQLiteTable[] = Object.values(schema as Record<string, unknown>).filter(
+  (value): value is SQLiteTable => is(value, SQLiteTable),
 );
 
 interface ForeignKeyRow {
