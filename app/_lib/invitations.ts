@@ -300,7 +300,10 @@ export async function requestPasswordReset(email: string, now = new Date()): Pro
       asDb(tx),
     );
   });
-  await deliverPendingMail();
+  // Delivered after the answer, not awaited: waiting for the mail server only
+  // when the account exists would let the response time tell who has one.
+  // A failed delivery stays in the outbox and is retried with the next mail.
+  void deliverPendingMail().catch(() => undefined);
 }
 
 /** Finish a password reset: sets the password and ends every session of the account. */

@@ -89,12 +89,23 @@ export function queueMail(message: MailMessage, db?: Db) {
   });
 }
 
+let deliveries: Promise<unknown> = Promise.resolve();
+
 /**
  * Send every pending message, oldest first. A failure is recorded on the row
  * (retried on the next call, given up after 5 attempts) and never thrown: the
  * change that queued the mail has already happened.
+ *
+ * Calls run one after another: two overlapping passes would both read the same
+ * pending rows and send each message twice.
  */
-export async function deliverPendingMail(): Promise<{ sent: number; failed: number }> {
+export function deliverPendingMail(): Promise<{ sent: number; failed: number }> {
+  const pass = deliveries.then(deliverPendingMailNow);
+  deliveries = pass.catch(() => undefined);
+  return pass;
+}
+
+async function deliverPendingMailNow(): Promise<{ sent: number; failed: number }> {
   let sent = 0;
   let failed = 0;
   for (const mail of listPendingMail({})) {
