@@ -52,8 +52,9 @@ export function loadSuite(session: Who, suiteId: string) {
 export function loadVisibleRun(session: Who, runId: string) {
   const run = findRun({ workspaceId: session.workspaceId, runId });
   if (!run) throw new AppError("not_found", "no such run");
+  // Someone else's run is hidden as if absent, as its event stream and share routes do.
   if (scopeOf(session.role, "runs.read") === "own" && run.startedBy !== session.userId) {
-    throw new AppError("forbidden", `your role (${session.role}) sees only its own runs`);
+    throw new AppError("not_found", "no such run");
   }
   return run;
 }

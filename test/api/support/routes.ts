@@ -390,6 +390,7 @@ export const guardedRoutes: readonly GuardedRoute[] = [
     load: () => import("@/app/api/runs/[runId]/route"),
     capability: "runs.read",
     reach: "workspace",
+    hidesFromOwnScope: true,
     params: (w) => ({ runId: w.a.runId }),
   },
   {
