@@ -1,27 +1,16 @@
 "use client";
 
-import { useState } from "react";
 import { Button } from "@/components/ui/button";
 import { Field, FormMessage } from "../_components/field";
-import { sendJson } from "../_components/post-json";
+import { formText, useJsonForm } from "../_components/use-json-form";
 
 export function ForgotForm() {
-  const [pending, setPending] = useState(false);
-  const [sent, setSent] = useState(false);
-  const [error, setError] = useState<string | null>(null);
-
-  async function onSubmit(event: React.FormEvent<HTMLFormElement>) {
-    event.preventDefault();
-    const form = new FormData(event.currentTarget);
-    setPending(true);
-    setError(null);
-    const result = await sendJson("/api/session/password-reset", "POST", {
-      email: String(form.get("email") ?? ""),
-    });
-    setPending(false);
-    if (result.ok) setSent(true);
-    else setError(result.error.message);
-  }
+  const {
+    pending,
+    done: sent,
+    error,
+    onSubmit,
+  } = useJsonForm("/api/session/password-reset", (form) => ({ email: formText(form, "email") }));
 
   if (sent) {
     return (
@@ -37,7 +26,8 @@ export function ForgotForm() {
         name="email"
         type="email"
         autoComplete="username"
-        error={error ?? undefined}
+        // Every refusal (bad address, too many requests) is shown at the one field.
+        error={error?.message}
       />
       <Button type="submit" disabled={pending}>
         {pending ? "Sending…" : "Send reset link"}

@@ -1,31 +1,16 @@
 "use client";
 
-import { useState } from "react";
 import { Button } from "@/components/ui/button";
 import { Field, FormMessage } from "../_components/field";
-import { sendJson } from "../_components/post-json";
+import { formText, useJsonForm } from "../_components/use-json-form";
 
 export function SignInForm({ next }: { next: string }) {
-  const [pending, setPending] = useState(false);
-  const [error, setError] = useState<{ message: string; field?: string } | null>(null);
-
-  async function onSubmit(event: React.FormEvent<HTMLFormElement>) {
-    event.preventDefault();
-    const form = new FormData(event.currentTarget);
-    setPending(true);
-    setError(null);
-    const result = await sendJson("/api/session", "POST", {
-      email: String(form.get("email") ?? ""),
-      password: String(form.get("password") ?? ""),
-    });
-    if (result.ok) {
-      // A full navigation, so the studio layout renders with the new cookie.
-      window.location.assign(next);
-      return;
-    }
-    setPending(false);
-    setError(result.error);
-  }
+  const { pending, error, fieldError, onSubmit } = useJsonForm(
+    "/api/session",
+    (form) => ({ email: formText(form, "email"), password: formText(form, "password") }),
+    // A full navigation, so the studio layout renders with the new cookie; the form stays pending.
+    () => window.location.assign(next),
+  );
 
   return (
     <form onSubmit={onSubmit} className="flex flex-col gap-4" noValidate>
@@ -36,7 +21,7 @@ export function SignInForm({ next }: { next: string }) {
         type="email"
         autoComplete="username"
         required
-        error={error?.field === "email" ? error.message : undefined}
+        error={fieldError("email")}
       />
       <Field
         label="Password"
@@ -44,7 +29,7 @@ export function SignInForm({ next }: { next: string }) {
         type="password"
         autoComplete="current-password"
         required
-        error={error?.field === "password" ? error.message : undefined}
+        error={fieldError("password")}
       />
       <Button type="submit" disabled={pending}>
         {pending ? "Signing in…" : "Sign in"}

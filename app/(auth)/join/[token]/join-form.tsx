@@ -1,29 +1,18 @@
 "use client";
 
-import { useState } from "react";
 import { Button } from "@/components/ui/button";
 import { Field, FormMessage } from "../../_components/field";
-import { sendJson } from "../../_components/post-json";
+import { formText, useJsonForm } from "../../_components/use-json-form";
 
 export function JoinForm({ token, accountExists }: { token: string; accountExists: boolean }) {
-  const [pending, setPending] = useState(false);
-  const [done, setDone] = useState(false);
-  const [error, setError] = useState<{ message: string; field?: string } | null>(null);
-
-  async function onSubmit(event: React.FormEvent<HTMLFormElement>) {
-    event.preventDefault();
-    const form = new FormData(event.currentTarget);
-    setPending(true);
-    setError(null);
-    const result = await sendJson("/api/invitations/accept", "POST", {
+  const { pending, done, error, fieldError, onSubmit } = useJsonForm(
+    "/api/invitations/accept",
+    (form) => ({
       token,
-      ...(accountExists ? {} : { name: String(form.get("name") ?? "") }),
-      password: String(form.get("password") ?? ""),
-    });
-    setPending(false);
-    if (result.ok) setDone(true);
-    else setError(result.error);
-  }
+      ...(accountExists ? {} : { name: formText(form, "name") }),
+      password: formText(form, "password"),
+    }),
+  );
 
   if (done) {
     return (
@@ -36,7 +25,6 @@ export function JoinForm({ token, accountExists }: { token: string; accountExist
       </FormMessage>
     );
   }
-  const fieldError = (name: string) => (error?.field === name ? error.message : undefined);
   return (
     <form onSubmit={onSubmit} className="flex flex-col gap-4" noValidate>
       {error && !["name", "password"].includes(error.field ?? "") ? (

@@ -1,28 +1,14 @@
 "use client";
 
-import { useState } from "react";
 import { Button } from "@/components/ui/button";
 import { Field, FormMessage } from "../../_components/field";
-import { sendJson } from "../../_components/post-json";
+import { formText, useJsonForm } from "../../_components/use-json-form";
 
 export function ResetForm({ token }: { token: string }) {
-  const [pending, setPending] = useState(false);
-  const [done, setDone] = useState(false);
-  const [error, setError] = useState<{ message: string; field?: string } | null>(null);
-
-  async function onSubmit(event: React.FormEvent<HTMLFormElement>) {
-    event.preventDefault();
-    const form = new FormData(event.currentTarget);
-    setPending(true);
-    setError(null);
-    const result = await sendJson("/api/session/password-reset/complete", "POST", {
-      token,
-      password: String(form.get("password") ?? ""),
-    });
-    setPending(false);
-    if (result.ok) setDone(true);
-    else setError(result.error);
-  }
+  const { pending, done, error, fieldError, onSubmit } = useJsonForm(
+    "/api/session/password-reset/complete",
+    (form) => ({ token, password: formText(form, "password") }),
+  );
 
   if (done) {
     return (
@@ -46,7 +32,7 @@ export function ResetForm({ token }: { token: string }) {
         type="password"
         autoComplete="new-password"
         hint="At least 10 characters."
-        error={error?.field === "password" ? error.message : undefined}
+        error={fieldError("password")}
       />
       <Button type="submit" disabled={pending}>
         {pending ? "Saving…" : "Set password"}
