@@ -229,3 +229,8 @@ export {
 } from "./checks/bench-check-rule";
 /** Expected load per line from configured sending conditions (telegrams/s, percent of capacity, contributions). */
 export { estimateLineLoad, type LineLoadEstimate, type LoadContribution } from "./checks/line-load";
+
+// ---------------------------------------------------------------- KNXnet/IP
+
+/** KNXnet/IP frames (pure encode/decode, typed errors), the pure tunnelling server transition and the `LineAccess` interface an endpoint binds to a simulation. */
+export * as knxnetip from "./knxnetip";

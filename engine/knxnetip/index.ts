@@ -18,3 +18,25 @@ export {
   decodeKnxNetIpFrame,
   decodeHeader,
 } from "./knxnetip-frame";
+export type { LineAccess } from "./line-access";
+export {
+  type UdpAddress,
+  type TunnellingServerConfig,
+  DEFAULT_TUNNELLING_SERVER_CONFIG,
+  tunnellingServerConfig,
+  deviceInfoDib,
+  descriptionDibs,
+} from "./server-config";
+export {
+  type TunnelConnection,
+  type TunnellingServerCounters,
+  type TunnellingServerState,
+  type TunnellingServerEvent,
+  type TunnellingServerEffect,
+  type TunnellingServerResult,
+  type CloseReason,
+  type DropReason,
+  initialTunnellingServerState,
+  nextDeadlineUs,
+  tunnellingServerTransition,
+} from "./tunnelling-server";
