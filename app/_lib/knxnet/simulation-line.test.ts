@@ -1,0 +1,110 @@
+/*
+ * The paced adapter of today's Simulation, on a fake wall clock: frames from a
+ * tunnel take the TP1 line's real timing (knx-reference.md, TP1 timing: a 9-octet
+ * telegram with its acknowledgement holds 193 bit times; an unacknowledged one is
+ * repeated up to 3 times).
+ */
+import { describe, expect, it } from "vitest";
+import { bitTimesToUs, frameDurationUs, type DataFrame } from "@/engine/frame";
+import { createSimulation } from "@/engine/sim";
+import { benchBuilder } from "@/test/harness/bench-builder";
+import type { WallClock } from "./real-time-pacer";
+import { pacedSimulationLine } from "./simulation-line";
+
+function fakeClock() {
+  let nowMs = 0;
+  const timers = new Map<number, { at: number; callback: () => void }>();
+  let nextId = 1;
+  const clock: WallClock = {
+    nowMs: () => nowMs,
+    setTimeout(callback, delayMs) {
+      timers.set(nextId, { at: nowMs + delayMs, callback });
+      return nextId++;
+    },
+    clearTimeout: (handle) => void timers.delete(handle as number),
+  };
+  return {
+    clock,
+    /** Moves the wall clock forward, firing due timers in order. */
+    advance(ms: number) {
+      const end = nowMs + ms;
+      for (;;) {
+        const due = [...timers.entries()]
+          .filter(([, t]) => t.at <= end)
+          .sort((a, b) => a[1].at - b[1].at)[0];
+        if (due === undefined) break;
+        timers.delete(due[0]);
+        nowMs = Math.max(nowMs, due[1].at);
+        due[1].callback();
+      }
+      nowMs = end;
+    },
+  };
+}
+
+function lightBench() {
+  const b = benchBuilder();
+  b.groupAddress("1/0/1", "1.001");
+  b.groupAddress("1/0/9", "1.001");
+  b.device("act", "switch-actuator", "1.1.2", { channels: 1, statusObjects: false });
+  b.link("act", 0, "1/0/1");
+  return b.build();
+}
+
+const write = (destination: number): DataFrame => ({
+  priority: "low",
+  repeated: false,
+  source: 0x11f1, // 1.1.241, a tunnel
+  destination,
+  addressType: "group",
+  hopCount: 6,
+  service: "GroupValue_Write",
+  payload: Uint8Array.of(1),
+  shortPayload: true,
+});
+
+describe("pacedSimulationLine", () => {
+  it("puts a tunnel's frame on the line at real time and confirms it after the acknowledgement", () => {
+    const sim = createSimulation(lightBench(), { seed: 1, traceCapacity: 100 });
+    const fake = fakeClock();
+    const paced = pacedSimulationLine(sim, { clock: fake.clock });
+    const seen: DataFrame[] = [];
+    const done: boolean[] = [];
+    paced.line.subscribe((frame) => seen.push(frame));
+    paced.start();
+    fake.advance(100); // let the bench's own start-up quieten
+    seen.length = 0;
+    paced.line.put(write(0x0801), (acknowledged) => done.push(acknowledged));
+    // The line has been idle for more than 50 bit times, so the frame starts at once:
+    // 9 octets x 13 bit times, then gap 15 + acknowledgement 11 (knx-reference.md).
+    const frameEndMs = frameDurationUs(9) / 1000;
+    fake.advance(Math.floor(frameEndMs) - 1);
+    expect(seen).toEqual([]);
+    fake.advance(2);
+    expect(seen).toMatchObject([{ source: 0x11f1, destination: 0x0801 }]);
+    expect(done).toEqual([]);
+    fake.advance(bitTimesToUs(26) / 1000 + 1);
+    expect(done).toEqual([true]);
+    expect(sim.deviceState("act")).toEqual({ on: [true] });
+    paced.stop();
+  });
+
+  it("confirms negatively when nobody acknowledges (after the repetitions) and at once for a frame the line does not model", () => {
+    const sim = createSimulation(lightBench(), { seed: 1, traceCapacity: 100 });
+    const fake = fakeClock();
+    const paced = pacedSimulationLine(sim, { clock: fake.clock });
+    const done: boolean[] = [];
+    paced.start();
+    paced.line.put({ ...write(0x1105), addressType: "individual" }, (a) => done.push(a));
+    expect(done).toEqual([false]);
+    paced.line.put(write(0x0809), (a) => done.push(a)); // 1/0/9: no listener
+    fake.advance(50);
+    expect(done).toEqual([false]); // still repeating
+    fake.advance(200);
+    expect(done).toEqual([false, false]);
+    expect(
+      sim.trace.filter((e) => e.kind === "telegram.sent" && e.destination === 0x0809),
+    ).toHaveLength(4);
+    paced.stop();
+  });
+});
