@@ -73,8 +73,15 @@ export const SERVICE_FAMILY = {
 /** KNX medium codes in the device information DIB (Core §7.5.4.2, from memory): TP1 is 0x02. */
 export const KNX_MEDIUM_TP1 = 0x02;
 
-/** Connection-state heartbeat: a client asks every 60 s; the server drops a silent connection after 120 s (Core §5.4). */
+/**
+ * Connection-state heartbeat: a client asks every 60 s; the server drops a silent
+ * connection after 120 s (Core §5.4; from memory, as knx-reference.md says; the knx
+ * package's client asks after 60 s idle, src/FSM.js).
+ */
 export const CONNECTION_ALIVE_TIMEOUT_US = 120_000_000;
 
-/** A tunnelling request not acknowledged within 1 s is sent once more, then the connection ends (Tunnelling §2.6). */
+/**
+ * A tunnelling request not acknowledged within 1 s is sent once more, then the
+ * connection ends (Tunnelling §2.6; from memory, as knx-reference.md says).
+ */
 export const TUNNELLING_REQUEST_TIMEOUT_US = 1_000_000;

@@ -40,3 +40,8 @@ export {
   nextDeadlineUs,
   tunnellingServerTransition,
 } from "./tunnelling-server";
+export {
+  type TunnelAddressPool,
+  type TunnelAddressPoolError,
+  tunnelAddressPool,
+} from "./tunnel-address-pool";

@@ -24,13 +24,13 @@ import { readFileSync } from "node:fs";
 import { performance } from "node:perf_hooks";
 import { pacedSimulationLine } from "../../app/_lib/knxnet/simulation-line";
 import { startKnxNetIpEndpoint } from "../../app/_lib/knxnet/udp-endpoint";
-import { parseIndividualAddress } from "../../engine/address";
 import { getDpt } from "../../engine/dpt";
 import { encodeCemi, decodeCemi, type DataFrame } from "../../engine/frame";
 import {
   decodeKnxNetIpFrame,
   encodeKnxNetIpFrame,
   ROUTE_BACK_HPAI,
+  tunnelAddressPool,
   tunnelCri,
   type KnxNetIpFrame,
 } from "../../engine/knxnetip";
@@ -42,15 +42,9 @@ const SAMPLES = 40;
 const SATURATE_S = 5;
 const WINDOW = 8;
 
-const ia = (text: string) => {
-  const parsed = parseIndividualAddress(text);
-  if (!parsed.ok) throw new Error(text);
-  return parsed.value;
-};
 const SETPOINT = 0x1002; // 2/0/2
 const SETPOINT_STATUS = 0x1102; // 2/1/2
 const LIGHTS = 0x0802; // 1/0/2
-const TUNNEL_IA = ia("1.1.241");
 
 const bench = JSON.parse(
   readFileSync(
@@ -59,12 +53,14 @@ const bench = JSON.parse(
   ),
 ) as never;
 const sim = createSimulation(bench, { seed: 1, traceCapacity: 50_000 });
+const pool = tunnelAddressPool(sim.bench, sim.bench.testToolLine, 1);
+if (!pool.ok) throw new Error(pool.error.message);
+const TUNNEL_IA = pool.value.tunnelAddresses[0]!;
 const paced = pacedSimulationLine(sim);
 paced.start();
 const endpoint = await startKnxNetIpEndpoint({
   line: paced.line,
-  tunnelAddresses: [TUNNEL_IA],
-  individualAddress: ia("1.1.240"),
+  ...pool.value,
   ports: { first: 0, last: 0 },
 });
 
