@@ -4,7 +4,19 @@
  * telegram with its acknowledgement holds 193 bit times; an unacknowledged one is
  * repeated up to 3 times).
  */
+import fc from "fast-check";
 import { describe, expect, it } from "vitest";
+import { encodeCemi } from "@/engine/frame";
+import {
+  encodeKnxNetIpFrame,
+  initialTunnellingServerState,
+  ROUTE_BACK_HPAI,
+  tunnelCri,
+  tunnellingServerConfig,
+  tunnellingServerTransition,
+  type TunnellingServerState,
+} from "@/engine/knxnetip";
+import { dataFrameArbitrary } from "@/test/harness/frame-fixtures";
 import { bitTimesToUs, frameDurationUs, type DataFrame } from "@/engine/frame";
 import { createSimulation } from "@/engine/sim";
 import { benchBuilder } from "@/test/harness/bench-builder";
@@ -105,6 +117,71 @@ describe("pacedSimulationLine", () => {
     expect(
       sim.trace.filter((e) => e.kind === "telegram.sent" && e.destination === 0x0809),
     ).toHaveLength(4);
+    paced.stop();
+  });
+});
+
+describe("tunnelling server on the paced line", () => {
+  it("every L_Data.req a client can send, mangled or not, is put on the line or refused without throwing", () => {
+    const sim = createSimulation(lightBench(), { seed: 1, traceCapacity: 100 });
+    const fake = fakeClock();
+    const paced = pacedSimulationLine(sim, { clock: fake.clock });
+    paced.start();
+    const config = tunnellingServerConfig({
+      endpoint: { address: "127.0.0.1", port: 3671 },
+      individualAddress: 0x11f0,
+      tunnelAddresses: [0x11f1],
+      rateLimit: { perSecond: 1e9, burst: 1e9 },
+      maxPendingPerTunnel: 1e6,
+    });
+    const client = { address: "127.0.0.1", port: 50000 };
+    let state: TunnellingServerState = initialTunnellingServerState();
+    const connect = tunnellingServerTransition(config, state, {
+      kind: "datagram",
+      nowUs: 0,
+      from: client,
+      bytes: encodeKnxNetIpFrame({
+        service: "CONNECT_REQUEST",
+        controlEndpoint: ROUTE_BACK_HPAI,
+        dataEndpoint: ROUTE_BACK_HPAI,
+        cri: tunnelCri(),
+      }),
+    });
+    state = connect.state;
+    let sequence = 0;
+    let puts = 0;
+    fc.assert(
+      fc.property(
+        dataFrameArbitrary,
+        fc.nat(),
+        fc.nat(255),
+        fc.boolean(),
+        (frame, at, value, mangle) => {
+          const cemi = encodeCemi({ messageCode: "L_Data.req", frame });
+          if (mangle && at % cemi.length !== 0) cemi[at % cemi.length] = value;
+          const result = tunnellingServerTransition(config, state, {
+            kind: "datagram",
+            nowUs: 0,
+            from: client,
+            bytes: encodeKnxNetIpFrame({
+              service: "TUNNELLING_REQUEST",
+              channelId: 1,
+              sequenceCounter: sequence++ & 0xff,
+              cemi,
+            }),
+          });
+          state = result.state;
+          for (const effect of result.effects)
+            if (effect.kind === "line.put") {
+              puts++;
+              paced.line.put(effect.frame, () => undefined);
+            }
+          fake.advance(1);
+        },
+      ),
+      { numRuns: 300 },
+    );
+    expect(puts).toBeGreaterThan(0);
     paced.stop();
   });
 });

@@ -344,6 +344,29 @@ describe("KNXnet/IP endpoint with the knx package as a real tunnelling client", 
   });
 });
 
+describe("KNXnet/IP endpoint binding", () => {
+  it("binds 127.0.0.1 by default and takes the next free port of its range", async () => {
+    const w = await world();
+    const { port } = w.endpoint.address;
+    expect(w.endpoint.address.address).toBe("127.0.0.1");
+    const sim = createSimulation(bench as never, { seed: 1, traceCapacity: 10 });
+    const paced = pacedSimulationLine(sim);
+    const second = await startKnxNetIpEndpoint({
+      line: paced.line,
+      tunnelAddresses: [ia("1.1.241")],
+      individualAddress: ia("1.1.240"),
+      ports: { first: port, last: port + 5 },
+    });
+    cleanups.push(async () => {
+      await second.close();
+      paced.stop();
+    });
+    expect(second.address.address).toBe("127.0.0.1");
+    expect(second.address.port).toBeGreaterThan(port);
+    expect(second.address.port).toBeLessThanOrEqual(port + 5);
+  });
+});
+
 /** Sends one datagram from a fresh loopback socket and decodes the answer (or waits briefly for none). */
 async function rawExchange(port: number, bytes: Uint8Array, expectAnswer = true) {
   const socket = dgram.createSocket("udp4");
