@@ -21,6 +21,7 @@
  */
 import dgram from "node:dgram";
 import { readFileSync } from "node:fs";
+import { createRequire } from "node:module";
 import { performance } from "node:perf_hooks";
 import { pacedSimulationLine } from "../../app/_lib/knxnet/simulation-line";
 import { startKnxNetIpEndpoint } from "../../app/_lib/knxnet/udp-endpoint";
@@ -53,7 +54,7 @@ const bench = JSON.parse(
   ),
 ) as never;
 const sim = createSimulation(bench, { seed: 1, traceCapacity: 50_000 });
-const pool = tunnelAddressPool(sim.bench, sim.bench.testToolLine, 1);
+const pool = tunnelAddressPool(sim.bench, sim.bench.testToolLine, 2);
 if (!pool.ok) throw new Error(pool.error.message);
 const TUNNEL_IA = pool.value.tunnelAddresses[0]!;
 const paced = pacedSimulationLine(sim);
@@ -202,7 +203,6 @@ onIndication = (frame, code, confirmError) => {
   } else indications++;
 };
 const statsFrom = sim.nowUs;
-const sentBefore = sim.line().telegramsTotal;
 const rateStart = performance.now();
 let n = 0;
 while (performance.now() - rateStart < SATURATE_S * 1000) {
@@ -218,7 +218,71 @@ while (performance.now() - rateStart < SATURATE_S * 1000) {
 }
 const rateWallS = (performance.now() - rateStart) / 1000;
 const lineVirtualS = (sim.nowUs - statsFrom) / 1e6;
-const lineTelegrams = sim.line().telegramsTotal - sentBefore;
+// Telegrams whose frame started in the window, and the Basic course's bus load over it.
+const lineStats = sim.line().stats(sim.nowUs - statsFrom);
+const lineTelegrams = lineStats.telegrams;
+
+// ---------------------------------------------------------------- 3. the knx package's client
+
+interface KnxClient {
+  on(event: string, listener: (...args: never[]) => void): void;
+  off(event: string, listener: (...args: never[]) => void): void;
+  write(ga: string, value: unknown, dpt: string): void;
+  Disconnect(callback: () => void): void;
+  transition(state: string): void;
+  idletimer?: ReturnType<typeof setTimeout> | null;
+}
+const require = createRequire(import.meta.url);
+const logger = createRequire(require.resolve("knx/package.json"))("log-driver").logger as Record<
+  string,
+  unknown
+>;
+for (const level of ["error", "warn", "info", "debug", "trace"]) logger[level] = () => undefined;
+const knx = require("knx") as { Connection(options: Record<string, unknown>): KnxClient };
+const knxClient = await new Promise<KnxClient>((resolve, reject) => {
+  const timer = setTimeout(() => reject(new Error("knx client did not connect")), 4000);
+  const c = knx.Connection({
+    ipAddr: "127.0.0.1",
+    ipPort: endpoint.address.port,
+    loglevel: "error",
+  });
+  c.on("connected", () => (clearTimeout(timer), resolve(c)));
+});
+const knxConWall: number[] = [];
+const knxIndWall: number[] = [];
+for (let i = 0; i < SAMPLES / 2; i++) {
+  let conAt = 0;
+  let indAt = 0;
+  const done = new Promise<void>((resolve, reject) => {
+    const timer = setTimeout(() => reject(new Error("knx round trip timed out")), 3000);
+    const check = () => {
+      if (conAt === 0 || indAt === 0) return;
+      clearTimeout(timer);
+      knxClient.off("confirmed", onConfirmed);
+      knxClient.off("event", onEvent);
+      resolve();
+    };
+    const onConfirmed = () => ((conAt = performance.now()), check());
+    const onEvent = (service: string, _src: string, dest: string) => {
+      if (service === "GroupValue_Write" && dest === "2/1/2") indAt = performance.now();
+      check();
+    };
+    knxClient.on("confirmed", onConfirmed);
+    knxClient.on("event", onEvent);
+  });
+  const t0 = performance.now();
+  knxClient.write("2/0/2", i % 2 === 0 ? 21.5 : 23, "DPT9.001");
+  await done;
+  knxConWall.push(conAt - t0);
+  knxIndWall.push(indAt - t0);
+  await sleep(50);
+}
+await new Promise<void>((resolve) => {
+  const timer = setTimeout(resolve, 2000);
+  knxClient.Disconnect(() => (clearTimeout(timer), resolve()));
+});
+if (knxClient.idletimer) clearTimeout(knxClient.idletimer);
+knxClient.transition("uninitialized");
 
 // ---------------------------------------------------------------- report
 
@@ -251,13 +315,22 @@ for (const [label, wall, line] of [
   );
 }
 console.log(
+  "   knx package client (its own processing included; no line time to subtract per sample):",
+);
+console.log(
+  `   ${"L_Data.con (own write)".padEnd(26)} ${f(median(knxConWall)).padStart(11)} ${f(p95(knxConWall)).padStart(10)}`,
+);
+console.log(
+  `   ${"L_Data.ind (2/1/2 status)".padEnd(26)} ${f(median(knxIndWall)).padStart(11)} ${f(p95(knxIndWall)).padStart(10)}`,
+);
+console.log(
   `\n2. Saturating client for ${f(rateWallS, 1)} s wall (window ${WINDOW} frames, writes to 1/0/2)`,
 );
 console.log(
-  "   line telegrams/s   physical limit/s   line/limit   client confirmed/s   negative con   indications   virtual:wall",
+  "   line telegrams/s   physical limit/s   line/limit   bus load   client confirmed/s   negative con   indications   virtual:wall",
 );
 console.log(
-  `   ${f(lineTelegrams / lineVirtualS).padStart(16)} ${f(PHYSICAL_RATE).padStart(18)} ${f((lineTelegrams / lineVirtualS / PHYSICAL_RATE) * 100, 1).padStart(11)}% ${f(confirmedOk / rateWallS).padStart(20)} ${String(confirmedError).padStart(14)} ${String(indications).padStart(13)} ${f(lineVirtualS / rateWallS, 3).padStart(14)}`,
+  `   ${f(lineTelegrams / lineVirtualS).padStart(16)} ${f(PHYSICAL_RATE).padStart(18)} ${f((lineTelegrams / lineVirtualS / PHYSICAL_RATE) * 100, 1).padStart(11)}% ${f(lineStats.loadPercent, 1).padStart(9)}% ${f(confirmedOk / rateWallS).padStart(20)} ${String(confirmedError).padStart(14)} ${String(indications).padStart(13)} ${f(lineVirtualS / rateWallS, 3).padStart(14)}`,
 );
 console.log(
   "   The line rate counts every telegram on the line: the client's writes and the actuator's status answers.",
