@@ -40,11 +40,12 @@ export interface TunnellingServerConfig {
   /** Client addresses remembered by the rate limit; the oldest is forgotten beyond this. */
   readonly maxRateLimitEntries: number;
   /**
-   * Whether an address in a client's HPAI may be answered. Others are treated like
-   * the route-back form (answered where the datagram came from), so an endpoint
-   * bound to loopback never sends anywhere else.
+   * Whether the address in a client's HPAI may be answered, given where the
+   * datagram came from. Others are treated like the route-back form (answered at
+   * the datagram's source). By default only the source's own IP address passes,
+   * so the server never sends to an address that did not write to it.
    */
-  readonly canReach: (address: string) => boolean;
+  readonly canReach: (address: string, source: UdpAddress) => boolean;
 }
 
 export const DEFAULT_TUNNELLING_SERVER_CONFIG: Omit<
@@ -62,7 +63,7 @@ export const DEFAULT_TUNNELLING_SERVER_CONFIG: Omit<
   maxQueuedPerTunnel: 256,
   maxPendingPerTunnel: 16,
   maxRateLimitEntries: 1024,
-  canReach: () => true,
+  canReach: (address, source) => address === source.address,
 };
 
 /** A full configuration from the required fields and any overrides. */

@@ -44,9 +44,9 @@ import { descriptionDibs, type TunnellingServerConfig, type UdpAddress } from ".
  * Hostile input: a datagram that does not decode, a service a server does not
  * take, an unknown channel, or one sent from another IP address than the one
  * that connected is counted and dropped. Each client IP address has a token
- * bucket (`rateLimit`). Only requests from a connected client can make the
- * server send to an address other than the datagram's source, and only when
- * `canReach` allows it.
+ * bucket (`rateLimit`). An HPAI may name another port, but by default not
+ * another IP address than the datagram's source (`canReach`): a forged request
+ * cannot turn the server into a reflector aimed at a third party.
  */
 
 /** One open tunnel. */
@@ -611,7 +611,7 @@ class Transition {
 
   /** Where to answer an HPAI: the datagram's source for the route-back form or an address we may not reach. */
   private replyTo(hpai: Hpai, from: UdpAddress): UdpAddress {
-    if (isRouteBack(hpai) || hpai.protocol !== "udp" || !this.config.canReach(hpai.address))
+    if (isRouteBack(hpai) || hpai.protocol !== "udp" || !this.config.canReach(hpai.address, from))
       return from;
     return { address: hpai.address, port: hpai.port };
   }

@@ -22,8 +22,8 @@ import { systemClock, type WallClock } from "./real-time-pacer";
  * through `LineAccess`.
  *
  * Bound to 127.0.0.1 unless `host` names another address (KNXnet/IP has no
- * authentication: whoever can reach the port can write to the bench). On
- * loopback, answers go to loopback addresses only, whatever a client's HPAI says.
+ * authentication: whoever can reach the port can write to the bench). Answers
+ * go to the IP address a datagram came from, whatever a client's HPAI says.
  * The port is the first free one of `ports` (3671, the standard port, first);
  * `{ first: 0, last: 0 }` takes an ephemeral port (tests).
  */
@@ -68,13 +68,11 @@ export async function startKnxNetIpEndpoint(
   const clock = options.clock ?? systemClock;
   const socket = await bindFirstFree(host, options.ports ?? DEFAULT_PORTS);
   const bound = socket.address();
-  const loopbackOnly = host.startsWith("127.");
   const config = tunnellingServerConfig({
     ...options.server,
     endpoint: { address: host, port: bound.port },
     tunnelAddresses: options.tunnelAddresses,
     individualAddress: options.individualAddress,
-    canReach: loopbackOnly ? (address) => address.startsWith("127.") : () => true,
   });
   let state: TunnellingServerState = initialTunnellingServerState();
   let timer: unknown;
