@@ -43,11 +43,24 @@ export function databasePathFrom(url: string | undefined): string {
  * WAL so readers never block the writer, foreign keys enforced (SQLite leaves
  * them off by default), and a busy timeout so the dev server, the seed script
  * and tests can share a file without "database is locked" errors.
+ *
+ * Durability: `synchronous = FULL`. SQLite's synchronous setting belongs to the
+ * connection, not to a table, and a Benchline process has one connection, so
+ * the choice covers every table at once. In WAL mode NORMAL already survives a
+ * crash or kill -9 of the process (a commit is in the WAL, in the OS's cache),
+ * but a power cut or OS crash may roll back the last commits. FULL syncs the
+ * WAL to disk at every commit, so an acknowledged write also survives those.
+ * What we write is what must not be lost (accounts, bench revisions, run
+ * verdicts) and it is written at human pace (a save, a sign-up, a few rows per
+ * run), so the one fsync per commit is cheap; the load benchmark
+ * (npm run bench:load) runs with it. test/api/durability.test.ts kills a
+ * writing process with SIGKILL and checks every acknowledged write is there.
  */
 export function openDatabase(filePath: string, options: { migrate?: boolean } = {}): Db {
   if (filePath !== ":memory:") mkdirSync(path.dirname(path.resolve(filePath)), { recursive: true });
   const sqlite = new Database(filePath);
   sqlite.pragma("journal_mode = WAL");
+  sqlite.pragma("synchronous = FULL");
   sqlite.pragma("foreign_keys = ON");
   sqlite.pragma("busy_timeout = 5000");
   const db = drizzle({ client: sqlite, schema });
