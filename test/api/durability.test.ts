@@ -4,7 +4,7 @@ import { tmpdir } from "node:os";
 import path from "node:path";
 import { inArray } from "drizzle-orm";
 import { afterAll, describe, expect, it } from "vitest";
-import { openDatabase } from "@/db/client";
+import { openDatabase, withNormalSync } from "@/db/client";
 import { benchRevisions, runs, users } from "@/db/schema";
 
 /**
@@ -79,4 +79,21 @@ describe("durability", () => {
       db.$client.close();
     }
   }, 60_000);
+
+  it("writes the run pool's bookkeeping under NORMAL and returns the connection to FULL", () => {
+    const db = openDatabase(path.join(dir, "switch.db"));
+    try {
+      const during = withNormalSync(db, () => db.$client.pragma("synchronous", { simple: true }));
+      expect(during).toBe(1); // 1 = NORMAL
+      expect(db.$client.pragma("synchronous", { simple: true })).toBe(2);
+      expect(() =>
+        withNormalSync(db, () => {
+          throw new Error("a failed write");
+        }),
+      ).toThrow("a failed write");
+      expect(db.$client.pragma("synchronous", { simple: true })).toBe(2);
+    } finally {
+      db.$client.close();
+    }
+  });
 });

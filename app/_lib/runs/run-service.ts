@@ -1,5 +1,5 @@
 import type { Db } from "@/db/client";
-import { getDb } from "@/db/client";
+import { getDb, withNormalSync } from "@/db/client";
 import type { BenchRevision } from "@/db/queries/benches";
 import {
   countActiveRuns,
@@ -157,12 +157,12 @@ export function startScenarioRun(
     .run(job, {
       member: request.startedBy,
       onStart: () => {
-        markRunStarted({ db, runId: run.id });
+        withNormalSync(db, () => markRunStarted({ db, runId: run.id }));
         publishRunEvent(run.id, { kind: "run.started", status: "running", done: 0, total: 1 });
       },
     })
     .then((outcome) => {
-      const stored = storeOutcome(db, outcome) ?? run;
+      const stored = withNormalSync(db, () => storeOutcome(db, outcome)) ?? run;
       publishRunEvent(run.id, {
         kind: "run.finished",
         status: stored.status === "errored" ? "errored" : "finished",
@@ -246,8 +246,11 @@ export function startSuiteRun(
         {
           member: request.startedBy,
           onStart: () => {
-            markRunStarted({ db, runId: run.id });
-            if (markSuiteRunStarted({ db, suiteRunId: suiteRun.id }).changes > 0) {
+            const suiteStarted = withNormalSync(db, () => {
+              markRunStarted({ db, runId: run.id });
+              return markSuiteRunStarted({ db, suiteRunId: suiteRun.id }).changes > 0;
+            });
+            if (suiteStarted) {
               publishRunEvent(suiteRun.id, {
                 kind: "run.started",
                 status: "running",
@@ -260,11 +263,14 @@ export function startSuiteRun(
         },
       )
       .then((outcome) => {
-        const stored = storeOutcome(db, outcome) ?? run;
-        const progress = recordSuiteRunScenario({
-          db,
-          suiteRunId: suiteRun.id,
-          ok: stored.verdict === "pass",
+        const { stored, progress } = withNormalSync(db, () => {
+          const stored = storeOutcome(db, outcome) ?? run;
+          const progress = recordSuiteRunScenario({
+            db,
+            suiteRunId: suiteRun.id,
+            ok: stored.verdict === "pass",
+          });
+          return { stored, progress };
         });
         publishRunEvent(run.id, {
           kind: "run.finished",
@@ -295,11 +301,13 @@ export function startSuiteRun(
         ? "pass"
         : "fail";
     const stored =
-      finishSuiteRun({
-        db,
-        suiteRunId: suiteRun.id,
-        values: { status: "finished", verdict, durationMs: Date.now() - startedAtMs },
-      }) ?? suiteRun;
+      withNormalSync(db, () =>
+        finishSuiteRun({
+          db,
+          suiteRunId: suiteRun.id,
+          values: { status: "finished", verdict, durationMs: Date.now() - startedAtMs },
+        }),
+      ) ?? suiteRun;
     publishRunEvent(suiteRun.id, {
       kind: "run.finished",
       status: "finished",
