@@ -8,8 +8,8 @@
  * - the same suite while three other members keep suites running back to back
  *   (each with three in flight, inside the default run limits);
  * - authenticated reads (benches list, one bench, runs list) with autocannon at
- *   50 and then 200 concurrent connections while those suites run, with the
- *   small suite started again during each phase.
+ *   50 connections with no suites running, then at 50 and 200 connections while
+ *   those suites run, with the small suite started again during each phase.
  *
  * Printed: requests per second and p50/p95/p99 latency of the reads (every
  * response's own time), and the small suite's time alone and under each load
@@ -160,6 +160,9 @@ try {
 
   const alone: number[] = [];
   for (let i = 0; i < 3; i++) alone.push((await runSuite(baseURL, reader, suiteId))!);
+  // The same reads with no suites running, to read the suites' share off side by side.
+  console.log(`bench:load: 50 connections for ${PHASE_SECONDS} s, no suites running ...`);
+  const quiet = await readLoad(baseURL, reader, benchId, 50);
 
   console.log("bench:load: other members' suites running ...");
   const background = backgroundSuites(baseURL, others, suiteId);
@@ -181,10 +184,11 @@ try {
   console.log(
     `\nAuthenticated reads (benches list, a bench, runs list) while other members' suites run`,
   );
-  console.log("connections   req/s   p50 ms   p95 ms   p99 ms  responses  non-2xx  errors");
-  for (const p of phases) {
+  console.log("  connections   req/s   p50 ms   p95 ms   p99 ms  responses  non-2xx  errors");
+  const quietRow = { ...quiet, label: "50, no suites" };
+  for (const p of [quietRow, ...phases.map((p) => ({ ...p, label: String(p.connections) }))]) {
     console.log(
-      `${String(p.connections).padStart(11)}${fmt(p.requestsPerSecond)} ${fmt(p.p50, 1)} ${fmt(p.p95, 1)} ${fmt(p.p99, 1)} ${String(p.responses).padStart(10)} ${String(p.non2xx).padStart(8)} ${String(p.errors).padStart(7)}`,
+      `${p.label.padStart(13)}${fmt(p.requestsPerSecond)} ${fmt(p.p50, 1)} ${fmt(p.p95, 1)} ${fmt(p.p99, 1)} ${String(p.responses).padStart(10)} ${String(p.non2xx).padStart(8)} ${String(p.errors).padStart(7)}`,
     );
   }
   console.log(`\nSmall suite (Fernhill demo suite), start to end of its event stream`);
@@ -197,6 +201,7 @@ try {
     `\nbackground: ${backgroundDone.finished} suites finished by ${BACKGROUND.length} other members, ${backgroundDone.refused} starts refused by the run limit`,
   );
   const p50c = phases[0]!;
+  console.log(`p95 at 50 connections with suites / without: ${(p50c.p95 / quiet.p95).toFixed(2)}x`);
   console.log(
     `targets: p95 at 50 connections ${p50c.p95.toFixed(1)} ms (target < 150): ${p50c.p95 < 150 ? "met" : "MISSED"}; ` +
       `small suite under load ${(median(underSuites) / aloneMs).toFixed(2)}x alone (target < 3x): ${median(underSuites) / aloneMs < 3 ? "met" : "MISSED"}`,
