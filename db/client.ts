@@ -44,7 +44,9 @@ export function databasePathFrom(url: string | undefined): string {
  * them off by default), and a busy timeout so the dev server, the seed script
  * and tests can share a file without "database is locked" errors.
  *
- * Durability: `synchronous = FULL`. SQLite's synchronous setting belongs to the
+ * Durability: `synchronous = FULL`, set explicitly rather than left to the
+ * build default of the SQLite inside better-sqlite3 (FULL in 12.x, checked by
+ * test/api/durability.test.ts). SQLite's synchronous setting belongs to the
  * connection, not to a table, and a Benchline process has one connection, so
  * the choice covers every table at once. In WAL mode NORMAL already survives a
  * crash or kill -9 of the process (a commit is in the WAL, in the OS's cache),
