@@ -1,5 +1,5 @@
 import { afterEach, describe, expect, it, vi } from "vitest";
-import { appUrl, ConfigError, sessionCookieConfig, sessionSecret } from "./config";
+import { appUrl, ConfigError, runLimits, sessionCookieConfig, sessionSecret } from "./config";
 
 afterEach(() => {
   vi.unstubAllEnvs();
@@ -29,5 +29,25 @@ describe("configuration", () => {
     vi.stubEnv("NODE_ENV", "production");
     vi.stubEnv("SESSION_SECRET", "");
     expect(() => sessionSecret()).toThrow(/BENCHLINE_DEMO/);
+  });
+
+  it("reads the run limits and caps, with defaults, and names a bad one", () => {
+    for (const name of [
+      "RUN_LIMIT_PER_MEMBER",
+      "RUN_LIMIT_PER_WORKSPACE",
+      "RUN_WALL_TIME_CAP_SECONDS",
+      "RUN_VIRTUAL_TIME_CAP_MINUTES",
+    ])
+      vi.stubEnv(name, "");
+    expect(runLimits()).toEqual({
+      perMember: 4,
+      perWorkspace: 12,
+      wallTimeMs: 20_000,
+      virtualTimeUs: 360 * 60_000_000,
+    });
+    vi.stubEnv("RUN_WALL_TIME_CAP_SECONDS", "5");
+    expect(runLimits().wallTimeMs).toBe(5_000);
+    vi.stubEnv("RUN_LIMIT_PER_MEMBER", "0");
+    expect(() => runLimits()).toThrow(/RUN_LIMIT_PER_MEMBER must be a whole number from 1/);
   });
 });

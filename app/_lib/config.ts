@@ -18,6 +18,10 @@ import path from "node:path";
  * | PASSWORD_HASH_COST      | bcrypt cost for new hashes                             | 12 (production never goes below 12)                |
  * | SMTP_URL / MAIL_FROM    | nodemailer SMTP transport / sender address             | none: mail is stored in the outbox table           |
  * | BENCHLINE_DEMO          | "true": the local demo (`npm run demo`) over plain http | off                                                |
+ * | RUN_LIMIT_PER_MEMBER    | server runs (a scenario or a whole suite) one member may have queued or running | 4  |
+ * | RUN_LIMIT_PER_WORKSPACE | the same, for everyone in one workspace together       | 12                                                 |
+ * | RUN_WALL_TIME_CAP_SECONDS | wall-clock seconds one scenario may run on the server | 20                                                |
+ * | RUN_VIRTUAL_TIME_CAP_MINUTES | virtual minutes one scenario may cover at worst   | 360 (6 h)                                          |
  *
  * The demo serves a production build on http://localhost:3000 for one person
  * trying Benchline; with BENCHLINE_DEMO=true the production-only requirements
@@ -154,4 +158,42 @@ export function passwordHashCost(): number {
     throw new ConfigError("PASSWORD_HASH_COST must be a whole number from 4 to 16.");
   }
   return isProduction() ? Math.max(value, productionPasswordHashCost) : value;
+}
+
+/** How much of the run pool one member and one workspace may hold, and the caps on one scenario. */
+export interface RunLimits {
+  /** Runs (a scenario, or a suite as a whole) one member may have queued or running at once. */
+  readonly perMember: number;
+  /** The same for a whole workspace, so a team cannot starve other workspaces either. */
+  readonly perWorkspace: number;
+  /** Wall-clock milliseconds one scenario may run on the server. */
+  readonly wallTimeMs: number;
+  /** Virtual microseconds one scenario may reach, at worst. */
+  readonly virtualTimeUs: number;
+}
+
+function wholeNumberFromEnv(name: string, fallback: number, min: number, max: number): number {
+  const text = process.env[name]?.trim();
+  if (text === undefined || text === "") return fallback;
+  const value = Number(text);
+  if (!Number.isInteger(value) || value < min || value > max) {
+    throw new ConfigError(`${name} must be a whole number from ${min} to ${max}, not "${text}".`);
+  }
+  return value;
+}
+
+/**
+ * Limits of server-side runs. The defaults suit one small server shared by a
+ * training workshop: a member can queue a few runs while editing, a busy
+ * workspace a dozen, and no single scenario can hold a worker for long. The
+ * shipped scenarios reach at most a few minutes of virtual time and finish in
+ * well under a second each, far inside both caps.
+ */
+export function runLimits(): RunLimits {
+  return {
+    perMember: wholeNumberFromEnv("RUN_LIMIT_PER_MEMBER", 4, 1, 1000),
+    perWorkspace: wholeNumberFromEnv("RUN_LIMIT_PER_WORKSPACE", 12, 1, 10_000),
+    wallTimeMs: wholeNumberFromEnv("RUN_WALL_TIME_CAP_SECONDS", 20, 1, 3600) * 1000,
+    virtualTimeUs: wholeNumberFromEnv("RUN_VIRTUAL_TIME_CAP_MINUTES", 360, 1, 24 * 60) * 60_000_000,
+  };
 }

@@ -1,4 +1,4 @@
-import { and, asc, desc, eq, inArray, sql } from "drizzle-orm";
+import { and, asc, desc, eq, inArray, isNull, sql } from "drizzle-orm";
 import { type Db, getDb } from "../client";
 import { wrapDriverError } from "../db-error";
 import { benches, benchRevisions, runs, scenarios, suiteRuns, users } from "../schema";
@@ -61,7 +61,7 @@ export function createRun({ db = getDb(), values }: { db?: Db; values: NewRun })
   }
 }
 
-/** Record a finished run: verdict, step totals and the per-step results JSON. */
+/** Record a finished run: verdict, step totals and the per-step results JSON (and why a cap stopped it). */
 export function finishRun({
   db = getDb(),
   runId,
@@ -72,7 +72,8 @@ export function finishRun({
   result: Pick<
     NewRun,
     "verdict" | "stepsPassed" | "stepsFailed" | "stepsTotal" | "results" | "durationMs"
-  >;
+  > &
+    Partial<Pick<NewRun, "errorMessage">>;
 }) {
   return db
     .update(runs)
@@ -374,4 +375,73 @@ export function scenarioNames({ db = getDb(), workspaceId }: { db?: Db; workspac
     .from(scenarios)
     .where(eq(scenarios.workspaceId, workspaceId))
     .all();
+}
+
+const activeStatuses = ["queued", "running"] as const;
+
+/**
+ * Server runs not yet ended, counted the way the run limits count them: a
+ * scenario run on its own is one, a suite run is one however many scenarios it
+ * holds. Restrict to one member with `startedBy`.
+ */
+export function countActiveRuns({
+  db = getDb(),
+  workspaceId,
+  startedBy,
+}: {
+  db?: Db;
+  workspaceId: string;
+  startedBy?: string;
+}): number {
+  const single = db
+    .select({ count: sql<number>`count(*)` })
+    .from(runs)
+    .where(
+      and(
+        eq(runs.workspaceId, workspaceId),
+        isNull(runs.suiteRunId),
+        inArray(runs.status, [...activeStatuses]),
+        startedBy === undefined ? undefined : eq(runs.startedBy, startedBy),
+      ),
+    )
+    .get();
+  const suites = db
+    .select({ count: sql<number>`count(*)` })
+    .from(suiteRuns)
+    .where(
+      and(
+        eq(suiteRuns.workspaceId, workspaceId),
+        inArray(suiteRuns.status, [...activeStatuses]),
+        startedBy === undefined ? undefined : eq(suiteRuns.startedBy, startedBy),
+      ),
+    )
+    .get();
+  return (single?.count ?? 0) + (suites?.count ?? 0);
+}
+
+/** What an interrupted run says: stored in errorMessage, so no column was added for it. */
+export const interruptedRunMessage =
+  "interrupted: the server stopped before this run finished; start it again";
+
+/**
+ * Every run and suite run still queued or running when a server process
+ * starts belonged to a process that is gone (the run pool lives in memory), so
+ * it can never finish: end it as errored, saying it was interrupted. Call only
+ * at server start-up, never from a script that may run beside a live server.
+ */
+export function markInterruptedRuns({ db = getDb() }: { db?: Db } = {}) {
+  return db.transaction((tx) => {
+    const finishedAt = new Date();
+    const endedRuns = tx
+      .update(runs)
+      .set({ status: "errored", verdict: "error", errorMessage: interruptedRunMessage, finishedAt })
+      .where(inArray(runs.status, [...activeStatuses]))
+      .run().changes;
+    const endedSuiteRuns = tx
+      .update(suiteRuns)
+      .set({ status: "errored", verdict: "error", finishedAt })
+      .where(inArray(suiteRuns.status, [...activeStatuses]))
+      .run().changes;
+    return { runs: endedRuns, suiteRuns: endedSuiteRuns };
+  });
 }

@@ -15,86 +15,22 @@
  * between scenarios), to show what moving replays off the event loop buys.
  * Everything stays on 127.0.0.1.
  */
-import { type ChildProcess, spawn, spawnSync } from "node:child_process";
-import { randomBytes } from "node:crypto";
-import { existsSync, mkdtempSync, rmSync } from "node:fs";
-import { createServer } from "node:net";
-import { tmpdir } from "node:os";
-import path from "node:path";
 import { performance } from "node:perf_hooks";
-import { fileURLToPath } from "node:url";
-import { openDatabase } from "../../db/client";
-import { seedDemoWorld } from "../../db/seed";
+import { buildIfStale, startProductionServer } from "../support/production-server";
 
 const SUITE_RUNS = 50;
-const projectRoot = fileURLToPath(new URL("../..", import.meta.url));
-const nextBin = path.join(projectRoot, "node_modules/next/dist/bin/next");
 
-function freePort(): Promise<number> {
-  return new Promise((resolve, reject) => {
-    const server = createServer();
-    server.once("error", reject);
-    server.listen(0, "127.0.0.1", () => {
-      const address = server.address();
-      server.close(() =>
-        address && typeof address === "object"
-          ? resolve(address.port)
-          : reject(new Error("no port")),
-      );
-    });
-  });
-}
-
-const pause = (ms: number) => new Promise((resolve) => setTimeout(resolve, ms));
-
-async function startServer(executor: "workers" | "inline") {
-  const dir = mkdtempSync(path.join(tmpdir(), "benchline-bench-runs-"));
-  const databaseUrl = path.join(dir, "bench.db");
-  const db = openDatabase(databaseUrl);
-  seedDemoWorld(db);
-  db.$client.close();
-  const port = await freePort();
-  const baseURL = `http://127.0.0.1:${port}`;
-  let output = "";
-  const server: ChildProcess = spawn(
-    process.execPath,
-    [nextBin, "start", "--port", String(port), "--hostname", "127.0.0.1"],
-    {
-      cwd: projectRoot,
-      env: {
-        ...process.env,
-        NODE_ENV: "production",
-        NEXT_TELEMETRY_DISABLED: "1",
-        DATABASE_URL: databaseUrl,
-        SESSION_SECRET: randomBytes(32).toString("base64url"),
-        SESSION_COOKIE_SECURE: "false",
-        APP_URL: baseURL,
-        RUN_EXECUTOR: executor,
-      },
-      stdio: ["ignore", "pipe", "pipe"],
+function startServer(executor: "workers" | "inline") {
+  return startProductionServer({
+    label: "bench-runs",
+    env: {
+      RUN_EXECUTOR: executor,
+      // This benchmark measures throughput with 50 suite runs from one member at
+      // once, far past the per-member and per-workspace limits a real server keeps.
+      RUN_LIMIT_PER_MEMBER: String(SUITE_RUNS + 1),
+      RUN_LIMIT_PER_WORKSPACE: String(SUITE_RUNS + 1),
     },
-  );
-  server.stdout?.on("data", (chunk: Buffer) => (output += chunk.toString()));
-  server.stderr?.on("data", (chunk: Buffer) => (output += chunk.toString()));
-  const deadline = Date.now() + 90_000;
-  for (;;) {
-    if (server.exitCode !== null) throw new Error(`next start exited:\n${output}`);
-    try {
-      if ((await fetch(`${baseURL}/api/health`)).ok) break;
-    } catch {
-      // not listening yet
-    }
-    if (Date.now() > deadline) throw new Error(`next start did not answer:\n${output}`);
-    await pause(200);
-  }
-  const stop = async () => {
-    const exited = new Promise((resolve) => server.once("exit", resolve));
-    server.kill("SIGTERM");
-    await Promise.race([exited, pause(5_000)]);
-    if (server.exitCode === null) server.kill("SIGKILL");
-    rmSync(dir, { recursive: true, force: true });
-  };
-  return { baseURL, stop, output: () => output };
+  });
 }
 
 async function signIn(baseURL: string): Promise<string> {
@@ -202,15 +138,7 @@ async function measure(executor: "workers" | "inline") {
   }
 }
 
-if (!existsSync(path.join(projectRoot, ".next/BUILD_ID"))) {
-  console.log("bench:runs: no production build yet, running next build ...");
-  const build = spawnSync(process.execPath, [nextBin, "build"], {
-    cwd: projectRoot,
-    env: { ...process.env, NODE_ENV: "production", NEXT_TELEMETRY_DISABLED: "1" },
-    stdio: "inherit",
-  });
-  if (build.status !== 0) process.exit(build.status ?? 1);
-}
+buildIfStale("bench:runs");
 
 const results = [];
 for (const executor of ["workers", "inline"] as const) {

@@ -28,6 +28,8 @@ export type RunProgressEvent =
       readonly done: number;
       readonly total: number;
       readonly durationMs: number | null;
+      /** Why the run ended early: a cap it hit, an error, or a server stop that interrupted it. */
+      readonly message?: string;
     };
 
 type Listener = (event: RunProgressEvent) => void;

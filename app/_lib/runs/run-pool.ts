@@ -1,10 +1,15 @@
 import { availableParallelism } from "node:os";
 import { Worker } from "node:worker_threads";
-import { executeRunJob } from "./execute-run-job";
+import { executeRunJob, wallTimeCapMessage } from "./execute-run-job";
 import type { RunJob, RunJobOutcome } from "./run-job";
+import { createRunScheduler, type RunExecutor, type RunPool } from "./run-scheduler";
+
+export type { RunPool } from "./run-scheduler";
 
 /**
- * Where scenario replays run, so a long suite never blocks the server.
+ * Where scenario replays run, so a long suite never blocks the server. The
+ * fair order between members is the scheduler's (run-scheduler.ts); this file
+ * only provides the executors.
  *
  * Why worker threads created as `new Worker(new URL("./run-worker.ts", import.meta.url))`:
  * since Next 16.2 Turbopack recognises exactly this form for `node:worker_threads`
@@ -18,27 +23,17 @@ import type { RunJob, RunJobOutcome } from "./run-job";
  *
  * Outside a Next server (vitest, tsx scripts) the URL points at the raw .ts file,
  * which Node 20 cannot load in a worker, so jobs run inline there, yielding to the
- * event loop between scenarios. The same executeRunJob runs either way. A worker
+ * event loop before each scenario. The same executeRunJob runs either way. A worker
  * that cannot start (or crashes) also falls back to inline for the rest of the
  * process, so runs finish rather than hang.
+ *
+ * The runner stops a scenario at the wall-time cap by itself; a worker that
+ * still has not answered well after the cap (a runner stuck without reaching a
+ * budget check) is terminated and the job ends capped, so no slot is held forever.
  *
  * RUN_EXECUTOR=inline|workers forces a mode; RUN_WORKERS sets the thread count
  * (default: cores - 1, at least 1, at most 4).
  */
-export interface RunPool {
-  /** Queue a job; resolves when it has run. `onStart` fires when a worker picks it up. */
-  run(job: RunJob, onStart?: () => void): Promise<RunJobOutcome>;
-  /** Jobs waiting plus jobs running. */
-  readonly pending: number;
-  readonly mode: "workers" | "inline";
-  close(): Promise<void>;
-}
-
-interface Queued {
-  readonly job: RunJob;
-  readonly onStart?: () => void;
-  readonly resolve: (outcome: RunJobOutcome) => void;
-}
 
 function workerCount(): number {
   const configured = Number(process.env.RUN_WORKERS);
@@ -55,45 +50,62 @@ function defaultMode(): "workers" | "inline" {
 
 const yieldToEventLoop = () => new Promise<void>((resolve) => setImmediate(resolve));
 
-class Pool implements RunPool {
-  private readonly queue: Queued[] = [];
+/** Grace past the wall-time cap before a silent worker is terminated. */
+const TERMINATE_GRACE_MS = 5_000;
+
+function runInline(job: RunJob): Promise<RunJobOutcome> {
+  // Let waiting requests (and SSE writes) through before each replay.
+  return yieldToEventLoop().then(() => executeRunJob(job));
+}
+
+/** One job at a time on the server's own thread (tests, scripts, or when workers fail). */
+function inlineExecutor(): RunExecutor {
+  return { slots: 1, mode: "inline", execute: runInline, close: async () => {} };
+}
+
+class WorkerExecutor implements RunExecutor {
   private readonly idle: Worker[] = [];
-  private readonly busy = new Map<Worker, Queued>();
+  private readonly busy = new Set<Worker>();
   private workersStarted = 0;
-  private inlineRunning = false;
-  mode: "workers" | "inline";
+  mode: "workers" | "inline" = "workers";
 
-  constructor(
-    mode: "workers" | "inline",
-    private readonly size: number,
-  ) {
-    this.mode = mode;
+  constructor(private readonly size: number) {}
+
+  get slots(): number {
+    return this.mode === "workers" ? this.size : 1;
   }
 
-  get pending(): number {
-    return this.queue.length + this.busy.size + (this.inlineRunning ? 1 : 0);
-  }
-
-  run(job: RunJob, onStart?: () => void): Promise<RunJobOutcome> {
-    return new Promise((resolve) => {
-      this.queue.push({ job, onStart, resolve });
-      this.pump();
+  execute(job: RunJob): Promise<RunJobOutcome> {
+    if (this.mode === "inline") return runInline(job);
+    const worker = this.idle.pop() ?? this.startWorker();
+    if (!worker) return runInline(job);
+    this.busy.add(worker);
+    return new Promise<RunJobOutcome>((resolve) => {
+      const settle = (outcome: RunJobOutcome | undefined, healthy: boolean) => {
+        clearTimeout(watchdog);
+        worker.off("message", onMessage);
+        worker.off("error", onError);
+        this.busy.delete(worker);
+        if (healthy) this.idle.push(worker);
+        else this.workersStarted -= 1;
+        // A crashed worker's job is retried inline; it never silently disappears.
+        resolve(outcome ?? runInline(job));
+      };
+      const onMessage = (outcome: RunJobOutcome) => settle(outcome, true);
+      const onError = (error: unknown) => {
+        this.fallBackToInline(error);
+        settle(undefined, false);
+      };
+      const watchdog = setTimeout(() => {
+        void worker.terminate();
+        const message = wallTimeCapMessage(job.caps);
+        settle({ runId: job.runId, kind: "capped", cap: "wall-time", message }, false);
+      }, job.caps.wallTimeMs + TERMINATE_GRACE_MS);
+      watchdog.unref();
+      worker.on("message", onMessage);
+      worker.on("error", onError);
+      worker.postMessage(job);
     });
-  }
-
-  private pump(): void {
-    if (this.mode === "inline") {
-      void this.pumpInline();
-      return;
-    }
-    while (this.queue.length > 0) {
-      const worker = this.idle.pop() ?? this.startWorker();
-      if (!worker) return;
-      const next = this.queue.shift()!;
-      this.busy.set(worker, next);
-      next.onStart?.();
-      worker.postMessage(next.job);
-    }
   }
 
   private startWorker(): Worker | undefined {
@@ -106,21 +118,6 @@ class Pool implements RunPool {
       return undefined;
     }
     this.workersStarted += 1;
-    worker.on("message", (outcome: RunJobOutcome) => {
-      const current = this.busy.get(worker);
-      this.busy.delete(worker);
-      this.idle.push(worker);
-      current?.resolve(outcome);
-      this.pump();
-    });
-    worker.on("error", (error) => {
-      const current = this.busy.get(worker);
-      this.busy.delete(worker);
-      this.workersStarted -= 1;
-      // The job in hand is retried inline; it never silently disappears.
-      if (current) this.queue.unshift(current);
-      this.fallBackToInline(error);
-    });
     // Idle workers must not keep a script (tsx, tests) alive.
     worker.unref();
     return worker;
@@ -130,27 +127,10 @@ class Pool implements RunPool {
     if (this.mode === "inline") return;
     console.error("run pool: worker threads unavailable, running scenarios inline", error);
     this.mode = "inline";
-    void this.pumpInline();
-  }
-
-  private async pumpInline(): Promise<void> {
-    if (this.inlineRunning) return;
-    this.inlineRunning = true;
-    try {
-      while (this.queue.length > 0) {
-        const next = this.queue.shift()!;
-        next.onStart?.();
-        // Let waiting requests (and SSE writes) through before each replay.
-        await yieldToEventLoop();
-        next.resolve(executeRunJob(next.job));
-      }
-    } finally {
-      this.inlineRunning = false;
-    }
   }
 
   async close(): Promise<void> {
-    const workers = [...this.idle, ...this.busy.keys()];
+    const workers = [...this.idle, ...this.busy];
     this.idle.length = 0;
     this.busy.clear();
     await Promise.all(workers.map((worker) => worker.terminate()));
@@ -160,7 +140,10 @@ class Pool implements RunPool {
 export function createRunPool(
   options: { mode?: "workers" | "inline"; size?: number } = {},
 ): RunPool {
-  return new Pool(options.mode ?? defaultMode(), options.size ?? workerCount());
+  const mode = options.mode ?? defaultMode();
+  return createRunScheduler(
+    mode === "workers" ? new WorkerExecutor(options.size ?? workerCount()) : inlineExecutor(),
+  );
 }
 
 // One pool per server process; kept on globalThis so a dev-server reload does

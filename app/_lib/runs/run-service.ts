@@ -1,7 +1,8 @@
 import type { Db } from "@/db/client";
-import { getDb } from "@/db/client";
+import { getDb, withNormalSync } from "@/db/client";
 import type { BenchRevision } from "@/db/queries/benches";
 import {
+  countActiveRuns,
   createRun,
   createSuiteRun,
   finishRun,
@@ -16,9 +17,10 @@ import {
 import type { ScenarioRow } from "@/db/queries/scenarios";
 import { parseScenarioText } from "@/engine/scenario/parse-scenario";
 import type { Scenario } from "@/engine/scenario/scenario-schema";
+import { runLimits } from "../config";
 import { AppError } from "../errors";
 import { publishRunEvent } from "./run-events";
-import type { RunJob, RunJobOutcome } from "./run-job";
+import type { RunCaps, RunJob, RunJobOutcome } from "./run-job";
 import { getRunPool, type RunPool } from "./run-pool";
 import { resultForStorage, verdictOf } from "./stored-result";
 
@@ -58,20 +60,56 @@ function benchDocumentOf(revision: Pick<BenchRevision, "document" | "number">): 
 
 /** Store one job's outcome on its run row and return the row. */
 function storeOutcome(db: Db, outcome: RunJobOutcome): Run | undefined {
-  if (!outcome.ok) return markRunErrored({ db, runId: outcome.runId, message: outcome.message });
-  const { result } = outcome;
+  if (outcome.kind === "error") {
+    return markRunErrored({ db, runId: outcome.runId, message: outcome.message });
+  }
+  const result = outcome.result;
+  // A run stopped by a cap is a failed verdict, not a runner error: the scenario asked for too much.
+  const capped = outcome.kind === "capped";
   return finishRun({
     db,
     runId: outcome.runId,
     result: {
-      verdict: verdictOf(result),
-      stepsPassed: result.totals.pass,
-      stepsFailed: result.totals.fail + result.totals.error,
-      stepsTotal: result.steps.length,
-      results: JSON.stringify(resultForStorage(result)),
-      durationMs: Math.round(result.wallMs),
+      verdict: capped ? "fail" : verdictOf(result!),
+      stepsPassed: result?.totals.pass ?? 0,
+      stepsFailed: result ? result.totals.fail + result.totals.error : 0,
+      stepsTotal: result?.steps.length ?? 0,
+      results: result ? JSON.stringify(resultForStorage(result)) : null,
+      durationMs: result ? Math.round(result.wallMs) : 0,
+      ...(capped ? { errorMessage: outcome.message } : {}),
     },
   });
+}
+
+/** The scenario outcome a suite's progress event names. */
+function outcomeName(outcome: RunJobOutcome): string {
+  if (outcome.kind === "result") return outcome.result.outcome;
+  return outcome.kind === "capped" ? `capped-${outcome.cap}` : "error";
+}
+
+/**
+ * Refuse a new run when the member or the workspace already has as many runs
+ * queued or running as allowed. Counted from the rows (the one source of
+ * truth) just before the new rows are written, with no await in between, so
+ * two requests cannot both slip under the limit.
+ */
+function assertRunCapacity(db: Db, workspaceId: string, startedBy: string): RunCaps {
+  const limits = runLimits();
+  const mine = countActiveRuns({ db, workspaceId, startedBy });
+  if (mine >= limits.perMember) {
+    throw new AppError(
+      "rate_limited",
+      `you already have ${mine} runs queued or running, the most one member may have (RUN_LIMIT_PER_MEMBER = ${limits.perMember}); start this one when one of them has finished`,
+    );
+  }
+  const workspace = countActiveRuns({ db, workspaceId });
+  if (workspace >= limits.perWorkspace) {
+    throw new AppError(
+      "rate_limited",
+      `this workspace already has ${workspace} runs queued or running, the most one workspace may have (RUN_LIMIT_PER_WORKSPACE = ${limits.perWorkspace}); start this one when one of them has finished`,
+    );
+  }
+  return { wallTimeMs: limits.wallTimeMs, virtualTimeUs: limits.virtualTimeUs };
 }
 
 export interface ScenarioRunRequest {
@@ -94,6 +132,7 @@ export function startScenarioRun(
   const scenario = scenarioDocumentOf(request.scenario);
   const bench = benchDocumentOf(request.revision);
   const seed = request.seed ?? scenario.seed;
+  const caps = assertRunCapacity(db, request.workspaceId, request.startedBy);
   const run = createRun({
     db,
     values: {
@@ -111,15 +150,19 @@ export function startScenarioRun(
     scenario,
     bench,
     seed,
+    caps,
     gradeAsWritten: request.gradeAsWritten,
   };
   const done = pool
-    .run(job, () => {
-      markRunStarted({ db, runId: run.id });
-      publishRunEvent(run.id, { kind: "run.started", status: "running", done: 0, total: 1 });
+    .run(job, {
+      member: request.startedBy,
+      onStart: () => {
+        withNormalSync(db, () => markRunStarted({ db, runId: run.id }));
+        publishRunEvent(run.id, { kind: "run.started", status: "running", done: 0, total: 1 });
+      },
     })
     .then((outcome) => {
-      const stored = storeOutcome(db, outcome) ?? run;
+      const stored = withNormalSync(db, () => storeOutcome(db, outcome)) ?? run;
       publishRunEvent(run.id, {
         kind: "run.finished",
         status: stored.status === "errored" ? "errored" : "finished",
@@ -127,6 +170,7 @@ export function startScenarioRun(
         done: 1,
         total: 1,
         durationMs: stored.durationMs,
+        ...(stored.errorMessage ? { message: stored.errorMessage } : {}),
       });
       return stored;
     });
@@ -168,6 +212,7 @@ export function startSuiteRun(
       seed: request.seed ?? scenario.seed,
     };
   });
+  const caps = assertRunCapacity(db, request.workspaceId, request.startedBy);
   const created = createSuiteRun({
     db,
     values: {
@@ -196,19 +241,36 @@ export function startSuiteRun(
   const jobs = created.runs.map((run, position) => {
     const { scenario, bench, seed } = prepared[position]!;
     return pool
-      .run({ runId: run.id, scenario, bench, seed }, () => {
-        markRunStarted({ db, runId: run.id });
-        if (markSuiteRunStarted({ db, suiteRunId: suiteRun.id }).changes > 0) {
-          publishRunEvent(suiteRun.id, { kind: "run.started", status: "running", done: 0, total });
-        }
-        publishRunEvent(run.id, { kind: "run.started", status: "running", done: 0, total: 1 });
-      })
+      .run(
+        { runId: run.id, scenario, bench, seed, caps },
+        {
+          member: request.startedBy,
+          onStart: () => {
+            const suiteStarted = withNormalSync(db, () => {
+              markRunStarted({ db, runId: run.id });
+              return markSuiteRunStarted({ db, suiteRunId: suiteRun.id }).changes > 0;
+            });
+            if (suiteStarted) {
+              publishRunEvent(suiteRun.id, {
+                kind: "run.started",
+                status: "running",
+                done: 0,
+                total,
+              });
+            }
+            publishRunEvent(run.id, { kind: "run.started", status: "running", done: 0, total: 1 });
+          },
+        },
+      )
       .then((outcome) => {
-        const stored = storeOutcome(db, outcome) ?? run;
-        const progress = recordSuiteRunScenario({
-          db,
-          suiteRunId: suiteRun.id,
-          ok: stored.verdict === "pass",
+        const { stored, progress } = withNormalSync(db, () => {
+          const stored = storeOutcome(db, outcome) ?? run;
+          const progress = recordSuiteRunScenario({
+            db,
+            suiteRunId: suiteRun.id,
+            ok: stored.verdict === "pass",
+          });
+          return { stored, progress };
         });
         publishRunEvent(run.id, {
           kind: "run.finished",
@@ -217,13 +279,14 @@ export function startSuiteRun(
           done: 1,
           total: 1,
           durationMs: stored.durationMs,
+          ...(stored.errorMessage ? { message: stored.errorMessage } : {}),
         });
         publishRunEvent(suiteRun.id, {
           kind: "scenario.finished",
           runId: run.id,
           scenarioName: stored.scenarioName,
           verdict: stored.verdict ?? "error",
-          outcome: outcome.ok ? outcome.result.outcome : "error",
+          outcome: outcomeName(outcome),
           done: progress?.scenariosDone ?? position + 1,
           total,
         });
@@ -238,11 +301,13 @@ export function startSuiteRun(
         ? "pass"
         : "fail";
     const stored =
-      finishSuiteRun({
-        db,
-        suiteRunId: suiteRun.id,
-        values: { status: "finished", verdict, durationMs: Date.now() - startedAtMs },
-      }) ?? suiteRun;
+      withNormalSync(db, () =>
+        finishSuiteRun({
+          db,
+          suiteRunId: suiteRun.id,
+          values: { status: "finished", verdict, durationMs: Date.now() - startedAtMs },
+        }),
+      ) ?? suiteRun;
     publishRunEvent(suiteRun.id, {
       kind: "run.finished",
       status: "finished",

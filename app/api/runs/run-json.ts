@@ -12,6 +12,8 @@ export function runJson(run: Run, options: { results?: boolean } = {}) {
     stepsPassed: run.stepsPassed,
     stepsFailed: run.stepsFailed,
     stepsTotal: run.stepsTotal,
+    /** Why the run ended early (a cap, a runner error, an interruption), or null. */
+    errorMessage: run.errorMessage,
     startedBy: run.startedBy,
     createdAt: run.createdAt.toISOString(),
     startedAt: run.startedAt?.toISOString() ?? null,

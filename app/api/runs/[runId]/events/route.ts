@@ -3,6 +3,7 @@ import { errorResponse } from "@/app/_lib/errors";
 import type { RouteParams } from "@/app/_lib/http";
 import { loadVisibleRunOrSuiteRun } from "@/app/_lib/runs/run-access";
 import { type RunProgressEvent, subscribeToRun } from "@/app/_lib/runs/run-events";
+import { interruptedRunMessage } from "@/db/queries/runs";
 
 /** A comment line every so often keeps proxies from closing a quiet stream. */
 const HEARTBEAT_MS = 15_000;
@@ -19,6 +20,7 @@ function snapshotOf(visible: ReturnType<typeof loadVisibleRunOrSuiteRun>): RunPr
           done: 1,
           total: 1,
           durationMs: run.durationMs,
+          ...(run.errorMessage ? { message: run.errorMessage } : {}),
         }
       : { kind: "run.snapshot", status: run.status, done: 0, total: 1 };
   }
@@ -31,6 +33,8 @@ function snapshotOf(visible: ReturnType<typeof loadVisibleRunOrSuiteRun>): RunPr
         done: suiteRun.scenariosDone,
         total: suiteRun.scenariosTotal,
         durationMs: suiteRun.durationMs,
+        // A suite run ends errored only when a server stop interrupted it.
+        ...(suiteRun.status === "errored" ? { message: interruptedRunMessage } : {}),
       }
     : {
         kind: "run.snapshot",
@@ -44,7 +48,10 @@ function snapshotOf(visible: ReturnType<typeof loadVisibleRunOrSuiteRun>): RunPr
  * GET /api/runs/:id/events — server-sent events with a run's (or suite run's)
  * progress: first a snapshot from the database, then `run.started`,
  * `scenario.finished` for each scenario of a suite, and `run.finished`, after
- * which the stream ends. Each message is `event: <kind>` with JSON data.
+ * which the stream ends. Each message is `event: <kind>` with JSON data. A run
+ * that a server stop interrupted was ended at start-up (instrumentation.ts), so
+ * its snapshot is already `run.finished` (errored, with the reason) and the
+ * stream closes at once instead of waiting forever.
  */
 export async function GET(request: Request, context: RouteParams<{ runId: string }>) {
   let channel: string;
