@@ -166,21 +166,6 @@ export function canOn(
   return false;
 }
 
-/**
- * Whether a member may see a bench at all: a shared bench yes, a private copy
- * (a sandbox or lab copy) only its owner and those who manage labs.
- */
-export function maySeeBench(
-  session: { readonly role: Role; readonly userId: string },
-  bench: { readonly privateOwnerId: string | null },
-): boolean {
-  return (
-    bench.privateOwnerId === null ||
-    bench.privateOwnerId === session.userId ||
-    can(session.role, "labs.manage")
-  );
-}
-
 /** Roles this role may invite: admin any, trainer apprentices, others none. */
 export function invitableRoles(role: Role): readonly Role[] {
   const scope = scopeOf(role, "invitations.send");

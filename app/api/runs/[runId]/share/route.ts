@@ -3,7 +3,7 @@ import { appUrl } from "@/app/_lib/config";
 import { AppError } from "@/app/_lib/errors";
 import { json, readJson, route, type RouteParams } from "@/app/_lib/http";
 import { deliverPendingMail, queueMail } from "@/app/_lib/mailer";
-import { loadVisibleRunOrSuiteRun } from "@/app/_lib/runs/run-access";
+import { loadRunOrSuiteRun } from "@/app/_lib/policy/run";
 import { findMembership } from "@/db/queries/memberships";
 import { findUserByEmail } from "@/db/queries/users";
 import { findWorkspaceById } from "@/db/queries/workspaces";
@@ -18,7 +18,7 @@ export const POST = route(async (request, context: RouteParams<{ runId: string }
   const { runId } = await context.params;
   const body = await readJson(request, shareRunSchema);
   const session = await verifyApiSession(request);
-  const visible = loadVisibleRunOrSuiteRun(session, runId);
+  const visible = loadRunOrSuiteRun(session, runId);
   const recipient = findUserByEmail({ email: body.to });
   const membership = recipient
     ? findMembership({ userId: recipient.id, workspaceId: session.workspaceId })
