@@ -13,7 +13,7 @@ import {
 import { createMembership, findMembership } from "@/db/queries/memberships";
 import { consumePasswordReset, createPasswordReset } from "@/db/queries/password-resets";
 import { createUser, findUserByEmail, findUserById, setPasswordHash } from "@/db/queries/users";
-import { findWorkspaceById, listWorkspacesForUser } from "@/db/queries/workspaces";
+import { findWorkspaceById } from "@/db/queries/workspaces";
 import type { Role } from "@/db/schema";
 import { invitableRoles } from "./capabilities";
 import { appUrl } from "./config";
@@ -119,6 +119,7 @@ export async function inviteMember(
     });
     queueMail(
       {
+        audience: "workspace",
         workspaceId: workspace.id,
         to: input.email,
         purpose: "invitation",
@@ -169,6 +170,7 @@ export async function resendInvitation(
     });
     queueMail(
       {
+        audience: "workspace",
         workspaceId: workspace.id,
         to: invitation.email,
         purpose: "invitation",
@@ -274,9 +276,8 @@ export async function acceptInvitation(
 export async function requestPasswordReset(email: string, now = new Date()): Promise<void> {
   const user = findUserByEmail({ email });
   if (!user || user.disabledAt !== null) return;
-  // Filed under the user's first workspace so the demo's Outbox page (no SMTP)
-  // shows it; the page hides bodies once mail really leaves by SMTP.
-  const workspaceId = listWorkspacesForUser({ userId: user.id })[0]?.workspace.id ?? null;
+  // Account mail: filed under no workspace, so no workspace's admin can read
+  // the link; without SMTP it goes to the server log (app/_lib/mailer.ts).
   const { token, tokenHash } = newToken();
   const expiresAt = new Date(now.getTime() + passwordResetLifetimeMs);
   const link = passwordResetLink(token);
@@ -284,7 +285,7 @@ export async function requestPasswordReset(email: string, now = new Date()): Pro
     createPasswordReset({ db: asDb(tx), userId: user.id, tokenHash, expiresAt });
     queueMail(
       {
-        workspaceId,
+        audience: "account",
         to: user.email,
         purpose: "password-reset",
         subject: "Reset your Benchline password",

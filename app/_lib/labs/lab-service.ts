@@ -82,6 +82,7 @@ export async function assignLab(
         : "It has no due date.";
       queueMail(
         {
+          audience: "workspace",
           workspaceId: who.workspaceId,
           to: apprentice.email,
           subject: `New lab: ${lab.title}`,

@@ -43,6 +43,7 @@ export const POST = route(async (request, context: RouteParams<{ runId: string }
     .filter((line, index, lines) => !(line === "" && lines[index - 1] === ""))
     .join("\n");
   queueMail({
+    audience: "workspace",
     workspaceId: session.workspaceId,
     to: recipient.email,
     subject: `Run report: ${what}`,
