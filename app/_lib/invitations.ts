@@ -11,7 +11,11 @@ import {
   type Invitation,
 } from "@/db/queries/invitations";
 import { createMembership, findMembership } from "@/db/queries/memberships";
-import { consumePasswordReset, createPasswordReset } from "@/db/queries/password-resets";
+import {
+  consumePasswordReset,
+  createPasswordReset,
+  endOutstandingPasswordResets,
+} from "@/db/queries/password-resets";
 import { createUser, findUserByEmail, findUserById, setPasswordHash } from "@/db/queries/users";
 import { findWorkspaceById } from "@/db/queries/workspaces";
 import type { Role } from "@/db/schema";
@@ -307,19 +311,23 @@ export async function requestPasswordReset(email: string, now = new Date()): Pro
   void deliverPendingMail().catch(() => undefined);
 }
 
-/** Finish a password reset: sets the password and ends every session of the account. */
+/** Finish a password reset: sets the password, ends every session and every other reset link of the account. */
 export async function completePasswordReset(
   input: { token: string; password: string },
   now = new Date(),
 ): Promise<void> {
   const passwordHash = await hashPassword(input.password);
-  const reset = consumePasswordReset({ tokenHash: hashToken(input.token), now });
-  if (!reset) {
-    throw new AppError("not_found", "this reset link is not valid any more; ask for a new one", {
-      field: "token",
-    });
-  }
-  const user = findUserById({ userId: reset.userId });
-  if (!user) throw new AppError("not_found", "the account no longer exists");
-  setPasswordHash({ userId: user.id, passwordHash });
+  getDb().transaction((tx) => {
+    const reset = consumePasswordReset({ db: asDb(tx), tokenHash: hashToken(input.token), now });
+    if (!reset) {
+      throw new AppError("not_found", "this reset link is not valid any more; ask for a new one", {
+        field: "token",
+      });
+    }
+    const user = findUserById({ db: asDb(tx), userId: reset.userId });
+    if (!user) throw new AppError("not_found", "the account no longer exists");
+    // Using one link ends every other open link of the account.
+    endOutstandingPasswordResets({ db: asDb(tx), userId: user.id, now });
+    setPasswordHash({ db: asDb(tx), userId: user.id, passwordHash });
+  });
 }

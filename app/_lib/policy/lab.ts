@@ -101,7 +101,7 @@ export function loadGradingScenario(who: Who, scenarioId: string, bench: Bench) 
   if (scenario.benchId !== bench.id) {
     throw new AppError(
       "invalid_input",
-      `gradingScenarioId: "${scenario.name}" runs on another bench than "${bench.name}"`,
+      `gradingScenarioId: that scenario runs on another bench than "${bench.name}", the lab's bench`,
       { field: "gradingScenarioId" },
     );
   }

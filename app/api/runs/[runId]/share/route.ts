@@ -1,3 +1,4 @@
+import { admitRunShare } from "@/app/_lib/auth";
 import { verifyApiSession } from "@/app/_lib/dal";
 import { appUrl } from "@/app/_lib/config";
 import { AppError } from "@/app/_lib/errors";
@@ -12,7 +13,8 @@ import { shareRunSchema } from "./schema";
 /**
  * POST /api/runs/:runId/share — e-mail a run report's link to a colleague.
  * Only members of the workspace can open the link, so only they can be sent
- * it; that also keeps the app from mailing arbitrary addresses.
+ * it; that also keeps the app from mailing arbitrary addresses. Each member
+ * may share only so many reports an hour (429 beyond that).
  */
 export const POST = route(async (request, context: RouteParams<{ runId: string }>) => {
   const { runId } = await context.params;
@@ -26,6 +28,8 @@ export const POST = route(async (request, context: RouteParams<{ runId: string }
   if (!recipient || !membership || recipient.disabledAt !== null) {
     throw new AppError("invalid_input", "to: not a member of this workspace", { field: "to" });
   }
+  // Counted only once the share is valid: a refused one sends nothing.
+  admitRunShare({ userId: session.userId });
   const workspace = findWorkspaceById({ workspaceId: session.workspaceId });
   const what =
     visible.kind === "scenario"
