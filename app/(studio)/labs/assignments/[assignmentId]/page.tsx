@@ -1,11 +1,11 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { requireCapability } from "@/app/_lib/dal";
-import { loadBench } from "@/app/_lib/policy/bench";
+import { benchCan } from "@/app/_lib/policy/bench";
 import { orNotFound } from "@/app/_lib/policy/for-page";
 import { assignmentCan, loadAssignment } from "@/app/_lib/policy/lab";
 import { parseStoredResult } from "@/app/_lib/runs/stored-result";
-import { latestRevision } from "@/db/queries/benches";
+import { findBench, latestRevision } from "@/db/queries/benches";
 import { listAttempts } from "@/db/queries/labs";
 import { AttemptChecks } from "@/components/labs/attempt-checks";
 import { LabWorkbench, type WorkbenchCopy } from "@/components/labs/lab-workbench";
@@ -28,9 +28,11 @@ export default async function AssignmentPage({
   const { assignment, lab } = found;
   const isApprentice = assignment.apprenticeId === session.userId;
   let copy: WorkbenchCopy | null = null;
-  const bench = assignment.privateBenchId
-    ? orNotFound(() => loadBench(session, assignment.privateBenchId!))
+  // The copy, if it was made and is still there; read through the bench policy.
+  const stored = assignment.privateBenchId
+    ? findBench({ workspaceId: session.workspaceId, benchId: assignment.privateBenchId })
     : undefined;
+  const bench = stored && benchCan(session, stored).read ? stored : undefined;
   const revision = bench ? latestRevision({ benchId: bench.id }) : undefined;
   if (bench && revision) {
     copy = {
