@@ -2,6 +2,7 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { requireCapability } from "@/app/_lib/dal";
 import { listReadableBenches } from "@/app/_lib/policy/bench";
+import { mayMakeLabFrom } from "@/app/_lib/policy/lab";
 import type { Who } from "@/app/_lib/policy/policy";
 import { latestRevision } from "@/db/queries/benches";
 import { listAssignmentsOf, listAttempts, listLabs } from "@/db/queries/labs";
@@ -20,7 +21,7 @@ export const metadata: Metadata = { title: "Labs" };
 function labBenches(who: Who): LabBenchChoice[] {
   const scenarios = listScenarios({ workspaceId: who.workspaceId });
   return listReadableBenches(who)
-    .filter((bench) => bench.privateOwnerId === null || bench.privateOwnerId === who.userId)
+    .filter((bench) => mayMakeLabFrom(who, bench))
     .map((bench) => {
       const revision = latestRevision({ benchId: bench.id });
       let document: {

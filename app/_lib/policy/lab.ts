@@ -77,6 +77,11 @@ export function loadAssignment(
   };
 }
 
+/** Whether a lab may be made from this bench: shared, or the session's own private bench. */
+export function mayMakeLabFrom(who: Who, bench: Bench): boolean {
+  return bench.privateOwnerId === null || bench.privateOwnerId === who.userId;
+}
+
 /**
  * The bench a new lab is made from: one the trainer may read, either shared or
  * their own private bench (a private lab bench keeps its fault-free original
@@ -85,7 +90,7 @@ export function loadAssignment(
 export function loadLabBench(who: Who, benchId: string): Bench {
   const source = { field: "benchId" };
   const bench = loadBench(who, benchId, "read", source);
-  if (bench.privateOwnerId !== null && bench.privateOwnerId !== who.userId) {
+  if (!mayMakeLabFrom(who, bench)) {
     throw new AppError(
       "invalid_input",
       "benchId: a lab is made from a shared bench or your own private bench, not someone else's copy",
