@@ -13,7 +13,8 @@ export type CapabilityScope = "workspace" | "own" | "apprentices" | "none";
 /**
  * The one capability table: product.md's roles table, row by row. Every route
  * handler, server action and the navigation ask this table (through `can` and
- * `scopeOf`); nothing else decides who may do what. The API tests generate
+ * `scopeOf`), and the resource policies (app/_lib/policy/) build on it to
+ * decide per row; nothing else decides who may do what. The API tests generate
  * their role-by-route matrix from it.
  */
 export const capabilityTable = {

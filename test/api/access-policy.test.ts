@@ -184,6 +184,17 @@ describe("a lab copy does not lead its apprentice to its source", () => {
       (JSON.parse(ownText) as { bench: { copiedFromBenchId: unknown } }).bench.copiedFromBenchId,
     ).toBeNull();
     expect(ownText).not.toContain(sourceId);
+    // Nor does its history name the source.
+    const history = await import("@/app/api/benches/[benchId]/revisions/route");
+    const revisions = await (
+      await call(history.GET, {
+        method: "GET",
+        path: `/api/benches/${copyId}/revisions`,
+        params: { benchId: copyId },
+        cookie: apprentice,
+      })
+    ).text();
+    expect(revisions).not.toContain("Lab original");
     const listed = await (
       await call(benches.GET, { method: "GET", path: "/api/benches", cookie: apprentice })
     ).text();

@@ -129,6 +129,8 @@ export function openAssignment(
     name: `${found.lab.title} (${found.apprenticeName})`,
     createdBy: who.userId,
     privateOwnerId: who.userId,
+    // Not "Copied from <source>": the apprentice reads this copy's history.
+    summary: `Your copy of the lab "${found.lab.title}"`,
   });
   setAssignmentBench({ assignmentId: found.assignment.id, benchId: copy.bench.id });
   return { benchId: copy.bench.id, created: true };
