@@ -37,6 +37,16 @@ export type RunVerdict = (typeof runVerdicts)[number];
 export const outboxStatuses = ["pending", "sent", "failed"] as const;
 export type OutboxStatus = (typeof outboxStatuses)[number];
 
+/**
+ * Whom a mail concerns. "workspace" mail is sent on a workspace's behalf
+ * (invitations, shared run reports, lab assignments) and its admins may read
+ * it on the Outbox page; "account" mail (password resets, sign-in notices)
+ * concerns one person's account, belongs to no workspace and is never shown
+ * to anyone but its addressee.
+ */
+export const mailAudiences = ["workspace", "account"] as const;
+export type MailAudience = (typeof mailAudiences)[number];
+
 /** What an upload is for; an upload with a purpose belongs to one bench. */
 export const uploadPurposes = ["floor-plan"] as const;
 export type UploadPurpose = (typeof uploadPurposes)[number];
@@ -398,13 +408,17 @@ export const uploads = sqliteTable(
 /**
  * Mail is written here in the same transaction as the change that causes it
  * (invitation, password reset) and sent afterwards, so a failing mail server
- * never loses or duplicates a message. The Outbox page lists it in the demo.
+ * never loses or duplicates a message. The Outbox page lists a workspace's own
+ * mail; account mail has no workspace (the check below holds it to that), and
+ * its body is blanked once it has been delivered.
  */
 export const emailOutbox = sqliteTable(
   "email_outbox",
   {
     id: id(),
+    /** Set exactly for workspace mail; null for account mail. */
     workspaceId: text("workspace_id").references(() => workspaces.id, { onDelete: "cascade" }),
+    audience: text("audience", { enum: mailAudiences }).notNull().default("workspace"),
     toAddress: text("to_address").notNull(),
     subject: text("subject").notNull(),
     textBody: text("text_body").notNull(),
@@ -420,6 +434,14 @@ export const emailOutbox = sqliteTable(
   (t) => [
     index("email_outbox_status_idx").on(t.status, t.createdAt),
     check("email_outbox_status_check", inList("status", outboxStatuses)),
+    check("email_outbox_audience_check", inList("audience", mailAudiences)),
+    // Account mail never belongs to a workspace; workspace mail always does.
+    check(
+      "email_outbox_audience_workspace_check",
+      sql.raw(
+        "(audience = 'account' and workspace_id is null) or (audience = 'workspace' and workspace_id is not null)",
+      ),
+    ),
   ],
 );
 

@@ -3,6 +3,7 @@ import { z } from "zod";
 import {
   countRecentAccountFailures,
   countRecentAddressFailures,
+  countRecentPairFailures,
   recordLoginAttempt,
 } from "@/db/queries/login-attempts";
 import { findUserByEmail, normalizeEmail } from "@/db/queries/users";
@@ -13,12 +14,18 @@ import type { SessionPayload } from "./session";
 
 /**
  * Sign-in limits. Failures are counted in a sliding window from the
- * login_attempts table: per account (a correct password resets its count) and
- * per client address (across accounts, so one machine cannot try many).
+ * login_attempts table: per (client address, account) pair (a correct password
+ * from that address resets its count) and per client address (across accounts,
+ * so one machine cannot try many). There is no lock on the account as a whole:
+ * whoever knows an address could otherwise lock its owner out; failures from
+ * one address hold back that address only.
  */
 export const signInLimits = {
   windowMs: 15 * 60 * 1000,
-  /** The 6th attempt on an account within the window is refused without checking the password. */
+  /**
+   * The 6th attempt on an account from one client address within the window is
+   * refused without checking the password; other addresses are not affected.
+   */
   failuresPerAccount: 5,
   /** The 21st attempt from one address within the window is refused. */
   failuresPerAddress: 20,
@@ -46,7 +53,7 @@ export const passwordResetLimitedMessage =
 /** One message for every sign-in failure: it never tells whether the account exists. */
 export const signInFailedMessage = "that e-mail and password do not match an active account";
 export const signInLimitedMessage =
-  "too many sign-in attempts; wait 15 minutes or reset your password";
+  "too many sign-in attempts from here; wait 15 minutes or reset your password";
 
 export const emailSchema = z
   .string({ error: "enter an e-mail address" })
@@ -129,7 +136,8 @@ export async function signInWithPassword({
   const normalized = normalizeEmail(email);
   const since = new Date(now.getTime() - signInLimits.windowMs);
   if (
-    countRecentAccountFailures({ email: normalized, since }) >= signInLimits.failuresPerAccount ||
+    countRecentPairFailures({ email: normalized, clientAddress, since }) >=
+      signInLimits.failuresPerAccount ||
     (clientAddress !== null &&
       countRecentAddressFailures({ clientAddress, since }) >= signInLimits.failuresPerAddress)
   ) {
@@ -184,4 +192,29 @@ export function admitPasswordResetRequest({
     throw new AppError("rate_limited", passwordResetLimitedMessage);
   }
   recordLoginAttempt({ email: emailKey, clientAddress: addressKey, succeeded: false, at: now });
+}
+
+/**
+ * Sharing run reports by e-mail: each share sends a mail from the app to a
+ * colleague, so a member may send only so many in a window. Counted in the
+ * same attempts table as sign-in and reset requests, under a key of its own.
+ */
+export const runShareLimits = {
+  windowMs: 60 * 60 * 1000,
+  /** The 11th share by one member within the window is refused. */
+  sharesPerMember: 10,
+} as const;
+
+export const runShareLimitedMessage = `you have shared ${runShareLimits.sharesPerMember} run reports by e-mail in the last hour; wait a while before sharing more`;
+
+const runShareKey = (userId: string) => `run-share ${userId}`;
+
+/** Count one run-report share against the member's limit, or refuse it with 429. */
+export function admitRunShare({ userId, now = new Date() }: { userId: string; now?: Date }): void {
+  const key = runShareKey(userId);
+  const since = new Date(now.getTime() - runShareLimits.windowMs);
+  if (countRecentAccountFailures({ email: key, since }) >= runShareLimits.sharesPerMember) {
+    throw new AppError("rate_limited", runShareLimitedMessage);
+  }
+  recordLoginAttempt({ email: key, clientAddress: null, succeeded: false, at: now });
 }

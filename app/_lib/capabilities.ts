@@ -13,7 +13,8 @@ export type CapabilityScope = "workspace" | "own" | "apprentices" | "none";
 /**
  * The one capability table: product.md's roles table, row by row. Every route
  * handler, server action and the navigation ask this table (through `can` and
- * `scopeOf`); nothing else decides who may do what. The API tests generate
+ * `scopeOf`), and the resource policies (app/_lib/policy/) build on it to
+ * decide per row; nothing else decides who may do what. The API tests generate
  * their role-by-route matrix from it.
  */
 export const capabilityTable = {
@@ -164,21 +165,6 @@ export function canOn(
   if (scope === "own")
     return ownerId !== null && ownerId !== undefined && ownerId === session.userId;
   return false;
-}
-
-/**
- * Whether a member may see a bench at all: a shared bench yes, a private copy
- * (a sandbox or lab copy) only its owner and those who manage labs.
- */
-export function maySeeBench(
-  session: { readonly role: Role; readonly userId: string },
-  bench: { readonly privateOwnerId: string | null },
-): boolean {
-  return (
-    bench.privateOwnerId === null ||
-    bench.privateOwnerId === session.userId ||
-    can(session.role, "labs.manage")
-  );
 }
 
 /** Roles this role may invite: admin any, trainer apprentices, others none. */

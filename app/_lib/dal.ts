@@ -107,22 +107,4 @@ export function authorize(
   return scope;
 }
 
-/**
- * Throw 403 unless the member may act on this resource: workspace scope, or
- * "own" scope on a resource `ownerId` says is theirs.
- */
-export function authorizeOn(
-  session: Pick<VerifiedSession, "role" | "userId">,
-  capability: Capability,
-  ownerId: string | null | undefined,
-): void {
-  const scope = authorize(session, capability);
-  if (scope === "workspace") return;
-  if (scope === "own" && ownerId && ownerId === session.userId) return;
-  throw new AppError(
-    "forbidden",
-    `your role (${session.role}) may do this only on your own items: ${capability}`,
-  );
-}
-
 export { can } from "./capabilities";

@@ -11,9 +11,13 @@ import {
   type Invitation,
 } from "@/db/queries/invitations";
 import { createMembership, findMembership } from "@/db/queries/memberships";
-import { consumePasswordReset, createPasswordReset } from "@/db/queries/password-resets";
+import {
+  consumePasswordReset,
+  createPasswordReset,
+  endOutstandingPasswordResets,
+} from "@/db/queries/password-resets";
 import { createUser, findUserByEmail, findUserById, setPasswordHash } from "@/db/queries/users";
-import { findWorkspaceById, listWorkspacesForUser } from "@/db/queries/workspaces";
+import { findWorkspaceById } from "@/db/queries/workspaces";
 import type { Role } from "@/db/schema";
 import { invitableRoles } from "./capabilities";
 import { appUrl } from "./config";
@@ -119,6 +123,7 @@ export async function inviteMember(
     });
     queueMail(
       {
+        audience: "workspace",
         workspaceId: workspace.id,
         to: input.email,
         purpose: "invitation",
@@ -169,6 +174,7 @@ export async function resendInvitation(
     });
     queueMail(
       {
+        audience: "workspace",
         workspaceId: workspace.id,
         to: invitation.email,
         purpose: "invitation",
@@ -274,9 +280,8 @@ export async function acceptInvitation(
 export async function requestPasswordReset(email: string, now = new Date()): Promise<void> {
   const user = findUserByEmail({ email });
   if (!user || user.disabledAt !== null) return;
-  // Filed under the user's first workspace so the demo's Outbox page (no SMTP)
-  // shows it; the page hides bodies once mail really leaves by SMTP.
-  const workspaceId = listWorkspacesForUser({ userId: user.id })[0]?.workspace.id ?? null;
+  // Account mail: filed under no workspace, so no workspace's admin can read
+  // the link; without SMTP it goes to the server log (app/_lib/mailer.ts).
   const { token, tokenHash } = newToken();
   const expiresAt = new Date(now.getTime() + passwordResetLifetimeMs);
   const link = passwordResetLink(token);
@@ -284,7 +289,7 @@ export async function requestPasswordReset(email: string, now = new Date()): Pro
     createPasswordReset({ db: asDb(tx), userId: user.id, tokenHash, expiresAt });
     queueMail(
       {
-        workspaceId,
+        audience: "account",
         to: user.email,
         purpose: "password-reset",
         subject: "Reset your Benchline password",
@@ -306,19 +311,23 @@ export async function requestPasswordReset(email: string, now = new Date()): Pro
   void deliverPendingMail().catch(() => undefined);
 }
 
-/** Finish a password reset: sets the password and ends every session of the account. */
+/** Finish a password reset: sets the password, ends every session and every other reset link of the account. */
 export async function completePasswordReset(
   input: { token: string; password: string },
   now = new Date(),
 ): Promise<void> {
   const passwordHash = await hashPassword(input.password);
-  const reset = consumePasswordReset({ tokenHash: hashToken(input.token), now });
-  if (!reset) {
-    throw new AppError("not_found", "this reset link is not valid any more; ask for a new one", {
-      field: "token",
-    });
-  }
-  const user = findUserById({ userId: reset.userId });
-  if (!user) throw new AppError("not_found", "the account no longer exists");
-  setPasswordHash({ userId: user.id, passwordHash });
+  getDb().transaction((tx) => {
+    const reset = consumePasswordReset({ db: asDb(tx), tokenHash: hashToken(input.token), now });
+    if (!reset) {
+      throw new AppError("not_found", "this reset link is not valid any more; ask for a new one", {
+        field: "token",
+      });
+    }
+    const user = findUserById({ db: asDb(tx), userId: reset.userId });
+    if (!user) throw new AppError("not_found", "the account no longer exists");
+    // Using one link ends every other open link of the account.
+    endOutstandingPasswordResets({ db: asDb(tx), userId: user.id, now });
+    setPasswordHash({ db: asDb(tx), userId: user.id, passwordHash });
+  });
 }

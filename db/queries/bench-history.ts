@@ -144,6 +144,7 @@ export function duplicateBench({
   name,
   createdBy,
   privateOwnerId,
+  summary = `Copied from "${source.name}"`,
 }: {
   db?: Db;
   source: typeof benches.$inferSelect;
@@ -151,6 +152,8 @@ export function duplicateBench({
   name: string;
   createdBy: string;
   privateOwnerId: string | null;
+  /** The first revision's summary; names the source unless told otherwise. */
+  summary?: string;
 }) {
   try {
     return db.transaction((tx) => {
@@ -173,7 +176,7 @@ export function duplicateBench({
           number: 1,
           document,
           authorId: createdBy,
-          summary: `Copied from "${source.name}"`,
+          summary,
         })
         .returning()
         .get();

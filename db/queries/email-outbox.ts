@@ -1,4 +1,4 @@
-import { asc, desc, eq, sql } from "drizzle-orm";
+import { and, asc, desc, eq, sql } from "drizzle-orm";
 import { type Db, getDb } from "../client";
 import { emailOutbox } from "../schema";
 
@@ -21,7 +21,10 @@ export function listPendingMail({ db = getDb(), limit = 20 }: { db?: Db; limit?:
     .all();
 }
 
-/** A workspace's mail, newest first, for the Outbox page. */
+/**
+ * A workspace's own mail, newest first, for the Outbox page: never account mail
+ * (password resets, sign-in notices), which belongs to no workspace.
+ */
 export function listWorkspaceMail({
   db = getDb(),
   workspaceId,
@@ -34,16 +37,36 @@ export function listWorkspaceMail({
   return db
     .select()
     .from(emailOutbox)
-    .where(eq(emailOutbox.workspaceId, workspaceId))
+    .where(and(eq(emailOutbox.workspaceId, workspaceId), eq(emailOutbox.audience, "workspace")))
     .orderBy(desc(emailOutbox.createdAt))
     .limit(limit)
     .all();
 }
 
-export function markMailSent({ db = getDb(), mailId }: { db?: Db; mailId: string }) {
+/** The text an account mail's body is replaced with once delivered. */
+export const forgottenMailBody = "(account mail: the body is not kept once delivered)";
+
+/**
+ * Mark a mail sent. With `forgetBody` (account mail) the body, which carries a
+ * one-time link, is blanked: the delivered copy is the addressee's alone.
+ */
+export function markMailSent({
+  db = getDb(),
+  mailId,
+  forgetBody = false,
+}: {
+  db?: Db;
+  mailId: string;
+  forgetBody?: boolean;
+}) {
   return db
     .update(emailOutbox)
-    .set({ status: "sent", sentAt: new Date(), attempts: sql`${emailOutbox.attempts} + 1` })
+    .set({
+      status: "sent",
+      sentAt: new Date(),
+      attempts: sql`${emailOutbox.attempts} + 1`,
+      ...(forgetBody ? { textBody: forgottenMailBody, htmlBody: null } : {}),
+    })
     .where(eq(emailOutbox.id, mailId))
     .run();
 }

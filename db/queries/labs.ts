@@ -202,3 +202,20 @@ export function listAttempts({
     .orderBy(desc(labAttempts.submittedAt))
     .all();
 }
+
+/** Which of these benches are the private copy of some lab assignment. */
+export function listLabCopyBenchIds({
+  db = getDb(),
+  benchIds,
+}: {
+  db?: Db;
+  benchIds: readonly string[];
+}): string[] {
+  if (benchIds.length === 0) return [];
+  return db
+    .select({ benchId: labAssignments.privateBenchId })
+    .from(labAssignments)
+    .where(inArray(labAssignments.privateBenchId, [...benchIds]))
+    .all()
+    .flatMap((row) => (row.benchId === null ? [] : [row.benchId]));
+}

@@ -1,4 +1,4 @@
-import { and, count, desc, eq, gt, lt } from "drizzle-orm";
+import { and, count, desc, eq, gt, isNull, lt } from "drizzle-orm";
 import { type Db, getDb } from "../client";
 import { loginAttempts } from "../schema";
 
@@ -62,6 +62,45 @@ export function countRecentAccountFailures({
         gt(loginAttempts.createdAt, from),
       ),
     )
+    .get();
+  return row?.failures ?? 0;
+}
+
+/**
+ * Failed attempts on one account from one client address since `since`,
+ * counting only those after the latest success of that same pair. Counting per
+ * pair means failures from one place never lock the account's owner out
+ * elsewhere: the right password from another address still works.
+ */
+export function countRecentPairFailures({
+  db = getDb(),
+  email,
+  clientAddress,
+  since,
+}: {
+  db?: Db;
+  email: string;
+  clientAddress: string | null;
+  since: Date;
+}): number {
+  const pair = and(
+    eq(loginAttempts.email, email),
+    clientAddress === null
+      ? isNull(loginAttempts.clientAddress)
+      : eq(loginAttempts.clientAddress, clientAddress),
+  );
+  const lastSuccess = db
+    .select({ createdAt: loginAttempts.createdAt })
+    .from(loginAttempts)
+    .where(and(pair, eq(loginAttempts.succeeded, true), gt(loginAttempts.createdAt, since)))
+    .orderBy(desc(loginAttempts.createdAt))
+    .limit(1)
+    .get();
+  const from = lastSuccess && lastSuccess.createdAt > since ? lastSuccess.createdAt : since;
+  const row = db
+    .select({ failures: count() })
+    .from(loginAttempts)
+    .where(and(pair, eq(loginAttempts.succeeded, false), gt(loginAttempts.createdAt, from)))
     .get();
   return row?.failures ?? 0;
 }

@@ -41,3 +41,24 @@ export function consumePasswordReset({
     .returning()
     .get();
 }
+
+/**
+ * End every reset token of the account that is still open: once one link has
+ * set a new password (or the password changed otherwise), older links sitting
+ * in a mailbox must not set another.
+ */
+export function endOutstandingPasswordResets({
+  db = getDb(),
+  userId,
+  now = new Date(),
+}: {
+  db?: Db;
+  userId: string;
+  now?: Date;
+}) {
+  return db
+    .update(passwordResets)
+    .set({ usedAt: now })
+    .where(and(eq(passwordResets.userId, userId), isNull(passwordResets.usedAt)))
+    .run();
+}

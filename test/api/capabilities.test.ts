@@ -3,6 +3,7 @@ import path from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { can, capabilities, capabilityTable } from "@/app/_lib/capabilities";
 import { roles, type Role } from "@/db/schema";
+import { bodyIdCases, prepareBodyIdCases, secretNames } from "./support/body-ids";
 import {
   type GuardedRoute,
   guardedRoutes,
@@ -16,6 +17,7 @@ import {
   cookieFor,
   createWorld,
   benchDocument,
+  databaseSnapshot,
   destroyWorld,
   floorPlanSvg,
   type World,
@@ -35,8 +37,9 @@ function routeFiles(dir = "app/api"): string[] {
 }
 
 let world: World;
-beforeAll(() => {
+beforeAll(async () => {
   world = createWorld();
+  await prepareBodyIdCases(world);
 });
 afterAll(() => destroyWorld(world));
 
@@ -391,4 +394,60 @@ describe("data never crosses workspaces", () => {
       expect(body[key]!.map((item) => item.id)).not.toContain(foreignId);
     }
   });
+});
+
+/** Every schema.ts under app/api. */
+function schemaFiles(dir = "app/api"): string[] {
+  const out: string[] = [];
+  for (const entry of readdirSync(dir)) {
+    const full = path.join(dir, entry);
+    if (statSync(full).isDirectory()) out.push(...schemaFiles(full));
+    else if (entry === "schema.ts") out.push(full);
+  }
+  return out;
+}
+
+describe("every id a body or query names goes through the same visibility rule as a direct read", () => {
+  it("covers every id-carrying field of every body and query schema", async () => {
+    const covered = new Set(bodyIdCases.map((c) => `${c.schema}#${c.key}`));
+    const missing: string[] = [];
+    for (const file of schemaFiles()) {
+      const mod = (await import(/* @vite-ignore */ path.resolve(file))) as Record<string, unknown>;
+      for (const value of Object.values(mod)) {
+        const shape = (value as { shape?: Record<string, unknown> } | null)?.shape;
+        if (!shape) continue;
+        for (const key of Object.keys(shape)) {
+          if (/Ids?$/.test(key) && !covered.has(`${file}#${key}`)) missing.push(`${file}#${key}`);
+        }
+      }
+    }
+    expect(missing).toEqual([]);
+  });
+
+  for (const idCase of bodyIdCases) {
+    const kinds = idCase.private ? (["foreign", "private"] as const) : (["foreign"] as const);
+    for (const kind of kinds) {
+      it(`${idCase.as} ${idCase.method} ${idCase.route} naming ${kind === "foreign" ? "B's" : "another member's private"} ${idCase.field} -> 404/400 naming the field, nothing changed`, async () => {
+        const handlers = await idCase.load();
+        const id = kind === "foreign" ? idCase.foreign(world) : idCase.private!(world);
+        const params = idCase.params?.(world) ?? {};
+        const cookie = await cookieFor(world.users[idCase.as].userId, world.a.workspaceId);
+        const before = databaseSnapshot();
+        const response = await call(handlers[idCase.method], {
+          method: idCase.method,
+          path: `${pathOf(idCase.route, params)}${idCase.query ? idCase.query(id) : ""}`,
+          params,
+          cookie,
+          ...(idCase.body ? { body: idCase.body(world, id) } : {}),
+        });
+        const text = await response.text();
+        expect([400, 404], text).toContain(response.status);
+        expect((JSON.parse(text) as { error: { field?: string } }).error.field, text).toBe(
+          idCase.field,
+        );
+        for (const name of secretNames) expect(text).not.toContain(name);
+        expect(databaseSnapshot()).toBe(before);
+      });
+    }
+  }
 });

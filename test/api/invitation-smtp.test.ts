@@ -1,6 +1,11 @@
 import type { AddressInfo } from "node:net";
 import { SMTPServer } from "smtp-server";
 import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
+import { eq } from "drizzle-orm";
+import { getDb } from "@/db/client";
+import { forgottenMailBody, listWorkspaceMail } from "@/db/queries/email-outbox";
+import { createMembership } from "@/db/queries/memberships";
+import { emailOutbox } from "@/db/schema";
 import {
   appOrigin,
   call,
@@ -290,5 +295,46 @@ describe("invitation by e-mail over SMTP", () => {
       body: { email: "engineer@a.example", password: "brand-new-password" },
     });
     expect(signedIn.status).toBe(200);
+  });
+
+  it("sends account mail by SMTP to its addressee only, never into a workspace's outbox", async () => {
+    // A person in two workspaces: neither admin may read their reset link.
+    createMembership({
+      values: { userId: world.users.qa.userId, workspaceId: world.b.workspaceId, role: "qa" },
+    });
+    const log = vi.spyOn(console, "info").mockImplementation(() => undefined);
+    const reset = await import("@/app/api/session/password-reset/route");
+    const before = inbox.length;
+    const response = await call(reset.POST, {
+      method: "POST",
+      path: "/api/x",
+      body: { email: world.users.qa.email },
+    });
+    expect(response.status).toBe(202);
+    await vi.waitFor(() => expect(inbox.length).toBe(before + 1), { timeout: 10_000 });
+    const mail = inbox.at(-1)!;
+    expect(mail.to).toEqual([world.users.qa.email]);
+    const token = /\/reset-password\/([A-Za-z0-9_-]+)/.exec(parseMessage(mail.raw).text)![1]!;
+    // With SMTP, nothing goes to the log.
+    expect(log.mock.calls.flat().join(" ")).not.toContain(token);
+    log.mockRestore();
+    for (const workspaceId of [world.a.workspaceId, world.b.workspaceId]) {
+      expect(
+        listWorkspaceMail({ workspaceId }).filter((row) => row.toAddress === world.users.qa.email),
+      ).toEqual([]);
+    }
+    await vi.waitFor(() => {
+      const [row] = getDb()
+        .select()
+        .from(emailOutbox)
+        .where(eq(emailOutbox.toAddress, world.users.qa.email))
+        .all();
+      expect(row).toMatchObject({
+        workspaceId: null,
+        audience: "account",
+        status: "sent",
+        textBody: forgottenMailBody,
+      });
+    });
   });
 });

@@ -6,6 +6,7 @@ import { hashPassword, newPasswordSchema, verifyPassword } from "@/app/_lib/auth
 import { verifySession } from "@/app/_lib/dal";
 import { AppError } from "@/app/_lib/errors";
 import { writeSessionCookie } from "@/app/_lib/session";
+import { endOutstandingPasswordResets } from "@/db/queries/password-resets";
 import { findUserById, setPasswordHash } from "@/db/queries/users";
 
 const changePasswordSchema = z
@@ -36,6 +37,8 @@ export const changePasswordAction = validatedAction(changePasswordSchema, async 
     passwordHash: await hashPassword(input.newPassword),
   });
   if (!updated) throw new AppError("not_found", "your account no longer exists");
+  // A reset link asked for before the change must not undo it.
+  endOutstandingPasswordResets({ userId: user.id });
   await writeSessionCookie({
     userId: user.id,
     workspaceId: session.workspaceId,

@@ -14,6 +14,12 @@ export interface BenchListItem {
   readonly description: string;
   readonly private: boolean;
   readonly updatedAt: string;
+  /** What the member may do with the bench, from the bench policy. */
+  readonly can?: {
+    readonly edit: boolean;
+    readonly delete: boolean;
+    readonly share: boolean;
+  };
 }
 
 /** A new bench: one line, the test tool on it, nothing else yet. */

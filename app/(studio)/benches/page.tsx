@@ -1,7 +1,7 @@
 import type { Metadata } from "next";
 import { can } from "@/app/_lib/capabilities";
 import { requireCapability } from "@/app/_lib/dal";
-import { listVisibleBenches } from "@/db/queries/bench-history";
+import { benchCan, listReadableBenches } from "@/app/_lib/policy/bench";
 import { PageHeader } from "@/components/ui/page-header";
 import { BenchList, type BenchListItem } from "./bench-list";
 
@@ -10,16 +10,14 @@ export const metadata: Metadata = { title: "Benches" };
 /** The workspace's benches: open, create, duplicate, delete. */
 export default async function BenchesPage() {
   const session = await requireCapability("benches.read");
-  const benches: BenchListItem[] = listVisibleBenches({
-    workspaceId: session.workspaceId,
-    userId: session.userId,
-    includeAllPrivate: can(session.role, "labs.manage"),
-  }).map((bench) => ({
+  const benches: BenchListItem[] = listReadableBenches(session).map((bench) => ({
     id: bench.id,
     name: bench.name,
     description: bench.description,
     private: bench.privateOwnerId !== null,
     updatedAt: bench.updatedAt.toISOString(),
+    // What the bench policy lets this member do with it; the list offers only these.
+    can: benchCan(session, bench),
   }));
   return (
     <div className="mx-auto flex max-w-5xl flex-col gap-6 px-6 py-8 md:px-10">

@@ -1,8 +1,7 @@
 import type { Metadata } from "next";
 import Link from "next/link";
-import { can, canOn } from "@/app/_lib/capabilities";
 import { requireCapability } from "@/app/_lib/dal";
-import { listVisibleBenches } from "@/db/queries/bench-history";
+import { benchCan, listReadableBenches } from "@/app/_lib/policy/bench";
 import { SimulatorCaution } from "@/components/console/simulator-caution";
 import { PageHeader } from "@/components/ui/page-header";
 import { StatusBadge } from "@/components/ui/status-badge";
@@ -15,11 +14,7 @@ export const metadata: Metadata = { title: "Live console" };
  */
 export default async function ConsolePage() {
   const session = await requireCapability("console.use");
-  const benches = listVisibleBenches({
-    workspaceId: session.workspaceId,
-    userId: session.userId,
-    includeAllPrivate: can(session.role, "labs.manage"),
-  }).filter((bench) => canOn(session, "console.use", bench.privateOwnerId));
+  const benches = listReadableBenches(session).filter((bench) => benchCan(session, bench).run);
   return (
     <div className="mx-auto flex max-w-5xl flex-col gap-6 px-6 py-8 md:px-10">
       <PageHeader

@@ -1,7 +1,9 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { requireCapability } from "@/app/_lib/dal";
-import { listVisibleBenches } from "@/db/queries/bench-history";
+import { listReadableBenches } from "@/app/_lib/policy/bench";
+import { mayMakeLabFrom } from "@/app/_lib/policy/lab";
+import type { Who } from "@/app/_lib/policy/policy";
 import { latestRevision } from "@/db/queries/benches";
 import { listAssignmentsOf, listAttempts, listLabs } from "@/db/queries/labs";
 import { listScenarios } from "@/db/queries/scenarios";
@@ -12,10 +14,14 @@ import { Panel } from "@/components/ui/panel";
 
 export const metadata: Metadata = { title: "Labs" };
 
-function labBenches(workspaceId: string, userId: string): LabBenchChoice[] {
-  const scenarios = listScenarios({ workspaceId });
-  return listVisibleBenches({ workspaceId, userId, includeAllPrivate: false })
-    .filter((bench) => bench.privateOwnerId === null)
+/**
+ * Benches a lab can be made from: shared ones and the trainer's own private
+ * benches (a private lab bench keeps the fault-free original from apprentices).
+ */
+function labBenches(who: Who): LabBenchChoice[] {
+  const scenarios = listScenarios({ workspaceId: who.workspaceId });
+  return listReadableBenches(who)
+    .filter((bench) => mayMakeLabFrom(who, bench))
     .map((bench) => {
       const revision = latestRevision({ benchId: bench.id });
       let document: {
@@ -66,7 +72,7 @@ export default async function LabsPage() {
           <p className="text-ink-soft">No labs assigned to you yet.</p>
         ) : null}
         <ul className="flex flex-col gap-3">
-          {assignments.map(({ assignment, lab, benchName }) => {
+          {assignments.map(({ assignment, lab }) => {
             const last = attempts.find((a) => a.attempt.assignmentId === assignment.id);
             return (
               <li
@@ -80,9 +86,11 @@ export default async function LabsPage() {
                   >
                     {lab.title}
                   </Link>
+                  {/* The bench the lab was made from is not named to apprentices. */}
                   <span className="block text-sm text-ink-soft">
-                    {benchName}
-                    {assignment.dueAt ? `, due ${assignment.dueAt.toISOString().slice(0, 10)}` : ""}
+                    {assignment.dueAt
+                      ? `due ${assignment.dueAt.toISOString().slice(0, 10)}`
+                      : "no due date"}
                   </span>
                 </span>
                 {last ? (
@@ -124,7 +132,7 @@ export default async function LabsPage() {
         )}
       </Panel>
       <Panel title="New lab">
-        <NewLabForm benches={labBenches(session.workspaceId, session.userId)} />
+        <NewLabForm benches={labBenches(session)} />
       </Panel>
     </div>
   );

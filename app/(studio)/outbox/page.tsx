@@ -9,9 +9,12 @@ import { StatusBadge } from "@/components/ui/status-badge";
 export const metadata: Metadata = { title: "Outbox" };
 
 /**
- * Mail the app queued for this workspace. Without SMTP_URL the outbox is where
- * mail ends up, so bodies (with their links) are shown; once mail leaves by
- * SMTP, only the envelope is shown, so one-time links stay with their recipients.
+ * Mail the app queued on this workspace's behalf: invitations, shared run
+ * reports, lab assignments. Account mail (password resets) belongs to no
+ * workspace and never appears here. Without SMTP_URL the outbox is where
+ * workspace mail ends up, so bodies (with their links) are shown; once mail
+ * leaves by SMTP, only the envelope is shown, so one-time links stay with
+ * their recipients.
  */
 export default async function OutboxPage() {
   const session = await requireCapability("outbox.read");
@@ -23,7 +26,7 @@ export default async function OutboxPage() {
         title="Outbox"
         lead={
           localOnly
-            ? "No mail server is configured (SMTP_URL), so invitation and reset mail stays here."
+            ? "No mail server is configured (SMTP_URL), so this workspace's invitations, run reports and lab assignments stay here. Password-reset mail is personal: it is printed to the server log, never shown here."
             : "Mail sent through the configured mail server; bodies are not shown."
         }
       />

@@ -1,9 +1,9 @@
 import type { Metadata } from "next";
 import Link from "next/link";
-import { can } from "@/app/_lib/capabilities";
 import { requireCapability } from "@/app/_lib/dal";
+import { ownRunsFilter } from "@/app/_lib/policy/run";
+import { listReadableSuites, suiteCan } from "@/app/_lib/policy/suite";
 import { listRunHistory, listSuiteRuns } from "@/db/queries/runs";
-import { listSuites } from "@/db/queries/suites";
 import { RunButton } from "@/components/runs/run-button";
 import { RunHistoryTable } from "@/components/runs/run-history-table";
 import type { RunHistoryItem } from "@/components/runs/run-history-types";
@@ -15,8 +15,8 @@ export const metadata: Metadata = { title: "Runs" };
 
 export default async function RunsPage() {
   const session = await requireCapability("runs.read");
-  const own = session.scope !== "workspace";
-  const startedBy = own ? session.userId : undefined;
+  const startedBy = ownRunsFilter(session);
+  const own = startedBy !== undefined;
   const history: RunHistoryItem[] = listRunHistory({
     workspaceId: session.workspaceId,
     ...(startedBy ? { startedBy } : {}),
@@ -42,8 +42,7 @@ export default async function RunsPage() {
     ...(startedBy ? { startedBy } : {}),
     limit: 10,
   });
-  const canRunSuites = can(session.role, "runs.start", { scope: "workspace" });
-  const suites = canRunSuites ? listSuites({ workspaceId: session.workspaceId }) : [];
+  const suites = listReadableSuites(session).filter((suite) => suiteCan(session, suite).run);
 
   return (
     <div className="mx-auto flex max-w-6xl flex-col gap-6 px-6 py-8 md:px-10">

@@ -1,11 +1,11 @@
 import type { Metadata } from "next";
 import Link from "next/link";
-import { can } from "@/app/_lib/capabilities";
 import { requireCapability } from "@/app/_lib/dal";
-import { listVisibleBenches } from "@/db/queries/bench-history";
+import { listReadableBenches } from "@/app/_lib/policy/bench";
+import { ownRunsFilter } from "@/app/_lib/policy/run";
+import { listReadableScenarios, mayAddScenarioTo } from "@/app/_lib/policy/scenario";
+import { listReadableSuites, suiteCan } from "@/app/_lib/policy/suite";
 import { latestRunsByScenario } from "@/db/queries/runs";
-import { listScenarios } from "@/db/queries/scenarios";
-import { listSuites } from "@/db/queries/suites";
 import { RunButton } from "@/components/runs/run-button";
 import { VerdictBadge } from "@/components/runs/verdict-badge";
 import { PageHeader } from "@/components/ui/page-header";
@@ -25,20 +25,18 @@ function stepCount(document: string): number | null {
 /** Scenarios per bench with each one's last result, and the workspace's suites. */
 export default async function ScenariosPage() {
   const session = await requireCapability("scenarios.read");
-  const benches = listVisibleBenches({
-    workspaceId: session.workspaceId,
-    userId: session.userId,
-    includeAllPrivate: false,
-  });
-  const scenarios = listScenarios({ workspaceId: session.workspaceId });
+  // Other members' private copies (which lab managers may read) stay on their pages, not here.
+  const benches = listReadableBenches(session).filter(
+    (bench) => bench.privateOwnerId === null || bench.privateOwnerId === session.userId,
+  );
+  const scenarios = listReadableScenarios(session);
+  const startedBy = ownRunsFilter(session);
   const latest = latestRunsByScenario({
     workspaceId: session.workspaceId,
     scenarioIds: scenarios.map((s) => s.id),
-    ...(session.role === "apprentice" ? { startedBy: session.userId } : {}),
+    ...(startedBy ? { startedBy } : {}),
   });
-  const canEdit = can(session.role, "scenarios.edit", { scope: "workspace" });
-  const canRunSuites = can(session.role, "runs.start", { scope: "workspace" });
-  const suites = listSuites({ workspaceId: session.workspaceId });
+  const suites = listReadableSuites(session);
 
   return (
     <div className="mx-auto flex max-w-5xl flex-col gap-6 px-6 py-8 md:px-10">
@@ -56,7 +54,7 @@ export default async function ScenariosPage() {
                 aria-label={`Suite ${suite.name}`}
               >
                 <span className="font-medium">{suite.name}</span>
-                {canRunSuites ? (
+                {suiteCan(session, suite).run ? (
                   <RunButton target={{ suiteId: suite.id }} label="Run suite" />
                 ) : null}
               </li>
@@ -77,7 +75,7 @@ export default async function ScenariosPage() {
           >
             <div className="flex flex-wrap items-center justify-between gap-3">
               <h2 className="text-lg font-semibold">{bench.name}</h2>
-              {canEdit || bench.privateOwnerId === session.userId ? (
+              {mayAddScenarioTo(session, bench) ? (
                 <Link
                   href={`/scenarios/new?benchId=${bench.id}`}
                   className="rounded-md border border-paper-line px-3 py-1.5 text-sm hover:bg-paper-deep"

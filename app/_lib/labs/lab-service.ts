@@ -5,19 +5,16 @@ import {
   createAssignments,
   createAttempt,
   createLab,
-  findAssignment,
   setAssignmentBench,
   type Lab,
 } from "@/db/queries/labs";
-import { findMembership } from "@/db/queries/memberships";
 import { findScenario } from "@/db/queries/scenarios";
-import { findUserById } from "@/db/queries/users";
-import { scopeOf } from "../capabilities";
 import { appUrl } from "../config";
 import type { VerifiedSession } from "../dal";
 import { AppError } from "../errors";
 import { deliverPendingMail, queueMail } from "../mailer";
-import { loadVisibleBench } from "../resources";
+import { loadAssignment, loadGradingScenario, loadLabBench } from "../policy/lab";
+import { resolveApprentices } from "../policy/member";
 import { startScenarioRun } from "../runs/run-service";
 import { applyHiddenFaults, type HiddenFault, parseHiddenFaults } from "./hidden-faults";
 
@@ -40,29 +37,8 @@ export function createLabFor(
     hiddenFaults: readonly HiddenFault[];
   },
 ): Lab {
-  const bench = loadVisibleBench(who, input.benchId);
-  if (bench.privateOwnerId !== null) {
-    throw new AppError(
-      "invalid_input",
-      "benchId: a lab is made from a shared bench, not a private copy",
-      {
-        field: "benchId",
-      },
-    );
-  }
-  const scenario = findScenario({
-    workspaceId: who.workspaceId,
-    scenarioId: input.gradingScenarioId,
-  });
-  if (!scenario)
-    throw new AppError("not_found", "no such scenario", { field: "gradingScenarioId" });
-  if (scenario.benchId !== bench.id) {
-    throw new AppError(
-      "invalid_input",
-      `gradingScenarioId: "${scenario.name}" runs on another bench than "${bench.name}"`,
-      { field: "gradingScenarioId" },
-    );
-  }
+  const bench = loadLabBench(who, input.benchId);
+  const scenario = loadGradingScenario(who, input.gradingScenarioId, bench);
   const revision = latestRevision({ benchId: bench.id });
   if (!revision) throw new AppError("conflict", `bench "${bench.name}" has no saved revision`);
   const applied = applyHiddenFaults(JSON.parse(revision.document), input.hiddenFaults);
@@ -90,20 +66,7 @@ export async function assignLab(
   input: { apprenticeIds: readonly string[]; dueAt: Date | null },
 ) {
   const db = getDb();
-  const apprentices = input.apprenticeIds.map((id, index) => {
-    const membership = findMembership({ userId: id, workspaceId: who.workspaceId });
-    const user = findUserById({ userId: id });
-    if (!membership || !user || membership.role !== "apprentice") {
-      throw new AppError(
-        "invalid_input",
-        `apprenticeIds[${index}]: not an apprentice of this workspace`,
-        {
-          field: `apprenticeIds[${index}]`,
-        },
-      );
-    }
-    return user;
-  });
+  const apprentices = resolveApprentices(who, input.apprenticeIds, "apprenticeIds");
   const created = db.transaction((tx) => {
     const rows = createAssignments({
       db: tx as unknown as typeof db,
@@ -119,6 +82,7 @@ export async function assignLab(
         : "It has no due date.";
       queueMail(
         {
+          audience: "workspace",
           workspaceId: who.workspaceId,
           to: apprentice.email,
           subject: `New lab: ${lab.title}`,
@@ -140,28 +104,12 @@ export async function assignLab(
   return created;
 }
 
-/** The assignment, visible to its apprentice and to those who manage labs; 404 otherwise. */
-export function loadAssignment(
-  who: Who,
-  assignmentId: string,
-  options: { apprenticeOnly?: boolean } = {},
-) {
-  const found = findAssignment({ workspaceId: who.workspaceId, assignmentId });
-  const isApprentice = found?.assignment.apprenticeId === who.userId;
-  const manages = scopeOf(who.role, "labs.manage") === "workspace";
-  if (!found || (!isApprentice && !manages)) throw new AppError("not_found", "no such assignment");
-  if (options.apprenticeOnly && !isApprentice) {
-    throw new AppError("forbidden", "only the apprentice the lab is assigned to may do this");
-  }
-  return found;
-}
-
 /** Make the apprentice's private copy (with the hidden faults) the first time; returns its bench id. */
 export function openAssignment(
   who: Who,
   assignmentId: string,
 ): { benchId: string; created: boolean } {
-  const found = loadAssignment(who, assignmentId, { apprenticeOnly: true });
+  const found = loadAssignment(who, assignmentId, "run");
   const existing = found.assignment.privateBenchId
     ? findBench({ workspaceId: who.workspaceId, benchId: found.assignment.privateBenchId })
     : undefined;
@@ -181,6 +129,8 @@ export function openAssignment(
     name: `${found.lab.title} (${found.apprenticeName})`,
     createdBy: who.userId,
     privateOwnerId: who.userId,
+    // Not "Copied from <source>": the apprentice reads this copy's history.
+    summary: `Your copy of the lab "${found.lab.title}"`,
   });
   setAssignmentBench({ assignmentId: found.assignment.id, benchId: copy.bench.id });
   return { benchId: copy.bench.id, created: true };
@@ -188,7 +138,7 @@ export function openAssignment(
 
 /** Submit the copy's latest revision: an attempt row and the grading run on that revision. */
 export function submitAttempt(who: Who, assignmentId: string) {
-  const found = loadAssignment(who, assignmentId, { apprenticeOnly: true });
+  const found = loadAssignment(who, assignmentId, "run");
   const benchId = found.assignment.privateBenchId;
   if (!benchId) {
     throw new AppError(

@@ -1,18 +1,8 @@
-import type { Bench, BenchRevision } from "@/db/queries/benches";
+import type { BenchRevision } from "@/db/queries/benches";
 
-/** A bench as the API lists it (no document). */
-export function benchSummary(bench: Bench) {
-  return {
-    id: bench.id,
-    name: bench.name,
-    description: bench.description,
-    createdBy: bench.createdBy,
-    privateOwnerId: bench.privateOwnerId,
-    copiedFromBenchId: bench.copiedFromBenchId,
-    createdAt: bench.createdAt.toISOString(),
-    updatedAt: bench.updatedAt.toISOString(),
-  };
-}
+// A bench as the API shows it comes from the bench policy (benchView), which
+// decides what the asking member may see of it, such as where it was copied from.
+export { benchView } from "@/app/_lib/policy/bench";
 
 /** A revision with its document parsed back to JSON. */
 export function revisionJson(revision: BenchRevision) {

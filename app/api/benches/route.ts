@@ -1,22 +1,18 @@
 import { authorize, verifyApiSession } from "@/app/_lib/dal";
-import { can } from "@/app/_lib/capabilities";
+import { labCopiesAmong, listReadableBenches } from "@/app/_lib/policy/bench";
 import { documentBodyLimitBytes, json, readJson, route } from "@/app/_lib/http";
 import { checkedBenchDocument } from "@/app/_lib/resources";
 import { createBench } from "@/db/queries/benches";
-import { listVisibleBenches } from "@/db/queries/bench-history";
-import { benchSummary } from "./bench-json";
+import { benchView } from "./bench-json";
 import { createBenchBodySchema } from "./schema";
 
 /** Benches of the active workspace: shared ones and the member's own copies (trainers and admins: all copies). */
 export const GET = route(async (request) => {
   const session = await verifyApiSession(request);
   authorize(session, "benches.read");
-  const benches = listVisibleBenches({
-    workspaceId: session.workspaceId,
-    userId: session.userId,
-    includeAllPrivate: can(session.role, "labs.manage"),
-  });
-  return json({ benches: benches.map(benchSummary) });
+  const benches = listReadableBenches(session);
+  const labCopies = labCopiesAmong(benches);
+  return json({ benches: benches.map((bench) => benchView(session, bench, labCopies)) });
 });
 
 /** Create a bench with its first revision. */
@@ -39,7 +35,7 @@ export const POST = route(async (request) => {
     document: document.text,
   });
   return json(
-    { bench: benchSummary(created.bench), revision: { number: created.revision.number } },
+    { bench: benchView(session, created.bench), revision: { number: created.revision.number } },
     { status: 201 },
   );
 });

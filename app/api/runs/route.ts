@@ -1,11 +1,7 @@
 import { authorize, verifyApiSession } from "@/app/_lib/dal";
-import { AppError } from "@/app/_lib/errors";
 import { json, readJson, readQuery, route } from "@/app/_lib/http";
-import { revisionForScenario } from "@/app/_lib/runs/run-access";
+import { admitScenarioRun, admitSuiteRun, listReadableRuns } from "@/app/_lib/policy/run";
 import { startScenarioRun, startSuiteRun } from "@/app/_lib/runs/run-service";
-import { listRuns } from "@/db/queries/runs";
-import { findScenario } from "@/db/queries/scenarios";
-import { findSuite, listSuiteScenarios } from "@/db/queries/suites";
 import { runJson } from "./run-json";
 import { listRunsQuerySchema, startRunBodySchema } from "./schema";
 
@@ -13,12 +9,8 @@ import { listRunsQuerySchema, startRunBodySchema } from "./schema";
 export const GET = route(async (request) => {
   const query = readQuery(request, listRunsQuerySchema);
   const session = await verifyApiSession(request);
-  const scope = authorize(session, "runs.read");
-  const runs = listRuns({
-    workspaceId: session.workspaceId,
-    ...(scope === "own" ? { startedBy: session.userId } : {}),
-    ...(query.limit === undefined ? {} : { limit: query.limit }),
-  });
+  authorize(session, "runs.read");
+  const runs = listReadableRuns(session, query.limit === undefined ? {} : { limit: query.limit });
   return json({ runs: runs.map((run) => runJson(run)) });
 });
 
@@ -32,24 +24,10 @@ export const POST = route(async (request) => {
   const session = await verifyApiSession(request);
 
   if (body.scenarioId !== undefined) {
-    const scenario = findScenario({
-      workspaceId: session.workspaceId,
+    const { scenario, revision } = admitScenarioRun(session, {
       scenarioId: body.scenarioId,
+      benchRevisionId: body.benchRevisionId,
     });
-    if (!scenario) throw new AppError("not_found", "scenario not found", { field: "scenarioId" });
-    const { bench, revision } = revisionForScenario(
-      session,
-      scenario.benchId,
-      body.benchRevisionId,
-    );
-    const scope = authorize(session, "runs.start");
-    // "own" scope (apprentices): only on their own private copies.
-    if (scope !== "workspace" && bench.privateOwnerId !== session.userId) {
-      throw new AppError(
-        "forbidden",
-        `your role (${session.role}) may replay scenarios only on your own copies`,
-      );
-    }
     const { run } = startScenarioRun({
       workspaceId: session.workspaceId,
       startedBy: session.userId,
@@ -70,19 +48,10 @@ export const POST = route(async (request) => {
     );
   }
 
-  const suite = findSuite({ workspaceId: session.workspaceId, suiteId: body.suiteId! });
-  if (!suite) throw new AppError("not_found", "suite not found", { field: "suiteId" });
-  const members = listSuiteScenarios({ suiteId: suite.id });
-  if (members.length === 0) {
-    throw new AppError("conflict", `suite "${suite.name}" has no scenarios`, { field: "suiteId" });
-  }
-  const entries = members.map(({ scenario }) => ({
-    scenario,
-    revision: revisionForScenario(session, scenario.benchId, body.benchRevisionId).revision,
-  }));
-  if (authorize(session, "runs.start") !== "workspace") {
-    throw new AppError("forbidden", `your role (${session.role}) may not replay suites`);
-  }
+  const { suite, entries } = admitSuiteRun(session, {
+    suiteId: body.suiteId!,
+    benchRevisionId: body.benchRevisionId,
+  });
   const { suiteRun, runs } = startSuiteRun({
     workspaceId: session.workspaceId,
     startedBy: session.userId,

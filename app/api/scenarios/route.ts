@@ -1,10 +1,9 @@
-import { can } from "@/app/_lib/capabilities";
 import { authorize, verifyApiSession } from "@/app/_lib/dal";
-import { AppError } from "@/app/_lib/errors";
 import { documentBodyLimitBytes, json, readJson, readQuery, route } from "@/app/_lib/http";
-import { checkedScenarioDocument, loadVisibleBench } from "@/app/_lib/resources";
-import { listVisibleBenches } from "@/db/queries/bench-history";
-import { createScenario, listScenarios } from "@/db/queries/scenarios";
+import { loadBench } from "@/app/_lib/policy/bench";
+import { listReadableScenarios, loadBenchForNewScenario } from "@/app/_lib/policy/scenario";
+import { checkedScenarioDocument } from "@/app/_lib/resources";
+import { createScenario } from "@/db/queries/scenarios";
 import { scenarioJson } from "./scenario-json";
 import { createScenarioBodySchema, listScenariosQuerySchema } from "./schema";
 
@@ -13,18 +12,11 @@ export const GET = route(async (request) => {
   const query = readQuery(request, listScenariosQuerySchema);
   const session = await verifyApiSession(request);
   authorize(session, "scenarios.read");
-  if (query.benchId !== undefined) loadVisibleBench(session, query.benchId);
-  const visible = new Set(
-    listVisibleBenches({
-      workspaceId: session.workspaceId,
-      userId: session.userId,
-      includeAllPrivate: can(session.role, "labs.manage"),
-    }).map((bench) => bench.id),
+  if (query.benchId !== undefined) loadBench(session, query.benchId, "read", { field: "benchId" });
+  const scenarios = listReadableScenarios(
+    session,
+    query.benchId === undefined ? {} : { benchId: query.benchId },
   );
-  const scenarios = listScenarios({
-    workspaceId: session.workspaceId,
-    ...(query.benchId === undefined ? {} : { benchId: query.benchId }),
-  }).filter((scenario) => visible.has(scenario.benchId));
   return json({ scenarios: scenarios.map((scenario) => scenarioJson(scenario)) });
 });
 
@@ -34,15 +26,8 @@ export const POST = route(async (request) => {
     limitBytes: documentBodyLimitBytes,
   });
   const session = await verifyApiSession(request);
-  const scope = authorize(session, "scenarios.edit");
-  const bench = loadVisibleBench(session, body.benchId);
-  if (scope === "own" && bench.privateOwnerId !== session.userId) {
-    throw new AppError(
-      "forbidden",
-      `your role (${session.role}) may add scenarios only to your own sandbox benches`,
-      { field: "benchId" },
-    );
-  }
+  authorize(session, "scenarios.edit");
+  const bench = loadBenchForNewScenario(session, body.benchId, { field: "benchId" });
   const document = checkedScenarioDocument(body.document);
   const scenario = createScenario({
     values: {

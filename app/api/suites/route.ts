@@ -1,21 +1,21 @@
 import { authorize, verifyApiSession } from "@/app/_lib/dal";
 import { json, readJson, route } from "@/app/_lib/http";
-import { createSuite, listSuites } from "@/db/queries/suites";
+import { checkSuiteScenarioIds, listReadableSuites } from "@/app/_lib/policy/suite";
+import { createSuite } from "@/db/queries/suites";
 import { createSuiteBodySchema } from "./schema";
-import { checkSuiteScenarios, suiteJson } from "./suite-json";
+import { suiteJson } from "./suite-json";
 
 export const GET = route(async (request) => {
   const session = await verifyApiSession(request);
   authorize(session, "scenarios.read");
-  const suites = listSuites({ workspaceId: session.workspaceId });
-  return json({ suites: suites.map((suite) => suiteJson(suite)) });
+  return json({ suites: listReadableSuites(session).map((suite) => suiteJson(session, suite)) });
 });
 
 export const POST = route(async (request) => {
   const body = await readJson(request, createSuiteBodySchema);
   const session = await verifyApiSession(request);
   authorize(session, "suites.edit");
-  checkSuiteScenarios(session.workspaceId, body.scenarioIds);
+  checkSuiteScenarioIds(session, body.scenarioIds);
   const suite = createSuite({
     values: {
       workspaceId: session.workspaceId,
@@ -25,5 +25,5 @@ export const POST = route(async (request) => {
     },
     scenarioIds: body.scenarioIds,
   });
-  return json({ suite: suiteJson(suite, { scenarios: true }) }, { status: 201 });
+  return json({ suite: suiteJson(session, suite, { scenarios: true }) }, { status: 201 });
 });

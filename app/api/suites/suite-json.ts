@@ -1,8 +1,9 @@
-import { AppError } from "@/app/_lib/errors";
-import { findScenario } from "@/db/queries/scenarios";
-import { listSuiteScenarios, type SuiteRow } from "@/db/queries/suites";
+import type { Who } from "@/app/_lib/policy/policy";
+import { readableSuiteScenarios, suiteCan } from "@/app/_lib/policy/suite";
+import type { SuiteRow } from "@/db/queries/suites";
 
-export function suiteJson(suite: SuiteRow, options: { scenarios?: boolean } = {}) {
+/** A suite as the API shows it; its scenarios only those the asking member may read. */
+export function suiteJson(who: Who, suite: SuiteRow, options: { scenarios?: boolean } = {}) {
   return {
     id: suite.id,
     name: suite.name,
@@ -11,23 +12,13 @@ export function suiteJson(suite: SuiteRow, options: { scenarios?: boolean } = {}
     createdAt: suite.createdAt.toISOString(),
     ...(options.scenarios
       ? {
-          scenarios: listSuiteScenarios({ suiteId: suite.id }).map(({ scenario }) => ({
+          scenarios: readableSuiteScenarios(who, suite).map((scenario) => ({
             id: scenario.id,
             name: scenario.name,
             benchId: scenario.benchId,
           })),
         }
       : {}),
+    can: suiteCan(who, suite),
   };
-}
-
-/** Every id must be a scenario of this workspace; another workspace's id is "not found". */
-export function checkSuiteScenarios(workspaceId: string, scenarioIds: readonly string[]) {
-  scenarioIds.forEach((scenarioId, index) => {
-    if (!findScenario({ workspaceId, scenarioId })) {
-      throw new AppError("not_found", `scenarioIds[${index}]: no such scenario`, {
-        field: `scenarioIds[${index}]`,
-      });
-    }
-  });
 }

@@ -31,7 +31,7 @@ export interface GuardedRoute {
   /**
    * The route answers 404, not 403, when an "own"-scope member asks for someone
    * else's resource, so it does not reveal that the id exists (runs seen
-   * through run-access).
+   * through the run policy).
    */
   readonly hidesFromOwnScope?: boolean;
   /** A server-sent event stream: only the status is checked, then the stream is cancelled. */

@@ -1,10 +1,12 @@
 import type { Metadata } from "next";
 import { notFound } from "next/navigation";
-import { can, canOn, maySeeBench } from "@/app/_lib/capabilities";
+import { can } from "@/app/_lib/capabilities";
 import { requireCapability } from "@/app/_lib/dal";
+import { benchCan, loadBench } from "@/app/_lib/policy/bench";
+import { orNotFound } from "@/app/_lib/policy/for-page";
+import { findReadableFloorPlan } from "@/app/_lib/policy/upload";
 import { benchSchema } from "@/engine/bench";
-import { findBench, latestRevision } from "@/db/queries/benches";
-import { findFloorPlan } from "@/db/queries/uploads";
+import { latestRevision } from "@/db/queries/benches";
 import { EditorPage } from "./editor-page";
 
 export const metadata: Metadata = { title: "Bench editor" };
@@ -17,14 +19,13 @@ export default async function BenchEditorPage({
 }) {
   const { benchId } = await params;
   const session = await requireCapability("benches.read");
-  const bench = findBench({ workspaceId: session.workspaceId, benchId });
-  if (!bench || bench.archivedAt !== null) notFound();
-  if (!maySeeBench(session, bench)) notFound();
+  const bench = orNotFound(() => loadBench(session, benchId));
+  const allowed = benchCan(session, bench);
   const revision = latestRevision({ benchId: bench.id });
   if (!revision) notFound();
   // Stored documents were checked on the way in; parse again so the editor gets the defaults filled.
   const document = benchSchema.parse(JSON.parse(revision.document));
-  const plan = findFloorPlan({ workspaceId: session.workspaceId, benchId: bench.id });
+  const plan = findReadableFloorPlan(session, bench);
   return (
     <EditorPage
       benchId={bench.id}
@@ -34,11 +35,9 @@ export default async function BenchEditorPage({
         summary: revision.summary,
         createdAt: revision.createdAt.toISOString(),
       }}
-      canEdit={canOn(session, "benches.edit", bench.privateOwnerId)}
+      canEdit={allowed.edit}
       links={{
-        live: canOn(session, "console.use", bench.privateOwnerId)
-          ? `/benches/${bench.id}/live`
-          : null,
+        live: allowed.run ? `/benches/${bench.id}/live` : null,
         // Scenarios are listed per bench on one page; there is no page per bench.
         scenarios: can(session.role, "scenarios.read") ? "/scenarios" : null,
       }}

@@ -1,10 +1,11 @@
 import type { Metadata } from "next";
 import Link from "next/link";
-import { notFound } from "next/navigation";
 import { requireCapability } from "@/app/_lib/dal";
+import { orNotFound } from "@/app/_lib/policy/for-page";
+import { loadLab } from "@/app/_lib/policy/lab";
 import { parseHiddenFaults } from "@/app/_lib/labs/hidden-faults";
 import { parseStoredResult } from "@/app/_lib/runs/stored-result";
-import { findLab, listAttempts, listLabAssignments } from "@/db/queries/labs";
+import { listAttempts, listLabAssignments } from "@/db/queries/labs";
 import { listMembers } from "@/db/queries/memberships";
 import { AssignLabForm } from "@/components/labs/assign-lab-form";
 import { AttemptChecks } from "@/components/labs/attempt-checks";
@@ -18,8 +19,7 @@ export const metadata: Metadata = { title: "Lab" };
 export default async function LabPage({ params }: { params: Promise<{ labId: string }> }) {
   const { labId } = await params;
   const session = await requireCapability("labs.manage");
-  const found = findLab({ workspaceId: session.workspaceId, labId });
-  if (!found) notFound();
+  const found = orNotFound(() => loadLab(session, labId));
   const { lab } = found;
   const assignments = listLabAssignments({ labId: lab.id });
   const attempts = listAttempts({ assignmentIds: assignments.map((a) => a.assignment.id) });

@@ -2,9 +2,11 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
 import { requireCapability } from "@/app/_lib/dal";
+import { orNotFound } from "@/app/_lib/policy/for-page";
+import { loadRunOrSuiteRun } from "@/app/_lib/policy/run";
 import { parseStoredResult } from "@/app/_lib/runs/stored-result";
 import { findRevisionInWorkspace } from "@/db/queries/bench-history";
-import { findRunReport, findSuiteRun, listRunHistory, listSuiteRunRuns } from "@/db/queries/runs";
+import { findRunReport, listRunHistory, listSuiteRunRuns } from "@/db/queries/runs";
 import { EmailReportForm } from "@/components/runs/email-report-form";
 import { PrintButton } from "@/components/runs/print-button";
 import { RunReport } from "@/components/runs/run-report";
@@ -27,11 +29,13 @@ function benchDocument(text: string | undefined): unknown {
 export default async function RunPage({ params }: { params: Promise<{ runId: string }> }) {
   const { runId } = await params;
   const session = await requireCapability("runs.read");
-  const own = session.scope !== "workspace";
+  const visible = orNotFound(() => loadRunOrSuiteRun(session, runId));
 
-  const report = findRunReport({ workspaceId: session.workspaceId, runId });
+  const report =
+    visible.kind === "scenario"
+      ? findRunReport({ workspaceId: session.workspaceId, runId: visible.run.id })
+      : undefined;
   if (report) {
-    if (own && report.run.startedBy !== session.userId) notFound();
     const revision = findRevisionInWorkspace({
       workspaceId: session.workspaceId,
       revisionId: report.run.benchRevisionId,
@@ -85,8 +89,8 @@ export default async function RunPage({ params }: { params: Promise<{ runId: str
     );
   }
 
-  const suiteRun = findSuiteRun({ workspaceId: session.workspaceId, suiteRunId: runId });
-  if (!suiteRun || (own && suiteRun.startedBy !== session.userId)) notFound();
+  if (visible.kind !== "suite") notFound();
+  const { suiteRun } = visible;
   const rows = listRunHistory({ workspaceId: session.workspaceId, suiteRunId: suiteRun.id });
   const outcomes = new Map(
     listSuiteRunRuns({ suiteRunId: suiteRun.id }).map((run) => [

@@ -2,6 +2,8 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
 import { requireCapability } from "@/app/_lib/dal";
+import { orNotFound } from "@/app/_lib/policy/for-page";
+import { loadRun } from "@/app/_lib/policy/run";
 import { parseStoredResult } from "@/app/_lib/runs/stored-result";
 import { findRunReport } from "@/db/queries/runs";
 import { RunDiff, type DiffSide } from "@/components/runs/run-diff";
@@ -19,9 +21,9 @@ export default async function RunDiffPage({
   const session = await requireCapability("runs.read");
   if (!a || !b) notFound();
   const load = (runId: string): DiffSide => {
-    const report = findRunReport({ workspaceId: session.workspaceId, runId });
+    const run = orNotFound(() => loadRun(session, runId));
+    const report = findRunReport({ workspaceId: session.workspaceId, runId: run.id });
     if (!report) notFound();
-    if (session.scope !== "workspace" && report.run.startedBy !== session.userId) notFound();
     return {
       id: report.run.id,
       title: report.run.scenarioName,

@@ -1,11 +1,10 @@
 import type { Metadata } from "next";
 import Link from "next/link";
-import { notFound } from "next/navigation";
-import { canOn, maySeeBench } from "@/app/_lib/capabilities";
 import { requireCapability } from "@/app/_lib/dal";
-import { findBench } from "@/db/queries/benches";
+import { orNotFound } from "@/app/_lib/policy/for-page";
+import { ownRunsFilter } from "@/app/_lib/policy/run";
+import { loadScenario, scenarioCan } from "@/app/_lib/policy/scenario";
 import { listRunHistory } from "@/db/queries/runs";
-import { findScenario } from "@/db/queries/scenarios";
 import { VerdictBadge } from "@/components/runs/verdict-badge";
 import { ScenarioEditor } from "@/components/scenario-editor/scenario-editor";
 import { PageHeader } from "@/components/ui/page-header";
@@ -21,24 +20,20 @@ export default async function ScenarioPage({
 }) {
   const { scenarioId } = await params;
   const session = await requireCapability("scenarios.read");
-  const scenario = findScenario({ workspaceId: session.workspaceId, scenarioId });
-  if (!scenario) notFound();
-  const bench = findBench({ workspaceId: session.workspaceId, benchId: scenario.benchId });
-  if (!bench || !maySeeBench(session, bench)) notFound();
+  const { scenario, bench } = orNotFound(() => loadScenario(session, scenarioId));
+  const allowed = scenarioCan(session, scenario, bench);
   let document: unknown = null;
   try {
     document = JSON.parse(scenario.document);
   } catch {
     document = null;
   }
-  const canEdit = canOn(session, "scenarios.edit", scenario.createdBy);
-  // Apprentices replay only on their own copies.
-  const canRun = canOn(session, "runs.start", bench.privateOwnerId);
+  const startedBy = ownRunsFilter(session);
   const history = listRunHistory({
     workspaceId: session.workspaceId,
     scenarioId: scenario.id,
     limit: 10,
-    ...(session.role === "apprentice" ? { startedBy: session.userId } : {}),
+    ...(startedBy ? { startedBy } : {}),
   });
   return (
     <div className="mx-auto flex max-w-5xl flex-col gap-6 px-6 py-8 md:px-10">
@@ -57,8 +52,8 @@ export default async function ScenarioPage({
         scenarioId={scenario.id}
         initialDocument={document}
         bench={editorBench(bench)}
-        canEdit={canEdit}
-        canRun={canRun}
+        canEdit={allowed.edit}
+        canRun={allowed.run}
       />
       <Panel title="Recent runs">
         {history.length === 0 ? (

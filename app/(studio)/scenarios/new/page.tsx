@@ -1,8 +1,8 @@
 import type { Metadata } from "next";
 import { notFound } from "next/navigation";
 import { requireCapability } from "@/app/_lib/dal";
-import { loadVisibleBench } from "@/app/_lib/resources";
-import { AppError } from "@/app/_lib/errors";
+import { orNotFound } from "@/app/_lib/policy/for-page";
+import { loadBenchForNewScenario } from "@/app/_lib/policy/scenario";
 import { ScenarioEditor } from "@/components/scenario-editor/scenario-editor";
 import { PageHeader } from "@/components/ui/page-header";
 import { editorBench } from "../bench-facts";
@@ -18,13 +18,7 @@ export default async function NewScenarioPage({
   const { benchId } = await searchParams;
   const session = await requireCapability("scenarios.edit");
   if (!benchId) notFound();
-  let bench;
-  try {
-    bench = loadVisibleBench(session, benchId);
-  } catch (error) {
-    if (error instanceof AppError) notFound();
-    throw error;
-  }
+  const bench = orNotFound(() => loadBenchForNewScenario(session, benchId));
   const draft = {
     format: 1,
     name: "New scenario",

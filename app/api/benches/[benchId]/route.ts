@@ -1,10 +1,11 @@
-import { authorize, authorizeOn, verifyApiSession } from "@/app/_lib/dal";
+import { authorize, verifyApiSession } from "@/app/_lib/dal";
+import { loadBench } from "@/app/_lib/policy/bench";
 import { AppError } from "@/app/_lib/errors";
 import { documentBodyLimitBytes, json, readJson, route, type RouteParams } from "@/app/_lib/http";
-import { checkedBenchDocument, loadVisibleBench, resourceIdSchema } from "@/app/_lib/resources";
+import { checkedBenchDocument, resourceIdSchema } from "@/app/_lib/resources";
 import { latestRevision, saveRevision } from "@/db/queries/benches";
 import { archiveBench, updateBenchDetails } from "@/db/queries/bench-history";
-import { benchSummary, revisionJson } from "../bench-json";
+import { benchView, revisionJson } from "../bench-json";
 import { updateBenchBodySchema } from "./schema";
 
 type Params = RouteParams<{ benchId: string }>;
@@ -20,9 +21,12 @@ export const GET = route(async (request, context: Params) => {
   const benchId = await benchIdOf(context);
   const session = await verifyApiSession(request);
   authorize(session, "benches.read");
-  const bench = loadVisibleBench(session, benchId);
+  const bench = loadBench(session, benchId);
   const revision = latestRevision({ benchId: bench.id });
-  return json({ bench: benchSummary(bench), revision: revision ? revisionJson(revision) : null });
+  return json({
+    bench: benchView(session, bench),
+    revision: revision ? revisionJson(revision) : null,
+  });
 });
 
 /** Rename and/or save a new revision (the history keeps every earlier one). */
@@ -32,8 +36,7 @@ export const PATCH = route(async (request, context: Params) => {
     limitBytes: documentBodyLimitBytes,
   });
   const session = await verifyApiSession(request);
-  const bench = loadVisibleBench(session, benchId);
-  authorizeOn(session, "benches.edit", bench.privateOwnerId);
+  const bench = loadBench(session, benchId, "edit");
   const document = body.document === undefined ? null : checkedBenchDocument(body.document);
   if (body.baseRevision !== undefined) {
     const latest = latestRevision({ benchId: bench.id });
@@ -66,7 +69,7 @@ export const PATCH = route(async (request, context: Params) => {
       })
     : latestRevision({ benchId: bench.id });
   return json({
-    bench: benchSummary(updated),
+    bench: benchView(session, updated),
     revision: revision ? { number: revision.number, id: revision.id } : null,
   });
 });
@@ -75,8 +78,7 @@ export const PATCH = route(async (request, context: Params) => {
 export const DELETE = route(async (request, context: Params) => {
   const benchId = await benchIdOf(context);
   const session = await verifyApiSession(request);
-  const bench = loadVisibleBench(session, benchId);
-  authorizeOn(session, "benches.edit", bench.privateOwnerId);
+  const bench = loadBench(session, benchId, "delete");
   archiveBench({ workspaceId: session.workspaceId, benchId: bench.id });
   return new Response(null, { status: 204, headers: { "Cache-Control": "no-store" } });
 });

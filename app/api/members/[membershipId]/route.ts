@@ -1,14 +1,10 @@
-import { authorize, verifyApiSession } from "@/app/_lib/dal";
+import { verifyApiSession } from "@/app/_lib/dal";
 import { AppError } from "@/app/_lib/errors";
 import { json, readJson, route, type RouteParams } from "@/app/_lib/http";
+import { loadMembership } from "@/app/_lib/policy/member";
 import { resourceIdSchema } from "@/app/_lib/resources";
 import { getDb } from "@/db/client";
-import {
-  changeRole,
-  countAdmins,
-  deleteMembership,
-  findMembershipById,
-} from "@/db/queries/memberships";
+import { changeRole, countAdmins, deleteMembership } from "@/db/queries/memberships";
 import { bumpSessionVersion } from "@/db/queries/users";
 import { changeRoleBodySchema } from "./schema";
 
@@ -25,9 +21,7 @@ export const PATCH = route(async (request, context: Params) => {
   const membershipId = await membershipIdOf(context);
   const body = await readJson(request, changeRoleBodySchema);
   const session = await verifyApiSession(request);
-  authorize(session, "members.manage");
-  const membership = findMembershipById({ membershipId, workspaceId: session.workspaceId });
-  if (!membership) throw new AppError("not_found", "no such member");
+  const membership = loadMembership(session, membershipId, "edit");
   if (
     membership.role === "admin" &&
     body.role !== "admin" &&
@@ -48,9 +42,7 @@ export const PATCH = route(async (request, context: Params) => {
 export const DELETE = route(async (request, context: Params) => {
   const membershipId = await membershipIdOf(context);
   const session = await verifyApiSession(request);
-  authorize(session, "members.manage");
-  const membership = findMembershipById({ membershipId, workspaceId: session.workspaceId });
-  if (!membership) throw new AppError("not_found", "no such member");
+  const membership = loadMembership(session, membershipId, "delete");
   if (membership.role === "admin" && countAdmins({ workspaceId: session.workspaceId }) <= 1) {
     throw new AppError("conflict", "the workspace needs at least one admin");
   }

@@ -1,7 +1,8 @@
-import { authorize, verifyApiSession } from "@/app/_lib/dal";
+import { verifyApiSession } from "@/app/_lib/dal";
+import { loadRun } from "@/app/_lib/policy/run";
 import { AppError } from "@/app/_lib/errors";
 import { json, route, type RouteParams } from "@/app/_lib/http";
-import { loadVisibleRun, resourceIdSchema } from "@/app/_lib/resources";
+import { resourceIdSchema } from "@/app/_lib/resources";
 import { runJson } from "../run-json";
 
 type Params = RouteParams<{ runId: string }>;
@@ -11,6 +12,5 @@ export const GET = route(async (request, context: Params) => {
   const parsed = resourceIdSchema.safeParse((await context.params).runId);
   if (!parsed.success) throw new AppError("not_found", "no such run");
   const session = await verifyApiSession(request);
-  authorize(session, "runs.read");
-  return json({ run: runJson(loadVisibleRun(session, parsed.data), { results: true }) });
+  return json({ run: runJson(loadRun(session, parsed.data), { results: true }) });
 });

@@ -1,11 +1,8 @@
-import { authorize, authorizeOn, verifyApiSession } from "@/app/_lib/dal";
+import { authorize, verifyApiSession } from "@/app/_lib/dal";
+import { loadScenario } from "@/app/_lib/policy/scenario";
 import { AppError } from "@/app/_lib/errors";
 import { documentBodyLimitBytes, json, readJson, route, type RouteParams } from "@/app/_lib/http";
-import {
-  checkedScenarioDocument,
-  loadVisibleScenario,
-  resourceIdSchema,
-} from "@/app/_lib/resources";
+import { checkedScenarioDocument, resourceIdSchema } from "@/app/_lib/resources";
 import { deleteScenario, updateScenario } from "@/db/queries/scenarios";
 import { scenarioJson } from "../scenario-json";
 import { updateScenarioBodySchema } from "./schema";
@@ -22,7 +19,7 @@ export const GET = route(async (request, context: Params) => {
   const scenarioId = await scenarioIdOf(context);
   const session = await verifyApiSession(request);
   authorize(session, "scenarios.read");
-  const scenario = loadVisibleScenario(session, scenarioId);
+  const { scenario } = loadScenario(session, scenarioId);
   return json({ scenario: scenarioJson(scenario, { document: true }) });
 });
 
@@ -32,8 +29,7 @@ export const PATCH = route(async (request, context: Params) => {
     limitBytes: documentBodyLimitBytes,
   });
   const session = await verifyApiSession(request);
-  const scenario = loadVisibleScenario(session, scenarioId);
-  authorizeOn(session, "scenarios.edit", scenario.createdBy);
+  const { scenario } = loadScenario(session, scenarioId, "edit");
   const document = body.document === undefined ? null : checkedScenarioDocument(body.document);
   const updated = updateScenario({
     workspaceId: session.workspaceId,
@@ -50,8 +46,7 @@ export const PATCH = route(async (request, context: Params) => {
 export const DELETE = route(async (request, context: Params) => {
   const scenarioId = await scenarioIdOf(context);
   const session = await verifyApiSession(request);
-  const scenario = loadVisibleScenario(session, scenarioId);
-  authorizeOn(session, "scenarios.edit", scenario.createdBy);
+  const { scenario } = loadScenario(session, scenarioId, "delete");
   deleteScenario({ workspaceId: session.workspaceId, scenarioId: scenario.id });
   return new Response(null, { status: 204, headers: { "Cache-Control": "no-store" } });
 });

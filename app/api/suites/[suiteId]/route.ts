@@ -1,9 +1,10 @@
 import { authorize, verifyApiSession } from "@/app/_lib/dal";
 import { AppError } from "@/app/_lib/errors";
 import { json, readJson, route, type RouteParams } from "@/app/_lib/http";
-import { loadSuite, resourceIdSchema } from "@/app/_lib/resources";
+import { checkSuiteScenarioIds, loadSuite } from "@/app/_lib/policy/suite";
+import { resourceIdSchema } from "@/app/_lib/resources";
 import { deleteSuite, updateSuite } from "@/db/queries/suites";
-import { checkSuiteScenarios, suiteJson } from "../suite-json";
+import { suiteJson } from "../suite-json";
 import { updateSuiteBodySchema } from "./schema";
 
 type Params = RouteParams<{ suiteId: string }>;
@@ -18,16 +19,15 @@ export const GET = route(async (request, context: Params) => {
   const suiteId = await suiteIdOf(context);
   const session = await verifyApiSession(request);
   authorize(session, "scenarios.read");
-  return json({ suite: suiteJson(loadSuite(session, suiteId), { scenarios: true }) });
+  return json({ suite: suiteJson(session, loadSuite(session, suiteId), { scenarios: true }) });
 });
 
 export const PATCH = route(async (request, context: Params) => {
   const suiteId = await suiteIdOf(context);
   const body = await readJson(request, updateSuiteBodySchema);
   const session = await verifyApiSession(request);
-  const suite = loadSuite(session, suiteId);
-  authorize(session, "suites.edit");
-  if (body.scenarioIds) checkSuiteScenarios(session.workspaceId, body.scenarioIds);
+  const suite = loadSuite(session, suiteId, "edit");
+  if (body.scenarioIds) checkSuiteScenarioIds(session, body.scenarioIds);
   const updated = updateSuite({
     workspaceId: session.workspaceId,
     suiteId: suite.id,
@@ -38,14 +38,13 @@ export const PATCH = route(async (request, context: Params) => {
     ...(body.scenarioIds === undefined ? {} : { scenarioIds: body.scenarioIds }),
   });
   if (!updated) throw new AppError("not_found", "no such suite");
-  return json({ suite: suiteJson(updated, { scenarios: true }) });
+  return json({ suite: suiteJson(session, updated, { scenarios: true }) });
 });
 
 export const DELETE = route(async (request, context: Params) => {
   const suiteId = await suiteIdOf(context);
   const session = await verifyApiSession(request);
-  const suite = loadSuite(session, suiteId);
-  authorize(session, "suites.edit");
+  const suite = loadSuite(session, suiteId, "delete");
   deleteSuite({ workspaceId: session.workspaceId, suiteId: suite.id });
   return new Response(null, { status: 204, headers: { "Cache-Control": "no-store" } });
 });

@@ -1,8 +1,9 @@
 import type { Metadata } from "next";
 import { notFound } from "next/navigation";
-import { canOn, maySeeBench } from "@/app/_lib/capabilities";
 import { requireCapability } from "@/app/_lib/dal";
-import { findBench, latestRevision } from "@/db/queries/benches";
+import { loadBench } from "@/app/_lib/policy/bench";
+import { orNotFound } from "@/app/_lib/policy/for-page";
+import { latestRevision } from "@/db/queries/benches";
 import { LiveConsole } from "@/components/console/live-console";
 import { SimulatorCaution } from "@/components/console/simulator-caution";
 import { PageHeader } from "@/components/ui/page-header";
@@ -17,11 +18,8 @@ export const metadata: Metadata = { title: "Live console" };
 export default async function LiveBenchPage({ params }: { params: Promise<{ benchId: string }> }) {
   const { benchId } = await params;
   const session = await requireCapability("console.use");
-  const bench = findBench({ workspaceId: session.workspaceId, benchId });
-  if (!bench || bench.archivedAt !== null) notFound();
-  // Someone else's private copy is visible only to lab managers; "own" scope only on one's own copies.
-  if (!maySeeBench(session, bench)) notFound();
-  if (!canOn(session, "console.use", bench.privateOwnerId)) notFound();
+  // The bench policy's "run": "own" scope (apprentices) only on their own copies.
+  const bench = orNotFound(() => loadBench(session, benchId, "run"));
   const revision = latestRevision({ benchId: bench.id });
   if (!revision) notFound();
   let document: unknown;

@@ -1,9 +1,9 @@
 import type { Metadata } from "next";
 import Link from "next/link";
-import { notFound } from "next/navigation";
 import { requireCapability } from "@/app/_lib/dal";
-import { AppError } from "@/app/_lib/errors";
-import { loadAssignment } from "@/app/_lib/labs/lab-service";
+import { benchCan } from "@/app/_lib/policy/bench";
+import { orNotFound } from "@/app/_lib/policy/for-page";
+import { assignmentCan, loadAssignment } from "@/app/_lib/policy/lab";
 import { parseStoredResult } from "@/app/_lib/runs/stored-result";
 import { findBench, latestRevision } from "@/db/queries/benches";
 import { listAttempts } from "@/db/queries/labs";
@@ -24,19 +24,15 @@ export default async function AssignmentPage({
 }) {
   const { assignmentId } = await params;
   const session = await requireCapability("labs.read");
-  let found;
-  try {
-    found = loadAssignment(session, assignmentId);
-  } catch (error) {
-    if (error instanceof AppError) notFound();
-    throw error;
-  }
+  const found = orNotFound(() => loadAssignment(session, assignmentId));
   const { assignment, lab } = found;
   const isApprentice = assignment.apprenticeId === session.userId;
   let copy: WorkbenchCopy | null = null;
-  const bench = assignment.privateBenchId
+  // The copy, if it was made and is still there; read through the bench policy.
+  const stored = assignment.privateBenchId
     ? findBench({ workspaceId: session.workspaceId, benchId: assignment.privateBenchId })
     : undefined;
+  const bench = stored && benchCan(session, stored).read ? stored : undefined;
   const revision = bench ? latestRevision({ benchId: bench.id }) : undefined;
   if (bench && revision) {
     copy = {
@@ -52,7 +48,9 @@ export default async function AssignmentPage({
         title={lab.title}
         lead={
           <>
-            {isApprentice ? "Your lab" : `${found.apprenticeName}'s lab`} on {found.benchName}
+            {isApprentice ? "Your lab" : `${found.apprenticeName}'s lab`}
+            {/* The lab's source bench is named only to those who manage labs. */}
+            {found.benchName ? ` on ${found.benchName}` : bench ? ` on ${bench.name}` : ""}
             {assignment.dueAt ? `, due ${assignment.dueAt.toISOString().slice(0, 10)}` : ""}. Graded
             by “{found.gradingScenarioName}”.
           </>
@@ -72,7 +70,7 @@ export default async function AssignmentPage({
           key={copy ? `${copy.benchId}-${copy.revisionNumber}` : "none"}
           assignmentId={assignment.id}
           copy={copy}
-          canWork={isApprentice}
+          canWork={assignmentCan(session, assignment).run}
         />
       </Panel>
       <Panel title="Attempts">

@@ -1,10 +1,11 @@
 import { authorize, verifyApiSession } from "@/app/_lib/dal";
 import { AppError } from "@/app/_lib/errors";
 import { json, readJson, route, type RouteParams } from "@/app/_lib/http";
-import { loadVisibleBench, resourceIdSchema } from "@/app/_lib/resources";
+import { loadBench } from "@/app/_lib/policy/bench";
+import { resourceIdSchema } from "@/app/_lib/resources";
 import { latestRevision } from "@/db/queries/benches";
 import { duplicateBench } from "@/db/queries/bench-history";
-import { benchSummary } from "../../bench-json";
+import { benchView } from "../../bench-json";
 import { duplicateBenchBodySchema } from "./schema";
 
 type Params = RouteParams<{ benchId: string }>;
@@ -16,7 +17,7 @@ export const POST = route(async (request, context: Params) => {
   const body = await readJson(request, duplicateBenchBodySchema);
   const session = await verifyApiSession(request);
   const scope = authorize(session, "benches.edit");
-  const source = loadVisibleBench(session, parsed.data);
+  const source = loadBench(session, parsed.data, "share");
   const revision = latestRevision({ benchId: source.id });
   if (!revision) throw new AppError("conflict", "the bench has no revision to copy");
   const makePrivate = scope === "own" || body.private === true;
@@ -28,7 +29,7 @@ export const POST = route(async (request, context: Params) => {
     privateOwnerId: makePrivate ? session.userId : null,
   });
   return json(
-    { bench: benchSummary(copy.bench), revision: { number: copy.revision.number } },
+    { bench: benchView(session, copy.bench), revision: { number: copy.revision.number } },
     { status: 201 },
   );
 });

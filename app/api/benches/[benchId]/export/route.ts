@@ -1,7 +1,8 @@
 import { authorize, verifyApiSession } from "@/app/_lib/dal";
 import { AppError } from "@/app/_lib/errors";
 import { route, type RouteParams } from "@/app/_lib/http";
-import { loadVisibleBench, resourceIdSchema } from "@/app/_lib/resources";
+import { loadBench } from "@/app/_lib/policy/bench";
+import { resourceIdSchema } from "@/app/_lib/resources";
 import { latestRevision } from "@/db/queries/benches";
 
 type Params = RouteParams<{ benchId: string }>;
@@ -12,7 +13,7 @@ export const GET = route(async (request, context: Params) => {
   if (!parsed.success) throw new AppError("not_found", "no such bench");
   const session = await verifyApiSession(request);
   authorize(session, "benches.read");
-  const bench = loadVisibleBench(session, parsed.data);
+  const bench = loadBench(session, parsed.data);
   const revision = latestRevision({ benchId: bench.id });
   if (!revision) throw new AppError("not_found", "the bench has no saved revision");
   const fileName = `${bench.name.replace(/[^\w.-]+/g, "-").toLowerCase() || "bench"}.bench.json`;

@@ -1,8 +1,9 @@
-import { authorize, authorizeOn, verifyApiSession } from "@/app/_lib/dal";
+import { authorize, verifyApiSession } from "@/app/_lib/dal";
 import { AppError } from "@/app/_lib/errors";
 import { json, route, type RouteParams } from "@/app/_lib/http";
-import { loadVisibleBench, resourceIdSchema } from "@/app/_lib/resources";
-import { findFloorPlan, removeFloorPlan, replaceFloorPlan } from "@/db/queries/uploads";
+import { findReadableFloorPlan, loadFloorPlanBench } from "@/app/_lib/policy/upload";
+import { resourceIdSchema } from "@/app/_lib/resources";
+import { removeFloorPlan, replaceFloorPlan } from "@/db/queries/uploads";
 import { sanitizeSvg } from "./sanitize-svg";
 
 type Params = RouteParams<{ benchId: string }>;
@@ -54,8 +55,8 @@ export const GET = route(async (request, context: Params) => {
   const benchId = await benchIdOf(context);
   const session = await verifyApiSession(request);
   authorize(session, "benches.read");
-  const bench = loadVisibleBench(session, benchId);
-  const plan = findFloorPlan({ workspaceId: session.workspaceId, benchId: bench.id });
+  const bench = loadFloorPlanBench(session, benchId);
+  const plan = findReadableFloorPlan(session, bench);
   if (!plan) throw new AppError("not_found", "this bench has no floor plan");
   return new Response(new Uint8Array(plan.content), {
     headers: {
@@ -82,8 +83,7 @@ export const PUT = route(async (request, context: Params) => {
   }
   const bytes = await readBytes(request);
   const session = await verifyApiSession(request);
-  const bench = loadVisibleBench(session, benchId);
-  authorizeOn(session, "benches.edit", bench.privateOwnerId);
+  const bench = loadFloorPlanBench(session, benchId, "edit");
   if (bytes.byteLength === 0)
     throw new AppError("invalid_input", "the file is empty", { field: "file" });
   if (!matchesSignature(type, bytes))
@@ -127,8 +127,7 @@ export const PUT = route(async (request, context: Params) => {
 export const DELETE = route(async (request, context: Params) => {
   const benchId = await benchIdOf(context);
   const session = await verifyApiSession(request);
-  const bench = loadVisibleBench(session, benchId);
-  authorizeOn(session, "benches.edit", bench.privateOwnerId);
+  const bench = loadFloorPlanBench(session, benchId, "edit");
   removeFloorPlan({ workspaceId: session.workspaceId, benchId: bench.id });
   return new Response(null, { status: 204, headers: { "Cache-Control": "no-store" } });
 });

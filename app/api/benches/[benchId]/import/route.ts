@@ -1,10 +1,11 @@
-import { authorizeOn, verifyApiSession } from "@/app/_lib/dal";
+import { verifyApiSession } from "@/app/_lib/dal";
+import { loadBench } from "@/app/_lib/policy/bench";
+import { loadBenchForNewScenario } from "@/app/_lib/policy/scenario";
 import { AppError } from "@/app/_lib/errors";
 import { documentBodyLimitBytes, json, readJson, route, type RouteParams } from "@/app/_lib/http";
 import {
   checkedBenchDocument,
   checkedScenarioDocument,
-  loadVisibleBench,
   resourceIdSchema,
 } from "@/app/_lib/resources";
 import { saveRevision } from "@/db/queries/benches";
@@ -19,9 +20,8 @@ export const POST = route(async (request, context: Params) => {
   if (!parsed.success) throw new AppError("not_found", "no such bench");
   const body = await readJson(request, importBodySchema, { limitBytes: documentBodyLimitBytes });
   const session = await verifyApiSession(request);
-  const bench = loadVisibleBench(session, parsed.data);
   if (body.kind === "bench") {
-    authorizeOn(session, "benches.edit", bench.privateOwnerId);
+    const bench = loadBench(session, parsed.data, "edit");
     const document = checkedBenchDocument(body.document);
     const revision = saveRevision({
       benchId: bench.id,
@@ -34,7 +34,7 @@ export const POST = route(async (request, context: Params) => {
       { status: 201 },
     );
   }
-  authorizeOn(session, "scenarios.edit", bench.privateOwnerId);
+  const bench = loadBenchForNewScenario(session, parsed.data);
   const document = checkedScenarioDocument(body.document);
   const scenario = createScenario({
     values: {

@@ -1,8 +1,7 @@
-import { authorize, verifyApiSession } from "@/app/_lib/dal";
-import { AppError } from "@/app/_lib/errors";
+import { verifyApiSession } from "@/app/_lib/dal";
 import { json, readJson, route, type RouteParams } from "@/app/_lib/http";
 import { assignLab } from "@/app/_lib/labs/lab-service";
-import { findLab } from "@/db/queries/labs";
+import { loadLab } from "@/app/_lib/policy/lab";
 import { assignLabSchema } from "./schema";
 
 /** POST /api/labs/:labId/assignments — assign to apprentices; each new one gets an e-mail. */
@@ -10,9 +9,7 @@ export const POST = route(async (request, context: RouteParams<{ labId: string }
   const { labId } = await context.params;
   const body = await readJson(request, assignLabSchema);
   const session = await verifyApiSession(request);
-  const found = findLab({ workspaceId: session.workspaceId, labId });
-  if (!found) throw new AppError("not_found", "no such lab");
-  authorize(session, "labs.manage");
+  const found = loadLab(session, labId, "edit");
   const dueAt = body.dueAt
     ? new Date(body.dueAt.length === 10 ? `${body.dueAt}T23:59:59Z` : body.dueAt)
     : null;

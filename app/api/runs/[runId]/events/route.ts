@@ -1,14 +1,14 @@
 import { verifyApiSession } from "@/app/_lib/dal";
 import { errorResponse } from "@/app/_lib/errors";
 import type { RouteParams } from "@/app/_lib/http";
-import { loadVisibleRunOrSuiteRun } from "@/app/_lib/runs/run-access";
+import { loadRunOrSuiteRun } from "@/app/_lib/policy/run";
 import { type RunProgressEvent, subscribeToRun } from "@/app/_lib/runs/run-events";
 import { interruptedRunMessage } from "@/db/queries/runs";
 
 /** A comment line every so often keeps proxies from closing a quiet stream. */
 const HEARTBEAT_MS = 15_000;
 
-function snapshotOf(visible: ReturnType<typeof loadVisibleRunOrSuiteRun>): RunProgressEvent {
+function snapshotOf(visible: ReturnType<typeof loadRunOrSuiteRun>): RunProgressEvent {
   if (visible.kind === "scenario") {
     const { run } = visible;
     const finished = run.status === "finished" || run.status === "errored";
@@ -59,7 +59,7 @@ export async function GET(request: Request, context: RouteParams<{ runId: string
   try {
     channel = (await context.params).runId;
     session = await verifyApiSession(request);
-    loadVisibleRunOrSuiteRun(session, channel);
+    loadRunOrSuiteRun(session, channel);
   } catch (error) {
     return errorResponse(error);
   }
@@ -95,7 +95,7 @@ export async function GET(request: Request, context: RouteParams<{ runId: string
       cleanup = close;
       request.signal.addEventListener("abort", close);
       try {
-        send(snapshotOf(loadVisibleRunOrSuiteRun(session, channel)));
+        send(snapshotOf(loadRunOrSuiteRun(session, channel)));
       } catch {
         close();
       }

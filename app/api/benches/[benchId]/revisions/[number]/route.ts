@@ -1,7 +1,8 @@
 import { authorize, verifyApiSession } from "@/app/_lib/dal";
 import { AppError } from "@/app/_lib/errors";
 import { json, route, type RouteParams } from "@/app/_lib/http";
-import { loadVisibleBench, resourceIdSchema } from "@/app/_lib/resources";
+import { loadBench } from "@/app/_lib/policy/bench";
+import { resourceIdSchema } from "@/app/_lib/resources";
 import { findRevision } from "@/db/queries/bench-history";
 import { revisionJson } from "../../../bench-json";
 
@@ -17,7 +18,7 @@ export const GET = route(async (request, context: Params) => {
   }
   const session = await verifyApiSession(request);
   authorize(session, "benches.read");
-  const bench = loadVisibleBench(session, benchId.data);
+  const bench = loadBench(session, benchId.data);
   const revision = findRevision({ benchId: bench.id, number });
   if (!revision) throw new AppError("not_found", "no such revision");
   return json({ revision: revisionJson(revision) });
