@@ -8,6 +8,7 @@ import { fileURLToPath } from "node:url";
 import type { TestProject } from "vitest/node";
 import { openDatabase } from "../../db/client";
 import { seedDemoWorld } from "../../db/seed";
+import { seedDemoHistory } from "../../app/_lib/demo/seed-demo-history";
 
 declare module "vitest" {
   export interface ProvidedContext {
@@ -103,6 +104,7 @@ export default async function setup(project: TestProject) {
   const databaseUrl = path.join(dataDir, "e2e.db");
   const db = openDatabase(databaseUrl);
   seedDemoWorld(db);
+  await seedDemoHistory(db);
   db.$client.close();
 
   const port = await freePort();
