@@ -14,7 +14,8 @@ import { seedDemoWorld } from "@/db/seed";
 import { runScenario } from "@/engine/scenario/run-scenario";
 import { parseScenarioText } from "@/engine/scenario/parse-scenario";
 import { parseStoredResult, verdictOf } from "../runs/stored-result";
-import { demoLab, demoSuiteReplays, practiceCopyName, seedDemoHistory } from "./seed-demo-history";
+import { practiceCopyName } from "../bench-offers";
+import { demoLab, demoSuiteReplays, seedDemoHistory } from "./seed-demo-history";
 
 describe("the demo history seed on a fresh database", () => {
   let dir: string;

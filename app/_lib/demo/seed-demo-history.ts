@@ -14,6 +14,7 @@ import {
 import { listSuiteRuns } from "@/db/queries/runs";
 import { listSuiteScenarios } from "@/db/queries/suites";
 import { benches, labAssignments, labs, scenarios, suites, users, workspaces } from "@/db/schema";
+import { practiceCopyName } from "../bench-offers";
 import { applyHiddenFaults, type HiddenFault } from "../labs/hidden-faults";
 import { createRunPool, type RunPool } from "../runs/run-pool";
 import { startScenarioRun, startSuiteRun } from "../runs/run-service";
@@ -61,11 +62,6 @@ export interface DemoHistorySummary {
   readonly practiceCopiesCreated: number;
   readonly attemptsCreated: number;
   readonly suiteRunsCreated: number;
-}
-
-/** The practice copy's name: one per apprentice and shared bench. */
-export function practiceCopyName(benchName: string): string {
-  return `${benchName} (practice copy)`;
 }
 
 function required<T>(value: T | undefined, what: string): T {

@@ -1,6 +1,7 @@
 import type { Metadata } from "next";
 import { notFound } from "next/navigation";
-import { can, canOn, maySeeBench } from "@/app/_lib/capabilities";
+import { benchOffersFor } from "@/app/_lib/bench-offers";
+import { can, maySeeBench } from "@/app/_lib/capabilities";
 import { requireCapability } from "@/app/_lib/dal";
 import { benchSchema } from "@/engine/bench";
 import { findBench, latestRevision } from "@/db/queries/benches";
@@ -24,6 +25,7 @@ export default async function BenchEditorPage({
   if (!revision) notFound();
   // Stored documents were checked on the way in; parse again so the editor gets the defaults filled.
   const document = benchSchema.parse(JSON.parse(revision.document));
+  const offers = benchOffersFor(session, bench);
   const plan = findFloorPlan({ workspaceId: session.workspaceId, benchId: bench.id });
   return (
     <EditorPage
@@ -34,11 +36,9 @@ export default async function BenchEditorPage({
         summary: revision.summary,
         createdAt: revision.createdAt.toISOString(),
       }}
-      canEdit={canOn(session, "benches.edit", bench.privateOwnerId)}
+      canEdit={offers.edit}
       links={{
-        live: canOn(session, "console.use", bench.privateOwnerId)
-          ? `/benches/${bench.id}/live`
-          : null,
+        live: offers.live ? `/benches/${bench.id}/live` : null,
         // Scenarios are listed per bench on one page; there is no page per bench.
         scenarios: can(session.role, "scenarios.read") ? "/scenarios" : null,
       }}
