@@ -1,4 +1,5 @@
 import type { ScenarioResult } from "@/engine/scenario/scenario-result";
+import { formatVirtualTime } from "@/engine/core/virtual-time";
 import { formatDuration } from "@/engine/scenario/duration";
 import { Mono } from "@/components/ui/mono";
 import { SimulatorCaution } from "./simulator-caution";
@@ -108,7 +109,7 @@ export function RunReport({
                   </span>
                   <span className="flex items-center gap-2">
                     <span className="text-xs text-ink-soft">
-                      <Mono>{formatDuration(step.startUs)}</Mono>
+                      <Mono>{formatVirtualTime(step.startUs)}</Mono>
                     </span>
                     <StepStatusBadge status={step.status} />
                   </span>
