@@ -16,6 +16,7 @@ import { useMemo, useState } from "react";
 import { PassRateChart } from "./pass-rate-chart";
 import type { RunHistoryItem } from "./run-history-types";
 import { VerdictBadge } from "./verdict-badge";
+import { Timestamp } from "@/components/ui/timestamp";
 
 const equals: FilterFn<RunHistoryItem> = (row, columnId, value) =>
   value === "" || value === undefined || row.getValue(columnId) === value;
@@ -38,9 +39,7 @@ const columns: ColumnDef<RunHistoryItem>[] = [
     accessorKey: "createdAt",
     header: "When",
     filterFn: dayRange,
-    cell: ({ getValue }) => (
-      <time dateTime={String(getValue())}>{String(getValue()).slice(0, 16).replace("T", " ")}</time>
-    ),
+    cell: ({ getValue }) => <Timestamp value={String(getValue())} relative />,
   },
   {
     accessorKey: "scenarioName",

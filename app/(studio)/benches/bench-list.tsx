@@ -9,6 +9,7 @@ import { Button } from "@/components/ui/button";
 import { StatusBadge } from "@/components/ui/status-badge";
 import { errorText, sendJson } from "../_shell/api-client";
 import { startPracticeCopy } from "../_shell/practice-copy";
+import { Timestamp } from "@/components/ui/timestamp";
 
 export interface BenchListItem {
   readonly id: string;
@@ -122,7 +123,7 @@ export function BenchList({
                   <p className="truncate text-sm text-ink-soft">{bench.description}</p>
                 ) : null}
                 <p className="text-xs text-ink-soft">
-                  updated {new Date(bench.updatedAt).toLocaleString("en-GB")}
+                  updated <Timestamp value={bench.updatedAt} relative />
                 </p>
               </div>
               <div className="flex gap-2">

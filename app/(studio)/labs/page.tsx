@@ -9,6 +9,7 @@ import { type LabBenchChoice, NewLabForm } from "@/components/labs/new-lab-form"
 import { VerdictBadge } from "@/components/runs/verdict-badge";
 import { PageHeader } from "@/components/ui/page-header";
 import { Panel } from "@/components/ui/panel";
+import { Timestamp } from "@/components/ui/timestamp";
 
 export const metadata: Metadata = { title: "Labs" };
 
@@ -82,7 +83,11 @@ export default async function LabsPage() {
                   </Link>
                   <span className="block text-sm text-ink-soft">
                     {benchName}
-                    {assignment.dueAt ? `, due ${assignment.dueAt.toISOString().slice(0, 10)}` : ""}
+                    {assignment.dueAt ? (
+                      <>
+                        , due <Timestamp value={assignment.dueAt} dateOnly relative />
+                      </>
+                    ) : null}
                   </span>
                 </span>
                 {last ? (

@@ -20,6 +20,7 @@ import { deliverPendingMail, queueMail } from "../mailer";
 import { loadVisibleBench } from "../resources";
 import { startScenarioRun } from "../runs/run-service";
 import { applyHiddenFaults, type HiddenFault, parseHiddenFaults } from "./hidden-faults";
+import { formatDate } from "@/components/ui/format-date";
 
 type Who = Pick<VerifiedSession, "userId" | "workspaceId" | "role" | "name">;
 
@@ -114,9 +115,7 @@ export async function assignLab(
     });
     for (const row of rows) {
       const apprentice = apprentices.find((a) => a.id === row.apprenticeId)!;
-      const due = input.dueAt
-        ? `It is due on ${input.dueAt.toISOString().slice(0, 10)}.`
-        : "It has no due date.";
+      const due = input.dueAt ? `It is due on ${formatDate(input.dueAt)}.` : "It has no due date.";
       queueMail(
         {
           workspaceId: who.workspaceId,
