@@ -26,7 +26,10 @@ describe("the one date format", () => {
     expect(formatRelative(at(-5 * 3_600_000), now)).toBe("5 h ago");
     expect(formatRelative(at(-86_400_000), now)).toBe("1 day ago");
     expect(formatRelative(at(7 * 86_400_000), now)).toBe("in 7 days");
-    expect(formatRelative(at(90 * 60_000), now)).toBe("in 1 h");
+    expect(formatRelative(at(80 * 60_000), now)).toBe("in 1 h");
+    expect(formatRelative(at(23 * 3_600_000 + 40 * 60_000), now)).toBe("in 1 day");
+    // A lab due a week after seeding still reads as a week a few minutes later.
+    expect(formatRelative(at(7 * 86_400_000 - 5 * 60_000), now)).toBe("in 7 days");
     expect(formatRelative(at(-40 * 86_400_000), now)).toBeNull();
     expect(formatRelative("soon", now)).toBeNull();
   });

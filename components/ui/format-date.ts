@@ -33,8 +33,9 @@ const DAY_MS = 24 * HOUR_MS;
 /**
  * How long ago (or how soon) `value` is from `now`: "just now", "3 min ago",
  * "5 h ago", "2 days ago", "in 7 days". Null from 30 days on, where the date
- * itself says more. Whole units, rounded down, so "59 min ago" never reads as
- * an hour.
+ * itself says more. Minutes round down ("59 min ago" never reads as an hour);
+ * hours and days round to the nearest, so a lab due a week after it was set
+ * still reads "in 7 days" a few minutes later.
  */
 export function formatRelative(value: DateInput, now: DateInput): string | null {
   const date = toDate(value);
@@ -43,12 +44,13 @@ export function formatRelative(value: DateInput, now: DateInput): string | null 
   const deltaMs = date.getTime() - reference.getTime();
   const distance = Math.abs(deltaMs);
   if (distance < 45_000) return "just now";
+  const minutes = Math.floor(distance / MINUTE_MS);
+  const hours = Math.round(distance / HOUR_MS);
+  const days = Math.round(distance / DAY_MS);
   let amount: string;
-  if (distance < HOUR_MS) amount = `${Math.max(1, Math.floor(distance / MINUTE_MS))} min`;
-  else if (distance < DAY_MS) amount = `${Math.floor(distance / HOUR_MS)} h`;
-  else if (distance < 30 * DAY_MS) {
-    const days = Math.floor(distance / DAY_MS);
-    amount = `${days} ${days === 1 ? "day" : "days"}`;
-  } else return null;
+  if (minutes < 60) amount = `${Math.max(1, minutes)} min`;
+  else if (hours < 24) amount = `${hours} h`;
+  else if (days < 30) amount = `${days} ${days === 1 ? "day" : "days"}`;
+  else return null;
   return deltaMs < 0 ? `${amount} ago` : `in ${amount}`;
 }
