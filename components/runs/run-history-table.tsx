@@ -16,6 +16,7 @@ import { useMemo, useState } from "react";
 import { PassRateChart } from "./pass-rate-chart";
 import type { RunHistoryItem } from "./run-history-types";
 import { VerdictBadge } from "./verdict-badge";
+import { formatDateTime } from "@/components/ui/format-date";
 import { Timestamp } from "@/components/ui/timestamp";
 
 const equals: FilterFn<RunHistoryItem> = (row, columnId, value) =>
@@ -253,7 +254,7 @@ export function RunHistoryTable({ runs }: { runs: readonly RunHistoryItem[] }) {
                       {cell.column.id === "select" ? (
                         <input
                           type="checkbox"
-                          aria-label={`Compare run of ${row.original.scenarioName} at ${row.original.createdAt}`}
+                          aria-label={`Compare run of ${row.original.scenarioName} at ${formatDateTime(row.original.createdAt)}`}
                           checked={picked.includes(row.original.id)}
                           onChange={() => toggle(row.original.id)}
                         />

@@ -137,6 +137,21 @@ describe("first visit to a fresh demo in headless Chromium", () => {
     expect(await suiteRuns.getByRole("listitem").count()).toBeGreaterThanOrEqual(3);
   });
 
+  it("compares the apprentice's failing attempt with a passing replay of the same scenario", async () => {
+    const page = await pageFor(qa, "/runs");
+    const rows = page.getByRole("table", { name: "Run history" }).getByRole("row");
+    const scenario = rows.filter({ hasText: "Door push-button toggles the ceiling lights" });
+    await scenario.first().waitFor();
+    await scenario.filter({ hasText: "failed" }).first().getByRole("checkbox").check();
+    await scenario.filter({ hasText: "passed" }).first().getByRole("checkbox").check();
+    await page.getByRole("link", { name: "Compare the two runs" }).click();
+    await page.waitForURL(/\/runs\/diff\?/);
+    const steps = page.getByRole("table", { name: "Step differences" });
+    await steps.waitFor();
+    expect(await steps.locator("tr[data-changed='true']").count()).toBeGreaterThan(0);
+    await page.getByText(/\d+ of \d+ steps differ/).waitFor();
+  });
+
   it("logs no page errors", () => {
     expect(pageErrors).toEqual([]);
   });
