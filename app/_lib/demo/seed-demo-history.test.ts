@@ -34,7 +34,8 @@ describe("the demo history seed on a fresh database", () => {
       attemptsCreated: 1,
       suiteRunsCreated: demoSuiteReplays.seeds.length,
     });
-  });
+    // bcrypt at cost 12 for five people and 40 replays: a guard against hanging, not a speed check.
+  }, 120_000);
 
   afterAll(() => {
     db.$client.close();
@@ -123,5 +124,5 @@ describe("the demo history seed on a fresh database", () => {
       expect(verdictOf(replay), row.scenarioName).toBe(row.verdict);
       expect(parseStoredResult(row.results)?.outcome).toBe(replay.outcome);
     }
-  });
+  }, 60_000);
 });
