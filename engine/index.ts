@@ -187,6 +187,12 @@ export { parseScenario, parseScenarioText, type ScenarioError } from "./scenario
 export { suiteSchema, parseSuite, type Suite, type SuiteError } from "./scenario/suite-schema";
 /** "500ms", "30s", "2m", "1h" <-> integer µs of virtual time; typed `duration.invalid` errors. */
 export { parseDuration, formatDuration, type DurationError } from "./scenario/duration";
+/** A point in virtual time (integer µs) as h:mm:ss.mmm, or h:mm:ss.mmmmmm with `precision: "us"`. */
+export {
+  formatVirtualTime,
+  type VirtualTimeFormat,
+  type VirtualTimePrecision,
+} from "./core/virtual-time";
 /** Replays a scenario on a fresh simulation: per-step verdicts with trace slices; wall clock injected as `now()` (ms). */
 export {
   runScenario,

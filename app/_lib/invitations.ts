@@ -25,6 +25,7 @@ import type { VerifiedSession } from "./dal";
 import { AppError } from "./errors";
 import { deliverPendingMail, queueMail } from "./mailer";
 import { hashPassword, verifyPassword } from "./auth";
+import { formatDateTime } from "@/components/ui/format-date";
 
 /**
  * Invitations and password resets: one-time tokens sent by e-mail. Only the
@@ -73,7 +74,7 @@ function invitationMail(options: {
       "Set your password and join here:",
       options.link,
       "",
-      `The link works once and expires on ${options.expiresAt.toISOString().slice(0, 16).replace("T", " ")} UTC.`,
+      `The link works once and expires on ${formatDateTime(options.expiresAt)}.`,
       "If you did not expect this invitation, ignore this message.",
     ].join("\n"),
   };

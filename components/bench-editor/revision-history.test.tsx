@@ -82,8 +82,7 @@ describe("RevisionHistory", () => {
 });
 
 describe("formatRevisionTime", () => {
-  it("writes year-month-day hours:minutes in local time", () => {
-    const local = new Date(2026, 0, 5, 7, 3);
-    expect(formatRevisionTime(local.toISOString())).toBe("2026-01-05 07:03");
+  it("writes the one date format: year-month-day hours:minutes, in UTC and saying so", () => {
+    expect(formatRevisionTime("2026-01-05T07:03:00.000Z")).toBe("2026-01-05 07:03 UTC");
   });
 });

@@ -2,6 +2,7 @@
 
 import { useQuery } from "@tanstack/react-query";
 import { Button } from "@/components/ui/button";
+import { formatDateTime } from "@/components/ui/format-date";
 
 /** One saved revision as the history lists it (no document). */
 export interface RevisionEntry {
@@ -19,13 +20,8 @@ export const revisionQueryKeys = {
   one: (benchId: string, number: number) => ["benches", benchId, "revisions", number] as const,
 };
 
-/** "2026-12-01 22:49" in the viewer's own time zone. */
-export function formatRevisionTime(iso: string): string {
-  const date = new Date(iso);
-  if (Number.isNaN(date.getTime())) return iso;
-  const pad = (n: number) => String(n).padStart(2, "0");
-  return `${date.getFullYear()}-${pad(date.getMonth() + 1)}-${pad(date.getDate())} ${pad(date.getHours())}:${pad(date.getMinutes())}`;
-}
+/** "2026-12-01 22:49 UTC": the one date format (components/ui/format-date.ts). */
+export const formatRevisionTime = formatDateTime;
 
 export interface RevisionHistoryProps {
   readonly benchId: string;

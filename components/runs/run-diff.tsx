@@ -1,6 +1,7 @@
 import type { ScenarioResult } from "@/engine/scenario/scenario-result";
 import { Mono } from "@/components/ui/mono";
 import { StepStatusBadge, VerdictBadge } from "./verdict-badge";
+import { Timestamp } from "@/components/ui/timestamp";
 
 export interface DiffSide {
   readonly id: string;
@@ -44,7 +45,7 @@ export function RunDiff({ a, b }: { a: DiffSide; b: DiffSide }) {
             <p className="font-medium">{side.title}</p>
             <p className="text-ink-soft">
               {side.benchName} rev. {side.revisionNumber}, seed <Mono>{side.seed}</Mono>,{" "}
-              {side.createdAt.slice(0, 16).replace("T", " ")}
+              <Timestamp value={side.createdAt} />
             </p>
             <div className="mt-1">
               <VerdictBadge verdict={side.verdict} outcome={side.result?.outcome} />

@@ -16,6 +16,8 @@ import { useMemo, useState } from "react";
 import { PassRateChart } from "./pass-rate-chart";
 import type { RunHistoryItem } from "./run-history-types";
 import { VerdictBadge } from "./verdict-badge";
+import { formatDateTime } from "@/components/ui/format-date";
+import { Timestamp } from "@/components/ui/timestamp";
 
 const equals: FilterFn<RunHistoryItem> = (row, columnId, value) =>
   value === "" || value === undefined || row.getValue(columnId) === value;
@@ -38,9 +40,7 @@ const columns: ColumnDef<RunHistoryItem>[] = [
     accessorKey: "createdAt",
     header: "When",
     filterFn: dayRange,
-    cell: ({ getValue }) => (
-      <time dateTime={String(getValue())}>{String(getValue()).slice(0, 16).replace("T", " ")}</time>
-    ),
+    cell: ({ getValue }) => <Timestamp value={String(getValue())} relative />,
   },
   {
     accessorKey: "scenarioName",
@@ -254,7 +254,7 @@ export function RunHistoryTable({ runs }: { runs: readonly RunHistoryItem[] }) {
                       {cell.column.id === "select" ? (
                         <input
                           type="checkbox"
-                          aria-label={`Compare run of ${row.original.scenarioName} at ${row.original.createdAt}`}
+                          aria-label={`Compare run of ${row.original.scenarioName} at ${formatDateTime(row.original.createdAt)}`}
                           checked={picked.includes(row.original.id)}
                           onChange={() => toggle(row.original.id)}
                         />

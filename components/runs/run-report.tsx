@@ -1,9 +1,11 @@
 import type { ScenarioResult } from "@/engine/scenario/scenario-result";
+import { formatVirtualTime } from "@/engine/core/virtual-time";
 import { formatDuration } from "@/engine/scenario/duration";
 import { Mono } from "@/components/ui/mono";
 import { SimulatorCaution } from "./simulator-caution";
 import { type AddressInfo, TraceView } from "./trace-view";
 import { StepStatusBadge, VerdictBadge } from "./verdict-badge";
+import { Timestamp } from "@/components/ui/timestamp";
 
 export interface RunReportFacts {
   readonly runId: string;
@@ -43,7 +45,6 @@ export function RunReport({
   result: ScenarioResult | null;
   addresses: Readonly<Record<number, AddressInfo>>;
 }) {
-  const created = new Date(facts.createdAt);
   return (
     <article className="flex flex-col gap-6" aria-label="Run report">
       <header className="flex flex-col gap-3 border-b border-paper-line pb-4">
@@ -68,9 +69,7 @@ export function RunReport({
           </Fact>
           <Fact term="Run by">{facts.startedByName ?? "former member"}</Fact>
           <Fact term="When">
-            <time dateTime={facts.createdAt}>
-              {created.toISOString().slice(0, 16).replace("T", " ")} UTC
-            </time>
+            <Timestamp value={facts.createdAt} relative />
           </Fact>
           <Fact term="Duration">
             {facts.durationMs === null ? "—" : `${facts.durationMs} ms`}
@@ -108,7 +107,7 @@ export function RunReport({
                   </span>
                   <span className="flex items-center gap-2">
                     <span className="text-xs text-ink-soft">
-                      <Mono>{formatDuration(step.startUs)}</Mono>
+                      <Mono>{formatVirtualTime(step.startUs)}</Mono>
                     </span>
                     <StepStatusBadge status={step.status} />
                   </span>

@@ -3,7 +3,7 @@ import { formatGroupAddress, formatIndividualAddress, parseGroupAddress } from "
 import { getDpt } from "@/engine/dpt";
 import { fromHex } from "@/engine/frame/hex";
 import { describeTraceEvent } from "@/engine/scenario/describe-trace-event";
-import { formatDuration } from "@/engine/scenario/duration";
+import { formatVirtualTime } from "@/engine/core/virtual-time";
 import { Mono } from "@/components/ui/mono";
 
 /** What the report needs to know about a group address to decode telegrams on it. */
@@ -76,7 +76,7 @@ export function TraceView({
               return (
                 <tr key={index} className="border-b border-paper-line/60 align-top">
                   <td className="py-1 pr-3">
-                    <Mono>{formatDuration(event.timeUs)}</Mono>
+                    <Mono>{formatVirtualTime(event.timeUs)}</Mono>
                   </td>
                   <td className="py-1 pr-3">
                     <Mono>{formatIndividualAddress(event.source)}</Mono>{" "}

@@ -14,6 +14,7 @@ describe("parseCliArgs", () => {
       "--junit=out.xml",
       "b.suite.json",
       "--quiet",
+      "--us",
     ]);
     expect(result).toEqual({
       ok: true,
@@ -25,6 +26,7 @@ describe("parseCliArgs", () => {
         junit: "out.xml",
         budgetMs: DEFAULT_BUDGET_MS,
         quiet: true,
+        timePrecision: "us",
         help: false,
       },
     });
@@ -39,6 +41,7 @@ describe("parseCliArgs", () => {
     [["a.json", "--budget", "0"], '--budget: expected a positive number of milliseconds, got "0"'],
     [["a.json", "--verbose"], "--verbose: unknown option (see --help)"],
     [["a.json", "--quiet=yes"], "--quiet: takes no value"],
+    [["a.json", "--us=1"], "--us: takes no value"],
     [[], "files: give at least one scenario or suite file"],
   ])("refuses %j naming the argument", (argv, message) => {
     const result = parseCliArgs(argv);

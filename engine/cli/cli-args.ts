@@ -1,4 +1,5 @@
 import { err, ok, type Result } from "../core/result";
+import type { VirtualTimePrecision } from "../core/virtual-time";
 
 /** What `npm run scenarios -- ...` was asked to do. */
 export interface CliOptions {
@@ -16,6 +17,8 @@ export interface CliOptions {
   readonly budgetMs: number;
   /** Prints only the summary and failures, no per-scenario progress. */
   readonly quiet: boolean;
+  /** Virtual times in the trace printout: h:mm:ss.mmm, or to the microsecond with --us. */
+  readonly timePrecision: VirtualTimePrecision;
   readonly help: boolean;
 }
 
@@ -27,9 +30,13 @@ export interface CliArgsError {
 
 export const DEFAULT_BUDGET_MS = 10_000;
 
-export const CLI_USAGE = `Usage: npm run scenarios -- [options] <scenario.json | suite.json>...
+export const CLI_USAGE = `Usage: npm run scenarios -- [options] <file | folder | pattern>...
 
 Runs Benchline scenarios headless and exits non-zero when any scenario fails.
+Each argument is a scenario or suite file, a folder (every *.json scenario or
+suite directly in it), or a pattern such as "scenarios/**/*.scenario.json"
+(* ? ** [abc] {a,b}; expanded here, so quote it to keep the shell out).
+Virtual times print as h:mm:ss.mmm since the simulation started.
 
 Options:
   --seed <n>        run every scenario with this seed instead of its own
@@ -38,6 +45,7 @@ Options:
   --junit <path>    write a JUnit XML report to <path>
   --budget <ms>     wall-clock budget per scenario (default ${DEFAULT_BUDGET_MS})
   --quiet           print only failures and the summary
+  --us              print virtual times to the microsecond (h:mm:ss.mmmmmm)
   --help            show this text`;
 
 const fail = (argument: string, message: string) =>
@@ -52,6 +60,7 @@ export function parseCliArgs(argv: readonly string[]): Result<CliOptions, CliArg
   let junit: string | undefined;
   let budgetMs = DEFAULT_BUDGET_MS;
   let quiet = false;
+  let timePrecision: VirtualTimePrecision = "ms";
   let help = false;
   let onlyFiles = false;
 
@@ -119,6 +128,9 @@ export function parseCliArgs(argv: readonly string[]): Result<CliOptions, CliArg
       case "--quiet":
         quiet = true;
         break;
+      case "--us":
+        timePrecision = "us";
+        break;
       case "--help":
         help = true;
         break;
@@ -127,7 +139,7 @@ export function parseCliArgs(argv: readonly string[]): Result<CliOptions, CliArg
     }
   }
   if (files.length === 0 && !help) return fail("files", "give at least one scenario or suite file");
-  return ok({ files, seed, filter, shard, junit, budgetMs, quiet, help });
+  return ok({ files, seed, filter, shard, junit, budgetMs, quiet, timePrecision, help });
 }
 
 /** Whether the scenario at position `position` (from 0, in run order) belongs to the shard. */

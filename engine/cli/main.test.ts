@@ -123,6 +123,69 @@ describe("scenarios CLI", () => {
     expect(stderr).toContain("Usage: npm run scenarios");
   });
 
+  it("prints every virtual time of a failure in one format, h:mm:ss.mmm, or to the µs with --us", () => {
+    const file = scenarioFile(tmp(), {
+      name: "Late status",
+      steps: [
+        { kind: "wait", for: "1h" },
+        { kind: "write", groupAddress: "2/0/2", value: 22 },
+        { kind: "expect-value", groupAddress: "2/1/2", value: 25, within: "1s" },
+      ],
+    });
+    const { stdout } = run([file]);
+    const block = stdout.slice(
+      stdout.indexOf("FAIL  Late status"),
+      stdout.indexOf("\n\n1 scenario"),
+    );
+    const traceTimes = [...block.matchAll(/^\s+\| (\S+) /gm)].map((m) => m[1]!);
+    expect(traceTimes.length).toBeGreaterThan(0);
+    for (const time of traceTimes) expect(time).toMatch(/^1:00:0\d\.\d{3}$/);
+    expect(block).toMatch(/#2 expect-value .* at 1:00:0\d\.\d{3}: fail/);
+    expect(block).toMatch(/\(write at 1:00:0\d\.\d{3}\)/);
+    // No bare unit-suffixed times such as "10801s", "10801020104us" or "10802035ms".
+    expect(block).not.toMatch(/\b\d{5,}(?:us|ms|s)\b/);
+
+    const micro = run([file, "--us"]).stdout;
+    const microTimes = [...micro.matchAll(/^\s+\| (\S+) /gm)].map((m) => m[1]!);
+    expect(microTimes.length).toBe(traceTimes.length);
+    for (const time of microTimes) expect(time).toMatch(/^1:00:0\d\.\d{6}$/);
+  });
+
+  it("runs every scenario and suite file in a folder, but not its bench files", () => {
+    const { code, stdout } = run(["scenarios/quayside"]);
+    expect(code).toBe(0);
+    expect(stdout).toMatch(/^Running 3 of 3 scenario\(s\)/);
+    // scenarios/ itself holds the suite file; its benches/ folder is not searched.
+    expect(run(["scenarios"]).stdout).toMatch(/^Running 16 of 16 scenario\(s\)/);
+  });
+
+  it("expands patterns itself, since a shell may pass them on unexpanded", () => {
+    const { code, stdout } = run(["scenarios/fernhill/*.scenario.json"]);
+    expect(code).toBe(0);
+    expect(stdout).toMatch(/^Running 13 of 13 scenario\(s\)/);
+    expect(run(["scenarios/**/room-*.json"]).stdout).toMatch(/^Running 3 of 3 scenario\(s\)/);
+    expect(run(["scenarios/{fernhill,quayside}/lights-toggle.scenario.json"]).stdout).toMatch(
+      /^Running 1 of 1 scenario\(s\)/,
+    );
+    // The same file named twice (a pattern and the file itself) runs once.
+    expect(
+      run(["scenarios/quayside/*.json", "scenarios/quayside/bus-load.scenario.json"]).stdout,
+    ).toMatch(/^Running 3 of 3 scenario\(s\)/);
+  });
+
+  it("exits 2 naming a pattern that matches nothing or a folder without scenarios", () => {
+    const nothing = run(["scenarios/fernhill/*.nothing.json"]);
+    expect(nothing.code).toBe(2);
+    expect(nothing.stderr).toContain(
+      "scenarios/fernhill/*.nothing.json: no scenario or suite file matches",
+    );
+    const empty = run(["scenarios/benches"]);
+    expect(empty.code).toBe(2);
+    expect(empty.stderr).toContain(
+      "scenarios/benches: no scenario or suite files (*.json) in the folder",
+    );
+  });
+
   it("works as a process: the npm script's entry sets the exit code", () => {
     const folder = tmp();
     const file = scenarioFile(folder, {

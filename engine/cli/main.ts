@@ -6,7 +6,7 @@
  * failed or errored, 2 the command line or a file could not be used).
  */
 import { existsSync, mkdirSync, readdirSync, readFileSync, writeFileSync } from "node:fs";
-import { dirname, isAbsolute, join, relative, resolve } from "node:path";
+import { dirname, join, relative, resolve } from "node:path";
 import { performance } from "node:perf_hooks";
 import { pathToFileURL } from "node:url";
 import { loadBench, type LoadedBench } from "../bench";
@@ -17,7 +17,9 @@ import { runSuite, type SuiteEntry } from "../scenario/run-suite";
 import type { ScenarioResult, SuiteResult } from "../scenario/scenario-result";
 import type { BenchReference } from "../scenario/scenario-schema";
 import { parseSuite } from "../scenario/suite-schema";
+import { formatVirtualTime, type VirtualTimeFormat } from "../core/virtual-time";
 import { CLI_USAGE, inShard, parseCliArgs } from "./cli-args";
+import { expandInputs } from "./expand-inputs";
 
 export interface CliIo {
   readonly stdout: (text: string) => void;
@@ -151,7 +153,12 @@ const STATUS_WORD: Readonly<Record<ScenarioResult["outcome"], string>> = {
   error: "ERROR",
 };
 
-function describeResult(result: ScenarioResult, position: number, total: number): string {
+function describeResult(
+  result: ScenarioResult,
+  position: number,
+  total: number,
+  time: VirtualTimeFormat,
+): string {
   const width = String(total).length;
   const lines = [
     `[${String(position).padStart(width)}/${total}] ${STATUS_WORD[result.outcome]} ${result.name}  (${result.source ?? ""}, ${result.wallMs.toFixed(0)} ms)`,
@@ -164,12 +171,14 @@ function describeResult(result: ScenarioResult, position: number, total: number)
   if (result.outcome !== "passed" && result.outcome !== "expected-failure") {
     for (const step of result.steps) {
       if (step.status !== "fail" && step.status !== "error") continue;
-      lines.push(`        #${step.index} ${step.label}: ${step.status}`);
+      lines.push(
+        `        #${step.index} ${step.label} at ${formatVirtualTime(step.startUs, time)}: ${step.status}`,
+      );
       if (step.status === "fail")
         lines.push(`            expected ${step.expected}`, `            got      ${step.actual}`);
       if (step.message) lines.push(`            ${step.message}`);
       for (const event of step.trace.slice(-8))
-        lines.push(`            | ${describeTraceEvent(event)}`);
+        lines.push(`            | ${describeTraceEvent(event, time)}`);
     }
   }
   return `${lines.join("\n")}\n`;
@@ -205,7 +214,12 @@ export function main(argv: readonly string[], io: CliIo = defaultIo): number {
     return 0;
   }
 
-  const files = options.files.map((file) => (isAbsolute(file) ? file : resolve(io.cwd, file)));
+  const expanded = expandInputs(options.files, io.cwd);
+  if (!expanded.ok) {
+    io.stderr(`${expanded.error}\n`);
+    return 2;
+  }
+  const files = expanded.value;
   const benches = new BenchResolver(files.map((file) => dirname(file)));
   const planned: Planned[] = [];
   const looseSuite = "scenarios";
@@ -265,7 +279,9 @@ export function main(argv: readonly string[], io: CliIo = defaultIo): number {
         onResult: (result) => {
           position += 1;
           if (!options.quiet || !result.ok)
-            io.stdout(describeResult(result, position, chosen.length));
+            io.stdout(
+              describeResult(result, position, chosen.length, { precision: options.timePrecision }),
+            );
         },
       },
     ),

@@ -1,6 +1,6 @@
 import { formatGroupAddress, formatIndividualAddress } from "../address";
 import type { TraceEvent } from "../core/trace";
-import { formatDuration } from "./duration";
+import { formatVirtualTime, type VirtualTimeFormat } from "../core/virtual-time";
 
 const SERVICE_NAMES = {
   GroupValue_Write: "write",
@@ -8,9 +8,9 @@ const SERVICE_NAMES = {
   GroupValue_Read: "read",
 } as const;
 
-/** One readable line for a trace event, for verdicts, the CLI and JUnit reports. */
-export function describeTraceEvent(event: TraceEvent): string {
-  const at = formatDuration(event.timeUs).padStart(8);
+/** One readable line for a trace event (its time as h:mm:ss.mmm), for verdicts, the CLI and JUnit reports. */
+export function describeTraceEvent(event: TraceEvent, format: VirtualTimeFormat = {}): string {
+  const at = formatVirtualTime(event.timeUs, format);
   switch (event.kind) {
     case "telegram.queued":
     case "telegram.sent":

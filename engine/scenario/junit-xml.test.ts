@@ -106,9 +106,9 @@ describe("junitXml", () => {
     expect(verdict(4)).toEqual(["failure"]);
     const failure = cases[1]!.getElementsByTagName("failure")[0]!;
     expect(failure.getAttribute("message")).toBe(
-      '#1 expect-value 1/1/1 = true @1ms: fail; expected true, got false "off"',
+      '#1 expect-value 1/1/1 = true @0:00:00.001: fail; expected true, got false "off"',
     );
-    expect(failure.textContent).toContain("1ms user group.write 1/1/1: write true");
+    expect(failure.textContent).toContain("0:00:00.001 user group.write 1/1/1: write true");
     expect(cases[2]!.getElementsByTagName("error")[0]!.getAttribute("message")).toContain(
       "unknown device pb-9",
     );

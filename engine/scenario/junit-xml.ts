@@ -1,5 +1,6 @@
 import type { TraceEvent } from "../core/trace";
 import { describeTraceEvent } from "./describe-trace-event";
+import { formatVirtualTime } from "../core/virtual-time";
 import { formatDuration } from "./duration";
 import type { ScenarioResult, StepResult, SuiteResult } from "./scenario-result";
 
@@ -27,7 +28,7 @@ const seconds = (ms: number) => (Math.max(0, ms) / 1000).toFixed(3);
 
 /** One readable line for a step: "#3 expect-value status 1/1/1 = true: fail, expected ..., got ...". */
 export function describeStepResult(step: StepResult): string {
-  const at = `@${formatDuration(step.startUs)}`;
+  const at = `@${formatVirtualTime(step.startUs)}`;
   const head = `#${step.index} ${step.label} ${at}: ${step.status}`;
   if (step.status === "fail")
     return `${head}; expected ${step.expected ?? "?"}, got ${step.actual ?? "?"}`;

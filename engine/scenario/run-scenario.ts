@@ -4,7 +4,8 @@ import type { TraceEvent } from "../core/trace";
 import { getDpt, type DptCodec } from "../dpt";
 import { fromHex, telegramOccupancyUs, type GroupService } from "../frame";
 import { BenchLoadFailure, createSimulation, type Simulation } from "../sim";
-import { formatDuration, parseDuration } from "./duration";
+import { formatVirtualTime } from "../core/virtual-time";
+import { parseDuration } from "./duration";
 import {
   outcomeIsOk,
   scenarioOutcome,
@@ -415,7 +416,8 @@ function expectTelegramValue(
   const values = seen
     .slice(0, 3)
     .map(
-      (s) => `${formatValue(s.value, address.codec)} (${s.service} at ${formatDuration(s.timeUs)})`,
+      (s) =>
+        `${formatValue(s.value, address.codec)} (${s.service} at ${formatVirtualTime(s.timeUs)})`,
     );
   return fail(
     expectedText,
@@ -445,7 +447,7 @@ function expectState(run: ScenarioRun, step: Extract<Step, { kind: "expect-state
   if (valuesMatch(step.value, current.value, tolerance)) return pass(slice);
   return fail(
     expected,
-    `${step.path} is ${JSON.stringify(current.value)} at ${formatDuration(run.sim.nowUs)}`,
+    `${step.path} is ${JSON.stringify(current.value)} at ${formatVirtualTime(run.sim.nowUs)}`,
     slice,
   );
 }
@@ -530,7 +532,7 @@ function expectSilence(
   const from = first.kind === "telegram.sent" ? (first.deviceId ?? "the test tool") : "?";
   return fail(
     `no telegram to ${target} for ${step.for}`,
-    `${from} sent to ${first.kind === "telegram.sent" ? formatGroupAddress(first.destination) : "?"} at ${formatDuration(first.timeUs)}`,
+    `${from} sent to ${first.kind === "telegram.sent" ? formatGroupAddress(first.destination) : "?"} at ${formatVirtualTime(first.timeUs)}`,
     slice,
   );
 }
@@ -626,7 +628,7 @@ export function runScenario(
     } catch (cause) {
       if (!(cause instanceof BudgetExceeded)) throw cause;
       stopped = true;
-      settleMessage = `wall-clock budget of ${budgetMs} ms ran out while the bench settled (virtual time ${formatDuration(sim.nowUs)})`;
+      settleMessage = `wall-clock budget of ${budgetMs} ms ran out while the bench settled (virtual time ${formatVirtualTime(sim.nowUs)})`;
     }
     scenario.steps.forEach((step, index) => {
       const label = stepLabel(step);
@@ -649,7 +651,7 @@ export function runScenario(
       } catch (cause) {
         let message: string;
         if (cause instanceof BudgetExceeded) {
-          message = `wall-clock budget of ${budgetMs} ms ran out at virtual time ${formatDuration(sim.nowUs)}; the scenario was stopped`;
+          message = `wall-clock budget of ${budgetMs} ms ran out at virtual time ${formatVirtualTime(sim.nowUs)}; the scenario was stopped`;
         } else if (cause instanceof StepError) {
           message = `steps[${index}].${cause.message}`;
         } else throw cause;

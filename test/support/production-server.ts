@@ -7,6 +7,7 @@ import path from "node:path";
 import { fileURLToPath } from "node:url";
 import { openDatabase } from "../../db/client";
 import { seedDemoWorld } from "../../db/seed";
+import { seedDemoHistory } from "../../app/_lib/demo/seed-demo-history";
 
 /**
  * Serving the production build for tests and benchmarks (the browser tests'
@@ -118,6 +119,7 @@ export async function startProductionServer(
   const databaseUrl = path.join(dataDir, "app.db");
   const db = openDatabase(databaseUrl);
   seedDemoWorld(db);
+  await seedDemoHistory(db);
   db.$client.close();
 
   const port = await freePort();

@@ -3,10 +3,13 @@
 import Link from "next/link";
 import { useRouter } from "next/navigation";
 import { useState } from "react";
+import type { BenchOffers } from "@/app/_lib/bench-offers";
 import { BENCH_FORMAT, type Bench } from "@/engine/bench";
 import { Button } from "@/components/ui/button";
 import { StatusBadge } from "@/components/ui/status-badge";
 import { errorText, sendJson } from "../_shell/api-client";
+import { startPracticeCopy } from "../_shell/practice-copy";
+import { Timestamp } from "@/components/ui/timestamp";
 
 export interface BenchListItem {
   readonly id: string;
@@ -14,12 +17,8 @@ export interface BenchListItem {
   readonly description: string;
   readonly private: boolean;
   readonly updatedAt: string;
-  /** What the member may do with the bench, from the bench policy. */
-  readonly can?: {
-    readonly edit: boolean;
-    readonly delete: boolean;
-    readonly share: boolean;
-  };
+  /** What this member may do on this bench (app/_lib/bench-offers.ts). */
+  readonly offers: BenchOffers;
 }
 
 /** A new bench: one line, the test tool on it, nothing else yet. */
@@ -36,7 +35,7 @@ function emptyBench(name: string): Bench {
   };
 }
 
-/** The bench list with create, duplicate and delete (after confirmation). */
+/** The bench list with create, and per bench what the member may do: copy, duplicate, delete (after confirmation). */
 export function BenchList({
   benches,
   canEdit,
@@ -124,11 +123,25 @@ export function BenchList({
                   <p className="truncate text-sm text-ink-soft">{bench.description}</p>
                 ) : null}
                 <p className="text-xs text-ink-soft">
-                  updated {new Date(bench.updatedAt).toLocaleString("en-GB")}
+                  updated <Timestamp value={bench.updatedAt} relative />
                 </p>
               </div>
-              {canEdit ? (
-                <div className="flex gap-2">
+              <div className="flex gap-2">
+                {bench.offers.practiceCopy ? (
+                  <Button
+                    variant="secondary"
+                    disabled={busy}
+                    aria-label={`Practice copy of ${bench.name}`}
+                    onClick={() =>
+                      void run(async () => {
+                        router.push(`/benches/${await startPracticeCopy(bench)}`);
+                      })
+                    }
+                  >
+                    Practice copy
+                  </Button>
+                ) : null}
+                {bench.offers.duplicate ? (
                   <Button
                     variant="secondary"
                     disabled={busy}
@@ -141,32 +154,32 @@ export function BenchList({
                   >
                     Duplicate
                   </Button>
-                  {confirming === bench.id ? (
-                    <>
-                      <Button
-                        variant="danger"
-                        disabled={busy}
-                        onClick={() =>
-                          void run(async () => {
-                            await sendJson(`/api/benches/${bench.id}`, "DELETE");
-                            setConfirming(null);
-                            router.refresh();
-                          })
-                        }
-                      >
-                        Delete “{bench.name}”
-                      </Button>
-                      <Button variant="secondary" onClick={() => setConfirming(null)}>
-                        Keep
-                      </Button>
-                    </>
-                  ) : (
-                    <Button variant="secondary" onClick={() => setConfirming(bench.id)}>
-                      Delete
+                ) : null}
+                {!bench.offers.delete ? null : confirming === bench.id ? (
+                  <>
+                    <Button
+                      variant="danger"
+                      disabled={busy}
+                      onClick={() =>
+                        void run(async () => {
+                          await sendJson(`/api/benches/${bench.id}`, "DELETE");
+                          setConfirming(null);
+                          router.refresh();
+                        })
+                      }
+                    >
+                      Delete “{bench.name}”
                     </Button>
-                  )}
-                </div>
-              ) : null}
+                    <Button variant="secondary" onClick={() => setConfirming(null)}>
+                      Keep
+                    </Button>
+                  </>
+                ) : (
+                  <Button variant="secondary" onClick={() => setConfirming(bench.id)}>
+                    Delete
+                  </Button>
+                )}
+              </div>
             </li>
           ))}
         </ul>

@@ -1,4 +1,5 @@
 import type { Metadata } from "next";
+import { benchOffersFor } from "@/app/_lib/bench-offers";
 import { can } from "@/app/_lib/capabilities";
 import { requireCapability } from "@/app/_lib/dal";
 import { benchCan, listReadableBenches } from "@/app/_lib/policy/bench";
@@ -16,8 +17,7 @@ export default async function BenchesPage() {
     description: bench.description,
     private: bench.privateOwnerId !== null,
     updatedAt: bench.updatedAt.toISOString(),
-    // What the bench policy lets this member do with it; the list offers only these.
-    can: benchCan(session, bench),
+    offers: benchOffersFor(session, bench),
   }));
   return (
     <div className="mx-auto flex max-w-5xl flex-col gap-6 px-6 py-8 md:px-10">

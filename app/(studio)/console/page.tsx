@@ -1,20 +1,30 @@
 import type { Metadata } from "next";
 import Link from "next/link";
+import { benchOffersFor } from "@/app/_lib/bench-offers";
 import { requireCapability } from "@/app/_lib/dal";
 import { benchCan, listReadableBenches } from "@/app/_lib/policy/bench";
 import { SimulatorCaution } from "@/components/console/simulator-caution";
 import { PageHeader } from "@/components/ui/page-header";
 import { StatusBadge } from "@/components/ui/status-badge";
+import { PracticeCopyButton } from "./practice-copy-button";
 
 export const metadata: Metadata = { title: "Live console" };
 
 /**
  * Pick a bench to run live. Apprentices hold the live console only on their
- * own copies (assigned lab benches and sandboxes), so they see only those.
+ * own copies (assigned lab benches and practice copies), so they see those,
+ * and the shared benches they may copy in one click to practise on.
  */
 export default async function ConsolePage() {
   const session = await requireCapability("console.use");
-  const benches = listReadableBenches(session).filter((bench) => benchCan(session, bench).run);
+  const visible = listReadableBenches(session).map((bench) => ({
+    bench,
+    offers: benchOffersFor(session, bench),
+  }));
+  const benches = visible.filter(({ offers }) => offers.live).map(({ bench }) => bench);
+  const copyable = visible
+    .filter(({ offers }) => !offers.live && offers.practiceCopy)
+    .map(({ bench }) => bench);
   return (
     <div className="mx-auto flex max-w-5xl flex-col gap-6 px-6 py-8 md:px-10">
       <PageHeader
@@ -24,7 +34,7 @@ export default async function ConsolePage() {
       {benches.length === 0 ? (
         <p className="text-sm text-ink-soft">
           {session.scope === "own"
-            ? "No lab or sandbox bench of yours yet. Open an assigned lab first."
+            ? "No lab or practice bench of yours yet. Open an assigned lab, or start a practice copy below."
             : "No benches in this workspace yet."}
         </p>
       ) : (
@@ -58,6 +68,33 @@ export default async function ConsolePage() {
           ))}
         </ul>
       )}
+      {copyable.length > 0 ? (
+        <section aria-labelledby="practice-heading" className="flex flex-col gap-2">
+          <h2 id="practice-heading" className="font-medium">
+            Practise on a shared bench
+          </h2>
+          <p className="text-sm text-ink-soft">
+            A practice copy is yours alone: change it, break it and run it live without touching the
+            shared bench.
+          </p>
+          <ul className="flex flex-col gap-2" aria-label="Shared benches to practise on">
+            {copyable.map((bench) => (
+              <li
+                key={bench.id}
+                className="flex flex-wrap items-center justify-between gap-3 rounded-lg border border-paper-line bg-paper p-4"
+              >
+                <div className="min-w-0">
+                  <div className="font-medium">{bench.name}</div>
+                  {bench.description ? (
+                    <div className="text-sm text-ink-soft">{bench.description}</div>
+                  ) : null}
+                </div>
+                <PracticeCopyButton bench={{ id: bench.id, name: bench.name }} />
+              </li>
+            ))}
+          </ul>
+        </section>
+      ) : null}
       <SimulatorCaution />
     </div>
   );

@@ -7,6 +7,7 @@ import { Button } from "@/components/ui/button";
 import { Panel } from "@/components/ui/panel";
 import { StatusBadge, type StatusTone } from "@/components/ui/status-badge";
 import { errorText, getJson, sendJson } from "../_shell/api-client";
+import { Timestamp } from "@/components/ui/timestamp";
 
 interface InvitationRow {
   readonly id: string;
@@ -142,7 +143,9 @@ export function InvitationsPanel({ roles }: { roles: readonly Role[] }) {
                   <StatusBadge tone={stateTone[invitation.state]}>{invitation.state}</StatusBadge>
                 </td>
                 <td className="px-3 py-2">{invitation.invitedByName}</td>
-                <td className="px-3 py-2">{invitation.expiresAt.slice(0, 10)}</td>
+                <td className="px-3 py-2">
+                  <Timestamp value={invitation.expiresAt} relative />
+                </td>
                 <td className="flex gap-2 px-3 py-2">
                   {invitation.state === "open" || invitation.state === "expired" ? (
                     <Button

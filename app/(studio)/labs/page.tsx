@@ -11,6 +11,7 @@ import { type LabBenchChoice, NewLabForm } from "@/components/labs/new-lab-form"
 import { VerdictBadge } from "@/components/runs/verdict-badge";
 import { PageHeader } from "@/components/ui/page-header";
 import { Panel } from "@/components/ui/panel";
+import { Timestamp } from "@/components/ui/timestamp";
 
 export const metadata: Metadata = { title: "Labs" };
 
@@ -88,9 +89,13 @@ export default async function LabsPage() {
                   </Link>
                   {/* The bench the lab was made from is not named to apprentices. */}
                   <span className="block text-sm text-ink-soft">
-                    {assignment.dueAt
-                      ? `due ${assignment.dueAt.toISOString().slice(0, 10)}`
-                      : "no due date"}
+                    {assignment.dueAt ? (
+                      <>
+                        due <Timestamp value={assignment.dueAt} dateOnly relative />
+                      </>
+                    ) : (
+                      "no due date"
+                    )}
                   </span>
                 </span>
                 {last ? (

@@ -5,6 +5,7 @@ import { listWorkspaceMail } from "@/db/queries/email-outbox";
 import { Mono } from "@/components/ui/mono";
 import { PageHeader } from "@/components/ui/page-header";
 import { StatusBadge } from "@/components/ui/status-badge";
+import { Timestamp } from "@/components/ui/timestamp";
 
 export const metadata: Metadata = { title: "Outbox" };
 
@@ -41,7 +42,7 @@ export default async function OutboxPage() {
                   <div className="font-medium">{mail.subject}</div>
                   <div className="text-sm text-ink-soft">
                     to <Mono>{mail.toAddress}</Mono> · {mail.purpose} ·{" "}
-                    {mail.createdAt.toISOString().slice(0, 16).replace("T", " ")} UTC
+                    <Timestamp value={mail.createdAt} relative />
                   </div>
                 </div>
                 <StatusBadge

@@ -10,6 +10,7 @@ import type { RunHistoryItem } from "@/components/runs/run-history-types";
 import { VerdictBadge } from "@/components/runs/verdict-badge";
 import { PageHeader } from "@/components/ui/page-header";
 import { Panel } from "@/components/ui/panel";
+import { Timestamp } from "@/components/ui/timestamp";
 
 export const metadata: Metadata = { title: "Runs" };
 
@@ -87,7 +88,7 @@ export default async function RunsPage() {
                 <span className="text-ink-soft">
                   {suiteRun.scenariosOk}/{suiteRun.scenariosTotal} ok,{" "}
                   {startedByName ?? "former member"},{" "}
-                  {suiteRun.createdAt.toISOString().slice(0, 16).replace("T", " ")}
+                  <Timestamp value={suiteRun.createdAt} relative />
                 </span>
               </li>
             ))}

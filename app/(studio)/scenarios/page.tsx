@@ -10,6 +10,7 @@ import { RunButton } from "@/components/runs/run-button";
 import { VerdictBadge } from "@/components/runs/verdict-badge";
 import { PageHeader } from "@/components/ui/page-header";
 import { Panel } from "@/components/ui/panel";
+import { Timestamp } from "@/components/ui/timestamp";
 
 export const metadata: Metadata = { title: "Scenarios" };
 
@@ -117,7 +118,7 @@ export default async function ScenariosPage() {
                                 href={`/runs/${last.id}`}
                                 className="text-xs text-ink-soft underline"
                               >
-                                {last.createdAt.toISOString().slice(0, 16).replace("T", " ")}
+                                <Timestamp value={last.createdAt} relative />
                               </Link>
                             </span>
                           ) : (

@@ -17,6 +17,7 @@ import { loadAssignment, loadGradingScenario, loadLabBench } from "../policy/lab
 import { resolveApprentices } from "../policy/member";
 import { startScenarioRun } from "../runs/run-service";
 import { applyHiddenFaults, type HiddenFault, parseHiddenFaults } from "./hidden-faults";
+import { formatDate } from "@/components/ui/format-date";
 
 type Who = Pick<VerifiedSession, "userId" | "workspaceId" | "role" | "name">;
 
@@ -77,9 +78,7 @@ export async function assignLab(
     });
     for (const row of rows) {
       const apprentice = apprentices.find((a) => a.id === row.apprenticeId)!;
-      const due = input.dueAt
-        ? `It is due on ${input.dueAt.toISOString().slice(0, 10)}.`
-        : "It has no due date.";
+      const due = input.dueAt ? `It is due on ${formatDate(input.dueAt)}.` : "It has no due date.";
       queueMail(
         {
           audience: "workspace",

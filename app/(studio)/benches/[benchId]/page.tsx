@@ -1,8 +1,9 @@
 import type { Metadata } from "next";
 import { notFound } from "next/navigation";
+import { benchOffersFor } from "@/app/_lib/bench-offers";
 import { can } from "@/app/_lib/capabilities";
 import { requireCapability } from "@/app/_lib/dal";
-import { benchCan, loadBench } from "@/app/_lib/policy/bench";
+import { loadBench } from "@/app/_lib/policy/bench";
 import { orNotFound } from "@/app/_lib/policy/for-page";
 import { findReadableFloorPlan } from "@/app/_lib/policy/upload";
 import { benchSchema } from "@/engine/bench";
@@ -20,11 +21,11 @@ export default async function BenchEditorPage({
   const { benchId } = await params;
   const session = await requireCapability("benches.read");
   const bench = orNotFound(() => loadBench(session, benchId));
-  const allowed = benchCan(session, bench);
   const revision = latestRevision({ benchId: bench.id });
   if (!revision) notFound();
   // Stored documents were checked on the way in; parse again so the editor gets the defaults filled.
   const document = benchSchema.parse(JSON.parse(revision.document));
+  const offers = benchOffersFor(session, bench);
   const plan = findReadableFloorPlan(session, bench);
   return (
     <EditorPage
@@ -35,9 +36,9 @@ export default async function BenchEditorPage({
         summary: revision.summary,
         createdAt: revision.createdAt.toISOString(),
       }}
-      canEdit={allowed.edit}
+      canEdit={offers.edit}
       links={{
-        live: allowed.run ? `/benches/${bench.id}/live` : null,
+        live: offers.live ? `/benches/${bench.id}/live` : null,
         // Scenarios are listed per bench on one page; there is no page per bench.
         scenarios: can(session.role, "scenarios.read") ? "/scenarios" : null,
       }}

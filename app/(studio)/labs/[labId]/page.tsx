@@ -12,6 +12,7 @@ import { AttemptChecks } from "@/components/labs/attempt-checks";
 import { VerdictBadge } from "@/components/runs/verdict-badge";
 import { PageHeader } from "@/components/ui/page-header";
 import { Panel } from "@/components/ui/panel";
+import { Timestamp } from "@/components/ui/timestamp";
 
 export const metadata: Metadata = { title: "Lab" };
 
@@ -88,9 +89,11 @@ export default async function LabPage({ params }: { params: Promise<{ labId: str
                       {apprenticeName}
                     </Link>{" "}
                     <span className="text-ink-soft">
-                      {assignment.dueAt
-                        ? `due ${assignment.dueAt.toISOString().slice(0, 10)}, `
-                        : ""}
+                      {assignment.dueAt ? (
+                        <>
+                          due <Timestamp value={assignment.dueAt} dateOnly relative />,{" "}
+                        </>
+                      ) : null}
                       {own.length} attempt{own.length === 1 ? "" : "s"}
                     </span>
                   </p>
@@ -103,8 +106,8 @@ export default async function LabPage({ params }: { params: Promise<{ labId: str
                       >
                         <span className="flex flex-wrap items-center gap-2 text-sm">
                           <VerdictBadge verdict={a.runVerdict} status={a.runStatus ?? undefined} />
-                          {a.attempt.submittedAt.toISOString().slice(0, 16).replace("T", " ")},
-                          revision {a.revisionNumber}
+                          <Timestamp value={a.attempt.submittedAt} relative />, revision{" "}
+                          {a.revisionNumber}
                           {a.attempt.runId ? (
                             <Link
                               href={`/runs/${a.attempt.runId}`}

@@ -10,6 +10,7 @@ import { ScenarioEditor } from "@/components/scenario-editor/scenario-editor";
 import { PageHeader } from "@/components/ui/page-header";
 import { Panel } from "@/components/ui/panel";
 import { editorBench } from "../bench-facts";
+import { Timestamp } from "@/components/ui/timestamp";
 
 export const metadata: Metadata = { title: "Scenario" };
 
@@ -64,7 +65,7 @@ export default async function ScenarioPage({
               <li key={run.id} className="flex flex-wrap items-center gap-3">
                 <VerdictBadge verdict={run.verdict} status={run.status} />
                 <Link href={`/runs/${run.id}`} className="text-copper-deep underline">
-                  {run.createdAt.toISOString().slice(0, 16).replace("T", " ")}
+                  <Timestamp value={run.createdAt} relative />
                 </Link>
                 <span className="text-ink-soft">
                   rev. {run.revisionNumber}, seed {run.seed}, {run.startedByName ?? "former member"}

@@ -13,6 +13,7 @@ import { RefreshWhenFinished } from "@/components/runs/refresh-when-finished";
 import { VerdictBadge } from "@/components/runs/verdict-badge";
 import { PageHeader } from "@/components/ui/page-header";
 import { Panel } from "@/components/ui/panel";
+import { Timestamp } from "@/components/ui/timestamp";
 
 export const metadata: Metadata = { title: "Lab assignment" };
 
@@ -51,8 +52,12 @@ export default async function AssignmentPage({
             {isApprentice ? "Your lab" : `${found.apprenticeName}'s lab`}
             {/* The lab's source bench is named only to those who manage labs. */}
             {found.benchName ? ` on ${found.benchName}` : bench ? ` on ${bench.name}` : ""}
-            {assignment.dueAt ? `, due ${assignment.dueAt.toISOString().slice(0, 10)}` : ""}. Graded
-            by “{found.gradingScenarioName}”.
+            {assignment.dueAt ? (
+              <>
+                , due <Timestamp value={assignment.dueAt} dateOnly relative />
+              </>
+            ) : null}
+            . Graded by “{found.gradingScenarioName}”.
           </>
         }
         actions={
@@ -90,7 +95,7 @@ export default async function AssignmentPage({
                     <span className="font-medium">Attempt {attempts.length - index}</span>
                     <VerdictBadge verdict={a.runVerdict} status={a.runStatus ?? undefined} />
                     <span className="text-ink-soft">
-                      {a.attempt.submittedAt.toISOString().slice(0, 16).replace("T", " ")}, revision{" "}
+                      <Timestamp value={a.attempt.submittedAt} relative />, revision{" "}
                       {a.revisionNumber}
                       {a.runStatus === "finished"
                         ? `, ${a.stepsPassed} of ${a.stepsTotal} steps passed`
