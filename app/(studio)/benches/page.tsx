@@ -2,7 +2,7 @@ import type { Metadata } from "next";
 import { benchOffersFor } from "@/app/_lib/bench-offers";
 import { can } from "@/app/_lib/capabilities";
 import { requireCapability } from "@/app/_lib/dal";
-import { benchCan, listReadableBenches } from "@/app/_lib/policy/bench";
+import { listReadableBenches } from "@/app/_lib/policy/bench";
 import { PageHeader } from "@/components/ui/page-header";
 import { BenchList, type BenchListItem } from "./bench-list";
 

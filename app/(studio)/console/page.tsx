@@ -2,7 +2,7 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { benchOffersFor } from "@/app/_lib/bench-offers";
 import { requireCapability } from "@/app/_lib/dal";
-import { benchCan, listReadableBenches } from "@/app/_lib/policy/bench";
+import { listReadableBenches } from "@/app/_lib/policy/bench";
 import { SimulatorCaution } from "@/components/console/simulator-caution";
 import { PageHeader } from "@/components/ui/page-header";
 import { StatusBadge } from "@/components/ui/status-badge";
