@@ -1,5 +1,6 @@
 import { randomBytes } from "node:crypto";
 import { existsSync, mkdirSync, readFileSync, writeFileSync } from "node:fs";
+import { isIP } from "node:net";
 import path from "node:path";
 
 /**
@@ -18,6 +19,7 @@ import path from "node:path";
  * | PASSWORD_HASH_COST      | bcrypt cost for new hashes                             | 12 (production never goes below 12)                |
  * | SMTP_URL / MAIL_FROM    | nodemailer SMTP transport / sender address             | none: mail is stored in the outbox table           |
  * | BENCHLINE_DEMO          | "true": the local demo (`npm run demo`) over plain http | off                                                |
+ * | TRUSTED_PROXY           | comma-separated IP addresses of the reverse proxies in front of Benchline; only then are X-Forwarded-For/-Host/-Proto believed | none: those headers are ignored |
  *
  * The demo serves a production build on http://localhost:3000 for one person
  * trying Benchline; with BENCHLINE_DEMO=true the production-only requirements
@@ -154,4 +156,24 @@ export function passwordHashCost(): number {
     throw new ConfigError("PASSWORD_HASH_COST must be a whole number from 4 to 16.");
   }
   return isProduction() ? Math.max(value, productionPasswordHashCost) : value;
+}
+
+/**
+ * The reverse proxies whose X-Forwarded-* headers are believed (TRUSTED_PROXY,
+ * comma-separated IP addresses). Empty: Benchline is reached directly and
+ * ignores those headers, since any client can send them. Set it only when
+ * Benchline can be reached through these proxies alone.
+ */
+export function trustedProxies(): readonly string[] {
+  const value = process.env.TRUSTED_PROXY?.trim() ?? "";
+  if (value === "") return [];
+  const addresses = value.split(",").map((part) => part.trim());
+  for (const address of addresses) {
+    if (isIP(address) === 0) {
+      throw new ConfigError(
+        `TRUSTED_PROXY lists "${address}", which is not an IP address; give the proxies' addresses separated by commas, e.g. TRUSTED_PROXY=127.0.0.1,10.0.0.5.`,
+      );
+    }
+  }
+  return addresses;
 }

@@ -1,12 +1,13 @@
 import { can } from "@/app/_lib/capabilities";
 import { authorize, verifyApiSession } from "@/app/_lib/dal";
 import { AppError } from "@/app/_lib/errors";
+import { checkedName } from "@/app/_lib/names";
 import { documentBodyLimitBytes, json, readJson, readQuery, route } from "@/app/_lib/http";
 import { checkedScenarioDocument, loadVisibleBench } from "@/app/_lib/resources";
 import { listVisibleBenches } from "@/db/queries/bench-history";
 import { createScenario, listScenarios } from "@/db/queries/scenarios";
 import { scenarioJson } from "./scenario-json";
-import { createScenarioBodySchema, listScenariosQuerySchema } from "./schema";
+import { createScenarioBodySchema, listScenariosQuerySchema, scenarioNameSchema } from "./schema";
 
 /** Scenarios of the workspace on benches the member may see. */
 export const GET = route(async (request) => {
@@ -30,11 +31,11 @@ export const GET = route(async (request) => {
 
 /** Create a scenario; an apprentice only on their own sandbox bench. */
 export const POST = route(async (request) => {
+  const session = await verifyApiSession(request);
+  const scope = authorize(session, "scenarios.edit");
   const body = await readJson(request, createScenarioBodySchema, {
     limitBytes: documentBodyLimitBytes,
   });
-  const session = await verifyApiSession(request);
-  const scope = authorize(session, "scenarios.edit");
   const bench = loadVisibleBench(session, body.benchId);
   if (scope === "own" && bench.privateOwnerId !== session.userId) {
     throw new AppError(
@@ -48,7 +49,7 @@ export const POST = route(async (request) => {
     values: {
       workspaceId: session.workspaceId,
       benchId: bench.id,
-      name: body.name ?? document.name,
+      name: body.name ?? checkedName(scenarioNameSchema, document.name, ["document", "name"]),
       document: document.text,
       createdBy: session.userId,
     },

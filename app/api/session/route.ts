@@ -1,4 +1,5 @@
-import { clientAddressOf, signInWithPassword } from "@/app/_lib/auth";
+import { signInWithPassword } from "@/app/_lib/auth";
+import { clientAddressOf } from "@/app/_lib/client-address";
 import { resolveSession, verifyApiSession } from "@/app/_lib/dal";
 import { AppError } from "@/app/_lib/errors";
 import { json, readJson, route } from "@/app/_lib/http";

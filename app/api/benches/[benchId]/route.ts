@@ -28,12 +28,12 @@ export const GET = route(async (request, context: Params) => {
 /** Rename and/or save a new revision (the history keeps every earlier one). */
 export const PATCH = route(async (request, context: Params) => {
   const benchId = await benchIdOf(context);
-  const body = await readJson(request, updateBenchBodySchema, {
-    limitBytes: documentBodyLimitBytes,
-  });
   const session = await verifyApiSession(request);
   const bench = loadVisibleBench(session, benchId);
   authorizeOn(session, "benches.edit", bench.privateOwnerId);
+  const body = await readJson(request, updateBenchBodySchema, {
+    limitBytes: documentBodyLimitBytes,
+  });
   const document = body.document === undefined ? null : checkedBenchDocument(body.document);
   if (body.baseRevision !== undefined) {
     const latest = latestRevision({ benchId: bench.id });

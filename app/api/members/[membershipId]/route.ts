@@ -23,9 +23,9 @@ async function membershipIdOf(context: Params) {
 /** Change a member's role. The role is read from the database on each request, so it applies at once. */
 export const PATCH = route(async (request, context: Params) => {
   const membershipId = await membershipIdOf(context);
-  const body = await readJson(request, changeRoleBodySchema);
   const session = await verifyApiSession(request);
   authorize(session, "members.manage");
+  const body = await readJson(request, changeRoleBodySchema);
   const membership = findMembershipById({ membershipId, workspaceId: session.workspaceId });
   if (!membership) throw new AppError("not_found", "no such member");
   if (

@@ -28,12 +28,12 @@ export const GET = route(async (request, context: Params) => {
 
 export const PATCH = route(async (request, context: Params) => {
   const scenarioId = await scenarioIdOf(context);
-  const body = await readJson(request, updateScenarioBodySchema, {
-    limitBytes: documentBodyLimitBytes,
-  });
   const session = await verifyApiSession(request);
   const scenario = loadVisibleScenario(session, scenarioId);
   authorizeOn(session, "scenarios.edit", scenario.createdBy);
+  const body = await readJson(request, updateScenarioBodySchema, {
+    limitBytes: documentBodyLimitBytes,
+  });
   const document = body.document === undefined ? null : checkedScenarioDocument(body.document);
   const updated = updateScenario({
     workspaceId: session.workspaceId,

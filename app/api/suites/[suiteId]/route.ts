@@ -23,10 +23,10 @@ export const GET = route(async (request, context: Params) => {
 
 export const PATCH = route(async (request, context: Params) => {
   const suiteId = await suiteIdOf(context);
-  const body = await readJson(request, updateSuiteBodySchema);
   const session = await verifyApiSession(request);
   const suite = loadSuite(session, suiteId);
   authorize(session, "suites.edit");
+  const body = await readJson(request, updateSuiteBodySchema);
   if (body.scenarioIds) checkSuiteScenarios(session.workspaceId, body.scenarioIds);
   const updated = updateSuite({
     workspaceId: session.workspaceId,

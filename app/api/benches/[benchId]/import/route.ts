@@ -1,6 +1,8 @@
 import { authorizeOn, verifyApiSession } from "@/app/_lib/dal";
 import { AppError } from "@/app/_lib/errors";
 import { documentBodyLimitBytes, json, readJson, route, type RouteParams } from "@/app/_lib/http";
+import { checkedName } from "@/app/_lib/names";
+import { scenarioNameSchema } from "@/app/api/scenarios/schema";
 import {
   checkedBenchDocument,
   checkedScenarioDocument,
@@ -17,9 +19,9 @@ type Params = RouteParams<{ benchId: string }>;
 export const POST = route(async (request, context: Params) => {
   const parsed = resourceIdSchema.safeParse((await context.params).benchId);
   if (!parsed.success) throw new AppError("not_found", "no such bench");
-  const body = await readJson(request, importBodySchema, { limitBytes: documentBodyLimitBytes });
   const session = await verifyApiSession(request);
   const bench = loadVisibleBench(session, parsed.data);
+  const body = await readJson(request, importBodySchema, { limitBytes: documentBodyLimitBytes });
   if (body.kind === "bench") {
     authorizeOn(session, "benches.edit", bench.privateOwnerId);
     const document = checkedBenchDocument(body.document);
@@ -40,7 +42,7 @@ export const POST = route(async (request, context: Params) => {
     values: {
       workspaceId: session.workspaceId,
       benchId: bench.id,
-      name: document.name,
+      name: checkedName(scenarioNameSchema, document.name, ["document", "name"]),
       document: document.text,
       createdBy: session.userId,
     },
