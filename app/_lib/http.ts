@@ -193,8 +193,29 @@ export function json(data: unknown, init: { status?: number; headers?: HeadersIn
 }
 
 /**
- * Wrap a route handler: the Origin check runs first for non-GET methods, and
- * anything thrown is answered through the one error mapper.
+ * The policy of every API response: data, never a document, so opened in a
+ * tab it runs and loads nothing. A route that serves a file sets its own
+ * (the floor plan); next.config.ts gives Next's own /api answers the same.
+ */
+export const apiContentSecurityPolicy = "default-src 'none'; sandbox";
+
+function withApiPolicy(response: Response): Response {
+  if (response.headers.has("content-security-policy")) return response;
+  try {
+    response.headers.set("Content-Security-Policy", apiContentSecurityPolicy);
+    return response;
+  } catch {
+    // Immutable headers (a redirect): copy into a response we may change.
+    const headers = new Headers(response.headers);
+    headers.set("Content-Security-Policy", apiContentSecurityPolicy);
+    return new Response(response.body, { status: response.status, headers });
+  }
+}
+
+/**
+ * Wrap a route handler: the Origin check runs first for non-GET methods,
+ * anything thrown is answered through the one error mapper, and every answer
+ * carries the API's Content-Security-Policy unless the route set its own.
  */
 export function route<Context>(
   handler: (request: Request, context: Context) => Promise<Response> | Response,
@@ -202,9 +223,9 @@ export function route<Context>(
   return async (request, context) => {
     try {
       checkOrigin(request);
-      return await handler(request, context);
+      return withApiPolicy(await handler(request, context));
     } catch (error) {
-      return errorResponse(error);
+      return withApiPolicy(errorResponse(error));
     }
   };
 }
