@@ -1,7 +1,7 @@
 import type { z } from "zod";
 import { reachedOriginOf } from "./client-address";
 import { AppError, errorResponse, validationError } from "./errors";
-import { maxJsonDepth, tooDeeplyNestedAt } from "./json-depth";
+import { jsonShapeProblem } from "./json-shape";
 
 /**
  * Guards every JSON route handler goes through: an Origin check for anything
@@ -144,7 +144,7 @@ export async function readBodyText(request: Request, limitBytes: number): Promis
 
 /**
  * Parse a JSON request body with a (strict) zod schema: content type and
- * charset, size, nesting depth, JSON syntax, then shape. Every failure is a
+ * charset, size, nesting depth and duplicate keys, JSON syntax, then shape. Every failure is a
  * 4xx AppError naming the field. Call it after the session and role checks.
  */
 export async function readJson<S extends z.ZodType>(
@@ -156,12 +156,8 @@ export async function readJson<S extends z.ZodType>(
   const text = await readBodyText(request, options.limitBytes ?? defaultBodyLimitBytes);
   // Checked on the text, before anything recursive (JSON.parse, zod, the
   // engine's loaders) walks the value.
-  const tooDeep = tooDeeplyNestedAt(text);
-  if (tooDeep !== null) {
-    throw new AppError("invalid_input", `${tooDeep}: nested deeper than ${maxJsonDepth} levels`, {
-      field: tooDeep,
-    });
-  }
+  const shape = jsonShapeProblem(text);
+  if (shape) throw new AppError("invalid_input", shape.message, { field: shape.field });
   let data: unknown;
   try {
     data = JSON.parse(text);

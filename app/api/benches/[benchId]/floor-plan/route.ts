@@ -107,7 +107,7 @@ export const PUT = route(async (request, context: Params) => {
     } catch {
       throw new AppError("invalid_input", "the SVG is not valid UTF-8 text", { field: "file" });
     }
-    const sanitized = sanitizeSvg(text);
+    const sanitized = await sanitizeSvg(text);
     if ("refused" in sanitized)
       throw new AppError("invalid_input", `file: ${sanitized.refused}`, { field: "file" });
     content = Buffer.from(sanitized.svg, "utf8");

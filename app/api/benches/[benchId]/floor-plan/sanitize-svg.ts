@@ -1,5 +1,4 @@
-import createDOMPurify, { type DOMPurify } from "dompurify";
-import { JSDOM } from "jsdom";
+import type { DOMPurify } from "dompurify";
 
 /**
  * Makes an uploaded SVG floor plan inert before it is stored. The file is
@@ -39,11 +38,19 @@ const forbiddenTags = [
   "discard",
 ];
 
-let purifier: { purify: DOMPurify; window: JSDOM["window"] } | undefined;
+let purifier: { purify: DOMPurify; window: Window & typeof globalThis } | undefined;
 
-/** One jsdom window and DOMPurify instance per process: building a window costs far more than a file. */
-function instance() {
+/**
+ * One jsdom window and DOMPurify instance per process: building a window costs
+ * far more than a file. Loaded on the first upload, not when the route module
+ * is, since jsdom takes a second or two to load.
+ */
+async function instance() {
   if (purifier) return purifier;
+  const [{ JSDOM }, { default: createDOMPurify }] = await Promise.all([
+    import("jsdom"),
+    import("dompurify"),
+  ]);
   const window = new JSDOM("").window;
   const purify = createDOMPurify(window);
   purify.addHook("uponSanitizeAttribute", (_node, event) => {
@@ -143,14 +150,14 @@ function describeRemoval(entry: { element?: Node; attribute?: Attr | null }): st
 }
 
 /** The cleaned SVG, or why the file is refused. */
-export function sanitizeSvg(text: string): SanitizedSvg | SvgRefusal {
+export async function sanitizeSvg(text: string): Promise<SanitizedSvg | SvgRefusal> {
   // An entity declared in the file can be referenced a million times, each
   // reference copying its whole text: refused before parsing. (Character
   // references like &#106; and the five built-in entities are fine.)
   if (text.includes("<!ENTITY")) {
     return { refused: "the file declares XML entities; save the SVG without a DOCTYPE" };
   }
-  const { purify, window } = instance();
+  const { purify, window } = await instance();
   const parsed = new window.DOMParser().parseFromString(text, "image/svg+xml");
   const root = parsed.documentElement;
   if (
