@@ -39,14 +39,19 @@ afterAll(() => destroyWorld(world));
 
 /**
  * A chunked body (no Content-Length) that counts what the server pulls from
- * it; `endless` never ends, as a client trickling gigabytes would.
+ * it: 48 chunks, more than any route's limit. (Bounded so that a server that
+ * does read it all, as before the fix, ends the test instead of looping.)
  */
-function countingBody(chunkBytes: number, fill = 0x20) {
+function countingBody(chunkBytes: number, fill = 0x20, chunks = 48) {
   const counter = { pulls: 0, bytes: 0 };
   // highWaterMark 0: the stream produces a chunk only when the reader asks.
   const stream = new ReadableStream<Uint8Array>(
     {
       pull(controller) {
+        if (counter.pulls === chunks) {
+          controller.close();
+          return;
+        }
         counter.pulls += 1;
         counter.bytes += chunkBytes;
         controller.enqueue(new Uint8Array(chunkBytes).fill(fill));
@@ -135,7 +140,7 @@ describe("one size-limited reader stops at the route's limit, chunked or not (de
   const floorPlanLimit = 2 * 1024 * 1024;
   const chunk = 64 * 1024;
 
-  it("an engineer's endless chunked floor plan: 413 after at most the limit and one chunk", async () => {
+  it("an engineer's 3 MiB chunked floor plan: 413 after at most the limit and one chunk", async () => {
     const { PUT } = await import("@/app/api/benches/[benchId]/floor-plan/route");
     const { stream, counter } = countingBody(chunk);
     const cookie = await cookieFor(world.users.engineer.userId, world.a.workspaceId);
@@ -154,7 +159,7 @@ describe("one size-limited reader stops at the route's limit, chunked or not (de
     expect(databaseSnapshot() === before).toBe(true);
   });
 
-  it("an endless chunked JSON body: 413 after at most the limit and one chunk", async () => {
+  it("a 3 MiB chunked JSON body: 413 after at most the limit and one chunk", async () => {
     const { POST } = await import("@/app/api/suites/route");
     const { stream, counter } = countingBody(chunk);
     const cookie = await cookieFor(world.users.admin.userId, world.a.workspaceId);
