@@ -153,16 +153,16 @@ describe("stored SVG floor plans in headless Chromium", () => {
 
       // Opened directly in a tab, where a document's own scripts would run.
       const served = await admin.goto(`${baseURL}${floorPlan.url}`);
+      await admin.mouse.move(50, 50);
+      await admin.mouse.click(50, 50);
+      await admin.waitForLoadState("networkidle");
+      expect(await ranIn(admin)).toBeNull();
       const headers = served!.headers();
       expect(headers["content-security-policy"]).toBe(
         "default-src 'none'; style-src 'unsafe-inline'; sandbox",
       );
       expect(headers["content-disposition"]).toMatch(/^inline; filename="floor-plan\.svg"$/);
       expect(headers["x-content-type-options"]).toBe("nosniff");
-      await admin.mouse.move(50, 50);
-      await admin.mouse.click(50, 50);
-      await admin.waitForLoadState("networkidle");
-      expect(await ranIn(admin)).toBeNull();
 
       // Drawn in the bench editor.
       await admin.goto(`${baseURL}/benches/${benchId}`);
