@@ -100,25 +100,6 @@ function absentAccountHash(): string {
 }
 
 /**
- * The address a sign-in came from, for rate limiting: the right-most
- * X-Forwarded-For entry, which the nearest proxy (or Next itself, from the
- * socket, when there is no proxy) appended. Behind no proxy a client can forge
- * this header; the per-account limit still holds then.
- */
-export function clientAddressOf(request: Request): string | null {
-  const forwarded = request.headers.get("x-forwarded-for");
-  if (forwarded) {
-    const parts = forwarded
-      .split(",")
-      .map((part) => part.trim())
-      .filter(Boolean);
-    const last = parts.at(-1);
-    if (last) return last.slice(0, 64);
-  }
-  return request.headers.get("x-real-ip")?.trim().slice(0, 64) || null;
-}
-
-/**
  * Check an e-mail and password and open a session payload in the user's first
  * workspace (by name). Every failure is the same 401 message; limits give 429.
  */

@@ -1,5 +1,6 @@
 import { randomBytes } from "node:crypto";
 import { existsSync, mkdirSync, readFileSync, writeFileSync } from "node:fs";
+import { isIP } from "node:net";
 import path from "node:path";
 
 /**
@@ -22,6 +23,7 @@ import path from "node:path";
  * | RUN_LIMIT_PER_WORKSPACE | the same, for everyone in one workspace together       | 12                                                 |
  * | RUN_WALL_TIME_CAP_SECONDS | wall-clock seconds one scenario may run on the server | 20                                                |
  * | RUN_VIRTUAL_TIME_CAP_MINUTES | virtual minutes one scenario may cover at worst   | 360 (6 h)                                          |
+ * | TRUSTED_PROXY           | comma-separated IP addresses of the reverse proxies in front of Benchline; only then are X-Forwarded-For/-Host/-Proto believed | none: those headers are ignored |
  *
  * The demo serves a production build on http://localhost:3000 for one person
  * trying Benchline; with BENCHLINE_DEMO=true the production-only requirements
@@ -196,4 +198,24 @@ export function runLimits(): RunLimits {
     wallTimeMs: wholeNumberFromEnv("RUN_WALL_TIME_CAP_SECONDS", 20, 1, 3600) * 1000,
     virtualTimeUs: wholeNumberFromEnv("RUN_VIRTUAL_TIME_CAP_MINUTES", 360, 1, 24 * 60) * 60_000_000,
   };
+}
+
+/**
+ * The reverse proxies whose X-Forwarded-* headers are believed (TRUSTED_PROXY,
+ * comma-separated IP addresses). Empty: Benchline is reached directly and
+ * ignores those headers, since any client can send them. Set it only when
+ * Benchline can be reached through these proxies alone.
+ */
+export function trustedProxies(): readonly string[] {
+  const value = process.env.TRUSTED_PROXY?.trim() ?? "";
+  if (value === "") return [];
+  const addresses = value.split(",").map((part) => part.trim());
+  for (const address of addresses) {
+    if (isIP(address) === 0) {
+      throw new ConfigError(
+        `TRUSTED_PROXY lists "${address}", which is not an IP address; give the proxies' addresses separated by commas, e.g. TRUSTED_PROXY=127.0.0.1,10.0.0.5.`,
+      );
+    }
+  }
+  return addresses;
 }

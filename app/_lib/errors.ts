@@ -12,7 +12,7 @@ export const appErrorStatus = {
   /** The body (or a query or form field) failed validation; `field` names it. */
   invalid_input: 400,
   /** The body is larger than the route accepts. */
-  body_too_large: 400,
+  body_too_large: 413,
   /** A JSON route was sent something else. */
   unsupported_media_type: 415,
   /** No valid session (missing, tampered, expired or ended cookie). */

@@ -1,5 +1,7 @@
 import type { z } from "zod";
+import { reachedOriginOf } from "./client-address";
 import { AppError, errorResponse, validationError } from "./errors";
+import { jsonShapeProblem } from "./json-shape";
 
 /**
  * Guards every JSON route handler goes through: an Origin check for anything
@@ -26,16 +28,10 @@ function ownOrigins(request: Request): Set<string> {
       // reported by appUrl() where it is needed
     }
   }
-  const url = new URL(request.url);
-  origins.add(url.origin);
-  // Behind a reverse proxy the browser's origin is the proxy's host.
-  const host = request.headers.get("x-forwarded-host") ?? request.headers.get("host");
-  if (host) {
-    const proto =
-      request.headers.get("x-forwarded-proto")?.split(",")[0]?.trim() ||
-      url.protocol.replace(":", "");
-    origins.add(`${proto}://${host.split(",")[0]!.trim()}`);
-  }
+  origins.add(new URL(request.url).origin);
+  // Forwarded host and protocol count only from a trusted proxy (client-address.ts).
+  const reached = reachedOriginOf(request);
+  if (reached) origins.add(reached);
   return origins;
 }
 
@@ -55,24 +51,65 @@ export function checkOrigin(request: Request): void {
   }
 }
 
-/** Refuse a body that is not declared as JSON. */
-export function checkJsonContentType(request: Request): void {
-  const type = request.headers.get("content-type")?.split(";")[0]?.trim().toLowerCase();
-  if (type !== "application/json") {
+/** A request's declared media type and charset, lower-cased ("" when absent). */
+export function contentTypeOf(request: Request): { type: string; charset: string | null } {
+  const [type = "", ...parameters] = (request.headers.get("content-type") ?? "").split(";");
+  let charset: string | null = null;
+  for (const parameter of parameters) {
+    const [name, value] = parameter.split("=");
+    if (name?.trim().toLowerCase() === "charset")
+      charset = (value ?? "").trim().replace(/^"|"$/g, "").toLowerCase();
+  }
+  return { type: type.trim().toLowerCase(), charset };
+}
+
+/**
+ * Refuse a text body declared in a charset other than UTF-8: it would
+ * otherwise be decoded as UTF-8 and mean something other than what was sent.
+ */
+export function checkUtf8Charset(request: Request): void {
+  const { charset } = contentTypeOf(request);
+  if (charset !== null && charset !== "utf-8" && charset !== "utf8") {
     throw new AppError(
       "unsupported_media_type",
-      `send the body as application/json (got ${type ? `"${type}"` : "no content type"})`,
+      `send the body as UTF-8 (got charset "${charset.slice(0, 40)}")`,
+      { field: "(body)" },
     );
   }
 }
 
-/** Read the body as text, stopping as soon as it passes the limit. */
-export async function readBodyText(request: Request, limitBytes: number): Promise<string> {
+/** Refuse a body that is not declared as JSON in UTF-8. */
+export function checkJsonContentType(request: Request): void {
+  const { type } = contentTypeOf(request);
+  if (type !== "application/json") {
+    throw new AppError(
+      "unsupported_media_type",
+      `send the body as application/json (got ${type ? `"${type.slice(0, 80)}"` : "no content type"})`,
+    );
+  }
+  checkUtf8Charset(request);
+}
+
+/**
+ * The one reader of request bodies: streams the body and stops as soon as it
+ * passes the limit (a chunked body without Content-Length included), so no
+ * request makes the server hold more than the limit plus one chunk. Routes
+ * call it only after the session and role are checked.
+ */
+export async function readBodyBytes(
+  request: Request,
+  limitBytes: number,
+  options: { field?: string; tooLarge?: string } = {},
+): Promise<Uint8Array> {
   const tooLarge = () =>
-    new AppError("body_too_large", `the request body is larger than ${limitBytes} bytes`);
+    new AppError(
+      "body_too_large",
+      options.tooLarge ?? `the request body is larger than ${limitBytes} bytes`,
+      options.field === undefined ? undefined : { field: options.field },
+    );
   const declared = request.headers.get("content-length");
   if (declared !== null && Number(declared) > limitBytes) throw tooLarge();
-  if (!request.body) return "";
+  if (!request.body) return new Uint8Array(0);
   const reader = request.body.getReader();
   const chunks: Uint8Array[] = [];
   let total = 0;
@@ -92,6 +129,12 @@ export async function readBodyText(request: Request, limitBytes: number): Promis
     bytes.set(chunk, offset);
     offset += chunk.byteLength;
   }
+  return bytes;
+}
+
+/** Read the body as UTF-8 text, stopping as soon as it passes the limit. */
+export async function readBodyText(request: Request, limitBytes: number): Promise<string> {
+  const bytes = await readBodyBytes(request, limitBytes);
   try {
     return new TextDecoder("utf-8", { fatal: true }).decode(bytes);
   } catch {
@@ -100,8 +143,9 @@ export async function readBodyText(request: Request, limitBytes: number): Promis
 }
 
 /**
- * Parse a JSON request body with a (strict) zod schema: content type, size,
- * JSON syntax, then shape. Every failure is a 400-class AppError naming the field.
+ * Parse a JSON request body with a (strict) zod schema: content type and
+ * charset, size, nesting depth and duplicate keys, JSON syntax, then shape. Every failure is a
+ * 4xx AppError naming the field. Call it after the session and role checks.
  */
 export async function readJson<S extends z.ZodType>(
   request: Request,
@@ -110,6 +154,10 @@ export async function readJson<S extends z.ZodType>(
 ): Promise<z.infer<S>> {
   checkJsonContentType(request);
   const text = await readBodyText(request, options.limitBytes ?? defaultBodyLimitBytes);
+  // Checked on the text, before anything recursive (JSON.parse, zod, the
+  // engine's loaders) walks the value.
+  const shape = jsonShapeProblem(text);
+  if (shape) throw new AppError("invalid_input", shape.message, { field: shape.field });
   let data: unknown;
   try {
     data = JSON.parse(text);
@@ -141,8 +189,29 @@ export function json(data: unknown, init: { status?: number; headers?: HeadersIn
 }
 
 /**
- * Wrap a route handler: the Origin check runs first for non-GET methods, and
- * anything thrown is answered through the one error mapper.
+ * The policy of every API response: data, never a document, so opened in a
+ * tab it runs and loads nothing. A route that serves a file sets its own
+ * (the floor plan); next.config.ts gives Next's own /api answers the same.
+ */
+export const apiContentSecurityPolicy = "default-src 'none'; sandbox";
+
+function withApiPolicy(response: Response): Response {
+  if (response.headers.has("content-security-policy")) return response;
+  try {
+    response.headers.set("Content-Security-Policy", apiContentSecurityPolicy);
+    return response;
+  } catch {
+    // Immutable headers (a redirect): copy into a response we may change.
+    const headers = new Headers(response.headers);
+    headers.set("Content-Security-Policy", apiContentSecurityPolicy);
+    return new Response(response.body, { status: response.status, headers });
+  }
+}
+
+/**
+ * Wrap a route handler: the Origin check runs first for non-GET methods,
+ * anything thrown is answered through the one error mapper, and every answer
+ * carries the API's Content-Security-Policy unless the route set its own.
  */
 export function route<Context>(
   handler: (request: Request, context: Context) => Promise<Response> | Response,
@@ -150,9 +219,9 @@ export function route<Context>(
   return async (request, context) => {
     try {
       checkOrigin(request);
-      return await handler(request, context);
+      return withApiPolicy(await handler(request, context));
     } catch (error) {
-      return errorResponse(error);
+      return withApiPolicy(errorResponse(error));
     }
   };
 }

@@ -5,6 +5,7 @@ import { defaultBodyLimitBytes, documentBodyLimitBytes } from "@/app/_lib/http";
 import {
   benchDocument,
   call,
+  appOrigin,
   cookieFor,
   createWorld,
   databaseSnapshot,
@@ -14,9 +15,11 @@ import {
 } from "./support/world";
 
 /**
- * Every route that reads a body: malformed JSON, wrong types, unknown fields
- * and oversize bodies are refused with 400 and a message, and the database is
- * left exactly as it was. Bodies are generated with fast-check.
+ * Every route that reads a body: malformed JSON, wrong types, unknown fields,
+ * oversize bodies, deep nesting, huge strings, other charsets and duplicate
+ * keys are refused with a 4xx and a message, and the database is left exactly
+ * as it was. Bodies are generated with fast-check; every case expects one
+ * exact 4xx, so a 5xx (a crash, a stack overflow) fails it.
  */
 
 interface WriteRoute {
@@ -163,6 +166,11 @@ const writeRoutes: readonly WriteRoute[] = [
   },
 ];
 
+type Handler = (
+  request: Request,
+  context: { params: Promise<Record<string, string>> },
+) => Promise<Response>;
+
 let world: World;
 let adminCookie: string;
 beforeAll(async () => {
@@ -301,11 +309,111 @@ describe.each(writeRoutes)("$name refuses bad input with 400 and changes nothing
       route,
       JSON.stringify({ ...route.validBody(world), name: padding }),
     );
-    expect(response.status).toBe(400);
+    expect(response.status).toBe(413);
     const error = ((await response.json()) as ErrorBody).error;
     expect(error.code).toBe("body_too_large");
     expect(error.message).toMatch(/larger than/);
     expect(databaseSnapshot()).toBe(before);
+  });
+
+  it("deep nesting (65 to 3,000 levels) in any field: 400 naming that field", async () => {
+    const valid = route.validBody(world);
+    await fc.assert(
+      fc.asyncProperty(
+        fc.constantFrom(...Object.keys(valid), "extra"),
+        fc.integer({ min: 65, max: 3000 }),
+        fc.boolean(),
+        async (key, depth, asObjects) => {
+          const nest = asObjects
+            ? `${'{"a":'.repeat(depth)}1${"}".repeat(depth)}`
+            : `${"[".repeat(depth)}1${"]".repeat(depth)}`;
+          const text = JSON.stringify({ ...valid, [key]: "@@" }).replace('"@@"', nest);
+          const before = databaseSnapshot();
+          const response = await send(route, text);
+          expect(response.status).toBe(400);
+          const error = ((await response.json()) as ErrorBody).error;
+          expect(error.field?.startsWith(key)).toBe(true);
+          expect(error.message).toMatch(/nested deeper than 64 levels/);
+          expect(databaseSnapshot() === before).toBe(true);
+        },
+      ),
+      { numRuns: 8 },
+    );
+  });
+
+  it("huge strings in any field: refused, nothing stored", async () => {
+    const valid = route.validBody(world);
+    await fc.assert(
+      fc.asyncProperty(
+        fc.constantFrom(...Object.keys(valid)),
+        fc.integer({ min: 5_000, max: 70_000 }),
+        fc.constantFrom("x", "é", "😀", "\u0000", "\u202e", " "),
+        async (key, length, unit) => {
+          const text = JSON.stringify({ ...valid, [key]: "@@" }).replace(
+            '"@@"',
+            `"${unit.repeat(length)}"`,
+          );
+          const before = databaseSnapshot();
+          const response = await send(route, text);
+          expect([400, 413]).toContain(response.status);
+          const error = ((await response.json()) as ErrorBody).error;
+          expect(error.message.length).toBeGreaterThan(0);
+          expect(databaseSnapshot() === before).toBe(true);
+        },
+      ),
+      { numRuns: 6 },
+    );
+  });
+
+  it("a charset other than UTF-8 (415), and UTF-16 bytes sent as JSON (400)", async () => {
+    const valid = JSON.stringify(route.validBody(world));
+    const before = databaseSnapshot();
+    await fc.assert(
+      fc.asyncProperty(
+        fc.constantFrom("utf-16", "UTF-16LE", "iso-8859-1", "shift_jis", "x-unknown", '""'),
+        async (charset) => {
+          const response = await send(route, valid, {
+            "content-type": `application/json; charset=${charset}`,
+          });
+          expect(response.status).toBe(415);
+          expect(((await response.json()) as ErrorBody).error.message).toMatch(/UTF-8/);
+        },
+      ),
+      { numRuns: 6 },
+    );
+    const handlers = await route.load();
+    const utf16 = await (handlers[route.method] as Handler)(
+      new Request(`${appOrigin}/api/x`, {
+        method: route.method,
+        headers: { origin: appOrigin, cookie: adminCookie, "content-type": "application/json" },
+        body: Buffer.from(valid, "utf16le"),
+      }),
+      { params: Promise.resolve(route.params?.(world) ?? {}) },
+    );
+    expect(utf16.status).toBe(400);
+    expect(databaseSnapshot() === before).toBe(true);
+  });
+
+  it("duplicate keys: 400 naming the field given twice", async () => {
+    const valid = route.validBody(world);
+    await fc.assert(
+      fc.asyncProperty(
+        fc.constantFrom(...Object.keys(valid)),
+        fc.oneof(wrongValue, fc.constant(valid[Object.keys(valid)[0]!] ?? null)),
+        async (key, first) => {
+          const rest = JSON.stringify(valid).slice(1);
+          const text = `{${JSON.stringify(key)}:${JSON.stringify(first)},${rest}`;
+          const before = databaseSnapshot();
+          const response = await send(route, text);
+          expect(response.status).toBe(400);
+          const error = ((await response.json()) as ErrorBody).error;
+          expect(error.field).toBe(key);
+          expect(error.message).toMatch(/appears twice/);
+          expect(databaseSnapshot() === before).toBe(true);
+        },
+      ),
+      { numRuns: 8 },
+    );
   });
 
   it("a body that is not declared as JSON (415) or comes from another origin (403)", async () => {

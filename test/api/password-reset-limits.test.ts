@@ -13,8 +13,13 @@ import { call, createWorld, destroyWorld, testPassword, type World } from "./sup
 let world: World;
 beforeAll(() => {
   world = createWorld();
+  // Per-address limits count the X-Forwarded-For address only behind a trusted proxy.
+  process.env.TRUSTED_PROXY = "127.0.0.1";
 });
-afterAll(() => destroyWorld(world));
+afterAll(() => {
+  delete process.env.TRUSTED_PROXY;
+  destroyWorld(world);
+});
 
 async function requestReset(email: string, address: string) {
   const { POST } = await import("@/app/api/session/password-reset/route");

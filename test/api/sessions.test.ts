@@ -15,8 +15,13 @@ import {
 let world: World;
 beforeAll(() => {
   world = createWorld();
+  // Per-address limits count the X-Forwarded-For address only behind a trusted proxy.
+  process.env.TRUSTED_PROXY = "127.0.0.1";
 });
-afterAll(() => destroyWorld(world));
+afterAll(() => {
+  delete process.env.TRUSTED_PROXY;
+  destroyWorld(world);
+});
 afterEach(() => {
   vi.useRealTimers();
 });

@@ -2,9 +2,10 @@ import { authorize, verifyApiSession } from "@/app/_lib/dal";
 import { labCopiesAmong, listReadableBenches } from "@/app/_lib/policy/bench";
 import { documentBodyLimitBytes, json, readJson, route } from "@/app/_lib/http";
 import { checkedBenchDocument } from "@/app/_lib/resources";
+import { checkedName } from "@/app/_lib/names";
 import { createBench } from "@/db/queries/benches";
 import { benchView } from "./bench-json";
-import { createBenchBodySchema } from "./schema";
+import { benchNameSchema, createBenchBodySchema } from "./schema";
 
 /** Benches of the active workspace: shared ones and the member's own copies (trainers and admins: all copies). */
 export const GET = route(async (request) => {
@@ -17,16 +18,16 @@ export const GET = route(async (request) => {
 
 /** Create a bench with its first revision. */
 export const POST = route(async (request) => {
+  const session = await verifyApiSession(request);
+  const scope = authorize(session, "benches.edit");
   const body = await readJson(request, createBenchBodySchema, {
     limitBytes: documentBodyLimitBytes,
   });
-  const session = await verifyApiSession(request);
-  const scope = authorize(session, "benches.edit");
   const document = checkedBenchDocument(body.document);
   const created = createBench({
     values: {
       workspaceId: session.workspaceId,
-      name: body.name ?? document.name,
+      name: body.name ?? checkedName(benchNameSchema, document.name, ["document", "name"]),
       description: body.description ?? "",
       createdBy: session.userId,
       // "own" scope (apprentices) may only make private sandbox benches.

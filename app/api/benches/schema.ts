@@ -1,10 +1,7 @@
 import { z } from "zod";
+import { nameSchema } from "@/app/_lib/names";
 
-export const benchNameSchema = z
-  .string({ error: "give the bench a name" })
-  .trim()
-  .min(1, "give the bench a name")
-  .max(120, "a bench name has at most 120 characters");
+export const benchNameSchema = nameSchema("a bench name", "give the bench a name");
 export const benchDescriptionSchema = z
   .string()
   .max(2000, "a description has at most 2000 characters");

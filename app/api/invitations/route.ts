@@ -26,9 +26,9 @@ export const GET = route(async (request) => {
 
 /** Invite someone; the e-mail with the one-time link is sent before this answers. */
 export const POST = route(async (request) => {
-  const body = await readJson(request, createInvitationBodySchema);
   const session = await verifyApiSession(request);
   authorize(session, "invitations.send");
+  const body = await readJson(request, createInvitationBodySchema);
   const invitation = await inviteMember(session, body);
   return json({ invitation: invitationJson(invitation) }, { status: 201 });
 });

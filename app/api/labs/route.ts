@@ -39,9 +39,9 @@ export const GET = route(async (request) => {
 
 /** POST /api/labs: create a lab (trainers, admins). Hidden faults must fit the bench. */
 export const POST = route(async (request) => {
-  const body = await readJson(request, createLabSchema);
   const session = await verifyApiSession(request);
   authorize(session, "labs.manage");
+  const body = await readJson(request, createLabSchema);
   const lab = createLabFor(session, body);
   return json({ lab: { id: lab.id, title: lab.title } }, { status: 201 });
 });

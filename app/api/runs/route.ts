@@ -20,8 +20,8 @@ export const GET = route(async (request) => {
  * run pool, outside this request.
  */
 export const POST = route(async (request) => {
-  const body = await readJson(request, startRunBodySchema);
   const session = await verifyApiSession(request);
+  const body = await readJson(request, startRunBodySchema);
 
   if (body.scenarioId !== undefined) {
     const { scenario, revision } = admitScenarioRun(session, {

@@ -1,11 +1,12 @@
 import { authorize, verifyApiSession } from "@/app/_lib/dal";
+import { checkedName } from "@/app/_lib/names";
 import { documentBodyLimitBytes, json, readJson, readQuery, route } from "@/app/_lib/http";
 import { loadBench } from "@/app/_lib/policy/bench";
 import { listReadableScenarios, loadBenchForNewScenario } from "@/app/_lib/policy/scenario";
 import { checkedScenarioDocument } from "@/app/_lib/resources";
 import { createScenario } from "@/db/queries/scenarios";
 import { scenarioJson } from "./scenario-json";
-import { createScenarioBodySchema, listScenariosQuerySchema } from "./schema";
+import { createScenarioBodySchema, listScenariosQuerySchema, scenarioNameSchema } from "./schema";
 
 /** Scenarios of the workspace on benches the member may see. */
 export const GET = route(async (request) => {
@@ -22,18 +23,18 @@ export const GET = route(async (request) => {
 
 /** Create a scenario; an apprentice only on their own sandbox bench. */
 export const POST = route(async (request) => {
+  const session = await verifyApiSession(request);
+  authorize(session, "scenarios.edit");
   const body = await readJson(request, createScenarioBodySchema, {
     limitBytes: documentBodyLimitBytes,
   });
-  const session = await verifyApiSession(request);
-  authorize(session, "scenarios.edit");
   const bench = loadBenchForNewScenario(session, body.benchId, { field: "benchId" });
   const document = checkedScenarioDocument(body.document);
   const scenario = createScenario({
     values: {
       workspaceId: session.workspaceId,
       benchId: bench.id,
-      name: body.name ?? document.name,
+      name: body.name ?? checkedName(scenarioNameSchema, document.name, ["document", "name"]),
       document: document.text,
       createdBy: session.userId,
     },

@@ -1,11 +1,8 @@
 import { z } from "zod";
+import { nameSchema } from "@/app/_lib/names";
 import { resourceIdSchema } from "@/app/_lib/resources";
 
-export const scenarioNameSchema = z
-  .string({ error: "give the scenario a name" })
-  .trim()
-  .min(1, "give the scenario a name")
-  .max(120, "a scenario name has at most 120 characters");
+export const scenarioNameSchema = nameSchema("a scenario name", "give the scenario a name");
 
 /** GET /api/scenarios?benchId=...: optionally only one bench's scenarios. */
 export const listScenariosQuerySchema = z.strictObject({

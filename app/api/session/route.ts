@@ -1,4 +1,5 @@
-import { clientAddressOf, signInWithPassword } from "@/app/_lib/auth";
+import { signInWithPassword } from "@/app/_lib/auth";
+import { clientAddressOf } from "@/app/_lib/client-address";
 import { resolveSession, verifyApiSession } from "@/app/_lib/dal";
 import { AppError } from "@/app/_lib/errors";
 import { json, readJson, route } from "@/app/_lib/http";
@@ -47,8 +48,8 @@ export const POST = route(async (request) => {
 
 /** Switch the active workspace to another one the user belongs to. */
 export const PATCH = route(async (request) => {
-  const body = await readJson(request, switchWorkspaceBodySchema);
   const session = await verifyApiSession(request);
+  const body = await readJson(request, switchWorkspaceBodySchema);
   const membership = findMembership({ userId: session.userId, workspaceId: body.workspaceId });
   if (!membership) throw new AppError("not_found", "no such workspace", { field: "workspaceId" });
   const response = json(

@@ -12,9 +12,9 @@ export const GET = route(async (request) => {
 });
 
 export const POST = route(async (request) => {
-  const body = await readJson(request, createSuiteBodySchema);
   const session = await verifyApiSession(request);
   authorize(session, "suites.edit");
+  const body = await readJson(request, createSuiteBodySchema);
   checkSuiteScenarioIds(session, body.scenarioIds);
   const suite = createSuite({
     values: {

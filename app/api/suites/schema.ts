@@ -1,11 +1,8 @@
 import { z } from "zod";
+import { nameSchema } from "@/app/_lib/names";
 import { resourceIdSchema } from "@/app/_lib/resources";
 
-export const suiteNameSchema = z
-  .string({ error: "give the suite a name" })
-  .trim()
-  .min(1, "give the suite a name")
-  .max(120, "a suite name has at most 120 characters");
+export const suiteNameSchema = nameSchema("a suite name", "give the suite a name");
 
 export const suiteScenarioIdsSchema = z
   .array(resourceIdSchema)

@@ -32,11 +32,11 @@ export const GET = route(async (request, context: Params) => {
 /** Rename and/or save a new revision (the history keeps every earlier one). */
 export const PATCH = route(async (request, context: Params) => {
   const benchId = await benchIdOf(context);
+  const session = await verifyApiSession(request);
+  const bench = loadBench(session, benchId, "edit");
   const body = await readJson(request, updateBenchBodySchema, {
     limitBytes: documentBodyLimitBytes,
   });
-  const session = await verifyApiSession(request);
-  const bench = loadBench(session, benchId, "edit");
   const document = body.document === undefined ? null : checkedBenchDocument(body.document);
   if (body.baseRevision !== undefined) {
     const latest = latestRevision({ benchId: bench.id });

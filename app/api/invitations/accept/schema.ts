@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { nameSchema } from "@/app/_lib/names";
 import { passwordInputSchema } from "@/app/_lib/auth";
 
 export const invitationTokenSchema = z
@@ -15,7 +16,7 @@ export const describeInvitationQuerySchema = z.strictObject({ token: invitationT
  */
 export const acceptInvitationBodySchema = z.strictObject({
   token: invitationTokenSchema,
-  name: z.string().trim().min(1, "give your name").max(120).optional(),
+  name: nameSchema("a name", "give your name").optional(),
   password: passwordInputSchema,
 });
 export type AcceptInvitationBody = z.infer<typeof acceptInvitationBodySchema>;

@@ -1,4 +1,4 @@
-import { verifyApiSession } from "@/app/_lib/dal";
+import { authorize, verifyApiSession } from "@/app/_lib/dal";
 import { AppError } from "@/app/_lib/errors";
 import { json, readJson, route, type RouteParams } from "@/app/_lib/http";
 import { loadMembership } from "@/app/_lib/policy/member";
@@ -19,8 +19,9 @@ async function membershipIdOf(context: Params) {
 /** Change a member's role. The role is read from the database on each request, so it applies at once. */
 export const PATCH = route(async (request, context: Params) => {
   const membershipId = await membershipIdOf(context);
-  const body = await readJson(request, changeRoleBodySchema);
   const session = await verifyApiSession(request);
+  authorize(session, "members.manage");
+  const body = await readJson(request, changeRoleBodySchema);
   const membership = loadMembership(session, membershipId, "edit");
   if (
     membership.role === "admin" &&

@@ -25,11 +25,11 @@ export const GET = route(async (request, context: Params) => {
 
 export const PATCH = route(async (request, context: Params) => {
   const scenarioId = await scenarioIdOf(context);
+  const session = await verifyApiSession(request);
+  const { scenario } = loadScenario(session, scenarioId, "edit");
   const body = await readJson(request, updateScenarioBodySchema, {
     limitBytes: documentBodyLimitBytes,
   });
-  const session = await verifyApiSession(request);
-  const { scenario } = loadScenario(session, scenarioId, "edit");
   const document = body.document === undefined ? null : checkedScenarioDocument(body.document);
   const updated = updateScenario({
     workspaceId: session.workspaceId,

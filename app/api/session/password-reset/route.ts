@@ -1,8 +1,5 @@
-import {
-  admitPasswordResetRequest,
-  clientAddressOf,
-  passwordResetAcceptedMessage,
-} from "@/app/_lib/auth";
+import { admitPasswordResetRequest, passwordResetAcceptedMessage } from "@/app/_lib/auth";
+import { clientAddressOf } from "@/app/_lib/client-address";
 import { json, readJson, route } from "@/app/_lib/http";
 import { requestPasswordReset } from "@/app/_lib/invitations";
 import { requestResetBodySchema } from "./schema";

@@ -24,9 +24,9 @@ export const GET = route(async (request, context: Params) => {
 
 export const PATCH = route(async (request, context: Params) => {
   const suiteId = await suiteIdOf(context);
-  const body = await readJson(request, updateSuiteBodySchema);
   const session = await verifyApiSession(request);
   const suite = loadSuite(session, suiteId, "edit");
+  const body = await readJson(request, updateSuiteBodySchema);
   if (body.scenarioIds) checkSuiteScenarioIds(session, body.scenarioIds);
   const updated = updateSuite({
     workspaceId: session.workspaceId,

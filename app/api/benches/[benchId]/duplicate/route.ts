@@ -14,10 +14,10 @@ type Params = RouteParams<{ benchId: string }>;
 export const POST = route(async (request, context: Params) => {
   const parsed = resourceIdSchema.safeParse((await context.params).benchId);
   if (!parsed.success) throw new AppError("not_found", "no such bench");
-  const body = await readJson(request, duplicateBenchBodySchema);
   const session = await verifyApiSession(request);
   const scope = authorize(session, "benches.edit");
   const source = loadBench(session, parsed.data, "share");
+  const body = await readJson(request, duplicateBenchBodySchema);
   const revision = latestRevision({ benchId: source.id });
   if (!revision) throw new AppError("conflict", "the bench has no revision to copy");
   const makePrivate = scope === "own" || body.private === true;

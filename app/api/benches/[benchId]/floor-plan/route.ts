@@ -1,6 +1,13 @@
 import { authorize, verifyApiSession } from "@/app/_lib/dal";
 import { AppError } from "@/app/_lib/errors";
-import { json, route, type RouteParams } from "@/app/_lib/http";
+import {
+  checkUtf8Charset,
+  contentTypeOf,
+  json,
+  readBodyBytes,
+  route,
+  type RouteParams,
+} from "@/app/_lib/http";
 import { findReadableFloorPlan, loadFloorPlanBench } from "@/app/_lib/policy/upload";
 import { resourceIdSchema } from "@/app/_lib/resources";
 import { removeFloorPlan, replaceFloorPlan } from "@/db/queries/uploads";
@@ -19,27 +26,6 @@ async function benchIdOf(context: Params) {
   return parsed.data;
 }
 
-/** Reads the raw body up to the limit. */
-async function readBytes(request: Request): Promise<Buffer> {
-  const declared = request.headers.get("content-length");
-  if (declared !== null && Number(declared) > FLOOR_PLAN_LIMIT_BYTES) {
-    throw new AppError(
-      "body_too_large",
-      `a floor plan is at most ${FLOOR_PLAN_LIMIT_BYTES / 1024 / 1024} MiB`,
-      { field: "file" },
-    );
-  }
-  const bytes = Buffer.from(await request.arrayBuffer());
-  if (bytes.byteLength > FLOOR_PLAN_LIMIT_BYTES) {
-    throw new AppError(
-      "body_too_large",
-      `a floor plan is at most ${FLOOR_PLAN_LIMIT_BYTES / 1024 / 1024} MiB`,
-      { field: "file" },
-    );
-  }
-  return bytes;
-}
-
 // The file's own first bytes must agree with its declared type (PNG and JPEG signatures).
 function matchesSignature(type: string, bytes: Buffer): boolean {
   if (type === "image/png")
@@ -48,6 +34,24 @@ function matchesSignature(type: string, bytes: Buffer): boolean {
       .equals(Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]));
   if (type === "image/jpeg") return bytes[0] === 0xff && bytes[1] === 0xd8 && bytes[2] === 0xff;
   return true;
+}
+
+/**
+ * What a floor plan is served with. The route's own policy: the file is an
+ * image, never a document that runs anything, even opened directly in a tab
+ * (no script, nothing fetched, sandboxed). next.config.ts leaves these headers
+ * to this route.
+ */
+function floorPlanHeaders(contentType: string, sha256: string): HeadersInit {
+  const extension = contentType === "image/svg+xml" ? "svg" : contentType.slice(6);
+  return {
+    "Content-Type": contentType,
+    "Content-Security-Policy": "default-src 'none'; style-src 'unsafe-inline'; sandbox",
+    "Content-Disposition": `inline; filename="floor-plan.${extension}"`,
+    "X-Content-Type-Options": "nosniff",
+    "Cache-Control": "private, no-cache",
+    ETag: `"${sha256}"`,
+  };
 }
 
 /** The bench's floor plan image; SVG is served inert (no script, nothing fetched). */
@@ -59,31 +63,34 @@ export const GET = route(async (request, context: Params) => {
   const plan = findReadableFloorPlan(session, bench);
   if (!plan) throw new AppError("not_found", "this bench has no floor plan");
   return new Response(new Uint8Array(plan.content), {
-    headers: {
-      "Content-Type": plan.contentType,
-      "Content-Security-Policy":
-        "default-src 'none'; style-src 'unsafe-inline'; img-src data:; sandbox",
-      "X-Content-Type-Options": "nosniff",
-      "Cache-Control": "private, no-cache",
-      ETag: `"${plan.sha256}"`,
-    },
+    headers: floorPlanHeaders(plan.contentType, plan.sha256),
   });
 });
 
-/** Upload a floor plan: the body is the image itself, PNG, JPEG or SVG (sanitised), at most 2 MiB. */
+/**
+ * Upload a floor plan: the body is the image itself, PNG, JPEG or SVG
+ * (sanitised), at most 2 MiB. The session and the member's right to edit the
+ * bench are checked before a byte of the body is read.
+ */
 export const PUT = route(async (request, context: Params) => {
   const benchId = await benchIdOf(context);
-  const type = request.headers.get("content-type")?.split(";")[0]?.trim().toLowerCase() ?? "";
+  const { type } = contentTypeOf(request);
   if (!(imageTypes as readonly string[]).includes(type)) {
     throw new AppError(
       "unsupported_media_type",
-      `a floor plan is PNG, JPEG or SVG (got ${type ? `"${type}"` : "no content type"})`,
+      `a floor plan is PNG, JPEG or SVG (got ${type ? `"${type.slice(0, 80)}"` : "no content type"})`,
       { field: "file" },
     );
   }
-  const bytes = await readBytes(request);
+  if (type === "image/svg+xml") checkUtf8Charset(request);
   const session = await verifyApiSession(request);
   const bench = loadFloorPlanBench(session, benchId, "edit");
+  const bytes = Buffer.from(
+    await readBodyBytes(request, FLOOR_PLAN_LIMIT_BYTES, {
+      field: "file",
+      tooLarge: `a floor plan is at most ${FLOOR_PLAN_LIMIT_BYTES / 1024 / 1024} MiB`,
+    }),
+  );
   if (bytes.byteLength === 0)
     throw new AppError("invalid_input", "the file is empty", { field: "file" });
   if (!matchesSignature(type, bytes))
@@ -99,9 +106,9 @@ export const PUT = route(async (request, context: Params) => {
     } catch {
       throw new AppError("invalid_input", "the SVG is not valid UTF-8 text", { field: "file" });
     }
-    const sanitized = sanitizeSvg(text);
-    if (sanitized === null)
-      throw new AppError("invalid_input", "the file has no <svg> element", { field: "file" });
+    const sanitized = await sanitizeSvg(text);
+    if ("refused" in sanitized)
+      throw new AppError("invalid_input", `file: ${sanitized.refused}`, { field: "file" });
     content = Buffer.from(sanitized.svg, "utf8");
     removed = sanitized.removed;
   }

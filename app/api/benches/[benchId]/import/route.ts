@@ -3,6 +3,8 @@ import { loadBench } from "@/app/_lib/policy/bench";
 import { loadBenchForNewScenario } from "@/app/_lib/policy/scenario";
 import { AppError } from "@/app/_lib/errors";
 import { documentBodyLimitBytes, json, readJson, route, type RouteParams } from "@/app/_lib/http";
+import { checkedName } from "@/app/_lib/names";
+import { scenarioNameSchema } from "@/app/api/scenarios/schema";
 import {
   checkedBenchDocument,
   checkedScenarioDocument,
@@ -18,8 +20,11 @@ type Params = RouteParams<{ benchId: string }>;
 export const POST = route(async (request, context: Params) => {
   const parsed = resourceIdSchema.safeParse((await context.params).benchId);
   if (!parsed.success) throw new AppError("not_found", "no such bench");
-  const body = await readJson(request, importBodySchema, { limitBytes: documentBodyLimitBytes });
   const session = await verifyApiSession(request);
+  // A bench this member cannot read is 404 before the body is read; what the
+  // import may do to it depends on the file's kind, checked below.
+  loadBench(session, parsed.data);
+  const body = await readJson(request, importBodySchema, { limitBytes: documentBodyLimitBytes });
   if (body.kind === "bench") {
     const bench = loadBench(session, parsed.data, "edit");
     const document = checkedBenchDocument(body.document);
@@ -40,7 +45,7 @@ export const POST = route(async (request, context: Params) => {
     values: {
       workspaceId: session.workspaceId,
       benchId: bench.id,
-      name: document.name,
+      name: checkedName(scenarioNameSchema, document.name, ["document", "name"]),
       document: document.text,
       createdBy: session.userId,
     },

@@ -7,9 +7,9 @@ import { assignLabSchema } from "./schema";
 /** POST /api/labs/:labId/assignments — assign to apprentices; each new one gets an e-mail. */
 export const POST = route(async (request, context: RouteParams<{ labId: string }>) => {
   const { labId } = await context.params;
-  const body = await readJson(request, assignLabSchema);
   const session = await verifyApiSession(request);
   const found = loadLab(session, labId, "edit");
+  const body = await readJson(request, assignLabSchema);
   const dueAt = body.dueAt
     ? new Date(body.dueAt.length === 10 ? `${body.dueAt}T23:59:59Z` : body.dueAt)
     : null;

@@ -18,9 +18,9 @@ import { shareRunSchema } from "./schema";
  */
 export const POST = route(async (request, context: RouteParams<{ runId: string }>) => {
   const { runId } = await context.params;
-  const body = await readJson(request, shareRunSchema);
   const session = await verifyApiSession(request);
   const visible = loadRunOrSuiteRun(session, runId);
+  const body = await readJson(request, shareRunSchema);
   const recipient = findUserByEmail({ email: body.to });
   const membership = recipient
     ? findMembership({ userId: recipient.id, workspaceId: session.workspaceId })
