@@ -156,7 +156,7 @@ function DeleteButton({ address, onDelete }: { address: string; onDelete: () => 
   ) : (
     <button
       type="button"
-      className="text-ink-soft hover:text-fault"
+      className="inline-flex size-6 items-center justify-center rounded text-ink-soft hover:text-fault"
       onClick={() => setArmed(true)}
       aria-label={`Delete ${address}`}
     >

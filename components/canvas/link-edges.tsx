@@ -4,6 +4,9 @@ import { BaseEdge, getBezierPath, getSmoothStepPath, type EdgeProps } from "@xyf
 import { memo } from "react";
 import type { LinkEdge, UnitLinkEdge } from "./bench-graph";
 
+/** A wire away from the selection stays findable but no longer competes with the cards. */
+const DIMMED_OPACITY = 0.12;
+
 type EdgeEnds = Pick<
   EdgeProps,
   "sourceX" | "sourceY" | "targetX" | "targetY" | "sourcePosition" | "targetPosition"
@@ -30,15 +33,17 @@ function LinkEdgeView(props: EdgeProps<LinkEdge>) {
   const { id, data, selected } = props;
   const [path] = getBezierPath(edgeEnds(props));
   const sending = data?.sending ?? false;
+  const dimmed = data?.dimmed === true && !selected;
   return (
     <BaseEdge
       id={id}
       path={path}
-      markerEnd={sending ? "url(#benchline-sending)" : undefined}
+      markerEnd={sending && !dimmed ? "url(#benchline-sending)" : undefined}
       style={{
         stroke: selected ? "#f0b078" : sending ? "#d98b4e" : "#a3a7ae",
         strokeWidth: selected ? 3 : sending ? 2 : 1.5,
         strokeDasharray: sending ? undefined : "5 4",
+        opacity: dimmed ? DIMMED_OPACITY : 1,
       }}
     />
   );
@@ -56,6 +61,7 @@ function UnitLinkEdgeView(props: EdgeProps<UnitLinkEdge>) {
         strokeWidth: 2.5,
         strokeDasharray: "1 5",
         strokeLinecap: "round",
+        opacity: props.data?.dimmed === true ? DIMMED_OPACITY : 1,
       }}
     />
   );
