@@ -136,7 +136,7 @@ export function ObjectList({
                 <td key={f.key} className="py-1 text-center">
                   <input
                     type="checkbox"
-                    className="size-5 accent-copper"
+                    className="size-6 accent-copper"
                     checked={object.flags[f.key]}
                     disabled={readOnly}
                     aria-label={`${f.label} flag of object ${object.number}`}

@@ -122,13 +122,18 @@ describe("layoutBench (elkjs layered)", () => {
     expect(position(after.nodes, "g:2049")).toEqual(position(before.nodes, "g:2049"));
   });
 
-  it("lays out again when a link is added, and an empty bench needs no layout", async () => {
+  it("lays out again when a node is added, not when a port is wired; an empty bench needs none", async () => {
     const bench = testBench();
     const linked = {
       ...bench,
       links: [...bench.links, { device: "pb-hall", object: 1, groupAddress: "3/1/2" }],
     };
-    expect(layoutSignature(linked)).not.toBe(layoutSignature(bench));
+    expect(layoutSignature(linked)).toBe(layoutSignature(bench));
+    const grown = {
+      ...bench,
+      groupAddresses: [...bench.groupAddresses, { address: "3/1/3", name: "More", dpt: "1.001" }],
+    };
+    expect(layoutSignature(grown)).not.toBe(layoutSignature(bench));
     const empty = { ...bench, devices: [], groupAddresses: [], links: [] };
     expect(
       await layoutBench(empty, { layout: () => Promise.reject(new Error("not called")) }),

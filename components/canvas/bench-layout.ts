@@ -63,6 +63,9 @@ function deviceOrder(address: string | undefined): number {
   return raw.ok ? raw.value : Number.MAX_SAFE_INTEGER - 1;
 }
 
+/** Above this many cards and bars the layout trades some crossing reduction for time. */
+const LARGE_BENCH_NODES = 400;
+
 const ROOT_OPTIONS = {
   "elk.algorithm": "layered",
   "elk.direction": "RIGHT",
@@ -174,7 +177,17 @@ export function benchElkGraph(bench: Bench): ElkNode {
       targets: [`g:${key}#bus`],
     });
   }
-  return { id: "bench", layoutOptions: { ...ROOT_OPTIONS }, children, edges };
+  const nodeCount = devices.length + addresses.length;
+  return {
+    id: "bench",
+    layoutOptions: {
+      ...ROOT_OPTIONS,
+      // Fewer crossing-minimisation sweeps on big benches: about half the time, nearly the same drawing.
+      "elk.layered.thoroughness": nodeCount > LARGE_BENCH_NODES ? "1" : "7",
+    },
+    children,
+    edges,
+  };
 }
 
 /** Reads ELK's answer back into canvas positions; children of a group frame are relative to it. */
@@ -219,17 +232,15 @@ export async function layoutBench(bench: Bench, elk: ElkLike): Promise<BenchLayo
 }
 
 /**
- * What the layout depends on: the nodes, their sizes and the links between
- * them. Renaming an address or moving a card does not lay the bench out again;
- * adding a device or a link does.
+ * When the layout runs again: when a card or bus-bar is added or removed, or
+ * a card's size changes. Not on a new link, a rename or a drag: wiring a port
+ * must not move the bar it was dropped on, so links are read only when the
+ * nodes change (and when the canvas opens).
  */
 export function layoutSignature(bench: Bench): string {
   const devices = bench.devices.map(
     (d) => `${d.id}:${d.individualAddress ?? ""}:${deviceObjects(d).length}`,
   );
   const addresses = bench.groupAddresses.map((g) => groupAddressKey(g.address));
-  const links = bench.links.map(
-    (l) => `${l.device}#${l.object}@${groupAddressKey(l.groupAddress)}`,
-  );
-  return JSON.stringify([devices, addresses, links]);
+  return JSON.stringify([devices, addresses]);
 }
