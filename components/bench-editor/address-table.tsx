@@ -265,6 +265,11 @@ export function AddressTable({
               className={`block ${f.severity === "error" ? "text-fault" : "text-copper-deep"}`}
               title={f.rule}
             >
+              {/* Severity by shape and word as well as colour. */}
+              <span aria-hidden="true">
+                {f.severity === "error" ? "✖ " : f.severity === "warning" ? "▲ " : "· "}
+              </span>
+              <span className="sr-only">{f.severity}: </span>
               {f.message}
             </span>
           )),

@@ -5,7 +5,8 @@ import { benchGraph, type LinkEdge } from "./bench-graph";
 import { layoutBench } from "./bench-layout";
 import { dptFamily } from "./dpt-family";
 
-describe("benchGraph", () => {
+// The layout test runs elkjs, whose first layout is slow on a busy machine.
+describe("benchGraph", { timeout: 60_000 }, () => {
   it("draws a card per device, a bus-bar per address and marks each object's sending link", () => {
     const { nodes, edges } = benchGraph(testBench());
     expect(nodes.filter((n) => n.type === "device").map((n) => n.id)).toEqual([

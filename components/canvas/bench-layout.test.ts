@@ -60,7 +60,8 @@ function middleGroup(raw: number): string {
   return `${raw >>> 11}/${(raw >>> 8) & 7}`;
 }
 
-describe("layoutBench (elkjs layered)", () => {
+// elkjs warms its compiled code up on the first layouts; on a busy two-core machine that takes seconds.
+describe("layoutBench (elkjs layered)", { timeout: 60_000 }, () => {
   it("lays the demo bench out with no card or bar overlapping another", async () => {
     const bench = demoBench();
     const layout = await layoutBench(bench, elk);
