@@ -13,11 +13,15 @@ import {
   objectHandleId,
   UNIT_LINK_HANDLE,
 } from "./node-ids";
-import { BUS_BAR_HEIGHT, BUS_BAR_WIDTH, GROUP_PADDING, type BenchLayout } from "./bench-layout";
+import {
+  BUS_BAR_HEIGHT,
+  BUS_BAR_WIDTH,
+  EMPTY_LAYOUT,
+  GROUP_PADDING,
+  type BenchLayout,
+} from "./bench-layout";
 
 export { BUS_BAR_HEIGHT, BUS_BAR_WIDTH, CARD_HEADER, CARD_WIDTH, ROW_HEIGHT } from "./bench-layout";
-
-const EMPTY_LAYOUT: BenchLayout = { devices: new Map(), addresses: new Map(), groups: [] };
 
 export interface DeviceObjectRow extends EditorObject {
   /** Sending address text, when the object has a link. */
@@ -71,6 +75,8 @@ export type LinkEdgeData = {
   readonly sending: boolean;
   /** Drawn faint: wires focus on the selection and this wire does not touch it. */
   readonly dimmed?: boolean;
+  /** Canvas x of the wire's vertical run, from the layout; absent once either end was moved by hand. */
+  readonly channelX?: number;
 };
 export type LinkEdge = Edge<LinkEdgeData, "link">;
 export type UnitLinkEdge = Edge<
@@ -177,6 +183,10 @@ export function benchGraph(
     }
   }
 
+  const movedDevices = new Set(bench.devices.filter((d) => d.position).map((d) => d.id));
+  const movedAddresses = new Set(
+    bench.groupAddresses.filter((g) => g.position).map((g) => groupAddressKey(g.address)),
+  );
   const linksByObject = new Map<string, string[]>();
   const linksByAddress = new Map<string, number>();
   const edges: BenchEdge[] = [];
@@ -188,6 +198,10 @@ export function benchGraph(
     linksByObject.set(objectKey, list);
     const key = groupAddressKey(link.groupAddress);
     linksByAddress.set(key, (linksByAddress.get(key) ?? 0) + 1);
+    const channelX =
+      movedDevices.has(link.device) || movedAddresses.has(key)
+        ? undefined
+        : layout.channels.get(`${objectKey}@${key}`);
     edges.push({
       id: `l:${objectKey}@${key}`,
       type: "link",
@@ -200,6 +214,7 @@ export function benchGraph(
         object: link.object,
         groupAddress: link.groupAddress,
         sending,
+        ...(channelX === undefined ? {} : { channelX }),
         ...(focusWires && !selectedDevices.has(link.device) && !selectedAddresses.has(key)
           ? { dimmed: true }
           : {}),

@@ -105,6 +105,21 @@ describe("layoutBench (elkjs layered)", { timeout: 60_000 }, () => {
     expect(overlapping(frames)).toEqual([]);
   });
 
+  it("routes wires in separate vertical channels between the cards and the bars", async () => {
+    const bench = demoBench();
+    const layout = await layoutBench(bench, elk);
+    const cardsRight = Math.max(...[...layout.devices.values()].map((p) => p.x + CARD_WIDTH));
+    const barsLeft = Math.min(...[...layout.addresses.values()].map((p) => p.x));
+    const channels = [...layout.channels.values()];
+    expect(channels.length).toBeGreaterThan(bench.links.length / 2);
+    for (const x of channels) {
+      expect(x).toBeGreaterThan(cardsRight);
+      expect(x).toBeLessThan(barsLeft);
+    }
+    // Not one shared midpoint: the router spreads the wires over several channels.
+    expect(new Set(channels.map(Math.round)).size).toBeGreaterThan(5);
+  });
+
   it("keeps stored positions, and a drag does not move the other nodes", async () => {
     const bench = testBench();
     const before = benchGraph(bench, { layout: await layoutBench(bench, elk) });
@@ -142,6 +157,7 @@ describe("layoutBench (elkjs layered)", { timeout: 60_000 }, () => {
       devices: new Map(),
       addresses: new Map(),
       groups: [],
+      channels: new Map(),
     });
   });
 });

@@ -37,7 +37,20 @@ export interface BenchLayout {
   readonly devices: ReadonlyMap<string, Position>;
   readonly addresses: ReadonlyMap<string, Position>;
   readonly groups: readonly AddressGroupBox[];
+  /**
+   * Per link ("device#object@raw address"), the x of the vertical run ELK's
+   * orthogonal routing gave it, so wires take separate channels in the gap
+   * instead of all turning at the midpoint.
+   */
+  readonly channels: ReadonlyMap<string, number>;
 }
+
+export const EMPTY_LAYOUT: BenchLayout = {
+  devices: new Map(),
+  addresses: new Map(),
+  groups: [],
+  channels: new Map(),
+};
 
 /** The subset of elkjs's API the layout needs, so tests and benchmarks can pass their own instance. */
 export interface ElkLike {
@@ -220,14 +233,18 @@ export function positionsFromElk(laidOut: ElkNode): BenchLayout {
       });
     }
   }
-  return { devices, addresses, groups };
+  const channels = new Map<string, number>();
+  for (const edge of laidOut.edges ?? []) {
+    const bend = edge.sections?.[0]?.bendPoints?.[0];
+    if (bend !== undefined) channels.set(edge.id, bend.x);
+  }
+  return { devices, addresses, groups, channels };
 }
 
 /** Lays the bench out with ELK's layered algorithm. Async: elkjs runs its own event loop. */
 export async function layoutBench(bench: Bench, elk: ElkLike): Promise<BenchLayout> {
   const graph = benchElkGraph(bench);
-  if ((graph.children ?? []).length === 0)
-    return { devices: new Map(), addresses: new Map(), groups: [] };
+  if ((graph.children ?? []).length === 0) return EMPTY_LAYOUT;
   return positionsFromElk(await elk.layout(graph));
 }
 

@@ -1,6 +1,6 @@
 "use client";
 
-import { BaseEdge, getBezierPath, getSmoothStepPath, type EdgeProps } from "@xyflow/react";
+import { BaseEdge, getSmoothStepPath, type EdgeProps } from "@xyflow/react";
 import { memo } from "react";
 import type { LinkEdge, UnitLinkEdge } from "./bench-graph";
 
@@ -25,13 +25,23 @@ function edgeEnds({
 }
 
 /**
- * A link from an object's port to a bus-bar. The object's sending link is a
- * solid copper wire with an arrow into the bar; the addresses it only listens
- * to are dashed.
+ * A link from an object's port to a bus-bar, in right angles: out of the port,
+ * down its own channel (the x the layout routed it on, so wires in the gap sit
+ * side by side rather than on top of each other), into the bar. The object's
+ * sending link is a solid copper wire with an arrow into the bar; the
+ * addresses it only listens to are dashed.
  */
 function LinkEdgeView(props: EdgeProps<LinkEdge>) {
   const { id, data, selected } = props;
-  const [path] = getBezierPath(edgeEnds(props));
+  const channelX = data?.channelX;
+  const [path] = getSmoothStepPath({
+    ...edgeEnds(props),
+    borderRadius: 6,
+    // Only while the channel still lies between the ends (nobody dragged a card past its bars).
+    ...(channelX !== undefined && channelX > props.sourceX && channelX < props.targetX
+      ? { centerX: channelX }
+      : {}),
+  });
   const sending = data?.sending ?? false;
   const dimmed = data?.dimmed === true && !selected;
   return (

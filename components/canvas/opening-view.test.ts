@@ -18,6 +18,7 @@ function tallLayout(): BenchLayout {
       ["6402", { x: 500, y: 180 }],
     ]),
     groups: [],
+    channels: new Map(),
   };
 }
 

@@ -2,7 +2,13 @@
 
 import { useEffect, useMemo, useState } from "react";
 import type { Bench } from "@/engine/bench";
-import { layoutBench, layoutSignature, type BenchLayout, type ElkLike } from "./bench-layout";
+import {
+  EMPTY_LAYOUT,
+  layoutBench,
+  layoutSignature,
+  type BenchLayout,
+  type ElkLike,
+} from "./bench-layout";
 
 let elk: Promise<ElkLike> | undefined;
 
@@ -37,7 +43,7 @@ export function useBenchLayout(bench: Bench): BenchLayout | null {
           if (!cancelled)
             setLaidOut({
               signature,
-              layout: { devices: new Map(), addresses: new Map(), groups: [] },
+              layout: EMPTY_LAYOUT,
             });
         },
       );

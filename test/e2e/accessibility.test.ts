@@ -1,6 +1,6 @@
 import { AxeBuilder } from "@axe-core/playwright";
 import type { Browser, BrowserContext, Page } from "playwright-core";
-import { afterAll, beforeAll, describe, expect, inject, it } from "vitest";
+import { afterAll, afterEach, beforeAll, describe, expect, inject, it } from "vitest";
 import { launchChromium } from "./chromium";
 import { demoPassword, signIn } from "./support/sign-in";
 
@@ -54,7 +54,7 @@ describe("accessibility (axe-core) in headless Chromium", () => {
   const found = new Map<string, string[]>();
 
   async function scan(page: Page, name: string) {
-    await page.waitForLoadState("networkidle");
+    await page.waitForLoadState("load");
     const violations = await seriousViolations(page);
     if (violations.length > 0) found.set(name, violations);
   }
@@ -99,6 +99,11 @@ describe("accessibility (axe-core) in headless Chromium", () => {
     browser = await launchChromium();
   });
 
+  // A context per test, closed after it even when the test fails, so no page keeps running.
+  afterEach(async () => {
+    await Promise.all(contexts.splice(0).map((c) => c.close().catch(() => {})));
+  });
+
   afterAll(async () => {
     await browser?.close();
   });
@@ -114,15 +119,16 @@ describe("accessibility (axe-core) in headless Chromium", () => {
     await page.getByRole("button", { name: "Sign in" }).click();
     await page.getByRole("alert").first().waitFor();
     await scan(page, "sign-in with an error");
-    await context.close();
     expect(Object.fromEntries(found)).toEqual({});
   });
 
   const roles: Role[] = ["qa", "engineer", "trainer", "apprentice", "admin"];
   for (const role of roles) {
-    it(`finds nothing serious on the ${role}'s pages`, async () => {
+    // About a dozen pages with an axe run each: room for a busy two-core machine.
+    it(`finds nothing serious on the ${role}'s pages`, { timeout: 300_000 }, async () => {
       found.clear();
       const context = await browser.newContext({ viewport: { width: 1440, height: 900 } });
+      contexts.push(context);
       const page = await context.newPage();
       await signIn(page, people[role], demoPassword(people[role]), "/");
       await page.locator("main").first().waitFor();
@@ -132,11 +138,12 @@ describe("accessibility (axe-core) in headless Chromium", () => {
       await visit(page, "/benches", `${role}: benches`);
       const bench = await firstHref(page, /^\/benches\/[^/?]+$/);
       if (bench !== undefined) {
-        await visit(page, bench, `${role}: bench editor`);
+        await page.goto(`${baseURL}${bench}`);
         const canvas = page.getByRole("application", { name: "Bench canvas" });
-        await canvas.waitFor();
+        await canvas.locator("[data-testid^='device-card-']").first().waitFor();
         // The editor with a device selected: the inspector panels open beside the canvas.
-        await page.locator("[data-testid^='device-card-']").first().click();
+        await canvas.locator("[data-testid^='device-card-']").first().click();
+        await page.getByRole("region", { name: "Device" }).waitFor();
         await scan(page, `${role}: bench editor with a selection`);
       }
 
@@ -158,61 +165,50 @@ describe("accessibility (axe-core) in headless Chromium", () => {
       }
       if (role === "admin") await visit(page, "/outbox", `${role}: outbox`);
       await visit(page, "/account", `${role}: account`);
-      await context.close();
       expect(Object.fromEntries(found)).toEqual({});
     });
   }
 
-  it("opens the demo bench's canvas with card titles at a readable size", async () => {
-    const context = await browser.newContext({ viewport: { width: 1440, height: 900 } });
-    const page = await context.newPage();
-    const engineer = people.engineer;
-    await signIn(page, engineer, demoPassword(engineer), "/benches");
-    const bench = page.getByRole("link", { name: "Fernhill Training Centre" }).first();
-    await Promise.all([page.waitForURL(/\/benches\/[^/]+$/), bench.click()]);
-    const canvas = page.getByRole("application", { name: "Bench canvas" });
-    await canvas.locator("[data-testid^='device-card-']").first().waitFor();
-    // The opening view is set once the layout is drawn; wait until the zoom stops changing.
-    const zoom = () =>
-      canvas
-        .locator(".react-flow__viewport")
-        .evaluate((el) => new DOMMatrixReadOnly(getComputedStyle(el).transform).a);
-    await expect.poll(zoom).toBeGreaterThan(0);
-    let previous = -1;
-    await expect
-      .poll(async () => {
-        const now = await zoom();
-        const settled = now === previous;
-        previous = now;
-        return settled;
-      })
-      .toBe(true);
-    // Rendered size = the title's computed font size × the canvas zoom (the card's scale on screen).
-    const titles = await canvas
-      .locator("[data-testid^='device-card-'] .font-semibold")
-      .evaluateAll((spans) =>
-        spans.map((span) => {
-          const el = span as HTMLElement;
-          const fontPx = parseFloat(getComputedStyle(el).fontSize);
-          const scale = el.getBoundingClientRect().height / el.offsetHeight;
-          return fontPx * scale;
-        }),
+  it(
+    "opens the demo bench's canvas with card titles at a readable size",
+    { timeout: 180_000 },
+    async () => {
+      const context = await browser.newContext({ viewport: { width: 1440, height: 900 } });
+      contexts.push(context);
+      const page = await context.newPage();
+      const engineer = people.engineer;
+      await signIn(page, engineer, demoPassword(engineer), "/benches");
+      const bench = page.getByRole("link", { name: "Fernhill Training Centre" }).first();
+      await Promise.all([page.waitForURL(/\/benches\/[^/]+$/), bench.click()]);
+      const canvas = page.getByRole("application", { name: "Bench canvas" });
+      // The canvas marks itself once the opening view (after the async layout) is in place.
+      await page.locator("[data-view='opened']").waitFor({ timeout: 60_000 });
+      // Rendered size = the title's computed font size × the canvas zoom (the card's scale on screen).
+      const titles = await canvas
+        .locator("[data-testid^='device-card-'] .font-semibold")
+        .evaluateAll((spans) =>
+          spans.map((span) => {
+            const el = span as HTMLElement;
+            const fontPx = parseFloat(getComputedStyle(el).fontSize);
+            const scale = el.getBoundingClientRect().height / el.offsetHeight;
+            return fontPx * scale;
+          }),
+        );
+      expect(titles.length).toBeGreaterThan(0);
+      expect(Math.min(...titles)).toBeGreaterThanOrEqual(11);
+      // And cards are on screen, not panned away: the view is on the first line.
+      const frame = (await canvas.boundingBox())!;
+      const cards = await canvas
+        .locator("[data-testid^='device-card-']")
+        .evaluateAll((els) => els.map((el) => el.getBoundingClientRect().toJSON() as DOMRect));
+      const onScreen = cards.filter(
+        (r) =>
+          r.right > frame.x &&
+          r.left < frame.x + frame.width &&
+          r.bottom > frame.y &&
+          r.top < frame.y + frame.height,
       );
-    expect(titles.length).toBeGreaterThan(0);
-    expect(Math.min(...titles)).toBeGreaterThanOrEqual(11);
-    // And cards are on screen, not panned away: the view is on the first line.
-    const frame = (await canvas.boundingBox())!;
-    const cards = await canvas
-      .locator("[data-testid^='device-card-']")
-      .evaluateAll((els) => els.map((el) => el.getBoundingClientRect().toJSON() as DOMRect));
-    const onScreen = cards.filter(
-      (r) =>
-        r.right > frame.x &&
-        r.left < frame.x + frame.width &&
-        r.bottom > frame.y &&
-        r.top < frame.y + frame.height,
-    );
-    expect(onScreen.length).toBeGreaterThan(0);
-    await context.close();
-  });
+      expect(onScreen.length).toBeGreaterThan(0);
+    },
+  );
 });
