@@ -143,7 +143,7 @@ describe("accessibility (axe-core) in headless Chromium", () => {
         await canvas.locator("[data-testid^='device-card-']").first().waitFor();
         // The editor with a device selected: the inspector panels open beside the canvas.
         await canvas.locator("[data-testid^='device-card-']").first().click();
-        await page.getByRole("region", { name: "Device" }).waitFor();
+        await page.getByRole("region", { name: "Device", exact: true }).waitFor();
         await scan(page, `${role}: bench editor with a selection`);
       }
 
