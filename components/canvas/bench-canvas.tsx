@@ -27,6 +27,8 @@ import { joinUnitLink } from "@/components/bench-editor/model/unit-links";
 import { useEditor, useEditorStoreApi } from "@/components/bench-editor/store/editor-context";
 import {
   benchGraph,
+  CARD_HEADER,
+  CARD_WIDTH,
   type BenchEdge,
   type BenchNode,
   type FloorPlanNodeData,
@@ -297,6 +299,37 @@ export function BenchCanvas({
       // A mark for tests and styles that the opening view is in place (not rendered by React).
       .then(() => frame?.setAttribute("data-view", "opened"));
   }, [initialised, graph, flow]);
+
+  // A device that newly reports a fault (live console) is brought into view if it is off screen.
+  const seenFaults = useRef<ReadonlySet<string>>(new Set());
+  useEffect(() => {
+    const now = new Set(
+      [...(faults ?? new Map<string, readonly string[]>())]
+        .filter(([, list]) => list.length > 0)
+        .map(([id]) => id),
+    );
+    const fresh = [...now].filter((id) => !seenFaults.current.has(id));
+    seenFaults.current = now;
+    const frame = frameRef.current;
+    if (!opened.current || fresh.length === 0 || frame === null) return;
+    const node = flow.getNode(deviceNodeId(fresh[0]!));
+    if (node === undefined) return;
+    const width = node.measured?.width ?? CARD_WIDTH;
+    const height = node.measured?.height ?? CARD_HEADER;
+    const { x, y, zoom } = flow.getViewport();
+    const left = node.position.x * zoom + x;
+    const top = node.position.y * zoom + y;
+    const inView =
+      left >= 0 &&
+      top >= 0 &&
+      left + width * zoom <= frame.clientWidth &&
+      top + height * zoom <= frame.clientHeight;
+    if (!inView)
+      void flow.setCenter(node.position.x + width / 2, node.position.y + height / 2, {
+        zoom,
+        duration: 250,
+      });
+  }, [faults, flow]);
 
   // Centre a node another panel asked for (address table, check list, search).
   useEffect(() => {

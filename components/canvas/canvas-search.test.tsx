@@ -9,7 +9,9 @@ describe("CanvasSearch", () => {
   it("is a combobox whose options the arrow keys walk and Enter reveals", async () => {
     const onReveal = vi.fn();
     render(<CanvasSearch bench={testBench()} inputRef={createRef()} onReveal={onReveal} />);
-    const input = screen.getByRole("combobox", { name: "Find a group address or device" });
+    const input = screen.getByRole("combobox", {
+      name: "Search the canvas for an address or device",
+    });
     expect(input.getAttribute("aria-expanded")).toBe("false");
     await userEvent.type(input, "1/0");
     expect(input.getAttribute("aria-expanded")).toBe("true");

@@ -102,7 +102,7 @@ export function CanvasSearch({
           }
         }}
         placeholder="Find address or device  ( / )"
-        aria-label="Find a group address or device"
+        aria-label="Search the canvas for an address or device"
         className="w-full rounded-md border border-graphite-line bg-graphite-raised px-3 py-1.5 text-sm text-graphite-text placeholder:text-graphite-muted"
       />
       <ul

@@ -56,6 +56,21 @@ describe("openingViewport", () => {
     expect(openingFocus(faulty).map((n) => n.id)).toEqual(["d:act-hall"]);
   });
 
+  it("counts a device on a unit link only (no individual address) with the first line", () => {
+    const bench = testBench();
+    bench.devices.push({ id: "iu", type: "indoor-unit", name: "Indoor", parameters: {} });
+    const layout = tallLayout();
+    (layout.devices as Map<string, { x: number; y: number }>).set("iu", { x: 0, y: -400 });
+    const { nodes } = benchGraph(bench, { layout });
+    expect(
+      openingFocus(nodes)
+        .map((n) => n.id)
+        .sort(),
+    ).toEqual(["d:act-hall", "d:iu", "d:pb-hall"]);
+    // Shown from the top of the column, where the indoor unit sits.
+    expect(openingViewport(nodes, { width: 1000, height: 600 }).y).toBeCloseTo(32 + 400 * 0.9);
+  });
+
   it("opens an empty bench at zoom 1 at the origin", () => {
     expect(openingViewport([], { width: 800, height: 600 })).toEqual({ x: 0, y: 0, zoom: 1 });
   });

@@ -53,9 +53,13 @@ function union(boxes: readonly (Box | undefined)[]): Box | undefined {
   return box;
 }
 
-/** Line part ("area.line") of a device's individual address, as a sortable number. */
-function lineOf(node: BenchNode): number {
-  if (node.type !== "device" || node.data.device.individualAddress === undefined) return Infinity;
+/**
+ * Line part ("area.line") of a device's individual address, as a sortable
+ * number; undefined for a device that sits only on a unit link (an indoor
+ * unit, a wall controller), which goes with whichever line is shown.
+ */
+function lineOf(node: BenchNode): number | undefined {
+  if (node.type !== "device" || node.data.device.individualAddress === undefined) return undefined;
   const raw = parseIndividualAddress(node.data.device.individualAddress);
   return raw.ok ? raw.value >>> 8 : Infinity;
 }
@@ -72,8 +76,12 @@ export function openingFocus(nodes: readonly BenchNode[]): BenchNode[] {
   const faulty = drawn.filter((n) => n.type === "device" && n.data.faults !== undefined);
   if (faulty.length > 0) return faulty;
   const devices = drawn.filter((n) => n.type === "device");
-  const first = Math.min(...devices.map(lineOf));
-  const firstLine = devices.filter((n) => lineOf(n) === first);
+  const lines = devices.map(lineOf).filter((line) => line !== undefined);
+  const first = Math.min(...lines);
+  const firstLine = devices.filter((n) => {
+    const line = lineOf(n);
+    return line === undefined || line === first;
+  });
   return firstLine.length > 0 ? firstLine : drawn;
 }
 
