@@ -27,8 +27,6 @@ import { joinUnitLink } from "@/components/bench-editor/model/unit-links";
 import { useEditor, useEditorStoreApi } from "@/components/bench-editor/store/editor-context";
 import {
   benchGraph,
-  CARD_HEADER,
-  CARD_WIDTH,
   type BenchEdge,
   type BenchNode,
   type FloorPlanNodeData,
@@ -48,7 +46,7 @@ import {
   UNIT_LINK_HANDLE,
 } from "./node-ids";
 import { CanvasSearch } from "./canvas-search";
-import { openingViewport } from "./opening-view";
+import { openingViewport, revealViewport } from "./opening-view";
 import { useBenchLayout } from "./use-bench-layout";
 import { addDevice } from "@/components/bench-editor/model/devices";
 
@@ -312,23 +310,14 @@ export function BenchCanvas({
     seenFaults.current = now;
     const frame = frameRef.current;
     if (!opened.current || fresh.length === 0 || frame === null) return;
-    const node = flow.getNode(deviceNodeId(fresh[0]!));
-    if (node === undefined) return;
-    const width = node.measured?.width ?? CARD_WIDTH;
-    const height = node.measured?.height ?? CARD_HEADER;
-    const { x, y, zoom } = flow.getViewport();
-    const left = node.position.x * zoom + x;
-    const top = node.position.y * zoom + y;
-    const inView =
-      left >= 0 &&
-      top >= 0 &&
-      left + width * zoom <= frame.clientWidth &&
-      top + height * zoom <= frame.clientHeight;
-    if (!inView)
-      void flow.setCenter(node.position.x + width / 2, node.position.y + height / 2, {
-        zoom,
-        duration: 250,
-      });
+    const nodes = fresh
+      .map((id) => flow.getNode(deviceNodeId(id)))
+      .filter((n): n is BenchNode => n !== undefined);
+    const next = revealViewport(nodes, flow.getViewport(), {
+      width: frame.clientWidth,
+      height: frame.clientHeight,
+    });
+    if (next !== undefined) void flow.setViewport(next, { duration: 250 });
   }, [faults, flow]);
 
   // Centre a node another panel asked for (address table, check list, search).

@@ -2,7 +2,13 @@ import { describe, expect, it } from "vitest";
 import { testBench } from "@/components/bench-editor/model/test-bench";
 import { benchGraph } from "./bench-graph";
 import type { BenchLayout } from "./bench-layout";
-import { OPEN_ZOOM_MAX, OPEN_ZOOM_MIN, openingFocus, openingViewport } from "./opening-view";
+import {
+  OPEN_ZOOM_MAX,
+  OPEN_ZOOM_MIN,
+  openingFocus,
+  openingViewport,
+  revealViewport,
+} from "./opening-view";
 
 /** A hand-made layout: cards in a column at x 0, bars at x 500, far apart vertically. */
 function tallLayout(): BenchLayout {
@@ -69,6 +75,21 @@ describe("openingViewport", () => {
     ).toEqual(["d:act-hall", "d:iu", "d:pb-hall"]);
     // Shown from the top of the column, where the indoor unit sits.
     expect(openingViewport(nodes, { width: 1000, height: 600 }).y).toBeCloseTo(32 + 400 * 0.9);
+  });
+
+  it("pans to devices that newly report a fault: none when in view, else the top one", () => {
+    const { nodes } = benchGraph(testBench(), { layout: tallLayout() });
+    const devices = nodes.filter((n) => n.type === "device");
+    const size = { width: 1000, height: 600 };
+    const atTop = { x: 0, y: 0, zoom: 1 };
+    const act = devices.filter((n) => n.id === "d:act-hall");
+    expect(revealViewport(act, atTop, size)).toBeUndefined();
+    // Both cards (y 0 and y 3000) cannot fit at this zoom: the top one is centred.
+    const both = revealViewport(devices, { x: 0, y: -2900, zoom: 1 }, size)!;
+    expect(both.zoom).toBe(1);
+    const actTop = 0 * both.zoom + both.y;
+    expect(actTop).toBeGreaterThan(0);
+    expect(actTop).toBeLessThan(600);
   });
 
   it("opens an empty bench at zoom 1 at the origin", () => {

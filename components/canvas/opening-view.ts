@@ -117,3 +117,34 @@ export function openingViewport(
     zoom,
   };
 }
+
+/**
+ * Where to pan, keeping the zoom, so `nodes` come into view: undefined when
+ * they all are already; else centred on them when they fit, or on the top
+ * one when they do not (a fault that spans the bench starts where it reads).
+ */
+export function revealViewport(
+  nodes: readonly BenchNode[],
+  viewport: Viewport,
+  size: { readonly width: number; readonly height: number },
+): Viewport | undefined {
+  const box = union(nodes.map(nodeBox));
+  if (box === undefined) return undefined;
+  const { zoom } = viewport;
+  const onScreen = (b: Box) =>
+    b.minX * zoom + viewport.x >= 0 &&
+    b.minY * zoom + viewport.y >= 0 &&
+    b.maxX * zoom + viewport.x <= size.width &&
+    b.maxY * zoom + viewport.y <= size.height;
+  const boxes = nodes.map(nodeBox).filter((b): b is Box => b !== undefined);
+  if (boxes.every(onScreen)) return undefined;
+  const fits =
+    (box.maxX - box.minX) * zoom <= size.width - 2 * PADDING &&
+    (box.maxY - box.minY) * zoom <= size.height - 2 * PADDING;
+  const target = fits ? box : boxes.reduce((top, b) => (b.minY < top.minY ? b : top));
+  return {
+    zoom,
+    x: size.width / 2 - ((target.minX + target.maxX) / 2) * zoom,
+    y: size.height / 2 - ((target.minY + target.maxY) / 2) * zoom,
+  };
+}
