@@ -8,6 +8,7 @@ import {
   openingFocus,
   openingViewport,
   revealViewport,
+  TOP_CLEARANCE,
 } from "./opening-view";
 
 /** A hand-made layout: cards in a column at x 0, bars at x 500, far apart vertically. */
@@ -39,7 +40,7 @@ describe("openingViewport", () => {
     expect(view.zoom).toBeGreaterThanOrEqual(OPEN_ZOOM_MIN);
     expect(view.zoom).toBeLessThanOrEqual(OPEN_ZOOM_MAX);
     // Taller than the canvas: shown from its top, with the whole width across.
-    expect(view.y).toBeCloseTo(32);
+    expect(view.y).toBeCloseTo(TOP_CLEARANCE);
     expect(view.x).toBeGreaterThan(0);
   });
 
@@ -74,7 +75,9 @@ describe("openingViewport", () => {
         .sort(),
     ).toEqual(["d:act-hall", "d:iu", "d:pb-hall"]);
     // Shown from the top of the column, where the indoor unit sits.
-    expect(openingViewport(nodes, { width: 1000, height: 600 }).y).toBeCloseTo(32 + 400 * 0.9);
+    expect(openingViewport(nodes, { width: 1000, height: 600 }).y).toBeCloseTo(
+      TOP_CLEARANCE + 400 * 0.9,
+    );
   });
 
   it("pans to devices that newly report a fault: none when in view, else the top one", () => {

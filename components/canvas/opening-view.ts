@@ -11,6 +11,8 @@ import { BUS_BAR_HEIGHT, BUS_BAR_WIDTH, CARD_WIDTH, cardHeight } from "./bench-l
 export const OPEN_ZOOM_MIN = 0.9;
 export const OPEN_ZOOM_MAX = 1;
 const PADDING = 32;
+/** Top margin when the focus is taller than the canvas: clears the search box over the canvas. */
+export const TOP_CLEARANCE = 64;
 
 interface Box {
   minX: number;
@@ -107,13 +109,13 @@ export function openingViewport(
   }
   const fit = Math.min(room.width / (box.maxX - box.minX), room.height / (box.maxY - box.minY));
   const zoom = Math.min(OPEN_ZOOM_MAX, Math.max(OPEN_ZOOM_MIN, fit));
-  const place = (min: number, max: number, pixels: number) => {
+  const place = (min: number, max: number, pixels: number, margin: number) => {
     const span = (max - min) * zoom;
-    return span <= pixels - 2 * PADDING ? (pixels - span) / 2 - min * zoom : PADDING - min * zoom;
+    return span <= pixels - 2 * margin ? (pixels - span) / 2 - min * zoom : margin - min * zoom;
   };
   return {
-    x: place(box.minX, box.maxX, size.width),
-    y: place(box.minY, box.maxY, size.height),
+    x: place(box.minX, box.maxX, size.width, PADDING),
+    y: place(box.minY, box.maxY, size.height, TOP_CLEARANCE),
     zoom,
   };
 }
