@@ -156,7 +156,7 @@ function DeleteButton({ address, onDelete }: { address: string; onDelete: () => 
   ) : (
     <button
       type="button"
-      className="text-ink-soft hover:text-fault"
+      className="inline-flex size-6 items-center justify-center rounded text-ink-soft hover:text-fault"
       onClick={() => setArmed(true)}
       aria-label={`Delete ${address}`}
     >
@@ -265,6 +265,11 @@ export function AddressTable({
               className={`block ${f.severity === "error" ? "text-fault" : "text-copper-deep"}`}
               title={f.rule}
             >
+              {/* Severity by shape and word as well as colour. */}
+              <span aria-hidden="true">
+                {f.severity === "error" ? "✖ " : f.severity === "warning" ? "▲ " : "· "}
+              </span>
+              <span className="sr-only">{f.severity}: </span>
               {f.message}
             </span>
           )),

@@ -113,7 +113,7 @@ export function ObjectList({
                             <button
                               type="button"
                               aria-label={`Unlink ${link.groupAddress}`}
-                              className="text-ink-soft hover:text-fault"
+                              className="inline-flex size-6 items-center justify-center rounded text-ink-soft hover:text-fault"
                               onClick={() =>
                                 store
                                   .getState()
@@ -136,7 +136,7 @@ export function ObjectList({
                 <td key={f.key} className="py-1 text-center">
                   <input
                     type="checkbox"
-                    className="accent-copper"
+                    className="size-6 accent-copper"
                     checked={object.flags[f.key]}
                     disabled={readOnly}
                     aria-label={`${f.label} flag of object ${object.number}`}

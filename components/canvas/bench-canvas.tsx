@@ -9,6 +9,7 @@ import {
   ConnectionMode,
   Controls,
   MiniMap,
+  Panel,
   ReactFlow,
   useReactFlow,
   type Connection,
@@ -31,6 +32,7 @@ import {
   type FloorPlanNodeData,
   type LinkEdge,
 } from "./bench-graph";
+import { AddressGroupNodeComponent } from "./address-group-node";
 import { BusBarNodeComponent } from "./bus-bar-node";
 import { DeviceNodeComponent } from "./device-node";
 import { FloorPlanNodeComponent } from "./floor-plan-node";
@@ -44,14 +46,19 @@ import {
   UNIT_LINK_HANDLE,
 } from "./node-ids";
 import { CanvasSearch } from "./canvas-search";
+import { openingViewport, revealViewport } from "./opening-view";
+import { useBenchLayout } from "./use-bench-layout";
 import { addDevice } from "@/components/bench-editor/model/devices";
 
 const nodeTypes: NodeTypes = {
   device: DeviceNodeComponent,
   busBar: BusBarNodeComponent,
   floorPlan: FloorPlanNodeComponent,
+  addressGroup: AddressGroupNodeComponent,
 };
 const edgeTypes: EdgeTypes = { link: LinkEdgeComponent, unitLink: UnitLinkEdgeComponent };
+
+const EMPTY_GRAPH: { nodes: BenchNode[]; edges: BenchEdge[] } = { nodes: [], edges: [] };
 
 /** Above this many nodes only what is on screen is rendered, so a 300-device bench pans smoothly. */
 const VISIBLE_ONLY_THRESHOLD = 150;
@@ -95,18 +102,26 @@ export function BenchCanvas({
   const reveal = useEditor((s) => s.reveal);
   const flow = useReactFlow<BenchNode, BenchEdge>();
   const searchRef = useRef<HTMLInputElement>(null);
+  const frameRef = useRef<HTMLDivElement>(null);
+  const layout = useBenchLayout(bench);
+  // On by default: a bench opens as cards and bars, and a selection lights up its own wires.
+  const [focusWires, setFocusWires] = useState(true);
 
   const graph = useMemo(
     () =>
-      benchGraph(bench, {
-        ...(findings ? { findings } : {}),
-        selectedDevices: new Set(selection.devices),
-        selectedAddresses: new Set(selection.groupAddresses.map(groupAddressKey)),
-        ...(selection.object === undefined ? {} : { focusObject: selection.object }),
-        floorPlan: floorPlan ?? null,
-        ...(faults ? { faults } : {}),
-      }),
-    [bench, findings, selection, floorPlan, faults],
+      layout === null
+        ? EMPTY_GRAPH
+        : benchGraph(bench, {
+            ...(findings ? { findings } : {}),
+            selectedDevices: new Set(selection.devices),
+            selectedAddresses: new Set(selection.groupAddresses.map(groupAddressKey)),
+            ...(selection.object === undefined ? {} : { focusObject: selection.object }),
+            floorPlan: floorPlan ?? null,
+            ...(faults ? { faults } : {}),
+            layout,
+            focusWires,
+          }),
+    [bench, findings, selection, floorPlan, faults, layout, focusWires],
   );
   const [nodes, setNodes] = useState<BenchNode[]>(graph.nodes);
   const [edges, setEdges] = useState<BenchEdge[]>(graph.edges);
@@ -265,6 +280,46 @@ export function BenchCanvas({
     [storeApi, deleteSelected, flow, readOnly],
   );
 
+  // Open once, when the first layout is drawn: readable zoom, on the selection, a fault or the first line.
+  const [initialised, setInitialised] = useState(false);
+  const opened = useRef(false);
+  useEffect(() => {
+    if (opened.current || !initialised || graph === EMPTY_GRAPH) return;
+    const frame = frameRef.current;
+    opened.current = true;
+    void flow
+      .setViewport(
+        openingViewport(graph.nodes, {
+          width: frame?.clientWidth ?? 0,
+          height: frame?.clientHeight ?? 0,
+        }),
+      )
+      // A mark for tests and styles that the opening view is in place (not rendered by React).
+      .then(() => frame?.setAttribute("data-view", "opened"));
+  }, [initialised, graph, flow]);
+
+  // A device that newly reports a fault (live console) is brought into view if it is off screen.
+  const seenFaults = useRef<ReadonlySet<string>>(new Set());
+  useEffect(() => {
+    const now = new Set(
+      [...(faults ?? new Map<string, readonly string[]>())]
+        .filter(([, list]) => list.length > 0)
+        .map(([id]) => id),
+    );
+    const fresh = [...now].filter((id) => !seenFaults.current.has(id));
+    seenFaults.current = now;
+    const frame = frameRef.current;
+    if (!opened.current || fresh.length === 0 || frame === null) return;
+    const nodes = fresh
+      .map((id) => flow.getNode(deviceNodeId(id)))
+      .filter((n): n is BenchNode => n !== undefined);
+    const next = revealViewport(nodes, flow.getViewport(), {
+      width: frame.clientWidth,
+      height: frame.clientHeight,
+    });
+    if (next !== undefined) void flow.setViewport(next, { duration: 250 });
+  }, [faults, flow]);
+
   // Centre a node another panel asked for (address table, check list, search).
   useEffect(() => {
     if (reveal === null) return;
@@ -312,6 +367,7 @@ export function BenchCanvas({
 
   return (
     <div
+      ref={frameRef}
       className="relative h-full w-full bg-graphite"
       onKeyDown={onKeyDown}
       {...(readOnly ? {} : { onDragOver, onDrop })}
@@ -336,8 +392,7 @@ export function BenchCanvas({
         onlyRenderVisibleElements={nodes.length > VISIBLE_ONLY_THRESHOLD}
         minZoom={0.05}
         maxZoom={2}
-        fitView
-        fitViewOptions={{ padding: 0.1 }}
+        onInit={() => setInitialised(true)}
         colorMode="dark"
         proOptions={{ hideAttribution: true }}
         connectionLineStyle={{ stroke: "#d98b4e", strokeWidth: 2 }}
@@ -351,16 +406,36 @@ export function BenchCanvas({
           bgColor="#24272c"
         />
         <Controls showInteractive={false} />
+        <Panel position="top-right">
+          <button
+            type="button"
+            aria-pressed={focusWires}
+            onClick={() => setFocusWires((on) => !on)}
+            className="rounded-md border border-graphite-line bg-graphite-raised px-3 py-1.5 text-xs text-graphite-text hover:border-copper-bright"
+            title="Fade the wires that do not touch the selected cards and bus-bars"
+          >
+            {focusWires ? "Wires: selection only" : "Wires: all"}
+          </button>
+        </Panel>
+        {layout === null ? (
+          <Panel position="top-center">
+            <p role="status" className="text-sm text-graphite-muted">
+              Laying out the bench…
+            </p>
+          </Panel>
+        ) : null}
         {nodes.length <= VISIBLE_ONLY_THRESHOLD * 4 ? (
           <MiniMap
             pannable
             zoomable
             nodeColor={(n) =>
               n.type === "busBar"
-                ? "#b3662c"
+                ? "#d98b4e" // --color-copper-bright
                 : n.type === "device" && n.data.faults !== undefined
-                  ? "#c42e28" // --color-fault: a faulty device stays visible however far out
-                  : "#41464f"
+                  ? "#f07a70" // --color-fault-bright: a faulty device stays visible however far out
+                  : n.type === "addressGroup"
+                    ? "transparent"
+                    : "#41464f"
             }
             maskColor="rgba(36,39,44,0.7)"
             bgColor="#2f333a"

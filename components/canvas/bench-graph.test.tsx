@@ -1,9 +1,12 @@
 import { describe, expect, it } from "vitest";
 import { testBench } from "@/components/bench-editor/model/test-bench";
-import { benchGraph } from "./bench-graph";
+import ELK from "elkjs/lib/elk.bundled.js";
+import { benchGraph, type LinkEdge } from "./bench-graph";
+import { layoutBench } from "./bench-layout";
 import { dptFamily } from "./dpt-family";
 
-describe("benchGraph", () => {
+// The layout test runs elkjs, whose first layout is slow on a busy machine.
+describe("benchGraph", { timeout: 60_000 }, () => {
   it("draws a card per device, a bus-bar per address and marks each object's sending link", () => {
     const { nodes, edges } = benchGraph(testBench());
     expect(nodes.filter((n) => n.type === "device").map((n) => n.id)).toEqual([
@@ -26,7 +29,7 @@ describe("benchGraph", () => {
     ]);
   });
 
-  it("chains a unit link through its members and lays out nodes without positions apart", () => {
+  it("chains a unit link through its members and lays out nodes without positions apart", async () => {
     const bench = testBench();
     bench.devices.push(
       {
@@ -39,12 +42,27 @@ describe("benchGraph", () => {
       { id: "iu", type: "indoor-unit", name: "Indoor", parameters: {} },
     );
     bench.unitLinks.push({ id: "wiring", members: ["gw", "iu"] });
-    const { nodes, edges } = benchGraph(bench);
+    const { nodes, edges } = benchGraph(bench, { layout: await layoutBench(bench, new ELK()) });
     expect(edges.filter((e) => e.type === "unitLink").map((e) => [e.source, e.target])).toEqual([
       ["d:gw", "d:iu"],
     ]);
     const positions = new Set(nodes.map((n) => `${n.position.x},${n.position.y}`));
     expect(positions.size).toBe(nodes.length);
+  });
+
+  it("fades the wires away from the selection when wires focus on it", () => {
+    const faded = (selectedDevices: Set<string>) =>
+      benchGraph(testBench(), { focusWires: true, selectedDevices })
+        .edges.filter((e): e is LinkEdge => e.type === "link")
+        .map((e) => [e.data!.device, e.data!.object, e.data!.dimmed === true]);
+    expect(faded(new Set(["act-hall"]))).toEqual([
+      ["pb-hall", 0, true],
+      ["act-hall", 0, false],
+      ["act-hall", 1, false],
+    ]);
+    expect(faded(new Set()).every(([, , dimmed]) => dimmed)).toBe(true);
+    const all = benchGraph(testBench(), { focusWires: false }).edges;
+    expect(all.some((e) => e.data?.dimmed === true)).toBe(false);
   });
 
   it("tints ports by DPT family", () => {

@@ -1,9 +1,5 @@
 import type { Edge, Node } from "@xyflow/react";
-import {
-  formatIndividualAddress,
-  parseGroupAddress,
-  parseIndividualAddress,
-} from "@/engine/address";
+import { formatIndividualAddress, parseIndividualAddress } from "@/engine/address";
 import type { Bench, BenchDevice, BenchGroupAddress, Position } from "@/engine/bench";
 import type { CheckFinding, CheckSeverity } from "@/engine/checks/check-finding";
 import { getDeviceType } from "@/engine/devices";
@@ -17,6 +13,15 @@ import {
   objectHandleId,
   UNIT_LINK_HANDLE,
 } from "./node-ids";
+import {
+  BUS_BAR_HEIGHT,
+  BUS_BAR_WIDTH,
+  EMPTY_LAYOUT,
+  GROUP_PADDING,
+  type BenchLayout,
+} from "./bench-layout";
+
+export { BUS_BAR_HEIGHT, BUS_BAR_WIDTH, CARD_HEADER, CARD_WIDTH, ROW_HEIGHT } from "./bench-layout";
 
 export interface DeviceObjectRow extends EditorObject {
   /** Sending address text, when the object has a link. */
@@ -53,27 +58,32 @@ export type FloorPlanNodeData = {
 export type DeviceNode = Node<DeviceNodeData, "device">;
 export type BusBarNode = Node<BusBarNodeData, "busBar">;
 export type FloorPlanNode = Node<FloorPlanNodeData, "floorPlan">;
-export type BenchNode = DeviceNode | BusBarNode | FloorPlanNode;
+export type AddressGroupNodeData = {
+  readonly label: string;
+  /** "1/0/…", or empty for addresses that do not parse. */
+  readonly range: string;
+  readonly width: number;
+  readonly height: number;
+};
+export type AddressGroupNode = Node<AddressGroupNodeData, "addressGroup">;
+export type BenchNode = DeviceNode | BusBarNode | FloorPlanNode | AddressGroupNode;
 
 export type LinkEdgeData = {
   readonly device: string;
   readonly object: number;
   readonly groupAddress: string;
   readonly sending: boolean;
+  /** Drawn faint: wires focus on the selection and this wire does not touch it. */
+  readonly dimmed?: boolean;
+  /** Canvas x of the wire's vertical run, from the layout; absent once either end was moved by hand. */
+  readonly channelX?: number;
 };
 export type LinkEdge = Edge<LinkEdgeData, "link">;
-export type UnitLinkEdge = Edge<{ readonly unitLink: string }, "unitLink">;
+export type UnitLinkEdge = Edge<
+  { readonly unitLink: string; readonly dimmed?: boolean },
+  "unitLink"
+>;
 export type BenchEdge = LinkEdge | UnitLinkEdge;
-
-/** Card and bus-bar sizes in canvas units; the auto layout and the nodes share them. */
-export const CARD_WIDTH = 248;
-export const CARD_HEADER = 52;
-export const ROW_HEIGHT = 24;
-export const BUS_BAR_WIDTH = 300;
-export const BUS_BAR_HEIGHT = 40;
-const COLUMN_GAP = 48;
-const ROW_GAP = 32;
-const DEVICE_COLUMNS = 4;
 
 function worse(a: CheckSeverity | undefined, b: CheckSeverity): CheckSeverity {
   if (a === "error" || b === "error") return "error";
@@ -82,40 +92,50 @@ function worse(a: CheckSeverity | undefined, b: CheckSeverity): CheckSeverity {
 }
 
 /**
- * Where benches without stored positions put things: device cards in columns
- * on the left, bus-bars stacked on the right in address order with a gap
- * between middle groups. Stored positions always win.
+ * A frame around the bus-bars of one main/middle group, around where its bars
+ * actually are (a dragged bar takes its frame along).
  */
-export function autoLayout(bench: Bench): {
-  devices: Map<string, Position>;
-  addresses: Map<string, Position>;
-} {
-  const devices = new Map<string, Position>();
-  const columnY = Array.from({ length: DEVICE_COLUMNS }, () => 0);
-  let column = 0;
-  for (const device of bench.devices) {
-    if (device.position !== undefined) continue;
-    const height = CARD_HEADER + Math.max(1, deviceObjects(device).length) * ROW_HEIGHT;
-    devices.set(device.id, { x: column * (CARD_WIDTH + COLUMN_GAP), y: columnY[column]! });
-    columnY[column]! += height + ROW_GAP;
-    column = (column + 1) % DEVICE_COLUMNS;
+function groupFrames(
+  layout: BenchLayout,
+  barPosition: (key: string) => Position | undefined,
+): AddressGroupNode[] {
+  const frames: AddressGroupNode[] = [];
+  for (const group of layout.groups) {
+    let minX = Infinity;
+    let minY = Infinity;
+    let maxX = -Infinity;
+    let maxY = -Infinity;
+    for (const key of group.addresses) {
+      const p = barPosition(key);
+      if (p === undefined) continue;
+      minX = Math.min(minX, p.x);
+      minY = Math.min(minY, p.y);
+      maxX = Math.max(maxX, p.x + BUS_BAR_WIDTH);
+      maxY = Math.max(maxY, p.y + BUS_BAR_HEIGHT);
+    }
+    if (minX === Infinity) continue;
+    frames.push({
+      id: `mg:${group.id}`,
+      type: "addressGroup",
+      position: { x: minX - GROUP_PADDING.side, y: minY - GROUP_PADDING.top },
+      data: {
+        label:
+          group.id === "?"
+            ? "Addresses that do not parse"
+            : `Main group ${group.main} · middle group ${group.middle}`,
+        range: group.id === "?" ? "" : `${group.id}/…`,
+        width: maxX - minX + 2 * GROUP_PADDING.side,
+        height: maxY - minY + GROUP_PADDING.top + GROUP_PADDING.bottom,
+      },
+      draggable: false,
+      selectable: false,
+      deletable: false,
+      focusable: false,
+      connectable: false,
+      zIndex: -1,
+    });
   }
-  const addresses = new Map<string, Position>();
-  const x = DEVICE_COLUMNS * (CARD_WIDTH + COLUMN_GAP) + 160;
-  const sorted = bench.groupAddresses
-    .filter((g) => g.position === undefined)
-    .map((g) => ({ g, raw: parseGroupAddress(g.address) }))
-    .sort((a, b) => (a.raw.ok ? a.raw.value : 0) - (b.raw.ok ? b.raw.value : 0));
-  let y = 0;
-  let group = -1;
-  for (const { g, raw } of sorted) {
-    const middle = raw.ok ? raw.value >>> 8 : -1;
-    if (group !== -1 && middle !== group) y += 28;
-    group = middle;
-    addresses.set(groupAddressKey(g.address), { x, y });
-    y += BUS_BAR_HEIGHT + 12;
-  }
-  return { devices, addresses };
+  return frames;
 }
 
 export interface GraphOptions {
@@ -126,6 +146,13 @@ export interface GraphOptions {
   readonly floorPlan?: FloorPlanNodeData | null;
   /** Active fault ids per device id, from a running simulation. */
   readonly faults?: ReadonlyMap<string, readonly string[]>;
+  /** Where nodes without a stored position go (layoutBench); without it they stack at the origin. */
+  readonly layout?: BenchLayout;
+  /**
+   * Wires that touch no selected card or bus-bar are drawn faint; with nothing
+   * selected every wire is faint, so the cards and bars read first.
+   */
+  readonly focusWires?: boolean;
 }
 
 /** The canvas view of a bench: one card per device, one bus-bar per group address, one edge per link and unit link. */
@@ -133,7 +160,10 @@ export function benchGraph(
   bench: Bench,
   options: GraphOptions = {},
 ): { nodes: BenchNode[]; edges: BenchEdge[] } {
-  const layout = autoLayout(bench);
+  const layout = options.layout ?? EMPTY_LAYOUT;
+  const selectedDevices = options.selectedDevices ?? new Set<string>();
+  const selectedAddresses = options.selectedAddresses ?? new Set<string>();
+  const focusWires = options.focusWires ?? false;
   const deviceSeverity = new Map<string, CheckSeverity>();
   const objectSeverity = new Map<string, CheckSeverity>();
   const addressSeverity = new Map<string, CheckSeverity>();
@@ -153,6 +183,10 @@ export function benchGraph(
     }
   }
 
+  const movedDevices = new Set(bench.devices.filter((d) => d.position).map((d) => d.id));
+  const movedAddresses = new Set(
+    bench.groupAddresses.filter((g) => g.position).map((g) => groupAddressKey(g.address)),
+  );
   const linksByObject = new Map<string, string[]>();
   const linksByAddress = new Map<string, number>();
   const edges: BenchEdge[] = [];
@@ -164,6 +198,10 @@ export function benchGraph(
     linksByObject.set(objectKey, list);
     const key = groupAddressKey(link.groupAddress);
     linksByAddress.set(key, (linksByAddress.get(key) ?? 0) + 1);
+    const channelX =
+      movedDevices.has(link.device) || movedAddresses.has(key)
+        ? undefined
+        : layout.channels.get(`${objectKey}@${key}`);
     edges.push({
       id: `l:${objectKey}@${key}`,
       type: "link",
@@ -171,7 +209,16 @@ export function benchGraph(
       sourceHandle: objectHandleId(link.object),
       target: busBarNodeId(link.groupAddress),
       targetHandle: BUS_HANDLE,
-      data: { device: link.device, object: link.object, groupAddress: link.groupAddress, sending },
+      data: {
+        device: link.device,
+        object: link.object,
+        groupAddress: link.groupAddress,
+        sending,
+        ...(channelX === undefined ? {} : { channelX }),
+        ...(focusWires && !selectedDevices.has(link.device) && !selectedAddresses.has(key)
+          ? { dimmed: true }
+          : {}),
+      },
     });
   }
   for (const unitLink of bench.unitLinks) {
@@ -184,7 +231,12 @@ export function benchGraph(
         sourceHandle: UNIT_LINK_HANDLE,
         target: deviceNodeId(unitLink.members[i]!),
         targetHandle: UNIT_LINK_HANDLE,
-        data: { unitLink: unitLink.id },
+        data: {
+          unitLink: unitLink.id,
+          ...(focusWires && !unitLink.members.some((m) => selectedDevices.has(m))
+            ? { dimmed: true }
+            : {}),
+        },
         deletable: false,
       });
     }
@@ -218,7 +270,7 @@ export function benchGraph(
     });
     const severity = deviceSeverity.get(device.id);
     const faults = options.faults?.get(device.id);
-    const selected = options.selectedDevices?.has(device.id) ?? false;
+    const selected = selectedDevices.has(device.id);
     nodes.push({
       id: deviceNodeId(device.id),
       type: "device",
@@ -237,6 +289,14 @@ export function benchGraph(
       },
     });
   }
+  const barPositions = new Map<string, Position>();
+  for (const groupAddress of bench.groupAddresses) {
+    const key = groupAddressKey(groupAddress.address);
+    const position = groupAddress.position ?? layout.addresses.get(key);
+    if (position !== undefined && !barPositions.has(key)) barPositions.set(key, position);
+  }
+  // Frames first, so they draw under the bars.
+  nodes.push(...groupFrames(layout, (key) => barPositions.get(key)));
   for (const groupAddress of bench.groupAddresses) {
     const key = groupAddressKey(groupAddress.address);
     const severity = addressSeverity.get(key);
@@ -244,7 +304,7 @@ export function benchGraph(
       id: busBarNodeId(groupAddress.address),
       type: "busBar",
       position: groupAddress.position ?? layout.addresses.get(key) ?? { x: 0, y: 0 },
-      selected: options.selectedAddresses?.has(key) ?? false,
+      selected: selectedAddresses.has(key),
       data: {
         groupAddress,
         linkCount: linksByAddress.get(key) ?? 0,

@@ -5,6 +5,7 @@ import { memo } from "react";
 import { cx } from "@/components/ui/cx";
 import { groupAddressKey } from "@/components/bench-editor/model/group-address-key";
 import type { BusBarNode } from "./bench-graph";
+import { SeverityMark } from "./device-node";
 import { dptFamily } from "./dpt-family";
 import { BUS_HANDLE } from "./node-ids";
 
@@ -30,14 +31,7 @@ function BusBarNodeView({ data, selected }: NodeProps<BusBarNode>) {
         <span className="font-mono" style={{ color: family.color }}>
           {groupAddress.dpt}
         </span>
-        {data.severity === "error" || data.severity === "warning" ? (
-          <span
-            aria-label={`check ${data.severity}`}
-            className={data.severity === "error" ? "text-fault" : "text-copper-bright"}
-          >
-            ●
-          </span>
-        ) : null}
+        <SeverityMark severity={data.severity} />
       </div>
       <div
         className={cx(
@@ -49,7 +43,6 @@ function BusBarNodeView({ data, selected }: NodeProps<BusBarNode>) {
           type="target"
           id={BUS_HANDLE}
           position={Position.Left}
-          aria-label={`Bus-bar ${groupAddress.address}`}
           className="bus-bar-handle"
           style={{
             left: 0,

@@ -1,6 +1,6 @@
 "use client";
 
-import { useMemo, useState } from "react";
+import { useId, useMemo, useState } from "react";
 import type { Bench } from "@/engine/bench";
 import type { NodeRef } from "@/components/bench-editor/model/move-nodes";
 
@@ -47,6 +47,10 @@ export function searchBench(bench: Bench, query: string): SearchHit[] {
   return hits;
 }
 
+/**
+ * A combobox (WAI-ARIA APG "combobox with listbox popup"): typing lists hits,
+ * the arrow keys move the active option, Enter reveals it on the canvas.
+ */
 export function CanvasSearch({
   bench,
   inputRef,
@@ -57,10 +61,15 @@ export function CanvasSearch({
   onReveal: (node: NodeRef) => void;
 }) {
   const [query, setQuery] = useState("");
+  const [active, setActive] = useState(0);
   const hits = useMemo(() => searchBench(bench, query), [bench, query]);
+  const listId = useId();
+  const open = hits.length > 0;
+  const current = open ? Math.min(active, hits.length - 1) : -1;
   const choose = (hit: SearchHit) => {
     onReveal(hit.node);
     setQuery("");
+    setActive(0);
     inputRef.current?.blur();
   };
   return (
@@ -68,39 +77,59 @@ export function CanvasSearch({
       <input
         ref={inputRef}
         type="search"
+        role="combobox"
+        aria-expanded={open}
+        aria-controls={listId}
+        aria-autocomplete="list"
+        aria-activedescendant={current >= 0 ? `${listId}-${current}` : undefined}
         value={query}
-        onChange={(e) => setQuery(e.target.value)}
+        onChange={(e) => {
+          setQuery(e.target.value);
+          setActive(0);
+        }}
         onKeyDown={(e) => {
-          if (e.key === "Enter" && hits[0]) choose(hits[0]);
-          if (e.key === "Escape") {
+          if (e.key === "ArrowDown" && open) {
+            e.preventDefault();
+            setActive((current + 1) % hits.length);
+          } else if (e.key === "ArrowUp" && open) {
+            e.preventDefault();
+            setActive((current - 1 + hits.length) % hits.length);
+          } else if (e.key === "Enter" && hits[current]) {
+            choose(hits[current]);
+          } else if (e.key === "Escape") {
             setQuery("");
             e.currentTarget.blur();
           }
         }}
         placeholder="Find address or device  ( / )"
-        aria-label="Find a group address or device"
+        aria-label="Search the canvas for an address or device"
         className="w-full rounded-md border border-graphite-line bg-graphite-raised px-3 py-1.5 text-sm text-graphite-text placeholder:text-graphite-muted"
       />
-      {hits.length > 0 ? (
-        <ul
-          role="listbox"
-          aria-label="Search results"
-          className="mt-1 overflow-hidden rounded-md border border-graphite-line bg-graphite-raised text-sm text-graphite-text shadow-lg"
-        >
-          {hits.map((hit) => (
-            <li key={hit.key} role="option" aria-selected={false}>
-              <button
-                type="button"
-                onClick={() => choose(hit)}
-                className="flex w-full gap-3 px-3 py-1.5 text-left hover:bg-graphite-line"
-              >
-                <span className="w-20 shrink-0 font-mono text-copper-bright">{hit.primary}</span>
-                <span className="truncate">{hit.secondary}</span>
-              </button>
-            </li>
-          ))}
-        </ul>
-      ) : null}
+      <ul
+        id={listId}
+        role="listbox"
+        aria-label="Search results"
+        hidden={!open}
+        className="mt-1 overflow-hidden rounded-md border border-graphite-line bg-graphite-raised text-sm text-graphite-text shadow-lg"
+      >
+        {hits.map((hit, index) => (
+          <li
+            key={hit.key}
+            id={`${listId}-${index}`}
+            role="option"
+            aria-selected={index === current}
+            // Keeps focus in the input, so the list stays open until the click lands.
+            onMouseDown={(e) => e.preventDefault()}
+            onClick={() => choose(hit)}
+            className={`flex min-h-8 w-full cursor-pointer items-center gap-3 px-3 py-1.5 hover:bg-graphite-line ${
+              index === current ? "bg-graphite-line" : ""
+            }`}
+          >
+            <span className="w-20 shrink-0 font-mono text-copper-bright">{hit.primary}</span>
+            <span className="truncate">{hit.secondary}</span>
+          </li>
+        ))}
+      </ul>
     </div>
   );
 }

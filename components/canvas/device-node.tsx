@@ -2,6 +2,7 @@
 
 import { Handle, Position, type NodeProps } from "@xyflow/react";
 import { memo } from "react";
+import type { CheckSeverity } from "@/engine/checks/check-finding";
 import { cx } from "@/components/ui/cx";
 import { deviceAddressLabel, type DeviceNode } from "./bench-graph";
 import { dptFamily } from "./dpt-family";
@@ -9,7 +10,7 @@ import { flagLetters } from "./flag-letters";
 import { objectHandleId, UNIT_LINK_HANDLE } from "./node-ids";
 
 const severityRing = {
-  error: "ring-2 ring-fault",
+  error: "ring-2 ring-fault-bright",
   warning: "ring-2 ring-copper-bright",
   info: "",
 } as const;
@@ -28,7 +29,7 @@ function DeviceNodeView({ data, selected }: NodeProps<DeviceNode>) {
       className={cx(
         "relative w-[248px] rounded-md border bg-graphite-raised text-graphite-text shadow-md",
         selected ? "border-copper-bright" : "border-graphite-line",
-        faulty ? "ring-2 ring-fault" : data.severity ? severityRing[data.severity] : "",
+        faulty ? "ring-2 ring-fault-bright" : data.severity ? severityRing[data.severity] : "",
       )}
       data-testid={`device-card-${device.id}`}
       data-faults={faulty ? faults.join(" ") : undefined}
@@ -42,8 +43,9 @@ function DeviceNodeView({ data, selected }: NodeProps<DeviceNode>) {
           {faults.map((fault) => (
             <li
               key={fault}
-              className="rounded bg-fault px-1.5 py-0.5 font-mono text-[10px] text-white"
+              className="rounded bg-fault px-1.5 py-0.5 font-mono text-[11px] text-white"
             >
+              <span aria-hidden="true">⚠ </span>
               {fault}
             </li>
           ))}
@@ -95,19 +97,12 @@ function DeviceNodeView({ data, selected }: NodeProps<DeviceNode>) {
                 ) : (
                   <span className="shrink-0 font-mono text-graphite-muted">{object.dpt}</span>
                 )}
-                {object.severity === "error" || object.severity === "warning" ? (
-                  <span
-                    aria-label={`check ${object.severity}`}
-                    className={object.severity === "error" ? "text-fault" : "text-copper-bright"}
-                  >
-                    ●
-                  </span>
-                ) : null}
+                <SeverityMark severity={object.severity} />
+                {/* A port is a drag target, not a control: its name lives in the row's title. */}
                 <Handle
                   type="source"
                   id={objectHandleId(object.number)}
                   position={Position.Right}
-                  aria-label={`Port of object ${object.number} ${object.name}`}
                   data-testid={`port-${device.id}-${object.number}`}
                   style={{ background: family.color, borderColor: "#24272c" }}
                   className="!h-3 !w-3 !border-2"
@@ -122,3 +117,17 @@ function DeviceNodeView({ data, selected }: NodeProps<DeviceNode>) {
 }
 
 export const DeviceNodeComponent = memo(DeviceNodeView);
+
+/**
+ * A check finding on a row or bar: a shape as well as a colour (✖ error,
+ * ▲ warning), with the word for screen readers.
+ */
+export function SeverityMark({ severity }: { severity: CheckSeverity | undefined }) {
+  if (severity !== "error" && severity !== "warning") return null;
+  return (
+    <span className={severity === "error" ? "text-fault-bright" : "text-copper-bright"}>
+      <span aria-hidden="true">{severity === "error" ? "✖" : "▲"}</span>
+      <span className="sr-only">check {severity}</span>
+    </span>
+  );
+}

@@ -1,8 +1,11 @@
 "use client";
 
-import { BaseEdge, getBezierPath, getSmoothStepPath, type EdgeProps } from "@xyflow/react";
+import { BaseEdge, getSmoothStepPath, type EdgeProps } from "@xyflow/react";
 import { memo } from "react";
 import type { LinkEdge, UnitLinkEdge } from "./bench-graph";
+
+/** A wire away from the selection stays findable but no longer competes with the cards. */
+const DIMMED_OPACITY = 0.12;
 
 type EdgeEnds = Pick<
   EdgeProps,
@@ -22,23 +25,35 @@ function edgeEnds({
 }
 
 /**
- * A link from an object's port to a bus-bar. The object's sending link is a
- * solid copper wire with an arrow into the bar; the addresses it only listens
- * to are dashed.
+ * A link from an object's port to a bus-bar, in right angles: out of the port,
+ * down its own channel (the x the layout routed it on, so wires in the gap sit
+ * side by side rather than on top of each other), into the bar. The object's
+ * sending link is a solid copper wire with an arrow into the bar; the
+ * addresses it only listens to are dashed.
  */
 function LinkEdgeView(props: EdgeProps<LinkEdge>) {
   const { id, data, selected } = props;
-  const [path] = getBezierPath(edgeEnds(props));
+  const channelX = data?.channelX;
+  const [path] = getSmoothStepPath({
+    ...edgeEnds(props),
+    borderRadius: 6,
+    // Only while the channel still lies between the ends (nobody dragged a card past its bars).
+    ...(channelX !== undefined && channelX > props.sourceX && channelX < props.targetX
+      ? { centerX: channelX }
+      : {}),
+  });
   const sending = data?.sending ?? false;
+  const dimmed = data?.dimmed === true && !selected;
   return (
     <BaseEdge
       id={id}
       path={path}
-      markerEnd={sending ? "url(#benchline-sending)" : undefined}
+      markerEnd={sending && !dimmed ? "url(#benchline-sending)" : undefined}
       style={{
         stroke: selected ? "#f0b078" : sending ? "#d98b4e" : "#a3a7ae",
         strokeWidth: selected ? 3 : sending ? 2 : 1.5,
         strokeDasharray: sending ? undefined : "5 4",
+        opacity: dimmed ? DIMMED_OPACITY : 1,
       }}
     />
   );
@@ -56,6 +71,7 @@ function UnitLinkEdgeView(props: EdgeProps<UnitLinkEdge>) {
         strokeWidth: 2.5,
         strokeDasharray: "1 5",
         strokeLinecap: "round",
+        opacity: props.data?.dimmed === true ? DIMMED_OPACITY : 1,
       }}
     />
   );

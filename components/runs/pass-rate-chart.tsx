@@ -55,7 +55,7 @@ export function PassRateChart({ runs }: { runs: readonly RunHistoryItem[] }) {
           <Line
             type="monotone"
             dataKey="passRatePercent"
-            stroke="#1e8377"
+            stroke="#166b61" // --color-teal
             strokeWidth={2}
             dot={{ r: 3 }}
             isAnimationActive={false}
