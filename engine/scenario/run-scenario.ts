@@ -29,6 +29,8 @@ export interface RunScenarioOptions {
   readonly budgetMs?: number;
   /** Where the scenario came from, copied into the result (file path). */
   readonly source?: string;
+  /** Handed the run's whole trace when it ends (golden-trace tests, debugging). */
+  readonly onTrace?: (trace: readonly TraceEvent[]) => void;
 }
 
 /** Default wall-clock budget per scenario, milliseconds. */
@@ -669,6 +671,7 @@ export function runScenario(
   } finally {
     unsubscribe();
   }
+  options.onTrace?.(sim.trace);
 
   const outcome =
     settleMessage === undefined ? scenarioOutcome(steps, scenario.expectedToFail) : "error";
