@@ -213,3 +213,16 @@ describe("SimHost driven like the worker", () => {
     expect(paths.some((path) => path?.startsWith("devices[0]"))).toBe(true);
   });
 });
+
+describe("SimHost input commands", () => {
+  it("applies a simulation input and names the input's own field when it is refused", () => {
+    const h = harness();
+    h.send({ type: "input", input: { kind: "press", device: "rocker", button: "channel-1" } });
+    h.send({ type: "input", input: { kind: "press", device: "rocker", button: "nope" } });
+    h.host.handle({ type: "input", input: { kind: "press", device: "rocker" } }); // from an untyped page
+    expect(h.errors().map((e) => e.type === "command-error" && [e.command, e.field])).toEqual([
+      ["press", "button"],
+      ["input", "input.button"],
+    ]);
+  });
+});

@@ -3,8 +3,9 @@ import { loadBench, type LoadedBench } from "@/engine/bench";
 import type { TraceEvent } from "@/engine/core/trace";
 import { getDpt } from "@/engine/dpt";
 import { DEFAULT_HOP_COUNT, describeTelegram, fromHex, type DataFrame } from "@/engine/frame";
-import type { ConsoleAction, ObservedTelegram, RecordedAction } from "@/engine/scenario/recorder";
-import { Simulation } from "@/engine/sim";
+import { TraceRecorder, type RecordedAction } from "@/engine/scenario/recorder";
+import type { Result } from "@/engine/core/result";
+import { Simulation, type SimError } from "@/engine/sim";
 import { summarizeBench } from "./bench-summary";
 import {
   parseSimCommand,
@@ -45,11 +46,6 @@ const SECOND_US = 1_000_000;
 const MAX_SECONDS_PER_TICK = 600;
 /** Chart samples kept waiting between batches; older ones would scroll off the charts anyway. */
 const MAX_PENDING_SAMPLES = 600;
-
-interface MutableRecordedAction {
-  readonly action: ConsoleAction;
-  readonly observed: ObservedTelegram[];
-}
 
 /**
  * Runs one simulation for the live console, driven by commands, and turns its
@@ -103,7 +99,7 @@ export class SimHost {
   private busLoad: BusLoadSample[] = [];
   private rates: AddressRateSample[] = [];
 
-  private recording: MutableRecordedAction[] | undefined;
+  private recorder: TraceRecorder | undefined;
   /** Devices that took a telegram or changed during a scene dry-run; undefined outside one. */
   private responders: Set<string> | undefined;
 
@@ -201,121 +197,55 @@ export class SimHost {
       case "reset":
         this.start(true);
         return;
-      case "write": {
-        const result = sim.sendGroupWrite(
-          command.groupAddress,
-          command.value,
-          command.from === undefined ? {} : { from: command.from },
-        );
-        if (this.refused("write", result)) return;
-        this.recordAction({
-          kind: "write",
-          atUs: sim.nowUs,
-          groupAddress: command.groupAddress,
-          value: command.value,
-          ...(command.from ? { from: command.from } : {}),
-        });
-        return;
-      }
-      case "read": {
-        const result = sim.sendGroupRead(
-          command.groupAddress,
-          command.from === undefined ? {} : { from: command.from },
-        );
-        if (this.refused("read", result)) return;
-        this.recordAction({
-          kind: "read",
-          atUs: sim.nowUs,
-          groupAddress: command.groupAddress,
-          ...(command.from ? { from: command.from } : {}),
-        });
-        return;
-      }
-      case "press": {
-        const atUs = sim.nowUs;
-        if (
-          this.refused("press", sim.pressButton(command.deviceId, command.buttonId, command.action))
-        )
+      case "input": {
+        const result = sim.apply(command.input);
+        if (!result.ok) {
+          const { field, message } = result.error;
+          this.post({
+            type: "command-error",
+            command: command.command,
+            field: command.fields[field] ?? field,
+            message,
+          });
           return;
-        this.recordAction({
-          kind: "press",
-          atUs,
-          device: command.deviceId,
-          button: command.buttonId,
-          ...(command.action === "press" ? {} : { action: command.action }),
-        });
-        return;
-      }
-      case "set-input": {
-        const atUs = sim.nowUs;
-        if (this.refused("set-input", sim.setInput(command.deviceId, command.input, command.value)))
-          return;
-        this.recordAction({
-          kind: "set-input",
-          atUs,
-          device: command.deviceId,
-          input: command.input,
-          value: command.value,
-        });
-        return;
-      }
-      case "set-parameter": {
-        const atUs = sim.nowUs;
-        if (
-          this.refused(
-            "set-parameter",
-            sim.setParameter(command.deviceId, command.key, command.value),
-          )
-        )
-          return;
-        this.recordAction({
-          kind: "set-parameter",
-          atUs,
-          device: command.deviceId,
-          parameter: command.key,
-          value: command.value,
-        });
-        this.loaded = sim.bench;
-        this.dirtyDevices.add(command.deviceId);
-        this.post({
-          type: "loaded",
-          bench: summarizeBench(sim.bench),
-          clock: this.clock(),
-          fresh: false,
-        });
-        return;
-      }
-      case "inject-fault":
-      case "clear-fault": {
-        const atUs = sim.nowUs;
-        const result =
-          command.type === "inject-fault"
-            ? sim.injectFault(command.target, command.faultId)
-            : sim.clearFault(command.target, command.faultId);
-        if (this.refused(command.type, result)) return;
-        this.faultsDirty = true;
-        this.recordAction({
-          kind: command.type,
-          atUs,
-          device: command.target,
-          fault: command.faultId,
-        });
+        }
+        const input = command.input;
+        if (input.kind === "set-parameter" || input.kind === "set-parameters") {
+          this.loaded = sim.bench;
+          this.dirtyDevices.add(input.device);
+          this.post({
+            type: "loaded",
+            bench: summarizeBench(sim.bench),
+            clock: this.clock(),
+            fresh: false,
+          });
+        } else if (input.kind === "inject-fault" || input.kind === "clear-fault") {
+          this.faultsDirty = true;
+        }
         return;
       }
       case "flood": {
         // The test tool queues every telegram at once; the line sends them back to back, which is what a flood is.
-        for (let i = 0; i < command.count; i++) {
-          if (this.refused("flood", sim.sendGroupWrite(command.groupAddress, command.value)))
-            return;
+        // A flood is load, not an action to replay: the recorder does not see its writes.
+        const recorder = this.recorder;
+        this.recorder = undefined;
+        try {
+          for (let i = 0; i < command.count; i++) {
+            if (this.refused("flood", sim.sendGroupWrite(command.groupAddress, command.value)))
+              return;
+          }
+        } finally {
+          this.recorder = recorder;
         }
         return;
       }
       case "record":
         if (command.on) {
-          this.recording = [];
+          const groupAddresses = sim.bench.groupAddresses;
+          this.recorder = new TraceRecorder((raw) => groupAddresses.get(raw)?.dpt);
         } else {
-          const actions: RecordedAction[] = this.recording ?? [];
-          this.recording = undefined;
+          const actions: RecordedAction[] = this.recorder?.actions() ?? [];
+          this.recorder = undefined;
           this.post({
             type: "recording",
             on: false,
@@ -333,21 +263,15 @@ export class SimHost {
   }
 
   /** Posts the error of a refused request; true when it was refused. */
-  private refused(command: string, result: { ok: true } | { ok: false; error: unknown }): boolean {
+  private refused(command: string, result: Result<unknown, SimError>): boolean {
     if (result.ok) return false;
-    const errors = Array.isArray(result.error) ? result.error : [result.error];
-    const first = errors[0] as { field?: string; path?: string; message?: string } | undefined;
     this.post({
       type: "command-error",
       command,
-      field: first?.field ?? first?.path ?? "value",
-      message: errors.map((e) => (e as { message?: string }).message ?? String(e)).join("; "),
+      field: result.error.field,
+      message: result.error.message,
     });
     return true;
-  }
-
-  private recordAction(action: ConsoleAction): void {
-    this.recording?.push({ action, observed: [] });
   }
 
   // ---------------------------------------------------------------- lifecycle
@@ -368,8 +292,8 @@ export class SimHost {
     this.busLoad = [];
     this.rates = [];
     this.rowSeq = 0;
-    if (this.recording !== undefined) {
-      this.recording = undefined;
+    if (this.recorder !== undefined) {
+      this.recorder = undefined;
       this.post({ type: "recording", on: false, actions: [], settleUs: 0 });
     }
     const loaded = loadBench(this.document);
@@ -493,10 +417,10 @@ export class SimHost {
   // ---------------------------------------------------------------- trace -> rows
 
   private onTrace(event: TraceEvent): void {
+    this.recorder?.onEvent(event);
     switch (event.kind) {
       case "telegram.sent": {
         this.awaiting.set(event.telegramId, this.telegramRow(event));
-        if (this.recording !== undefined && event.attempt === 0) this.observe(event);
         return;
       }
       case "telegram.acked":
@@ -607,31 +531,6 @@ export class SimHost {
     }
   }
 
-  private observe(event: Extract<TraceEvent, { kind: "telegram.sent" }>): void {
-    const last = this.recording![this.recording!.length - 1];
-    if (last === undefined) return;
-    const service =
-      event.service === "GroupValue_Read"
-        ? "read"
-        : event.service === "GroupValue_Write"
-          ? "write"
-          : "response";
-    let value: unknown;
-    if (service !== "read") {
-      const ga = this.loaded?.groupAddresses.get(event.destination);
-      const codec = ga === undefined ? undefined : getDpt(ga.dpt);
-      const decoded = codec?.decode(fromHex(event.payloadHex) ?? new Uint8Array(0));
-      if (decoded?.ok) value = decoded.value;
-    }
-    last.observed.push({
-      atUs: event.timeUs,
-      groupAddress: formatGroupAddress(event.destination),
-      service,
-      ...(value === undefined ? {} : { value }),
-      ...(event.deviceId === undefined ? {} : { device: event.deviceId }),
-    });
-  }
-
   // ---------------------------------------------------------------- batches
 
   private flush(): void {
@@ -734,7 +633,6 @@ export class SimHost {
     const atUs = sim.nowUs;
     const result = sim.sendGroupWrite(groupAddress, scene);
     if (this.refused("scene-dry-run", result)) return;
-    this.recordAction({ kind: "write", atUs, groupAddress, value: scene });
     const responders = new Set<string>();
     this.responders = responders;
     try {

@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { simInputSchema, type SimInput } from "@/engine/sim";
 
 /**
  * The message protocol between the live console page and the simulation
@@ -78,8 +79,87 @@ export const simCommandSchema = z.discriminatedUnion("type", [
     settleUs: z.number().int().positive().max(600_000_000).default(5_000_000),
   }),
 ]);
-export type SimCommand = z.input<typeof simCommandSchema>;
-export type ParsedSimCommand = z.infer<typeof simCommandSchema>;
+/**
+ * The worker's one way to act on the bench: a simulation input (engine/sim/sim-input.ts).
+ * The single-purpose commands above (write, read, press, set-input, set-parameter,
+ * inject-fault, clear-fault) are the older spelling of the same inputs; they are
+ * translated into this form, and errors name their own field names.
+ */
+export const inputCommandSchema = z.object({ type: z.literal("input"), input: simInputSchema });
+
+/** A command as the page sends it: playback controls, an input, or an input in the older spelling. */
+export type SimCommand = z.input<typeof simCommandSchema> | z.input<typeof inputCommandSchema>;
+
+type LegacyInputType =
+  "write" | "read" | "press" | "set-input" | "set-parameter" | "inject-fault" | "clear-fault";
+
+/** A playback control (load, play, pause, step, jump, reset, flood, record, scene dry-run). */
+export type PlaybackCommand = Exclude<z.infer<typeof simCommandSchema>, { type: LegacyInputType }>;
+
+/** A parsed input command: the input, the command name errors report, and its field names for the input's fields. */
+export interface InputCommand {
+  readonly type: "input";
+  readonly input: SimInput;
+  readonly command: string;
+  /** Input field -> the field name the page used (older spellings: deviceId, buttonId, key, target, faultId). */
+  readonly fields: Readonly<Record<string, string>>;
+}
+
+export type ParsedSimCommand = PlaybackCommand | InputCommand;
+
+const LEGACY_FIELDS: Readonly<Record<LegacyInputType, Readonly<Record<string, string>>>> = {
+  write: {},
+  read: {},
+  press: { device: "deviceId", button: "buttonId" },
+  "set-input": { device: "deviceId" },
+  "set-parameter": { device: "deviceId", parameter: "key" },
+  "inject-fault": { device: "target", fault: "faultId" },
+  "clear-fault": { device: "target", fault: "faultId" },
+};
+
+type Json = Extract<SimInput, { kind: "write" }>["value"];
+
+/** The input an older-spelling command stands for. */
+function legacyInput(
+  command: Extract<z.infer<typeof simCommandSchema>, { type: LegacyInputType }>,
+): SimInput {
+  const from = "from" in command && command.from !== undefined ? { from: command.from } : {};
+  switch (command.type) {
+    case "write":
+      return {
+        kind: "write",
+        groupAddress: command.groupAddress,
+        value: command.value as Json,
+        ...from,
+      };
+    case "read":
+      return { kind: "read", groupAddress: command.groupAddress, ...from };
+    case "press":
+      return {
+        kind: "press",
+        device: command.deviceId,
+        button: command.buttonId,
+        ...(command.action === "press" ? {} : { action: command.action }),
+      };
+    case "set-input":
+      return {
+        kind: "set-input",
+        device: command.deviceId,
+        input: command.input,
+        value: command.value as Json,
+      };
+    case "set-parameter":
+      return {
+        kind: "set-parameter",
+        device: command.deviceId,
+        parameter: command.key,
+        value: command.value as Json,
+      };
+    case "inject-fault":
+    case "clear-fault":
+      return { kind: command.type, device: command.target, fault: command.faultId };
+  }
+}
 
 /** How a telegram's transmission ended for the sender. "pending" never reaches the page. */
 export const ackSchema = z.enum(["ack", "nak", "busy", "none"]);
@@ -294,8 +374,42 @@ export type SimMessage = z.infer<typeof simMessageSchema>;
 export function parseSimCommand(
   raw: unknown,
 ): { ok: true; value: ParsedSimCommand } | { ok: false; field: string; message: string } {
+  if (typeof raw === "object" && raw !== null && (raw as { type?: unknown }).type === "input") {
+    const input = inputCommandSchema.safeParse(raw);
+    if (input.success)
+      return {
+        ok: true,
+        value: {
+          type: "input",
+          input: input.data.input,
+          command: input.data.input.kind,
+          fields: {},
+        },
+      };
+    const issue = input.error.issues[0];
+    return {
+      ok: false,
+      field: issue?.path.join(".") || "input",
+      message: issue?.message ?? "not a simulation input",
+    };
+  }
   const parsed = simCommandSchema.safeParse(raw);
-  if (parsed.success) return { ok: true, value: parsed.data };
+  if (parsed.success) {
+    const command = parsed.data;
+    if (command.type in LEGACY_FIELDS) {
+      const legacy = command as Extract<typeof command, { type: LegacyInputType }>;
+      return {
+        ok: true,
+        value: {
+          type: "input",
+          input: legacyInput(legacy),
+          command: legacy.type,
+          fields: LEGACY_FIELDS[legacy.type],
+        },
+      };
+    }
+    return { ok: true, value: command as PlaybackCommand };
+  }
   const issue = parsed.error.issues[0];
   return {
     ok: false,

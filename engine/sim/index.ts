@@ -12,3 +12,10 @@ export {
   type SimulationOptions,
 } from "./simulation";
 export type { SimError } from "./sim-error";
+export {
+  parseSimInput,
+  simInputSchema,
+  type Receipt,
+  type SimInput,
+  type SimInputKind,
+} from "./sim-input";

@@ -25,6 +25,9 @@ import {
 } from "../frame";
 import { NO_ACK_OCTET, Tp1Line, Tp1Sender, type BusStats, type Telegram } from "../bus";
 import type { SimError } from "./sim-error";
+import type { Receipt, SimInput } from "./sim-input";
+
+type JsonValue = Extract<SimInput, { kind: "write" }>["value"];
 
 /**
  * The simulation runtime and the facade the UI, the scenario runner and the CLI
@@ -405,13 +408,87 @@ export class Simulation {
 
   // ---------------------------------------------------------------- acting from outside
 
+  /**
+   * Applies one input from outside (console, scenario step, test): the one
+   * dispatch for everything done to a running bench. A refused input changes
+   * nothing and comes back as a `SimError` naming the input's field.
+   */
+  apply(input: SimInput): Result<Receipt, SimError> {
+    const atUs = this.nowUs;
+    switch (input.kind) {
+      case "write":
+      case "read":
+      case "response": {
+        const sent = this.sendFromOutside(input);
+        return sent.ok ? ok({ atUs, telegramId: sent.value }) : sent;
+      }
+      case "press": {
+        const device = this.deviceById.get(input.device);
+        if (device === undefined) return unknownDevice(input.device);
+        const buttons = device.type.buttons(device.loaded.parameters);
+        if (!buttons.some((b) => b.id === input.button)) {
+          return err({
+            kind: "sim.button-unknown",
+            field: "button",
+            message: `device "${input.device}" has no button "${input.button}" (it has ${buttons.map((b) => `"${b.id}"`).join(", ") || "none"})`,
+          });
+        }
+        const action = input.action ?? "press";
+        this.userAction(
+          { action: "button", deviceId: input.device, detail: `${action} ${input.button}` },
+          input,
+        );
+        this.transition(device, { kind: "button", button: input.button, action });
+        return ok({ atUs });
+      }
+      case "set-input": {
+        const device = this.deviceById.get(input.device);
+        if (device === undefined) return unknownDevice(input.device);
+        this.userAction(
+          {
+            action: "input",
+            deviceId: input.device,
+            detail: `${input.input} = ${JSON.stringify(input.value)}`,
+          },
+          input,
+        );
+        this.transition(device, { kind: "input", input: input.input, value: input.value });
+        return ok({ atUs });
+      }
+      case "set-parameter": {
+        const device = this.deviceById.get(input.device);
+        if (device === undefined) return unknownDevice(input.device);
+        const current = this.loadedBench.bench.devices.find((d) => d.id === input.device)!;
+        const parameters = { ...current.parameters, [input.parameter]: input.value };
+        return this.reloadDevice(device, parameters, input, atUs);
+      }
+      case "set-parameters": {
+        const device = this.deviceById.get(input.device);
+        if (device === undefined) return unknownDevice(input.device);
+        return this.reloadDevice(device, input.parameters, input, atUs);
+      }
+      case "inject-fault":
+      case "clear-fault": {
+        const result = this.setFault(input);
+        return result.ok ? ok({ atUs }) : result;
+      }
+    }
+  }
+
   /** Sends a GroupValue_Write from the test tool (or a named device). Returns the telegram id. */
   sendGroupWrite(
     groupAddress: number | string,
     value: unknown,
     options: SendOptions = {},
   ): Result<number, SimError> {
-    return this.sendFromOutside("GroupValue_Write", groupAddress, value, options);
+    return telegramIdOf(
+      this.apply({
+        kind: "write",
+        groupAddress,
+        value: value as JsonValue,
+        ...sendFields(options),
+      }),
+    );
   }
 
   /** Sends a GroupValue_Read from the test tool (or a named device). Returns the telegram id. */
@@ -419,7 +496,7 @@ export class Simulation {
     groupAddress: number | string,
     options: SendOptions = {},
   ): Result<number, SimError> {
-    return this.sendFromOutside("GroupValue_Read", groupAddress, undefined, options);
+    return telegramIdOf(this.apply({ kind: "read", groupAddress, ...sendFields(options) }));
   }
 
   /** Sends a GroupValue_Response from the test tool (or a named device). Returns the telegram id. */
@@ -428,7 +505,14 @@ export class Simulation {
     value: unknown,
     options: SendOptions = {},
   ): Result<number, SimError> {
-    return this.sendFromOutside("GroupValue_Response", groupAddress, value, options);
+    return telegramIdOf(
+      this.apply({
+        kind: "response",
+        groupAddress,
+        value: value as JsonValue,
+        ...sendFields(options),
+      }),
+    );
   }
 
   /** Presses (or releases) one of a device's local buttons. */
@@ -437,49 +521,54 @@ export class Simulation {
     buttonId: string,
     action: "press" | "release" | "long-press" = "press",
   ): Result<void, SimError> {
-    const device = this.deviceById.get(deviceId);
-    if (device === undefined) return unknownDevice(deviceId);
-    const buttons = device.type.buttons(device.loaded.parameters);
-    if (!buttons.some((b) => b.id === buttonId)) {
-      return err({
-        kind: "sim.button-unknown",
-        field: "buttonId",
-        message: `device "${deviceId}" has no button "${buttonId}" (it has ${buttons.map((b) => `"${b.id}"`).join(", ") || "none"})`,
-      });
-    }
-    this.userAction({ action: "button", deviceId, detail: `${action} ${buttonId}` });
-    this.transition(device, { kind: "button", button: buttonId, action });
-    return ok(undefined);
+    return done(this.apply({ kind: "press", device: deviceId, button: buttonId, action }));
   }
 
   /** Changes a local input of a device that is not a button (a window contact, presence). */
   setInput(deviceId: string, input: string, value: unknown): Result<void, SimError> {
-    const device = this.deviceById.get(deviceId);
-    if (device === undefined) return unknownDevice(deviceId);
-    this.userAction({ action: "input", deviceId, detail: `${input} = ${JSON.stringify(value)}` });
-    this.transition(device, { kind: "input", input, value });
-    return ok(undefined);
+    return done(
+      this.apply({ kind: "set-input", device: deviceId, input, value: value as JsonValue }),
+    );
   }
 
   /** Sets one parameter (top-level key) and restarts the device; see the module comment. */
-  setParameter(
-    deviceId: string,
-    key: string,
-    value: unknown,
-  ): Result<void, SimError | readonly BenchError[]> {
-    const device = this.deviceById.get(deviceId);
-    if (device === undefined) return unknownDevice(deviceId);
-    const current = this.loadedBench.bench.devices.find((d) => d.id === deviceId)!;
-    return this.setParameters(deviceId, { ...current.parameters, [key]: value });
+  setParameter(deviceId: string, key: string, value: unknown): Result<void, SimError> {
+    return done(
+      this.apply({
+        kind: "set-parameter",
+        device: deviceId,
+        parameter: key,
+        value: value as JsonValue,
+      }),
+    );
   }
 
   /** Replaces a device's parameters and restarts it; the bench is re-checked first. */
-  setParameters(
-    deviceId: string,
+  setParameters(deviceId: string, parameters: Record<string, unknown>): Result<void, SimError> {
+    return done(this.apply({ kind: "set-parameters", device: deviceId, parameters }));
+  }
+
+  /**
+   * Injects a fault into a device (any id; `BUS_FAULTS` are also acted on by the
+   * runtime) or breaks a unit link ("link.broken").
+   */
+  injectFault(target: string, faultId: string): Result<void, SimError> {
+    return done(this.apply({ kind: "inject-fault", device: target, fault: faultId }));
+  }
+
+  /** Clears a fault injected with `injectFault`. */
+  clearFault(target: string, faultId: string): Result<void, SimError> {
+    return done(this.apply({ kind: "clear-fault", device: target, fault: faultId }));
+  }
+
+  /** A parameter change: the bench is re-checked with the new parameters, then the device restarts. */
+  private reloadDevice(
+    device: DeviceRuntime,
     parameters: Record<string, unknown>,
-  ): Result<void, SimError | readonly BenchError[]> {
-    const device = this.deviceById.get(deviceId);
-    if (device === undefined) return unknownDevice(deviceId);
+    input: SimInput,
+    atUs: number,
+  ): Result<Receipt, SimError> {
+    const deviceId = device.id;
     const bench = this.loadedBench.bench;
     const document: Bench = {
       ...bench,
@@ -499,24 +588,11 @@ export class Simulation {
       deviceTypes: (id) =>
         this.loadedBench.devices.find((d) => d.type.id === id)?.type ?? undefined,
     });
-    if (!loaded.ok) return loaded;
+    if (!loaded.ok) return err(parametersRefused(loaded.error));
     this.loadedBench = loaded.value;
-    this.userAction({ action: "parameter", deviceId, detail: JSON.stringify(parameters) });
+    this.userAction({ action: "parameter", deviceId, detail: JSON.stringify(parameters) }, input);
     this.restartDevice(device, loaded.value.deviceById.get(deviceId)!);
-    return ok(undefined);
-  }
-
-  /**
-   * Injects a fault into a device (any id; `BUS_FAULTS` are also acted on by the
-   * runtime) or breaks a unit link ("link.broken").
-   */
-  injectFault(target: string, faultId: string): Result<void, SimError> {
-    return this.setFault(target, faultId, true);
-  }
-
-  /** Clears a fault injected with `injectFault`. */
-  clearFault(target: string, faultId: string): Result<void, SimError> {
-    return this.setFault(target, faultId, false);
+    return ok({ atUs });
   }
 
   // ---------------------------------------------------------------- internals: devices
@@ -602,10 +678,10 @@ export class Simulation {
       });
     }
     const effects = result.effects;
-    for (let i = 0; i < effects.length; i++) this.apply(device, effects[i]!);
+    for (let i = 0; i < effects.length; i++) this.applyEffect(device, effects[i]!);
   }
 
-  private apply(device: DeviceRuntime, effect: DeviceEffect): void {
+  private applyEffect(device: DeviceRuntime, effect: DeviceEffect): void {
     switch (effect.kind) {
       case "group.send": {
         const object = this.objectOf(device, effect.object, effect.kind);
@@ -823,11 +899,16 @@ export class Simulation {
 
   // ---------------------------------------------------------------- internals: faults
 
-  private setFault(target: string, faultId: string, active: boolean): Result<void, SimError> {
+  private setFault(
+    input: Extract<SimInput, { kind: "inject-fault" | "clear-fault" }>,
+  ): Result<void, SimError> {
+    const target = input.device;
+    const faultId = input.fault;
+    const active = input.kind === "inject-fault";
     const device = this.deviceById.get(target);
     const action = active ? "fault.inject" : "fault.clear";
     if (device !== undefined) {
-      this.userAction({ action, deviceId: target, detail: faultId });
+      this.userAction({ action, deviceId: target, detail: faultId }, input);
       const had = device.faults.has(faultId);
       if (active && !had) {
         device.faults.set(faultId, "user");
@@ -867,11 +948,11 @@ export class Simulation {
       if (faultId !== UNIT_LINK_BROKEN) {
         return err({
           kind: "sim.fault-unknown",
-          field: "faultId",
+          field: "fault",
           message: `a unit link only has the fault "${UNIT_LINK_BROKEN}", not "${faultId}"`,
         });
       }
-      this.userAction({ action, unitLink: target, detail: faultId });
+      this.userAction({ action, unitLink: target, detail: faultId }, input);
       if (active === this.brokenUnitLinks.has(target)) return ok(undefined);
       if (active) this.brokenUnitLinks.add(target);
       else this.brokenUnitLinks.delete(target);
@@ -898,7 +979,7 @@ export class Simulation {
     }
     return err({
       kind: "sim.fault-target-unknown",
-      field: "target",
+      field: "device",
       message: `no device or unit link "${target}"`,
     });
   }
@@ -964,11 +1045,12 @@ export class Simulation {
   }
 
   private sendFromOutside(
-    service: GroupService,
-    groupAddress: number | string,
-    value: unknown,
-    options: SendOptions,
+    input: Extract<SimInput, { kind: "write" | "read" | "response" }>,
   ): Result<number, SimError> {
+    const service = SERVICE_OF_INPUT[input.kind];
+    const groupAddress = input.groupAddress;
+    const value = input.kind === "read" ? undefined : input.value;
+    const options = input;
     let raw: number;
     if (typeof groupAddress === "number") {
       if (!Number.isInteger(groupAddress) || groupAddress < 1 || groupAddress > 0xffff) {
@@ -1025,7 +1107,10 @@ export class Simulation {
           message: `device "${options.from}" is not on a KNX line and cannot send telegrams`,
         });
       }
-      this.userAction({ action, deviceId: device.id, groupAddress: raw, detail });
+      this.userAction(
+        { action, deviceId: device.id, groupAddress: raw, detail },
+        withTextAddress(input, raw),
+      );
       const id = this.queueFromDevice(device, service, raw, payload, ga.sizeBits, priority);
       if (id === undefined)
         return err({
@@ -1035,7 +1120,7 @@ export class Simulation {
         });
       return ok(id);
     }
-    this.userAction({ action, groupAddress: raw, detail });
+    this.userAction({ action, groupAddress: raw, detail }, withTextAddress(input, raw));
     const frame = this.makeFrame(
       this.loadedBench.testToolAddress,
       raw,
@@ -1152,15 +1237,18 @@ export class Simulation {
     if (decoded.ok) this.groupValues.set(destination, decoded.value);
   }
 
-  private userAction(fields: {
-    action: Extract<TraceEvent, { kind: "user.action" }>["action"];
-    deviceId?: string;
-    unitLink?: string;
-    groupAddress?: number;
-    detail: string;
-  }): void {
+  private userAction(
+    fields: {
+      action: Extract<TraceEvent, { kind: "user.action" }>["action"];
+      deviceId?: string;
+      unitLink?: string;
+      groupAddress?: number;
+      detail: string;
+    },
+    input: SimInput,
+  ): void {
     if (this.traceLog.active)
-      this.traceLog.append({ kind: "user.action", timeUs: this.nowUs, ...fields });
+      this.traceLog.append({ kind: "user.action", timeUs: this.nowUs, ...fields, input });
   }
 }
 
@@ -1182,9 +1270,55 @@ function buildObjects(loaded: LoadedDevice): Map<number, ObjectRuntime> {
   return objects;
 }
 
+const SERVICE_OF_INPUT: Readonly<Record<"write" | "read" | "response", GroupService>> = {
+  write: "GroupValue_Write",
+  read: "GroupValue_Read",
+  response: "GroupValue_Response",
+};
+
+/** The input as the trace keeps it: the group address as text, optional fields left out when absent. */
+function withTextAddress(
+  input: Extract<SimInput, { kind: "write" | "read" | "response" }>,
+  raw: number,
+): SimInput {
+  const { from, priority } = input;
+  return {
+    ...(input.kind === "read"
+      ? { kind: "read" as const, groupAddress: formatGroupAddress(raw) }
+      : { kind: input.kind, groupAddress: formatGroupAddress(raw), value: input.value }),
+    ...(from === undefined ? {} : { from }),
+    ...(priority === undefined ? {} : { priority }),
+  } as SimInput;
+}
+
+function sendFields(options: SendOptions): { from?: string; priority?: Priority } {
+  return {
+    ...(options.from === undefined ? {} : { from: options.from }),
+    ...(options.priority === undefined ? {} : { priority: options.priority }),
+  };
+}
+
+function telegramIdOf(result: Result<Receipt, SimError>): Result<number, SimError> {
+  return result.ok ? ok(result.value.telegramId!) : result;
+}
+
+function done(result: Result<Receipt, SimError>): Result<void, SimError> {
+  return result.ok ? ok(undefined) : result;
+}
+
+/** Bench errors of a refused parameter change, folded into one error naming the first field. */
+function parametersRefused(errors: readonly BenchError[]): SimError {
+  return {
+    kind: "sim.parameters-invalid",
+    field: errors[0]?.path ?? "parameters",
+    message: errors.map((e) => e.message).join("; "),
+    issues: errors,
+  };
+}
+
 function unknownDevice(
   deviceId: string,
-  field = "deviceId",
+  field = "device",
 ): { readonly ok: false; readonly error: SimError } {
   return err({
     kind: "sim.device-unknown",
