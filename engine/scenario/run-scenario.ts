@@ -33,6 +33,8 @@ export interface RunScenarioOptions {
   readonly budgetMs?: number;
   /** Where the scenario came from, copied into the result (file path). */
   readonly source?: string;
+  /** Reuse bench-only work across runs (see SimulationOptions.reuse); true by default. */
+  readonly reuse?: boolean;
   /** Handed the run's whole trace when it ends (golden-trace tests, debugging). */
   readonly onTrace?: (trace: readonly TraceEvent[]) => void;
 }
@@ -604,7 +606,11 @@ export function runScenario(
   let sim: Simulation;
   try {
     // Bus load verdicts are computed from the trace, so the line's own statistics history stays small.
-    sim = createSimulation(bench, { seed, historyCapacity: LINE_HISTORY_CAPACITY });
+    sim = createSimulation(bench, {
+      seed,
+      historyCapacity: LINE_HISTORY_CAPACITY,
+      reuse: options.reuse ?? true,
+    });
   } catch (cause) {
     if (cause instanceof BenchLoadFailure)
       return benchError(scenario, seed, cause.message, options, elapsedMs());

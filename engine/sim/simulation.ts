@@ -26,6 +26,7 @@ import {
 import { NO_ACK_OCTET, Tp1Line, Tp1Sender, type BusStats, type Telegram } from "../bus";
 import type { SimError } from "./sim-error";
 import type { Receipt, SimInput } from "./sim-input";
+import { objectSpecs, reloadedBench } from "./prepared-bench";
 
 type JsonValue = Extract<SimInput, { kind: "write" }>["value"];
 
@@ -101,6 +102,12 @@ export interface SimulationOptions {
   readonly unitLinkDelayUs?: number;
   /** Transmissions kept per line for windowed bus statistics. */
   readonly historyCapacity?: number;
+  /**
+   * Reuse work that depends only on the bench (object specs, the benches a
+   * parameter change leads to) across runs; true by default. False redoes it
+   * every run, as before templates existed (the replay benchmark's baseline).
+   */
+  readonly reuse?: boolean;
 }
 
 export interface SendOptions {
@@ -201,13 +208,15 @@ function isLoadedBench(value: unknown): value is LoadedBench {
 }
 
 export class Simulation {
-  private readonly scheduler = new Scheduler(1024);
+  // Starts small and grows: a replay usually holds a few dozen pending events, and a fresh run should cost little.
+  private readonly scheduler = new Scheduler(64);
   private readonly rng: Rng;
   private readonly traceLog: Trace;
   private readonly telegramIds = new SequentialIds();
   private readonly timerTag: number;
   private readonly linkTag: number;
   private readonly unitLinkDelayUs: number;
+  private readonly reuse: boolean;
 
   private loadedBench: LoadedBench;
   private readonly lines = new Map<string, LineRuntime>();
@@ -231,6 +240,7 @@ export class Simulation {
     this.rng = createRng(options.seed);
     this.traceLog = new Trace({ capacity: options.traceCapacity });
     this.unitLinkDelayUs = options.unitLinkDelayUs ?? UNIT_LINK_DELAY_US;
+    this.reuse = options.reuse ?? true;
     if (!Number.isSafeInteger(this.unitLinkDelayUs) || this.unitLinkDelayUs < 0) {
       throw new RangeError(`unitLinkDelayUs ${this.unitLinkDelayUs} is not a non-negative integer`);
     }
@@ -265,7 +275,7 @@ export class Simulation {
         loaded,
         type: loaded.type,
         state: loaded.type.initialState(loaded.parameters),
-        objects: buildObjects(loaded),
+        objects: buildObjects(loaded, this.reuse),
         context: undefined as unknown as DeviceContext<unknown>,
         line,
         sender:
@@ -584,10 +594,12 @@ export class Simulation {
       ...document,
       links: document.links.filter((l) => l.device !== deviceId || objects.has(l.object)),
     };
-    const loaded = loadBench(pruned, {
-      deviceTypes: (id) =>
-        this.loadedBench.devices.find((d) => d.type.id === id)?.type ?? undefined,
-    });
+    const current = this.loadedBench;
+    const loaded = reloadedBench(current, deviceId, parameters, this.reuse, () =>
+      loadBench(pruned, {
+        deviceTypes: (id) => current.devices.find((d) => d.type.id === id)?.type ?? undefined,
+      }),
+    );
     if (!loaded.ok) return err(parametersRefused(loaded.error));
     this.loadedBench = loaded.value;
     this.userAction({ action: "parameter", deviceId, detail: JSON.stringify(parameters) }, input);
@@ -624,7 +636,7 @@ export class Simulation {
 
   private restartDevice(device: DeviceRuntime, loaded: LoadedDevice): void {
     device.loaded = loaded;
-    device.objects = buildObjects(loaded);
+    device.objects = buildObjects(loaded, this.reuse);
     device.context = this.makeContext(device);
     device.state = device.type.initialState(loaded.parameters);
     device.timers.clear();
@@ -1254,16 +1266,16 @@ export class Simulation {
 
 const EMPTY_PAYLOAD: Uint8Array = new Uint8Array(0);
 
-function buildObjects(loaded: LoadedDevice): Map<number, ObjectRuntime> {
+function buildObjects(loaded: LoadedDevice, reuse: boolean): Map<number, ObjectRuntime> {
   const objects = new Map<number, ObjectRuntime>();
-  for (const object of loaded.objects) {
-    objects.set(object.number, {
-      number: object.number,
-      dpt: object.dpt,
-      codec: getDpt(object.dpt)!,
-      sizeBits: object.sizeBits,
-      flags: object.flags,
-      groupAddresses: object.groupAddresses,
+  for (const spec of objectSpecs(loaded, reuse)) {
+    objects.set(spec.number, {
+      number: spec.number,
+      dpt: spec.dpt,
+      codec: spec.codec,
+      sizeBits: spec.sizeBits,
+      flags: spec.flags,
+      groupAddresses: spec.groupAddresses,
       value: undefined,
     });
   }
