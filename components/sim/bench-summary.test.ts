@@ -3,8 +3,8 @@ import { dirname, resolve } from "node:path";
 import { fileURLToPath } from "node:url";
 import { describe, expect, it } from "vitest";
 import { loadBench } from "@/engine/bench";
-import { summarizeBench } from "./bench-summary";
-import { SimHost } from "./sim-host";
+import { summarizeBench } from "@/engine/sim";
+import { SimHost } from "@/engine/sim";
 import { parseSimMessage } from "./sim-protocol";
 import { createSimStore } from "./sim-store";
 

@@ -1,10 +1,10 @@
 import { describe, expect, it } from "vitest";
 import { recordScenario, type RecordedAction } from "@/engine/scenario/recorder";
 import { scenarioSchema } from "@/engine/scenario/scenario-schema";
-import { SimHost } from "./sim-host";
+import { SimHost } from "@/engine/sim";
 import { parseSimMessage, type LogRow, type SimCommand, type SimMessage } from "./sim-protocol";
 import { createSimStore } from "./sim-store";
-import { trainingRoomBench } from "./training-room-bench";
+import { trainingRoomBench } from "@/test/harness/training-room-bench";
 
 /** A host wired to a store through the real message validation, with a wall clock the test moves. */
 function harness(options: { maxRowsPerBatch?: number; clockStepMs?: number } = {}) {

@@ -15,9 +15,9 @@ import type { TraceEvent } from "../../engine/core/trace";
 import { parseScenario } from "../../engine/scenario/parse-scenario";
 import { runScenario } from "../../engine/scenario/run-scenario";
 import { parseSuite } from "../../engine/scenario/suite-schema";
-import { SimHost } from "../../components/sim/sim-host";
-import type { SimCommand, SimMessage } from "../../components/sim/sim-protocol";
-import { trainingRoomBench } from "../../components/sim/training-room-bench";
+import { LiveSession as SimHost } from "../../engine/sim";
+import type { SimCommand, SimMessage } from "../../engine/sim/live/live-protocol";
+import { trainingRoomBench } from "../harness/training-room-bench";
 
 export const ROOT = resolve(dirname(fileURLToPath(import.meta.url)), "../..");
 export const GOLDEN_DIR = resolve(ROOT, "test/golden");

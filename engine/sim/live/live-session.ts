@@ -1,11 +1,12 @@
-import { formatGroupAddress } from "@/engine/address";
-import { loadBench, type LoadedBench } from "@/engine/bench";
-import type { TraceEvent } from "@/engine/core/trace";
-import { getDpt } from "@/engine/dpt";
-import { DEFAULT_HOP_COUNT, describeTelegram, fromHex, type DataFrame } from "@/engine/frame";
-import { TraceRecorder, type RecordedAction } from "@/engine/scenario/recorder";
-import type { Result } from "@/engine/core/result";
-import { Simulation, type SimError } from "@/engine/sim";
+import { formatGroupAddress } from "../../address";
+import { loadBench, type LoadedBench } from "../../bench";
+import type { TraceEvent } from "../../core/trace";
+import { getDpt } from "../../dpt";
+import { DEFAULT_HOP_COUNT, describeTelegram, fromHex, type DataFrame } from "../../frame";
+import { TraceRecorder, type RecordedAction } from "../../scenario/recorder";
+import type { Result } from "../../core/result";
+import type { SimError } from "../sim-error";
+import { Simulation } from "../simulation";
 import { summarizeBench } from "./bench-summary";
 import {
   parseSimCommand,
@@ -21,9 +22,9 @@ import {
   type SimClock,
   type SimMessage,
   type SimSpeed,
-} from "./sim-protocol";
+} from "./live-protocol";
 
-export interface SimHostOptions {
+export interface LiveSessionOptions {
   /** Where messages for the page go (postMessage in the worker). */
   readonly post: (message: SimMessage) => void;
   /** Wall clock in milliseconds (performance.now in the worker; a fake in tests). */
@@ -48,7 +49,8 @@ const MAX_SECONDS_PER_TICK = 600;
 const MAX_PENDING_SAMPLES = 600;
 
 /**
- * Runs one simulation for the live console, driven by commands, and turns its
+ * The live session: one simulation for the live console (in the browser's
+ * worker, or in a server process), driven by commands, and turns its
  * trace into batches for the page: log rows (each telegram once its
  * acknowledgement is known), snapshots of the devices that changed, active
  * faults, and chart samples taken at whole virtual seconds.
@@ -60,10 +62,12 @@ const MAX_PENDING_SAMPLES = 600;
  * worth of rows is waiting, which is the back-pressure that keeps the page fed
  * but never flooded.
  *
- * Pure apart from the two functions it is given, so a node test can drive it
- * with a fake clock and no Worker.
+ * Pure apart from the two functions it is given (where messages go, and the
+ * wall clock), so it runs unchanged in a Worker, in a Node process, and in a
+ * test with a fake clock. It names no device type: charts come from the
+ * types' own `roomSample` hook.
  */
-export class SimHost {
+export class LiveSession {
   private readonly post: (message: SimMessage) => void;
   private readonly now: () => number;
   private readonly maxRowsPerBatch: number;
@@ -103,7 +107,7 @@ export class SimHost {
   /** Devices that took a telegram or changed during a scene dry-run; undefined outside one. */
   private responders: Set<string> | undefined;
 
-  constructor(options: SimHostOptions) {
+  constructor(options: LiveSessionOptions) {
     this.post = options.post;
     this.now = options.now;
     this.maxRowsPerBatch = options.maxRowsPerBatch ?? DEFAULT_MAX_ROWS_PER_BATCH;
@@ -394,21 +398,19 @@ export class SimHost {
     this.sampleRooms();
   }
 
-  /** The latest room temperature and setpoint of every indoor unit; only the newest is kept per batch. */
+  /** The latest chart sample of every device whose type offers one (`roomSample`); only the newest is kept per batch. */
   private sampleRooms(): void {
     const sim = this.sim!;
     const samples: RoomSample[] = [];
     for (const device of this.loaded!.devices) {
-      if (device.type.id !== "indoor-unit") continue;
-      const state = sim.deviceState(device.id) as
-        { roomC?: unknown; setpointC?: unknown; power?: unknown } | undefined;
-      if (typeof state?.roomC !== "number" || typeof state.setpointC !== "number") continue;
+      const sample = device.type.roomSample?.(sim.deviceState(device.id));
+      if (sample === undefined) continue;
       samples.push({
         timeUs: sim.nowUs,
         unitId: device.id,
-        roomC: state.roomC,
-        setpointC: state.setpointC,
-        power: state.power === true,
+        roomC: sample.roomC,
+        setpointC: sample.setpointC,
+        power: sample.power,
       });
     }
     if (samples.length > 0) this.roomSample = samples;
@@ -707,3 +709,10 @@ function describeDevice(sim: Simulation, deviceId: string): Map<string, string> 
   }
   return fields;
 }
+
+/** The live session's older name. */
+export const SimHost = LiveSession;
+/** The live session's older name. */
+export type SimHost = LiveSession;
+/** The live session options' older name. */
+export type SimHostOptions = LiveSessionOptions;
