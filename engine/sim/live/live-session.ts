@@ -96,7 +96,6 @@ export class LiveSession {
 
   private readonly dirtyDevices = new Set<string>();
   private readonly transitions = new Map<string, { name: string; atUs: number }>();
-  private readonly faultSources = new Map<string, "device" | "user">();
   private faultsDirty = false;
 
   private roomSample: RoomSample[] | undefined;
@@ -291,7 +290,6 @@ export class LiveSession {
     this.awaiting.clear();
     this.dirtyDevices.clear();
     this.transitions.clear();
-    this.faultSources.clear();
     this.roomSample = undefined;
     this.busLoad = [];
     this.rates = [];
@@ -435,9 +433,6 @@ export class LiveSession {
       case "fault.raised":
       case "fault.cleared": {
         const target = event.deviceId ?? event.unitLink ?? "";
-        const key = `${target}\u0000${event.fault}`;
-        if (event.kind === "fault.raised") this.faultSources.set(key, event.by);
-        else this.faultSources.delete(key);
         this.faultsDirty = true;
         if (event.deviceId !== undefined) this.dirtyDevices.add(event.deviceId);
         const device =
@@ -615,7 +610,7 @@ export class LiveSession {
         faults.push({
           target,
           fault,
-          by: this.faultSources.get(`${target}\u0000${fault}`) ?? "device",
+          by: sim.faultRaisedBy(target, fault) ?? "device",
         });
       }
     }
