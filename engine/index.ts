@@ -229,3 +229,108 @@ export {
 } from "./checks/bench-check-rule";
 /** Expected load per line from configured sending conditions (telegrams/s, percent of capacity, contributions). */
 export { estimateLineLoad, type LineLoadEstimate, type LoadContribution } from "./checks/line-load";
+
+// ---------------------------------------------------------------- re-exported for the app
+
+/** How a telegram's transmission ended for the sender. */
+export type { Ack } from "./sim/live/live-protocol";
+/** How a telegram's transmission ended for the sender. */
+export { ackSchema } from "./sim/live/live-protocol";
+/** `ActiveFault` of engine/sim/live/live-protocol. */
+export type { ActiveFault } from "./sim/live/live-protocol";
+/** `activeFaultSchema` of engine/sim/live/live-protocol. */
+export { activeFaultSchema } from "./sim/live/live-protocol";
+/** First transmissions per destination address within one virtual second. */
+export type { AddressRateSample } from "./sim/live/live-protocol";
+/** First transmissions per destination address within one virtual second. */
+export { addressRateSampleSchema } from "./sim/live/live-protocol";
+/** `BenchDevice` of engine/bench. */
+export type { BenchDevice } from "./bench";
+/** `BenchDeviceSummary` of engine/sim/live/live-protocol. */
+export type { BenchDeviceSummary } from "./sim/live/live-protocol";
+/** `BenchGroupAddress` of engine/bench. */
+export type { BenchGroupAddress } from "./bench";
+/** `BenchGroupAddressSummary` of engine/sim/live/live-protocol. */
+export type { BenchGroupAddressSummary } from "./sim/live/live-protocol";
+/** `BenchLine` of engine/bench. */
+export type { BenchLine } from "./bench";
+/** `BenchLink` of engine/bench. */
+export type { BenchLink } from "./bench";
+/** `BenchSummary` of engine/sim/live/live-protocol. */
+export type { BenchSummary } from "./sim/live/live-protocol";
+/** `benchSummarySchema` of engine/sim/live/live-protocol. */
+export { benchSummarySchema } from "./sim/live/live-protocol";
+/** `BenchUnitLink` of engine/bench. */
+export type { BenchUnitLink } from "./bench";
+/** Bus load over one whole virtual second on one line. */
+export type { BusLoadSample } from "./sim/live/live-protocol";
+/** Bus load over one whole virtual second on one line. */
+export { busLoadSampleSchema } from "./sim/live/live-protocol";
+/** `clockSchema` of engine/sim/live/live-protocol. */
+export { clockSchema } from "./sim/live/live-protocol";
+/** What the inspector shows of one device, sent whenever something about it changed. */
+export type { DeviceSnapshot } from "./sim/live/live-protocol";
+/** What the inspector shows of one device, sent whenever something about it changed. */
+export { deviceSnapshotSchema } from "./sim/live/live-protocol";
+/** Parses "BC 11 01" / "bc1101" into octets; returns undefined for odd length or non-hex text. */
+export { fromHex } from "./frame/hex";
+/** 20.105 HVAC controller mode, the full table (knx-reference.md); 18, 19 and 21..255 are reserved. */
+export { HVAC_CONTROLLER_MODES } from "./dpt";
+/** 20.102 HVAC mode (DPT spec §4.x, knx-reference.md). */
+export { HVAC_MODES } from "./dpt";
+/** A parsed input command: the input, the command name errors report, and its field names for the input's fields. */
+export type { InputCommand } from "./sim/live/live-protocol";
+/** The worker's one way to act on the bench: a simulation input (engine/sim/sim-input.ts). */
+export { inputCommandSchema } from "./sim/live/live-protocol";
+/** The live session: one simulation for the live console (in the browser's worker, or in a server process), driven by commands, and turns its trace into batches for the page: log rows (each telegram once its acknowledgement is known), snapshots of the devices that changed, active faults, and chart samples taken at whole virtual seconds. */
+export { LiveSession } from "./sim";
+/** One row of the telegram log. */
+export type { LogRow } from "./sim/live/live-protocol";
+/** One row of the telegram log. */
+export { logRowSchema } from "./sim/live/live-protocol";
+/** The most telegrams one flood command queues. */
+export { MAX_FLOOD_COUNT } from "./sim/live/live-protocol";
+/** The longest jump ahead one command may ask for: one virtual day. */
+export { MAX_JUMP_US } from "./sim/live/live-protocol";
+/** `ObjectView` of engine/sim/live/live-protocol. */
+export type { ObjectView } from "./sim/live/live-protocol";
+/** `objectViewSchema` of engine/sim/live/live-protocol. */
+export { objectViewSchema } from "./sim/live/live-protocol";
+/** `ParsedSimCommand` of engine/sim/live/live-protocol. */
+export type { ParsedSimCommand } from "./sim/live/live-protocol";
+/** Parses a command or names the field that is wrong. */
+export { parseSimCommand } from "./sim/live/live-protocol";
+/** Parses a worker message; a bad one is a bug in the worker, so it throws with the field. */
+export { parseSimMessage } from "./sim/live/live-protocol";
+/** A playback control (load, play, pause, step, jump, reset, flood, record, scene dry-run). */
+export type { PlaybackCommand } from "./sim/live/live-protocol";
+/** Canvas position in canvas units (not pixels); the canvas owns the scale. */
+export type { Position } from "./bench";
+/** `RoomSample` of engine/sim/live/live-protocol. */
+export type { RoomSample } from "./sim/live/live-protocol";
+/** `roomSampleSchema` of engine/sim/live/live-protocol. */
+export { roomSampleSchema } from "./sim/live/live-protocol";
+/** `SceneDryRunResult` of engine/sim/live/live-protocol. */
+export type { SceneDryRunResult } from "./sim/live/live-protocol";
+/** `sceneDryRunResultSchema` of engine/sim/live/live-protocol. */
+export { sceneDryRunResultSchema } from "./sim/live/live-protocol";
+/** `SimClock` of engine/sim/live/live-protocol. */
+export type { SimClock } from "./sim/live/live-protocol";
+/** A command as the page sends it: playback controls, an input, or an input in the older spelling. */
+export type { SimCommand } from "./sim/live/live-protocol";
+/** `simCommandSchema` of engine/sim/live/live-protocol. */
+export { simCommandSchema } from "./sim/live/live-protocol";
+/** The live session's older name. */
+export { SimHost } from "./sim";
+/** One thing done to a running bench from outside; see the module comment. */
+export type { SimInput } from "./sim";
+/** `SimMessage` of engine/sim/live/live-protocol. */
+export type { SimMessage } from "./sim/live/live-protocol";
+/** `simMessageSchema` of engine/sim/live/live-protocol. */
+export { simMessageSchema } from "./sim/live/live-protocol";
+/** Playback speed: virtual seconds per wall second, or as fast as the worker can go. */
+export type { SimSpeed } from "./sim/live/live-protocol";
+/** Playback speed: virtual seconds per wall second, or as fast as the worker can go. */
+export { simSpeedSchema } from "./sim/live/live-protocol";
+/** What the console needs to know about a bench to draw its controls: addresses with names and DPTs, devices with their objects and local buttons, unit links, and control-panel tiles. */
+export { summarizeBench } from "./sim";

@@ -1,6 +1,6 @@
 import { z } from "zod";
-import { loadBench } from "@/engine/bench";
-import { parseScenario } from "@/engine/scenario/parse-scenario";
+import { loadBench } from "@/engine";
+import { parseScenario } from "@/engine";
 import { findBench } from "@/db/queries/benches";
 import { findRun } from "@/db/queries/runs";
 import { findScenario } from "@/db/queries/scenarios";

@@ -1,5 +1,5 @@
-import type { ScenarioResult } from "@/engine/scenario/scenario-result";
-import { formatDuration } from "@/engine/scenario/duration";
+import type { ScenarioResult } from "@/engine";
+import { formatDuration } from "@/engine";
 import { Mono } from "@/components/ui/mono";
 import { SimulatorCaution } from "./simulator-caution";
 import { type AddressInfo, TraceView } from "./trace-view";

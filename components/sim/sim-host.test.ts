@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
-import { recordScenario, type RecordedAction } from "@/engine/scenario/recorder";
-import { scenarioSchema } from "@/engine/scenario/scenario-schema";
-import { SimHost } from "@/engine/sim";
+import { recordScenario, type RecordedAction } from "@/engine";
+import { scenarioSchema } from "@/engine";
+import { SimHost } from "@/engine";
 import { parseSimMessage, type LogRow, type SimCommand, type SimMessage } from "./sim-protocol";
 import { createSimStore } from "./sim-store";
 import { trainingRoomBench } from "@/test/harness/training-room-bench";

@@ -1,4 +1,4 @@
-import { LiveSession } from "@/engine/sim";
+import { LiveSession } from "@/engine";
 import type { SimMessage } from "./sim-protocol";
 
 /**

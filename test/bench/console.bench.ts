@@ -11,8 +11,8 @@
  */
 import { loadavg } from "node:os";
 import { performance } from "node:perf_hooks";
-import { LiveSession as SimHost } from "../../engine/sim";
-import { parseSimMessage, type SimMessage } from "../../engine/sim/live/live-protocol";
+import { LiveSession as SimHost } from "../../engine";
+import { parseSimMessage, type SimMessage } from "../../engine";
 import { createSimStore } from "../../components/sim/sim-store";
 import { trainingRoomBench } from "../harness/training-room-bench";
 import { emptyLogFilter, FilteredLog } from "../../components/console/log-filter";

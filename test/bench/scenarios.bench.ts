@@ -15,11 +15,11 @@ import { readFileSync } from "node:fs";
 import { dirname, resolve } from "node:path";
 import { performance } from "node:perf_hooks";
 import { fileURLToPath } from "node:url";
-import { loadBench, type LoadedBench } from "../../engine/bench";
-import { parseScenario } from "../../engine/scenario/parse-scenario";
-import { runScenario } from "../../engine/scenario/run-scenario";
-import type { Scenario } from "../../engine/scenario/scenario-schema";
-import { parseSuite } from "../../engine/scenario/suite-schema";
+import { loadBench, type LoadedBench } from "../../engine";
+import { parseScenario } from "../../engine";
+import { runScenario } from "../../engine";
+import type { Scenario } from "../../engine";
+import { parseSuite } from "../../engine";
 
 const TARGET_PER_S = 500;
 /** The goal: replays per CPU second once a run starts from the prepared bench. */

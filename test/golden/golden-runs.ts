@@ -10,13 +10,13 @@
 import { readFileSync } from "node:fs";
 import { dirname, resolve } from "node:path";
 import { fileURLToPath } from "node:url";
-import { loadBench, type LoadedBench } from "../../engine/bench";
-import type { TraceEvent } from "../../engine/core/trace";
-import { parseScenario } from "../../engine/scenario/parse-scenario";
-import { runScenario } from "../../engine/scenario/run-scenario";
-import { parseSuite } from "../../engine/scenario/suite-schema";
-import { LiveSession as SimHost } from "../../engine/sim";
-import type { SimCommand, SimMessage } from "../../engine/sim/live/live-protocol";
+import { loadBench, type LoadedBench } from "../../engine";
+import type { TraceEvent } from "../../engine";
+import { parseScenario } from "../../engine";
+import { runScenario } from "../../engine";
+import { parseSuite } from "../../engine";
+import { LiveSession as SimHost } from "../../engine";
+import type { SimCommand, SimMessage } from "../../engine";
 import { trainingRoomBench } from "../harness/training-room-bench";
 
 export const ROOT = resolve(dirname(fileURLToPath(import.meta.url)), "../..");

@@ -1,5 +1,5 @@
-import type { ScenarioResult } from "@/engine/scenario/scenario-result";
-import type { Scenario } from "@/engine/scenario/scenario-schema";
+import type { ScenarioResult } from "@/engine";
+import type { Scenario } from "@/engine";
 
 /**
  * One scenario to replay, as it crosses to a worker thread: plain JSON only

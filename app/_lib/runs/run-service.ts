@@ -14,8 +14,8 @@ import {
   type SuiteRun,
 } from "@/db/queries/runs";
 import type { ScenarioRow } from "@/db/queries/scenarios";
-import { parseScenarioText } from "@/engine/scenario/parse-scenario";
-import type { Scenario } from "@/engine/scenario/scenario-schema";
+import { parseScenarioText } from "@/engine";
+import type { Scenario } from "@/engine";
 import { AppError } from "../errors";
 import { publishRunEvent } from "./run-events";
 import type { RunJob, RunJobOutcome } from "./run-job";

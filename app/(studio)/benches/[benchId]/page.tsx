@@ -2,7 +2,7 @@ import type { Metadata } from "next";
 import { notFound } from "next/navigation";
 import { can, canOn, maySeeBench } from "@/app/_lib/capabilities";
 import { requireCapability } from "@/app/_lib/dal";
-import { benchSchema } from "@/engine/bench";
+import { benchSchema } from "@/engine";
 import { findBench, latestRevision } from "@/db/queries/benches";
 import { findFloorPlan } from "@/db/queries/uploads";
 import { EditorPage } from "./editor-page";
