@@ -1,23 +1,17 @@
-import { formatGroupAddress, parseGroupAddress } from "../address";
+import { parseGroupAddress } from "../address";
 import { loadBench, type BenchError, type LoadedBench } from "../bench";
 import type { Bench, BenchInput } from "../bench/bench-schema";
 import { SequentialIds } from "../core/ids";
-import { err, ok, type Result } from "../core/result";
+import { ok, type Result } from "../core/result";
 import { createRng } from "../core/rng";
 import { Scheduler } from "../core/scheduler";
 import { Trace, type TraceEvent, type TraceListener } from "../core/trace";
-import { getDpt } from "../dpt";
-import { ACK_OCTET, type GroupService, type Priority } from "../frame";
+import { ACK_OCTET, type Priority } from "../frame";
 import { Tp1Line, Tp1Sender, type BusStats } from "../bus";
 import { DeviceRunner, type DeviceRuntime } from "./device-runtime";
-import { BUS_FAULTS, FaultRegistry, UNIT_LINK_BROKEN } from "./fault-registry";
-import {
-  DEFAULT_GROUP_PRIORITY,
-  GroupObjectLayer,
-  groupFrame,
-  type LineRuntime,
-} from "./group-objects";
-import { reloadedBench } from "./prepared-bench";
+import { FaultRegistry } from "./fault-registry";
+import { GroupObjectLayer, type LineRuntime } from "./group-objects";
+import { InputDispatch } from "./input-dispatch";
 import type { SimError } from "./sim-error";
 import type { Receipt, SimInput } from "./sim-input";
 import { TraceEmitter, type FaultSource } from "./trace-emitter";
@@ -34,6 +28,7 @@ type JsonValue = Extract<SimInput, { kind: "write" }>["value"];
  * virtual clock, the trace, state queries and `apply`, the one entry point for
  * inputs from outside. The work is done by its parts:
  *
+ * - InputDispatch (input-dispatch.ts): checks and applies inputs from outside.
  * - DeviceRunner (device-runtime.ts): transitions, effects, timers.
  * - GroupObjectLayer (group-objects.ts): flags, sending, listening, values.
  * - UnitLinkMedium (unit-link-medium.ts): messages between unit-link members.
@@ -138,6 +133,7 @@ export class Simulation {
   private readonly deviceById = new Map<string, DeviceRuntime>();
   private readonly testToolSender: Tp1Sender;
   private readonly testToolLine: LineRuntime;
+  private readonly inputs: InputDispatch;
 
   constructor(bench: LoadedBench, options: SimulationOptions) {
     this.loadedBench = bench;
@@ -201,6 +197,20 @@ export class Simulation {
       this.deviceById.set(device.id, device);
     });
     this.objects.rebuildListeners(this.lines.values(), this.devices);
+    this.inputs = new InputDispatch({
+      clock: this.scheduler,
+      emitter: this.emitter,
+      faults: this.faults,
+      objects: this.objects,
+      runner: this.runner,
+      deviceById: this.deviceById,
+      reuse: this.reuse,
+      bench: benchNow,
+      setBench: (next) => (this.loadedBench = next),
+      rebuildListeners: () => this.objects.rebuildListeners(this.lines.values(), this.devices),
+      queueFromTestTool: (frame) =>
+        this.testToolLine.line.queue(this.testToolSender, frame, this.telegramIds.next()).id,
+    });
     for (const device of this.devices) this.runner.start(device);
   }
 
@@ -330,65 +340,7 @@ export class Simulation {
    * nothing and comes back as a `SimError` naming the input's field.
    */
   apply(input: SimInput): Result<Receipt, SimError> {
-    const atUs = this.nowUs;
-    switch (input.kind) {
-      case "write":
-      case "read":
-      case "response": {
-        const sent = this.sendFromOutside(input);
-        return sent.ok ? ok({ atUs, telegramId: sent.value }) : sent;
-      }
-      case "press": {
-        const device = this.deviceById.get(input.device);
-        if (device === undefined) return unknownDevice(input.device);
-        const buttons = device.type.buttons(device.loaded.parameters);
-        if (!buttons.some((b) => b.id === input.button)) {
-          return err({
-            kind: "sim.button-unknown",
-            field: "button",
-            message: `device "${input.device}" has no button "${input.button}" (it has ${buttons.map((b) => `"${b.id}"`).join(", ") || "none"})`,
-          });
-        }
-        const action = input.action ?? "press";
-        this.emitter.userAction(
-          { action: "button", deviceId: input.device, detail: `${action} ${input.button}` },
-          input,
-        );
-        this.runner.transition(device, { kind: "button", button: input.button, action });
-        return ok({ atUs });
-      }
-      case "set-input": {
-        const device = this.deviceById.get(input.device);
-        if (device === undefined) return unknownDevice(input.device);
-        this.emitter.userAction(
-          {
-            action: "input",
-            deviceId: input.device,
-            detail: `${input.input} = ${JSON.stringify(input.value)}`,
-          },
-          input,
-        );
-        this.runner.transition(device, { kind: "input", input: input.input, value: input.value });
-        return ok({ atUs });
-      }
-      case "set-parameter": {
-        const device = this.deviceById.get(input.device);
-        if (device === undefined) return unknownDevice(input.device);
-        const current = this.loadedBench.bench.devices.find((d) => d.id === input.device)!;
-        const parameters = { ...current.parameters, [input.parameter]: input.value };
-        return this.reloadDevice(device, parameters, input, atUs);
-      }
-      case "set-parameters": {
-        const device = this.deviceById.get(input.device);
-        if (device === undefined) return unknownDevice(input.device);
-        return this.reloadDevice(device, input.parameters, input, atUs);
-      }
-      case "inject-fault":
-      case "clear-fault": {
-        const result = this.setFault(input);
-        return result.ok ? ok({ atUs }) : result;
-      }
-    }
+    return this.inputs.apply(input);
   }
 
   /** Sends a GroupValue_Write from the test tool (or a named device). Returns the telegram id. */
@@ -476,200 +428,6 @@ export class Simulation {
   clearFault(target: string, faultId: string): Result<void, SimError> {
     return done(this.apply({ kind: "clear-fault", device: target, fault: faultId }));
   }
-
-  /** A parameter change: the bench is re-checked with the new parameters, then the device restarts. */
-  private reloadDevice(
-    device: DeviceRuntime,
-    parameters: Record<string, unknown>,
-    input: SimInput,
-    atUs: number,
-  ): Result<Receipt, SimError> {
-    const deviceId = device.id;
-    const bench = this.loadedBench.bench;
-    const document: Bench = {
-      ...bench,
-      devices: bench.devices.map((d) => (d.id === deviceId ? { ...d, parameters } : d)),
-    };
-    // Drop links to objects the new parameters remove; the loader would otherwise refuse them.
-    const objects = new Set(
-      device.type
-        .groupObjects(device.type.parameters.safeParse(parameters).data ?? device.loaded.parameters)
-        .map((o) => o.number),
-    );
-    const pruned: Bench = {
-      ...document,
-      links: document.links.filter((l) => l.device !== deviceId || objects.has(l.object)),
-    };
-    const current = this.loadedBench;
-    const loaded = reloadedBench(current, deviceId, parameters, this.reuse, () =>
-      loadBench(pruned, {
-        deviceTypes: (id) => current.devices.find((d) => d.type.id === id)?.type ?? undefined,
-      }),
-    );
-    if (!loaded.ok) return err(parametersRefused(loaded.error));
-    this.loadedBench = loaded.value;
-    this.emitter.userAction(
-      { action: "parameter", deviceId, detail: JSON.stringify(parameters) },
-      input,
-    );
-    this.runner.reset(device, loaded.value.deviceById.get(deviceId)!);
-    this.objects.rebuildListeners(this.lines.values(), this.devices);
-    this.runner.start(device);
-    return ok({ atUs });
-  }
-
-  // ---------------------------------------------------------------- internals
-
-  private setFault(
-    input: Extract<SimInput, { kind: "inject-fault" | "clear-fault" }>,
-  ): Result<void, SimError> {
-    const target = input.device;
-    const fault = input.fault;
-    const active = input.kind === "inject-fault";
-    const action = active ? "fault.inject" : "fault.clear";
-    const device = this.deviceById.get(target);
-    if (device !== undefined) {
-      this.emitter.userAction({ action, deviceId: target, detail: fault }, input);
-      const changed = active
-        ? this.faults.raise(target, fault, "user")
-        : this.faults.clear(target, fault, "user");
-      if (!changed) return ok(undefined);
-      device.busAnswer = this.faults.busAnswer(target);
-      this.runner.transition(
-        device,
-        active ? { kind: "fault.inject", fault } : { kind: "fault.clear", fault },
-      );
-      return ok(undefined);
-    }
-    if (this.loadedBench.unitLinks.some((l) => l.id === target)) {
-      if (fault !== UNIT_LINK_BROKEN) {
-        return err({
-          kind: "sim.fault-unknown",
-          field: "fault",
-          message: `a unit link only has the fault "${UNIT_LINK_BROKEN}", not "${fault}"`,
-        });
-      }
-      this.emitter.userAction({ action, unitLink: target, detail: fault }, input);
-      this.faults.setBroken(target, active);
-      return ok(undefined);
-    }
-    return err({
-      kind: "sim.fault-target-unknown",
-      field: "device",
-      message: `no device or unit link "${target}"`,
-    });
-  }
-
-  private sendFromOutside(
-    input: Extract<SimInput, { kind: "write" | "read" | "response" }>,
-  ): Result<number, SimError> {
-    const service = SERVICE_OF_INPUT[input.kind];
-    const groupAddress = input.groupAddress;
-    const value = input.kind === "read" ? undefined : input.value;
-    const options = input;
-    let raw: number;
-    if (typeof groupAddress === "number") {
-      if (!Number.isInteger(groupAddress) || groupAddress < 1 || groupAddress > 0xffff) {
-        return err({
-          kind: "sim.group-address-invalid",
-          field: "groupAddress",
-          message: `group address ${groupAddress} is not a raw address 1..65535`,
-        });
-      }
-      raw = groupAddress;
-    } else {
-      const parsed = parseGroupAddress(groupAddress);
-      if (!parsed.ok)
-        return err({
-          kind: "sim.group-address-invalid",
-          field: "groupAddress",
-          message: parsed.error.message,
-        });
-      raw = parsed.value;
-    }
-    const ga = this.loadedBench.groupAddresses.get(raw);
-    if (ga === undefined) {
-      return err({
-        kind: "sim.group-address-unknown",
-        field: "groupAddress",
-        message: `group address ${formatGroupAddress(raw)} is not on this bench, so its DPT is unknown`,
-      });
-    }
-    let payload = EMPTY_PAYLOAD;
-    if (service !== "GroupValue_Read") {
-      const codec = getDpt(ga.dpt)!;
-      const encoded = codec.encode(value);
-      if (!encoded.ok)
-        return err({
-          kind: "sim.value-invalid",
-          field: "value",
-          message: `${formatGroupAddress(raw)}: ${encoded.error.message}`,
-        });
-      payload = encoded.value;
-    }
-    const priority = options.priority ?? DEFAULT_GROUP_PRIORITY;
-    const action = service === "GroupValue_Read" ? "group.read" : "group.write";
-    const detail =
-      service === "GroupValue_Read"
-        ? "read"
-        : `${service === "GroupValue_Write" ? "write" : "response"} ${JSON.stringify(value)}`;
-    if (options.from !== undefined) {
-      const device = this.deviceById.get(options.from);
-      if (device === undefined) return unknownDevice(options.from, "from");
-      if (device.sender === undefined) {
-        return err({
-          kind: "sim.device-not-on-line",
-          field: "from",
-          message: `device "${options.from}" is not on a KNX line and cannot send telegrams`,
-        });
-      }
-      this.emitter.userAction(
-        { action, deviceId: device.id, groupAddress: raw, detail },
-        withTextAddress(input, raw),
-      );
-      const id = this.objects.queueFromDevice(device, service, raw, payload, ga.sizeBits, priority);
-      if (id === undefined)
-        return err({
-          kind: "sim.device-not-on-line",
-          field: "from",
-          message: `device "${options.from}" is disconnected ("${BUS_FAULTS.silent}")`,
-        });
-      return ok(id);
-    }
-    this.emitter.userAction({ action, groupAddress: raw, detail }, withTextAddress(input, raw));
-    const frame = groupFrame(
-      this.loadedBench.testToolAddress,
-      raw,
-      service,
-      payload,
-      ga.sizeBits,
-      priority,
-    );
-    return ok(this.testToolLine.line.queue(this.testToolSender, frame, this.telegramIds.next()).id);
-  }
-}
-
-const EMPTY_PAYLOAD: Uint8Array = new Uint8Array(0);
-
-const SERVICE_OF_INPUT: Readonly<Record<"write" | "read" | "response", GroupService>> = {
-  write: "GroupValue_Write",
-  read: "GroupValue_Read",
-  response: "GroupValue_Response",
-};
-
-/** The input as the trace keeps it: the group address as text, optional fields left out when absent. */
-function withTextAddress(
-  input: Extract<SimInput, { kind: "write" | "read" | "response" }>,
-  raw: number,
-): SimInput {
-  const { from, priority } = input;
-  return {
-    ...(input.kind === "read"
-      ? { kind: "read" as const, groupAddress: formatGroupAddress(raw) }
-      : { kind: input.kind, groupAddress: formatGroupAddress(raw), value: input.value }),
-    ...(from === undefined ? {} : { from }),
-    ...(priority === undefined ? {} : { priority }),
-  } as SimInput;
 }
 
 function sendFields(options: SendOptions): { from?: string; priority?: Priority } {
@@ -685,25 +443,4 @@ function telegramIdOf(result: Result<Receipt, SimError>): Result<number, SimErro
 
 function done(result: Result<Receipt, SimError>): Result<void, SimError> {
   return result.ok ? ok(undefined) : result;
-}
-
-/** Bench errors of a refused parameter change, folded into one error naming the first field. */
-function parametersRefused(errors: readonly BenchError[]): SimError {
-  return {
-    kind: "sim.parameters-invalid",
-    field: errors[0]?.path ?? "parameters",
-    message: errors.map((e) => e.message).join("; "),
-    issues: errors,
-  };
-}
-
-function unknownDevice(
-  deviceId: string,
-  field = "device",
-): { readonly ok: false; readonly error: SimError } {
-  return err({
-    kind: "sim.device-unknown",
-    field,
-    message: `no device "${deviceId}" on this bench`,
-  });
 }
