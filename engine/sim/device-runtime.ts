@@ -6,6 +6,7 @@ import type {
   DeviceContext,
   DeviceEffect,
   DeviceEvent,
+  TransitionResult,
 } from "../devices/device-type";
 import type { Tp1Sender } from "../bus";
 import type { FaultRegistry } from "./fault-registry";
@@ -66,6 +67,8 @@ export class DeviceRunner {
     private readonly objects: GroupObjectLayer,
     private readonly links: () => UnitLinkMedium<DeviceRuntime>,
     private readonly reuse: boolean,
+    /** Sees every effect before it is applied (test support); absent in a simulation. */
+    private readonly observeEffect?: (device: DeviceRuntime, effect: DeviceEffect) => void,
   ) {
     this.timerTag = scheduler.register((_, payload) => this.onTimer(payload as TimerEntry));
   }
@@ -120,14 +123,27 @@ export class DeviceRunner {
     this.faults.clearRaisedByDevice(device.id);
   }
 
-  /** Hands one event to a device and applies the effects of its transition. */
-  transition(device: DeviceRuntime, event: DeviceEvent): void {
+  /**
+   * New parameters without a restart, for devices that read their parameters
+   * live (the device test harness); a bench download goes through `reset`.
+   */
+  reconfigure(device: DeviceRuntime, loaded: LoadedDevice): void {
+    device.loaded = loaded;
+    device.context = this.makeContext(device);
+  }
+
+  /** Hands one event to a device and applies the effects of its transition; returns the transition's result. */
+  transition(device: DeviceRuntime, event: DeviceEvent): TransitionResult<unknown> {
     const result = device.type.transition(device.state, event, device.context);
     device.state = result.state;
     if (result.transition !== undefined)
       this.emitter.deviceTransition(device.id, result.transition, event.kind);
     const effects = result.effects;
-    for (let i = 0; i < effects.length; i++) this.applyEffect(device, effects[i]!);
+    for (let i = 0; i < effects.length; i++) {
+      this.observeEffect?.(device, effects[i]!);
+      this.applyEffect(device, effects[i]!);
+    }
+    return result;
   }
 
   private makeContext(device: DeviceRuntime): DeviceContext<unknown> {
