@@ -58,12 +58,7 @@ export class DeviceBench {
     const bench = { unitLinks, groupAddresses: new Map() } as unknown as LoadedBench;
     const emitter = new TraceEmitter(this.trace, this.scheduler);
     const faults = new FaultRegistry(emitter, ids);
-    const objects = new GroupObjectLayer(
-      emitter,
-      new SequentialIds(),
-      () => bench,
-      (device, event) => this.runner.transition(device as DeviceRuntime, event),
-    );
+    const objects = new GroupObjectLayer(emitter, new SequentialIds(), () => bench);
     const medium = new UnitLinkMedium<DeviceRuntime>(
       this.scheduler,
       emitter,
@@ -84,6 +79,7 @@ export class DeviceBench {
       false,
       observeEffect && ((device, effect) => observeEffect(device.id, effect)),
     );
+    objects.receiver = this.runner;
     members.forEach((member, index) => {
       const loaded = loadedDevice(
         member.id,

@@ -136,12 +136,17 @@ export class DeviceRunner {
   transition(device: DeviceRuntime, event: DeviceEvent): TransitionResult<unknown> {
     const result = device.type.transition(device.state, event, device.context);
     device.state = result.state;
-    if (result.transition !== undefined)
+    if (result.transition !== undefined && this.emitter.active)
       this.emitter.deviceTransition(device.id, result.transition, event.kind);
     const effects = result.effects;
-    for (let i = 0; i < effects.length; i++) {
-      this.observeEffect?.(device, effects[i]!);
-      this.applyEffect(device, effects[i]!);
+    const observe = this.observeEffect;
+    if (observe === undefined) {
+      for (let i = 0; i < effects.length; i++) this.applyEffect(device, effects[i]!);
+    } else {
+      for (let i = 0; i < effects.length; i++) {
+        observe(device, effects[i]!);
+        this.applyEffect(device, effects[i]!);
+      }
     }
     return result;
   }

@@ -135,9 +135,10 @@ export class GroupObjectLayer {
     private readonly emitter: TraceEmitter,
     private readonly telegramIds: SequentialIds,
     private readonly bench: () => LoadedBench,
-    /** Hands a delivered write or response to the device's state machine. */
-    private readonly handTo: (device: ObjectOwner, event: DeviceEvent) => void,
   ) {}
+
+  /** Where delivered writes and responses go: the device runtime (set once, right after construction). */
+  receiver: { transition(device: ObjectOwner, event: DeviceEvent): unknown } | undefined;
 
   /** Rebuilds every line's listener table from the devices' objects (start, parameter change). */
   rebuildListeners(lines: Iterable<LineRuntime>, devices: readonly ObjectOwner[]): void {
@@ -171,7 +172,8 @@ export class GroupObjectLayer {
     const previous = object.value;
     if (sameValue(previous, value)) return;
     object.value = value;
-    this.emitter.objectChanged(device.id, object.number, value, previous, cause, groupAddress);
+    if (this.emitter.active)
+      this.emitter.objectChanged(device.id, object.number, value, previous, cause, groupAddress);
   }
 
   /** A device sends a group value from an object (stored first; sent with the communication and transmit flags). */
@@ -317,7 +319,7 @@ export class GroupObjectLayer {
     const value = this.decodedValue;
     this.deliveries++;
     this.store(device, object, value, isWrite ? "write" : "response", destination);
-    this.handTo(
+    this.receiver!.transition(
       device,
       isWrite
         ? { kind: "group.write", object: object.number, value, source: telegram.frame.source }

@@ -145,9 +145,7 @@ export class Simulation {
       bench.devices.map((d) => d.id),
     );
     const benchNow = () => this.loadedBench;
-    this.objects = new GroupObjectLayer(this.emitter, this.telegramIds, benchNow, (device, event) =>
-      this.runner.transition(device as DeviceRuntime, event),
-    );
+    this.objects = new GroupObjectLayer(this.emitter, this.telegramIds, benchNow);
     this.runner = new DeviceRunner(
       this.scheduler,
       createRng(options.seed),
@@ -157,6 +155,7 @@ export class Simulation {
       () => this.unitLinks,
       this.reuse,
     );
+    this.objects.receiver = this.runner;
     this.unitLinks = new UnitLinkMedium<DeviceRuntime>(
       this.scheduler,
       this.emitter,
