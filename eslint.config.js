@@ -15,6 +15,20 @@ const nodeBuiltins = [
   "net",
 ];
 
+// One way into the engine: outside engine/, import it only from its public entry
+// (engine/index.ts, "@/engine") or the command line (engine/cli).
+const engineOneWayIn = {
+  group: [
+    "@/engine/*",
+    "!@/engine/cli",
+    "!@/engine/cli/*",
+    "**/engine/*",
+    "!**/engine/cli",
+    "!**/engine/cli/*",
+  ],
+  message: 'Import the engine from "@/engine" (engine/index.ts), its one public entry.',
+};
+
 const config = [
   ...nextVitals,
   ...nextTs,
@@ -97,6 +111,7 @@ const config = [
               group: ["next", "next/*", "react", "react-dom", "@/app/*", "@/components/*"],
               message: "db/ runs from a CLI and tests too: no Next, React or UI imports.",
             },
+            engineOneWayIn,
           ],
         },
       ],
@@ -113,10 +128,15 @@ const config = [
               group: ["@/db/*", "**/db/*", "better-sqlite3", "drizzle-orm", "drizzle-orm/*"],
               message: "components/ never reach the database; pages fetch and pass props.",
             },
+            engineOneWayIn,
           ],
         },
       ],
     },
+  },
+  {
+    files: ["app/**/*.ts", "app/**/*.tsx", "test/**/*.ts", "proxy.ts"],
+    rules: { "no-restricted-imports": ["error", { patterns: [engineOneWayIn] }] },
   },
 ];
 export default config;

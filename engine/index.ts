@@ -236,7 +236,160 @@ export {
 /** Expected load per line from configured sending conditions (telegrams/s, percent of capacity, contributions). */
 export { estimateLineLoad, type LineLoadEstimate, type LoadContribution } from "./checks/line-load";
 
-// ---------------------------------------------------------------- KNXnet/IP
+// ---------------------------------------------------------------- re-exported for the app
 
-/** KNXnet/IP frames (pure encode/decode, typed errors), the pure tunnelling server transition and the `LineAccess` interface an endpoint binds to a simulation. */
-export * as knxnetip from "./knxnetip";
+/** How a telegram's transmission ended for the sender. */
+export type { Ack } from "./sim/live/live-protocol";
+/** How a telegram's transmission ended for the sender. */
+export { ackSchema } from "./sim/live/live-protocol";
+/** `ActiveFault` of engine/sim/live/live-protocol. */
+export type { ActiveFault } from "./sim/live/live-protocol";
+/** `activeFaultSchema` of engine/sim/live/live-protocol. */
+export { activeFaultSchema } from "./sim/live/live-protocol";
+/** First transmissions per destination address within one virtual second. */
+export type { AddressRateSample } from "./sim/live/live-protocol";
+/** First transmissions per destination address within one virtual second. */
+export { addressRateSampleSchema } from "./sim/live/live-protocol";
+/** `BenchDevice` of engine/bench. */
+export type { BenchDevice } from "./bench";
+/** `BenchDeviceSummary` of engine/sim/live/live-protocol. */
+export type { BenchDeviceSummary } from "./sim/live/live-protocol";
+/** `BenchGroupAddress` of engine/bench. */
+export type { BenchGroupAddress } from "./bench";
+/** `BenchGroupAddressSummary` of engine/sim/live/live-protocol. */
+export type { BenchGroupAddressSummary } from "./sim/live/live-protocol";
+/** `BenchLine` of engine/bench. */
+export type { BenchLine } from "./bench";
+/** `BenchLink` of engine/bench. */
+export type { BenchLink } from "./bench";
+/** `BenchSummary` of engine/sim/live/live-protocol. */
+export type { BenchSummary } from "./sim/live/live-protocol";
+/** `benchSummarySchema` of engine/sim/live/live-protocol. */
+export { benchSummarySchema } from "./sim/live/live-protocol";
+/** `BenchUnitLink` of engine/bench. */
+export type { BenchUnitLink } from "./bench";
+/** Bus load over one whole virtual second on one line. */
+export type { BusLoadSample } from "./sim/live/live-protocol";
+/** Bus load over one whole virtual second on one line. */
+export { busLoadSampleSchema } from "./sim/live/live-protocol";
+/** `clockSchema` of engine/sim/live/live-protocol. */
+export { clockSchema } from "./sim/live/live-protocol";
+/** What the inspector shows of one device, sent whenever something about it changed. */
+export type { DeviceSnapshot } from "./sim/live/live-protocol";
+/** What the inspector shows of one device, sent whenever something about it changed. */
+export { deviceSnapshotSchema } from "./sim/live/live-protocol";
+/** Parses "BC 11 01" / "bc1101" into octets; returns undefined for odd length or non-hex text. */
+export { fromHex } from "./frame/hex";
+/** 20.105 HVAC controller mode, the full table (knx-reference.md); 18, 19 and 21..255 are reserved. */
+export { HVAC_CONTROLLER_MODES } from "./dpt";
+/** 20.102 HVAC mode (DPT spec §4.x, knx-reference.md). */
+export { HVAC_MODES } from "./dpt";
+/** A parsed input command: the input, the command name errors report, and its field names for the input's fields. */
+export type { InputCommand } from "./sim/live/live-protocol";
+/** The worker's one way to act on the bench: a simulation input (engine/sim/sim-input.ts). */
+export { inputCommandSchema } from "./sim/live/live-protocol";
+/** The live session: one simulation for the live console (in the browser's worker, or in a server process), driven by commands, and turns its trace into batches for the page: log rows (each telegram once its acknowledgement is known), snapshots of the devices that changed, active faults, and chart samples taken at whole virtual seconds. */
+export { LiveSession } from "./sim";
+/** One row of the telegram log. */
+export type { LogRow } from "./sim/live/live-protocol";
+/** One row of the telegram log. */
+export { logRowSchema } from "./sim/live/live-protocol";
+/** The most telegrams one flood command queues. */
+export { MAX_FLOOD_COUNT } from "./sim/live/live-protocol";
+/** The longest jump ahead one command may ask for: one virtual day. */
+export { MAX_JUMP_US } from "./sim/live/live-protocol";
+/** `ObjectView` of engine/sim/live/live-protocol. */
+export type { ObjectView } from "./sim/live/live-protocol";
+/** `objectViewSchema` of engine/sim/live/live-protocol. */
+export { objectViewSchema } from "./sim/live/live-protocol";
+/** `ParsedSimCommand` of engine/sim/live/live-protocol. */
+export type { ParsedSimCommand } from "./sim/live/live-protocol";
+/** Parses a command or names the field that is wrong. */
+export { parseSimCommand } from "./sim/live/live-protocol";
+/** Parses a worker message; a bad one is a bug in the worker, so it throws with the field. */
+export { parseSimMessage } from "./sim/live/live-protocol";
+/** A playback control (load, play, pause, step, jump, reset, flood, record, scene dry-run). */
+export type { PlaybackCommand } from "./sim/live/live-protocol";
+/** Canvas position in canvas units (not pixels); the canvas owns the scale. */
+export type { Position } from "./bench";
+/** `RoomSample` of engine/sim/live/live-protocol. */
+export type { RoomSample } from "./sim/live/live-protocol";
+/** `roomSampleSchema` of engine/sim/live/live-protocol. */
+export { roomSampleSchema } from "./sim/live/live-protocol";
+/** `SceneDryRunResult` of engine/sim/live/live-protocol. */
+export type { SceneDryRunResult } from "./sim/live/live-protocol";
+/** `sceneDryRunResultSchema` of engine/sim/live/live-protocol. */
+export { sceneDryRunResultSchema } from "./sim/live/live-protocol";
+/** `SimClock` of engine/sim/live/live-protocol. */
+export type { SimClock } from "./sim/live/live-protocol";
+/** A command as the page sends it: playback controls, an input, or an input in the older spelling. */
+export type { SimCommand } from "./sim/live/live-protocol";
+/** `simCommandSchema` of engine/sim/live/live-protocol. */
+export { simCommandSchema } from "./sim/live/live-protocol";
+/** The live session's older name. */
+export { SimHost } from "./sim";
+/** One thing done to a running bench from outside; see the module comment. */
+export type { SimInput } from "./sim";
+/** `SimMessage` of engine/sim/live/live-protocol. */
+export type { SimMessage } from "./sim/live/live-protocol";
+/** `simMessageSchema` of engine/sim/live/live-protocol. */
+export { simMessageSchema } from "./sim/live/live-protocol";
+/** Playback speed: virtual seconds per wall second, or as fast as the worker can go. */
+export type { SimSpeed } from "./sim/live/live-protocol";
+/** Playback speed: virtual seconds per wall second, or as fast as the worker can go. */
+export { simSpeedSchema } from "./sim/live/live-protocol";
+/** What the console needs to know about a bench to draw its controls: addresses with names and DPTs, devices with their objects and local buttons, unit links, and control-panel tiles. */
+export { summarizeBench } from "./sim";
+/** Devices on the engine's real runtime without a KNX line (transitions, effects, timers, unit links, faults), for device tests. */
+export { DeviceBench, type DeviceBenchLink, type DeviceBenchMember } from "./sim/device-bench";
+
+/** Decodes one datagram into a frame; never throws, whatever the octets. */
+export { decodeKnxNetIpFrame } from "./knxnetip";
+/** Hop count devices send with (knx-reference.md, TP1 standard frame). */
+export { DEFAULT_HOP_COUNT } from "./frame";
+/** `Dib` of engine/knxnetip/dib. */
+export type { Dib } from "./knxnetip/dib";
+/** Encodes a frame, header included. */
+export { encodeKnxNetIpFrame } from "./knxnetip";
+/** Host protocol address information (KNXnet/IP spec, Core §8.6.2): structure length 0x08 | host protocol (0x01 UDP, 0x02 TCP) | IPv4 address (4) | port (2, big-endian) 0.0.0.0 port 0 is the "route back" form a client behind NAT sends: answer to the address and port the datagram came from (Core §8.6.3, from memory). */
+export type { Hpai } from "./knxnetip/hpai";
+/** A server with no tunnels. */
+export { initialTunnellingServerState } from "./knxnetip";
+/** The standard KNXnet/IP UDP port. */
+export { KNXNETIP_PORT } from "./knxnetip";
+/** KNXnet/IP frames of the core and tunnelling services as values, and their encoding (KNXnet/IP spec, Core §2.3 and §7.5-7.8, Tunnelling §4.4): header: 0x06 | 0x10 | service type (2) | total length (2, header included) SEARCH_REQUEST            HPAI discovery endpoint SEARCH_RESPONSE           HPAI control endpoint | DIB device info | DIB service families DESCRIPTION_REQUEST       HPAI control endpoint DESCRIPTION_RESPONSE      DIB device info | DIB service families | further DIBs CONNECT_REQUEST           HPAI control endpoint | HPAI data endpoint | CRI CONNECT_RESPONSE          channel id | status | (HPAI data endpoint | CRD, when status is E_NO_ERROR) CONNECTIONSTATE_REQUEST   channel id | reserved | HPAI control endpoint CONNECTIONSTATE_RESPONSE  channel id | status DISCONNECT_REQUEST        channel id | reserved | HPAI control endpoint DISCONNECT_RESPONSE       channel id | status TUNNELLING_REQUEST        connection header (0x04 | channel id | sequence counter | reserved) | cEMI TUNNELLING_ACK            connection header (0x04 | channel id | sequence counter | status) The cEMI message of a tunnelling request stays octets here: a tunnel may carry message codes the engine's cEMI code does not model, and the server decides what to do with them (engine/frame/cemi.ts decodes L_Data). */
+export type { KnxNetIpFrame } from "./knxnetip/knxnetip-frame";
+/** What a KNXnet/IP endpoint needs from a running simulation: one line to put frames on and to watch. */
+export type { LineAccess } from "./knxnetip";
+/** The earliest time a `tick` has something to do (a heartbeat or acknowledgement deadline), or undefined. */
+export { nextDeadlineUs } from "./knxnetip";
+/** The NAT "route back" HPAI: 0.0.0.0:0 over UDP. */
+export { ROUTE_BACK_HPAI } from "./knxnetip";
+/** Status codes of the specification (Core §7.8.5 and Tunnelling §2.7; 0x01, 0x02 from memory). */
+export { STATUS } from "./knxnetip";
+/** `Tp1Line` of engine/bus. */
+export type { Tp1Line } from "./bus";
+/** One station's sending side: a queue of telegrams sent one at a time, each with its repetitions. */
+export { Tp1Sender } from "./bus";
+/** `tunnelAddressPool` of engine/knxnetip. */
+export { tunnelAddressPool } from "./knxnetip";
+/** One open tunnel. */
+export type { TunnelConnection } from "./knxnetip";
+/** The CRI of a tunnel on the link layer: 04 04 02 00. */
+export { tunnelCri } from "./knxnetip";
+/** A full configuration from the required fields and any overrides. */
+export { tunnellingServerConfig } from "./knxnetip";
+/** What a tunnelling server is and how strict it is; `tunnellingServerConfig` fills the defaults. */
+export type { TunnellingServerConfig } from "./knxnetip";
+/** Counts of what the server dropped or refused, for the console and tests. */
+export type { TunnellingServerCounters } from "./knxnetip";
+/** `TunnellingServerEffect` of engine/knxnetip. */
+export type { TunnellingServerEffect } from "./knxnetip";
+/** `TunnellingServerEvent` of engine/knxnetip. */
+export type { TunnellingServerEvent } from "./knxnetip";
+/** `TunnellingServerState` of engine/knxnetip. */
+export type { TunnellingServerState } from "./knxnetip";
+/** Applies one event; see the module comment. */
+export { tunnellingServerTransition } from "./knxnetip";
+/** An IPv4 UDP address: dotted address and port. */
+export type { UdpAddress } from "./knxnetip";

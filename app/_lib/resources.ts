@@ -1,6 +1,6 @@
 import { z } from "zod";
-import { loadBench } from "@/engine/bench";
-import { parseScenario } from "@/engine/scenario/parse-scenario";
+import { loadBench } from "@/engine";
+import { parseScenario } from "@/engine";
 import { AppError } from "./errors";
 
 /**

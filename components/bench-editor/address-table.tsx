@@ -11,10 +11,10 @@ import {
   type GroupingState,
 } from "@tanstack/react-table";
 import { useMemo, useState } from "react";
-import { parseGroupAddress } from "@/engine/address";
-import type { Bench } from "@/engine/bench";
-import type { CheckFinding } from "@/engine/checks/check-finding";
-import { dptIds } from "@/engine/dpt";
+import { parseGroupAddress } from "@/engine";
+import type { Bench } from "@/engine";
+import type { CheckFinding } from "@/engine";
+import { dptIds } from "@/engine";
 import { deviceObjects } from "./model/device-objects";
 import { groupAddressKey } from "./model/group-address-key";
 import {

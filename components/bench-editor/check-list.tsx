@@ -1,6 +1,6 @@
 "use client";
 
-import type { CheckFinding } from "@/engine/checks/check-finding";
+import type { CheckFinding } from "@/engine";
 import { StatusBadge } from "@/components/ui/status-badge";
 import { useEditorStoreApi } from "./store/editor-context";
 

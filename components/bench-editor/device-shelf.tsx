@@ -1,8 +1,8 @@
 "use client";
 
 import { useState } from "react";
-import type { Bench } from "@/engine/bench";
-import { listDeviceTypes } from "@/engine/devices";
+import type { Bench } from "@/engine";
+import { listDeviceTypes } from "@/engine";
 import { addDevice } from "./model/devices";
 import { useEditorStoreApi } from "./store/editor-context";
 import { DEVICE_TYPE_DRAG } from "@/components/canvas/node-ids";

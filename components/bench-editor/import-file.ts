@@ -1,6 +1,6 @@
-import { loadBench, type Bench, type BenchError } from "@/engine/bench";
-import { parseScenario } from "@/engine/scenario/parse-scenario";
-import type { Scenario } from "@/engine/scenario/scenario-schema";
+import { loadBench, type Bench, type BenchError } from "@/engine";
+import { parseScenario } from "@/engine";
+import type { Scenario } from "@/engine";
 
 /** Largest bench or scenario file the editor imports; the API's document limit is the same. */
 export const IMPORT_LIMIT_BYTES = 1024 * 1024;

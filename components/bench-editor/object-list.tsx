@@ -1,6 +1,6 @@
 "use client";
 
-import type { Bench, BenchDevice } from "@/engine/bench";
+import type { Bench, BenchDevice } from "@/engine";
 import { FLAG_ORDER } from "@/components/canvas/flag-letters";
 import { dptFamily } from "@/components/canvas/dpt-family";
 import { deviceObjects } from "./model/device-objects";

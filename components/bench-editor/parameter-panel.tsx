@@ -10,8 +10,8 @@ import {
   type UseFormRegister,
 } from "react-hook-form";
 import type { z } from "zod";
-import type { BenchDevice } from "@/engine/bench";
-import { getDeviceType } from "@/engine/devices";
+import type { BenchDevice } from "@/engine";
+import { getDeviceType } from "@/engine";
 import { effectiveParameters } from "./model/device-objects";
 import { setParameters } from "./model/devices";
 import {

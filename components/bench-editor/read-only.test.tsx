@@ -1,6 +1,6 @@
 import { act, cleanup, fireEvent, render, screen, within } from "@testing-library/react";
 import { afterEach, describe, expect, it } from "vitest";
-import { checkBench } from "@/engine/checks/check-bench";
+import { checkBench } from "@/engine";
 import { AddressTable } from "./address-table";
 import { testBench } from "./model/test-bench";
 import { ObjectList } from "./object-list";

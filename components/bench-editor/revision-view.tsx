@@ -3,8 +3,8 @@
 import { useQuery } from "@tanstack/react-query";
 import { ReactFlowProvider } from "@xyflow/react";
 import { useMemo } from "react";
-import type { Bench } from "@/engine/bench";
-import { checkBench } from "@/engine/checks/check-bench";
+import type { Bench } from "@/engine";
+import { checkBench } from "@/engine";
 import { BenchCanvas } from "@/components/canvas/bench-canvas";
 import type { FloorPlanNodeData } from "@/components/canvas/bench-graph";
 import { Button } from "@/components/ui/button";

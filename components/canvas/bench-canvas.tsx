@@ -19,7 +19,7 @@ import {
   type EdgeTypes,
 } from "@xyflow/react";
 import { useCallback, useEffect, useMemo, useRef, useState } from "react";
-import type { CheckFinding } from "@/engine/checks/check-finding";
+import type { CheckFinding } from "@/engine";
 import { connectObject, disconnectObject } from "@/components/bench-editor/model/links";
 import { groupAddressKey } from "@/components/bench-editor/model/group-address-key";
 import { moveNodes, type NodeMove, type NodeRef } from "@/components/bench-editor/model/move-nodes";

@@ -1,8 +1,8 @@
 import type { Edge, Node } from "@xyflow/react";
-import { formatIndividualAddress, parseIndividualAddress } from "@/engine/address";
-import type { Bench, BenchDevice, BenchGroupAddress, Position } from "@/engine/bench";
-import type { CheckFinding, CheckSeverity } from "@/engine/checks/check-finding";
-import { getDeviceType } from "@/engine/devices";
+import { formatIndividualAddress, parseIndividualAddress } from "@/engine";
+import type { Bench, BenchDevice, BenchGroupAddress, Position } from "@/engine";
+import type { CheckFinding, CheckSeverity } from "@/engine";
+import { getDeviceType } from "@/engine";
 import { deviceObjects, type EditorObject } from "@/components/bench-editor/model/device-objects";
 import { groupAddressKey } from "@/components/bench-editor/model/group-address-key";
 import { joinsUnitLinks } from "@/components/bench-editor/model/unit-links";

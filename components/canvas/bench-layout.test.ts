@@ -1,8 +1,8 @@
 import ELK from "elkjs/lib/elk.bundled.js";
 import { readFileSync } from "node:fs";
 import { describe, expect, it } from "vitest";
-import { benchSchema, type Bench } from "@/engine/bench";
-import { parseGroupAddress } from "@/engine/address";
+import { benchSchema, type Bench } from "@/engine";
+import { parseGroupAddress } from "@/engine";
 import { testBench } from "@/components/bench-editor/model/test-bench";
 import { moveNodes } from "@/components/bench-editor/model/move-nodes";
 import { benchGraph, type BenchNode } from "./bench-graph";

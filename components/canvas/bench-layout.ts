@@ -1,6 +1,6 @@
 import type { ElkExtendedEdge, ElkNode } from "elkjs/lib/elk-api";
-import { parseGroupAddress, parseIndividualAddress } from "@/engine/address";
-import type { Bench, Position } from "@/engine/bench";
+import { parseGroupAddress, parseIndividualAddress } from "@/engine";
+import type { Bench, Position } from "@/engine";
 import { deviceObjects } from "@/components/bench-editor/model/device-objects";
 import { groupAddressKey } from "@/components/bench-editor/model/group-address-key";
 

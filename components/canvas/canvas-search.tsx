@@ -1,7 +1,7 @@
 "use client";
 
 import { useId, useMemo, useState } from "react";
-import type { Bench } from "@/engine/bench";
+import type { Bench } from "@/engine";
 import type { NodeRef } from "@/components/bench-editor/model/move-nodes";
 
 interface SearchHit {

@@ -2,7 +2,7 @@
 
 import { Handle, Position, type NodeProps } from "@xyflow/react";
 import { memo } from "react";
-import type { CheckSeverity } from "@/engine/checks/check-finding";
+import type { CheckSeverity } from "@/engine";
 import { cx } from "@/components/ui/cx";
 import { deviceAddressLabel, type DeviceNode } from "./bench-graph";
 import { dptFamily } from "./dpt-family";

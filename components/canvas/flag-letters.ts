@@ -1,4 +1,4 @@
-import type { GroupObjectFlags } from "@/engine/devices";
+import type { GroupObjectFlags } from "@/engine";
 
 /** The flags in their usual order with the letter each is known by. */
 export const FLAG_ORDER: readonly {

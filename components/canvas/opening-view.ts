@@ -1,5 +1,5 @@
 import type { Viewport } from "@xyflow/react";
-import { parseIndividualAddress } from "@/engine/address";
+import { parseIndividualAddress } from "@/engine";
 import type { BenchNode } from "./bench-graph";
 import { BUS_BAR_HEIGHT, BUS_BAR_WIDTH, CARD_WIDTH, cardHeight } from "./bench-layout";
 

@@ -1,7 +1,7 @@
 "use client";
 
 import { useEffect, useMemo, useState } from "react";
-import type { Bench } from "@/engine/bench";
+import type { Bench } from "@/engine";
 import {
   EMPTY_LAYOUT,
   layoutBench,

@@ -5,7 +5,7 @@ import { useSimSend, useSimState } from "@/components/sim/sim-context";
 import type { BenchGroupAddressSummary } from "@/components/sim/sim-protocol";
 import { Button } from "@/components/ui/button";
 import { Mono } from "@/components/ui/mono";
-import { getDpt } from "@/engine/dpt";
+import { getDpt } from "@/engine";
 import { ControlTiles } from "./control-tiles";
 import { checkDptValue, defaultDptValue } from "./dpt-value";
 import { LocalButtons } from "./local-buttons";

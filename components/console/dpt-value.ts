@@ -1,4 +1,4 @@
-import { getDpt, HVAC_CONTROLLER_MODES, HVAC_MODES } from "@/engine/dpt";
+import { getDpt, HVAC_CONTROLLER_MODES, HVAC_MODES } from "@/engine";
 
 /** Which editor the control pad shows for a DPT. */
 export type ValueEditorKind =

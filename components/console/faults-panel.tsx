@@ -5,7 +5,7 @@ import { useSimSend, useSimState, useThrottledSimState } from "@/components/sim/
 import { Button } from "@/components/ui/button";
 import { Mono } from "@/components/ui/mono";
 import { StatusBadge } from "@/components/ui/status-badge";
-import { BUS_FAULTS, UNIT_LINK_BROKEN } from "@/engine/sim";
+import { BUS_FAULTS, UNIT_LINK_BROKEN } from "@/engine";
 import { defaultDptValue } from "./dpt-value";
 
 const SENSOR_OPEN = "unit.sensor-open";

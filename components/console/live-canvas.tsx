@@ -7,7 +7,7 @@ import { EditorStoreProvider, useEditor } from "@/components/bench-editor/store/
 import { createEditorStore } from "@/components/bench-editor/store/editor-store";
 import { useSimState } from "@/components/sim/sim-context";
 import { StatusBadge } from "@/components/ui/status-badge";
-import { benchSchema } from "@/engine/bench";
+import { benchSchema } from "@/engine";
 import { faultsByDevice } from "./faults-by-device";
 import { LocalButtons } from "./local-buttons";
 

@@ -4,7 +4,7 @@ import { useMutation } from "@tanstack/react-query";
 import { useState } from "react";
 import { useSimSend, useSimState, useSimStore } from "@/components/sim/sim-context";
 import { Button } from "@/components/ui/button";
-import { recordScenario, type RecordedAction } from "@/engine/scenario/recorder";
+import { recordScenario, type RecordedAction } from "@/engine";
 
 /**
  * The record switch: while on, the console's actions and the replies they drew

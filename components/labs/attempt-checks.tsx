@@ -1,4 +1,4 @@
-import type { ScenarioResult } from "@/engine/scenario/scenario-result";
+import type { ScenarioResult } from "@/engine";
 import { Mono } from "@/components/ui/mono";
 import { StepStatusBadge } from "@/components/runs/verdict-badge";
 

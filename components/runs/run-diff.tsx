@@ -1,4 +1,4 @@
-import type { ScenarioResult } from "@/engine/scenario/scenario-result";
+import type { ScenarioResult } from "@/engine";
 import { Mono } from "@/components/ui/mono";
 import { StepStatusBadge, VerdictBadge } from "./verdict-badge";
 import { Timestamp } from "@/components/ui/timestamp";

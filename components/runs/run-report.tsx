@@ -1,6 +1,6 @@
-import type { ScenarioResult } from "@/engine/scenario/scenario-result";
-import { formatVirtualTime } from "@/engine/core/virtual-time";
-import { formatDuration } from "@/engine/scenario/duration";
+import type { ScenarioResult } from "@/engine";
+import { formatVirtualTime } from "@/engine";
+import { formatDuration } from "@/engine";
 import { Mono } from "@/components/ui/mono";
 import { SimulatorCaution } from "./simulator-caution";
 import { type AddressInfo, TraceView } from "./trace-view";

@@ -1,9 +1,9 @@
-import type { TraceEvent } from "@/engine/core/trace";
-import { formatGroupAddress, formatIndividualAddress, parseGroupAddress } from "@/engine/address";
-import { getDpt } from "@/engine/dpt";
-import { fromHex } from "@/engine/frame/hex";
-import { describeTraceEvent } from "@/engine/scenario/describe-trace-event";
-import { formatVirtualTime } from "@/engine/core/virtual-time";
+import type { TraceEvent } from "@/engine";
+import { formatGroupAddress, formatIndividualAddress, parseGroupAddress } from "@/engine";
+import { getDpt } from "@/engine";
+import { fromHex } from "@/engine";
+import { describeTraceEvent } from "@/engine";
+import { formatVirtualTime } from "@/engine";
 import { Mono } from "@/components/ui/mono";
 
 /** What the report needs to know about a group address to decode telegrams on it. */

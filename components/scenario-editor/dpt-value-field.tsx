@@ -1,7 +1,7 @@
 "use client";
 
 import { useState } from "react";
-import { getDpt, HVAC_CONTROLLER_MODES, HVAC_MODES } from "@/engine/dpt";
+import { getDpt, HVAC_CONTROLLER_MODES, HVAC_MODES } from "@/engine";
 
 const inputClass = "w-full rounded-md border border-paper-line bg-white px-2 py-1.5 text-sm";
 

@@ -2,8 +2,8 @@
 
 import { useRouter } from "next/navigation";
 import { useMemo, useState } from "react";
-import { parseScenario } from "@/engine/scenario/parse-scenario";
-import { stepKinds, type StepKind } from "@/engine/scenario/scenario-schema";
+import { parseScenario } from "@/engine";
+import { stepKinds, type StepKind } from "@/engine";
 import { RunButton } from "@/components/runs/run-button";
 import { Button } from "@/components/ui/button";
 import { Mono } from "@/components/ui/mono";

@@ -1,4 +1,4 @@
-import type { StepKind } from "@/engine/scenario/scenario-schema";
+import type { StepKind } from "@/engine";
 
 /** How one field of a step is edited. */
 export type FieldEditor =

@@ -2,9 +2,9 @@ import { readFileSync } from "node:fs";
 import { dirname, resolve } from "node:path";
 import { fileURLToPath } from "node:url";
 import { describe, expect, it } from "vitest";
-import { loadBench } from "@/engine/bench";
-import { summarizeBench } from "./bench-summary";
-import { SimHost } from "./sim-host";
+import { loadBench } from "@/engine";
+import { summarizeBench } from "@/engine";
+import { SimHost } from "@/engine";
 import { parseSimMessage } from "./sim-protocol";
 import { createSimStore } from "./sim-store";
 

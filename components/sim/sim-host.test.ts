@@ -1,10 +1,10 @@
 import { describe, expect, it } from "vitest";
-import { recordScenario, type RecordedAction } from "@/engine/scenario/recorder";
-import { scenarioSchema } from "@/engine/scenario/scenario-schema";
-import { SimHost } from "./sim-host";
+import { recordScenario, type RecordedAction } from "@/engine";
+import { scenarioSchema } from "@/engine";
+import { SimHost } from "@/engine";
 import { parseSimMessage, type LogRow, type SimCommand, type SimMessage } from "./sim-protocol";
 import { createSimStore } from "./sim-store";
-import { trainingRoomBench } from "./training-room-bench";
+import { trainingRoomBench } from "@/test/harness/training-room-bench";
 
 /** A host wired to a store through the real message validation, with a wall clock the test moves. */
 function harness(options: { maxRowsPerBatch?: number; clockStepMs?: number } = {}) {
@@ -211,5 +211,18 @@ describe("SimHost driven like the worker", () => {
     const failed = messages.find((m) => m.type === "load-failed");
     const paths = failed?.type === "load-failed" ? failed.errors.map((e) => e.path) : [];
     expect(paths.some((path) => path?.startsWith("devices[0]"))).toBe(true);
+  });
+});
+
+describe("SimHost input commands", () => {
+  it("applies a simulation input and names the input's own field when it is refused", () => {
+    const h = harness();
+    h.send({ type: "input", input: { kind: "press", device: "rocker", button: "channel-1" } });
+    h.send({ type: "input", input: { kind: "press", device: "rocker", button: "nope" } });
+    h.host.handle({ type: "input", input: { kind: "press", device: "rocker" } }); // from an untyped page
+    expect(h.errors().map((e) => e.type === "command-error" && [e.command, e.field])).toEqual([
+      ["press", "button"],
+      ["input", "input.button"],
+    ]);
   });
 });

@@ -1,10 +1,11 @@
-import { SimHost } from "./sim-host";
+import { LiveSession } from "@/engine";
 import type { SimMessage } from "./sim-protocol";
 
 /**
  * The live console's simulation worker: the engine runs here so the page stays
- * responsive however busy the bus is. All logic is in SimHost; this file only
- * wires it to the worker's messages and a 50 ms wall-clock tick.
+ * responsive however busy the bus is. All logic is in the engine's live
+ * session; this file only wires it to the worker's messages, the worker's wall
+ * clock and a 50 ms tick.
  */
 
 /** Batches go out this often, ms of wall time. */
@@ -15,7 +16,7 @@ const scope = globalThis as unknown as {
   onmessage: ((event: MessageEvent<unknown>) => void) | null;
 };
 
-const host = new SimHost({
+const host = new LiveSession({
   post: (message) => scope.postMessage(message),
   now: () => performance.now(),
 });

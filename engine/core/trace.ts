@@ -1,4 +1,5 @@
 import type { GroupService, Priority } from "../frame";
+import type { SimInput } from "../sim/sim-input";
 
 /**
  * The trace: one ordered stream of everything that happened in a run, with
@@ -142,6 +143,8 @@ export type TraceEvent =
       readonly unitLink?: string;
       readonly groupAddress?: number;
       readonly detail: string;
+      /** The input exactly as applied (group address as text), so a recorder can replay it. */
+      readonly input: SimInput;
     };
 
 export type TraceEventKind = TraceEvent["kind"];

@@ -159,6 +159,22 @@ export interface DeviceType<P, S> {
   initialState(parameters: P): S;
   /** Pure: same arguments, same result. */
   transition(state: S, event: DeviceEvent, context: DeviceContext<P>): TransitionResult<S>;
+  /**
+   * What the live console charts of this device, read at whole virtual seconds;
+   * undefined (or absent) when the device has nothing to chart. Lets a host
+   * chart devices without naming their types.
+   */
+  roomSample?(state: S): RoomChartSample | undefined;
+}
+
+/** A room a device conditions, as the live console's temperature chart shows it. */
+export interface RoomChartSample {
+  /** Room temperature, °C. */
+  readonly roomC: number;
+  /** Setpoint the device works toward, °C. */
+  readonly setpointC: number;
+  /** Whether the device is switched on. */
+  readonly power: boolean;
 }
 
 /** A device type with its parameter and state types erased, as stored in the catalogue. */

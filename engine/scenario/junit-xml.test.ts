@@ -64,6 +64,7 @@ describe("junitXml", () => {
             action: "group.write",
             groupAddress: 0x0901,
             detail: "write true",
+            input: { kind: "write", groupAddress: "1/1/1", value: true },
           },
         ],
       }),

@@ -1,6 +1,8 @@
 import { describe, expect, it } from "vitest";
 import { parseScenario } from "./parse-scenario";
-import { recordScenario, replyWindowUs, type RecordedAction } from "./recorder";
+import { lightsFixture } from "../../test/harness/fixture-benches";
+import { createSimulation } from "../sim";
+import { TraceRecorder, recordScenario, replyWindowUs, type RecordedAction } from "./recorder";
 
 describe("recordScenario", () => {
   const actions: RecordedAction[] = [
@@ -76,5 +78,25 @@ describe("recordScenario", () => {
     expect(replyWindowUs(400_000)).toBe(1_000_000);
     expect(replyWindowUs(25_000_000)).toBe(60_000_000);
     expect(replyWindowUs(3_000_000_000)).toBe(4_500_000_000);
+  });
+});
+
+describe("TraceRecorder", () => {
+  it("turns the trace's user actions and the telegrams after them into recorded actions", () => {
+    const bench = lightsFixture().build();
+    const sim = createSimulation(bench, { seed: 1 });
+    const recorder = new TraceRecorder((raw) => sim.bench.groupAddresses.get(raw)?.dpt);
+    sim.subscribe((event) => recorder.onEvent(event));
+    sim.runFor(1_000_000);
+    expect(sim.apply({ kind: "write", groupAddress: "1/0/1", value: true }).ok).toBe(true);
+    sim.runFor(1_000_000);
+    const [recorded] = recorder.actions();
+    expect(recorded?.action).toEqual({
+      kind: "write",
+      groupAddress: "1/0/1",
+      value: true,
+      atUs: 1_000_000,
+    });
+    expect(recorded?.observed[0]).toMatchObject({ groupAddress: "1/0/1", service: "write" });
   });
 });

@@ -1,3 +1,8 @@
+import { formatGroupAddress } from "../address";
+import type { TraceEvent } from "../core/trace";
+import { getDpt } from "../dpt";
+import { fromHex } from "../frame";
+import type { SimInput } from "../sim/sim-input";
 import { formatDuration } from "./duration";
 import type { BenchReference, ScenarioDocument, Step } from "./scenario-schema";
 
@@ -8,48 +13,12 @@ import type { BenchReference, ScenarioDocument, Step } from "./scenario-schema";
  * to edit (tighten windows, drop incidental telegrams), not a verdict.
  */
 
-/** Something a person did from the live console, at a virtual time (integer µs since the run started). */
-export type ConsoleAction =
-  | {
-      readonly kind: "write";
-      readonly atUs: number;
-      readonly groupAddress: string;
-      readonly value: unknown;
-      readonly from?: string;
-    }
-  | {
-      readonly kind: "read";
-      readonly atUs: number;
-      readonly groupAddress: string;
-      readonly from?: string;
-    }
-  | {
-      readonly kind: "press";
-      readonly atUs: number;
-      readonly device: string;
-      readonly button: string;
-      readonly action?: "press" | "release" | "long-press";
-    }
-  | {
-      readonly kind: "set-input";
-      readonly atUs: number;
-      readonly device: string;
-      readonly input: string;
-      readonly value: unknown;
-    }
-  | {
-      readonly kind: "set-parameter";
-      readonly atUs: number;
-      readonly device: string;
-      readonly parameter: string;
-      readonly value: unknown;
-    }
-  | {
-      readonly kind: "inject-fault" | "clear-fault";
-      readonly atUs: number;
-      readonly device: string;
-      readonly fault: string;
-    };
+/**
+ * Something a person did from the live console, at a virtual time (integer µs
+ * since the run started): the simulation input as the trace's `user.action`
+ * carries it, group address as text.
+ */
+export type ConsoleAction = SimInput & { readonly atUs: number };
 
 /** A telegram seen on the bus after an action and before the next one. */
 export interface ObservedTelegram {
@@ -91,45 +60,68 @@ export function replyWindowUs(delayUs: number): number {
   );
 }
 
-function actionStep(action: ConsoleAction): Step {
-  switch (action.kind) {
+/** The scenario step replaying an action; undefined for inputs a scenario has no step for (a response, a whole parameter set). */
+function actionStep(action: ConsoleAction): Step | undefined {
+  const { atUs, ...input } = action;
+  void atUs; // the step happens at the anchor; its time is the wait before it
+  switch (input.kind) {
     case "write":
-      return {
-        kind: "write",
-        groupAddress: action.groupAddress,
-        value: action.value as never,
-        ...(action.from ? { from: action.from } : {}),
-      };
     case "read":
-      return {
-        kind: "read",
-        groupAddress: action.groupAddress,
-        ...(action.from ? { from: action.from } : {}),
-      };
-    case "press":
-      return {
-        kind: "press",
-        device: action.device,
-        button: action.button,
-        ...(action.action ? { action: action.action } : {}),
-      };
-    case "set-input":
-      return {
-        kind: "set-input",
-        device: action.device,
-        input: action.input,
-        value: action.value as never,
-      };
-    case "set-parameter":
-      return {
-        kind: "set-parameter",
-        device: action.device,
-        parameter: action.parameter,
-        value: action.value as never,
-      };
-    case "inject-fault":
-    case "clear-fault":
-      return { kind: action.kind, device: action.device, fault: action.fault };
+      // Documents carry text addresses; the trace already gives text.
+      return { ...input, groupAddress: String(input.groupAddress) } as Step;
+    case "response":
+    case "set-parameters":
+      return undefined;
+    default:
+      return input;
+  }
+}
+
+/**
+ * Records from a run's trace: every `user.action` starts an action (its input
+ * is the action), and every first transmission after it is observed, decoded
+ * with its address's DPT. Feed it the events of the recording window in order.
+ */
+export class TraceRecorder {
+  private readonly recorded: { action: ConsoleAction; observed: ObservedTelegram[] }[] = [];
+
+  /** `dptOf` gives the DPT of a raw group address on the bench (undefined when it is not on it). */
+  constructor(private readonly dptOf: (groupAddress: number) => string | undefined) {}
+
+  /** Takes one trace event. */
+  onEvent(event: TraceEvent): void {
+    if (event.kind === "user.action") {
+      this.recorded.push({ action: { ...event.input, atUs: event.timeUs }, observed: [] });
+      return;
+    }
+    if (event.kind !== "telegram.sent" || event.attempt !== 0) return;
+    const last = this.recorded[this.recorded.length - 1];
+    if (last === undefined) return;
+    const service =
+      event.service === "GroupValue_Read"
+        ? "read"
+        : event.service === "GroupValue_Write"
+          ? "write"
+          : "response";
+    let value: unknown;
+    if (service !== "read") {
+      const dpt = this.dptOf(event.destination);
+      const codec = dpt === undefined ? undefined : getDpt(dpt);
+      const decoded = codec?.decode(fromHex(event.payloadHex) ?? new Uint8Array(0));
+      if (decoded?.ok) value = decoded.value;
+    }
+    last.observed.push({
+      atUs: event.timeUs,
+      groupAddress: formatGroupAddress(event.destination),
+      service,
+      ...(value === undefined ? {} : { value }),
+      ...(event.deviceId === undefined ? {} : { device: event.deviceId }),
+    });
+  }
+
+  /** What was recorded so far, in time order. */
+  actions(): RecordedAction[] {
+    return this.recorded;
   }
 }
 
@@ -181,7 +173,8 @@ export function recordScenario(
     const gapUs = recorded.action.atUs - previousUs;
     if (gapUs > 0) steps.push({ kind: "wait", for: formatDuration(gapUs) });
     previousUs = recorded.action.atUs;
-    steps.push(actionStep(recorded.action));
+    const step = actionStep(recorded.action);
+    if (step !== undefined) steps.push(step);
     steps.push(...expectationSteps(recorded));
   }
   return {

@@ -112,7 +112,7 @@ describe("runScenario", () => {
       lightsBench,
     );
     expect(result.steps.map((s) => s.status)).toEqual(["pass", "error", "skipped"]);
-    expect(result.steps[1]!.message).toMatch(/^steps\[1\]\.deviceId: .*pb-9/);
+    expect(result.steps[1]!.message).toMatch(/^steps\[1\]\.device: .*pb-9/);
     expect(result.outcome).toBe("error");
   });
 

@@ -13,7 +13,11 @@ import {
   type ScenarioResult,
   type StepResult,
 } from "./scenario-result";
-import type { Scenario, Step } from "./scenario-schema";
+import type { Receipt, SimError, SimInput } from "../sim";
+
+type JsonValue = Extract<SimInput, { kind: "write" }>["value"];
+import type { Result } from "../core/result";
+import { stepInput, type Scenario, type Step } from "./scenario-schema";
 import { formatValue, valueAtPath, valuesMatch } from "./value-match";
 
 /** How a scenario run is set up by its caller. */
@@ -30,6 +34,10 @@ export interface RunScenarioOptions {
   readonly budgetMs?: number;
   /** Where the scenario came from, copied into the result (file path). */
   readonly source?: string;
+  /** Reuse bench-only work across runs (see SimulationOptions.reuse); true by default. */
+  readonly reuse?: boolean;
+  /** Handed the run's whole trace when it ends (golden-trace tests, debugging). */
+  readonly onTrace?: (trace: readonly TraceEvent[]) => void;
 }
 
 /** Default wall-clock budget per scenario, milliseconds. */
@@ -291,13 +299,11 @@ function fail(expected: string, actual: string, trace: readonly TraceEvent[]): S
   return { status: "fail", expected, actual, trace };
 }
 
-function simFailure(result: { ok: boolean; error?: unknown }): void {
+function simFailure(result: Result<Receipt, SimError>): void {
   if (result.ok) return;
-  const error = result.error;
-  if (Array.isArray(error))
-    throw new StepError(error.map((e: { message: string }) => e.message).join("; "));
-  const simError = error as { field: string; message: string };
-  throw new StepError(`${simError.field}: ${simError.message}`);
+  const { field, message } = result.error;
+  // A refused parameter change already names its bench path at the start of the message.
+  throw new StepError(message.startsWith(field) ? message : `${field}: ${message}`);
 }
 
 function describeAddress(address: AddressInfo): string {
@@ -319,27 +325,31 @@ function runAction(
           `value: ${JSON.stringify(step.value)} is not a ${address.codec.id} value`,
         );
       simFailure(
-        sim.sendGroupWrite(address.raw, value.data, { from: step.from, priority: step.priority }),
+        sim.apply({
+          kind: "write",
+          groupAddress: address.raw,
+          value: value.data as JsonValue,
+          from: step.from,
+          priority: step.priority,
+        }),
       );
       break;
     }
     case "read":
-      simFailure(sim.sendGroupRead(run.address(step.groupAddress).raw, { from: step.from }));
+      simFailure(
+        sim.apply({
+          kind: "read",
+          groupAddress: run.address(step.groupAddress).raw,
+          from: step.from,
+        }),
+      );
       break;
     case "press":
-      simFailure(sim.pressButton(step.device, step.button, step.action));
-      break;
     case "set-input":
-      simFailure(sim.setInput(step.device, step.input, step.value));
-      break;
     case "set-parameter":
-      simFailure(sim.setParameter(step.device, step.parameter, step.value));
-      break;
     case "inject-fault":
-      simFailure(sim.injectFault(step.device, step.fault));
-      break;
     case "clear-fault":
-      simFailure(sim.clearFault(step.device, step.fault));
+      simFailure(sim.apply(stepInput(step)));
       break;
     case "wait": {
       // A wait counts from the anchor (the last action), not from wherever expectations left the clock.
@@ -598,7 +608,11 @@ export function runScenario(
   let sim: Simulation;
   try {
     // Bus load verdicts are computed from the trace, so the line's own statistics history stays small.
-    sim = createSimulation(bench, { seed, historyCapacity: LINE_HISTORY_CAPACITY });
+    sim = createSimulation(bench, {
+      seed,
+      historyCapacity: LINE_HISTORY_CAPACITY,
+      reuse: options.reuse ?? true,
+    });
   } catch (cause) {
     if (cause instanceof BenchLoadFailure)
       return benchError(scenario, seed, cause.message, options, elapsedMs());
@@ -671,6 +685,7 @@ export function runScenario(
   } finally {
     unsubscribe();
   }
+  options.onTrace?.(sim.trace);
 
   const outcome =
     settleMessage === undefined ? scenarioOutcome(steps, scenario.expectedToFail) : "error";

@@ -1,6 +1,14 @@
 import { z } from "zod";
 import { parseDuration } from "./duration";
-import { parseGroupAddress } from "../address";
+import {
+  deviceIdSchema,
+  groupAddressTextSchema,
+  inputValueSchema,
+  simInputShapes,
+  type SimInput,
+} from "../sim/sim-input";
+
+export { groupAddressTextSchema };
 
 /**
  * Benchline's scenario document, `format: 1`.
@@ -26,59 +34,27 @@ export const durationTextSchema = z
     if (!parsed.ok) ctx.addIssue({ code: "custom", message: parsed.error.message });
   });
 
-/** A group address in text form: "1/0/1", "1/257" or "4097". */
-const groupAddressMessage =
-  'expected a group address like "1/0/1" (main 0-31 / middle 0-7 / sub 0-255), not 0/0/0';
-export const groupAddressTextSchema = z
-  .string({ error: groupAddressMessage })
-  .refine((text) => parseGroupAddress(text).ok, { message: groupAddressMessage });
-
-const deviceIdSchema = z.string().min(1, "expected a device id from the bench");
 const toleranceSchema = z.number().nonnegative("tolerance must be zero or more");
 /** Any JSON value; checked against the group address's DPT when the scenario runs. */
-const jsonValueSchema = z.json();
+const jsonValueSchema = inputValueSchema;
 const labelSchema = z.string().optional();
 const serviceFilterSchema = z.enum(["write", "response", "any"]);
 
-export const writeStepSchema = z
-  .object({
-    kind: z.literal("write"),
-    label: labelSchema,
-    groupAddress: groupAddressTextSchema,
-    value: jsonValueSchema,
-    /** Device whose individual address sends; the bench's test tool when absent. */
-    from: deviceIdSchema.optional(),
-    priority: z.enum(["system", "normal", "urgent", "low"]).optional(),
-  })
-  .strict();
+// Action steps are simulation inputs (engine/sim/sim-input.ts) plus a label; in a
+// document the group address is always text.
+const { write, read, press } = simInputShapes;
+const address = { groupAddress: groupAddressTextSchema };
+
+export const writeStepSchema = z.object({ ...write, label: labelSchema, ...address }).strict();
 
 export const readStepSchema = z
-  .object({
-    kind: z.literal("read"),
-    label: labelSchema,
-    groupAddress: groupAddressTextSchema,
-    from: deviceIdSchema.optional(),
-  })
+  .object({ kind: read.kind, label: labelSchema, ...address, from: read.from })
   .strict();
 
-export const pressStepSchema = z
-  .object({
-    kind: z.literal("press"),
-    label: labelSchema,
-    device: deviceIdSchema,
-    button: z.string().min(1, "expected a button id of the device"),
-    action: z.enum(["press", "release", "long-press"]).optional(),
-  })
-  .strict();
+export const pressStepSchema = z.object({ ...press, label: labelSchema }).strict();
 
 export const setInputStepSchema = z
-  .object({
-    kind: z.literal("set-input"),
-    label: labelSchema,
-    device: deviceIdSchema,
-    input: z.string().min(1, "expected an input name of the device"),
-    value: jsonValueSchema,
-  })
+  .object({ ...simInputShapes["set-input"], label: labelSchema })
   .strict();
 
 export const waitStepSchema = z
@@ -86,26 +62,14 @@ export const waitStepSchema = z
   .strict();
 
 export const setParameterStepSchema = z
-  .object({
-    kind: z.literal("set-parameter"),
-    label: labelSchema,
-    device: deviceIdSchema,
-    parameter: z.string().min(1, "expected a parameter key of the device"),
-    value: jsonValueSchema,
-  })
+  .object({ ...simInputShapes["set-parameter"], label: labelSchema })
   .strict();
 
-const faultFields = {
-  label: labelSchema,
-  /** Device id, or a unit-link id for link faults such as "link.broken". */
-  device: deviceIdSchema,
-  fault: z.string().min(1, 'expected a fault id like "link.broken"'),
-};
 export const injectFaultStepSchema = z
-  .object({ kind: z.literal("inject-fault"), ...faultFields })
+  .object({ ...simInputShapes["inject-fault"], label: labelSchema })
   .strict();
 export const clearFaultStepSchema = z
-  .object({ kind: z.literal("clear-fault"), ...faultFields })
+  .object({ ...simInputShapes["clear-fault"], label: labelSchema })
   .strict();
 
 /** A write or response carrying `value` reaches the address within the window. */
@@ -228,6 +192,13 @@ export type ActionStep = Exclude<Step, ExpectStep>;
 export const stepKinds: readonly StepKind[] = stepSchema.options.map(
   (option) => option.shape.kind.value,
 );
+
+/** The simulation input of an action step: the step without its label. */
+export function stepInput(step: Exclude<ActionStep, { kind: "wait" }>): SimInput {
+  const { label, ...input } = step;
+  void label;
+  return input;
+}
 
 export function isExpectStep(step: Step): step is ExpectStep {
   return step.kind.startsWith("expect-");

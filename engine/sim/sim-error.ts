@@ -10,8 +10,11 @@ export interface SimError {
     | "sim.object-unknown"
     | "sim.fault-target-unknown"
     | "sim.fault-unknown"
-    | "sim.parameters-invalid";
-  /** The argument at fault: "deviceId", "groupAddress", "value", "button", "faultId", "parameters.<key>"… */
+    | "sim.parameters-invalid"
+    | "sim.input-invalid";
+  /** The argument at fault: the `SimInput` field ("device", "groupAddress", "value", "button", "fault") or, for a refused parameter change, the bench path of the first problem */
   readonly field: string;
   readonly message: string;
+  /** Every problem the bench check found, for a refused parameter change (the first one is `field`). */
+  readonly issues?: readonly { readonly path?: string; readonly message: string }[];
 }

@@ -270,7 +270,7 @@ describe("unit links, faults and parameters", () => {
     h.expectCount(2, { kinds: ["link.delivered"] });
     expect(h.sim.injectFault("wiring", "link.noise")).toMatchObject({
       ok: false,
-      error: { kind: "sim.fault-unknown", field: "faultId" },
+      error: { kind: "sim.fault-unknown", field: "fault" },
     });
   });
 
@@ -354,7 +354,7 @@ describe("unit links, faults and parameters", () => {
     });
     expect(sim.pressButton("pb", "channel-7")).toMatchObject({
       ok: false,
-      error: { kind: "sim.button-unknown", field: "buttonId" },
+      error: { kind: "sim.button-unknown", field: "button" },
     });
     expect(sim.injectFault("nowhere", "x")).toMatchObject({
       ok: false,
@@ -362,9 +362,19 @@ describe("unit links, faults and parameters", () => {
     });
     const bad = sim.setParameter("act", "channels", 9);
     expect(bad.ok).toBe(false);
-    expect(!bad.ok && Array.isArray(bad.error) && bad.error[0]).toMatchObject({
-      kind: "bench.parameters-invalid",
-      path: "devices[1].parameters.channels",
+    // One SimError naming the field, with the bench check's problems kept beside it.
+    expect(!bad.ok && bad.error).toMatchObject({
+      kind: "sim.parameters-invalid",
+      field: "devices[1].parameters.channels",
+      issues: [{ kind: "bench.parameters-invalid", path: "devices[1].parameters.channels" }],
+    });
+    expect(sim.apply({ kind: "press", device: "pb", button: "channel-1" })).toMatchObject({
+      ok: true,
+      value: { atUs: 0 },
+    });
+    expect(sim.trace.findLast((e) => e.kind === "user.action")).toMatchObject({
+      kind: "user.action",
+      input: { kind: "press", device: "pb", button: "channel-1" },
     });
     expect(tryCreateSimulation({ format: 1 }, { seed: 1 }).ok).toBe(false);
   });

@@ -1,60 +1,39 @@
-import { formatGroupAddress, parseGroupAddress } from "../address";
-import { loadBench, type BenchError, type LoadedBench, type LoadedDevice } from "../bench";
+import { parseGroupAddress } from "../address";
+import { loadBench, type BenchError, type LoadedBench } from "../bench";
 import type { Bench, BenchInput } from "../bench/bench-schema";
 import { SequentialIds } from "../core/ids";
-import { err, ok, type Result } from "../core/result";
-import { createRng, type Rng } from "../core/rng";
+import { ok, type Result } from "../core/result";
+import { createRng } from "../core/rng";
 import { Scheduler } from "../core/scheduler";
 import { Trace, type TraceEvent, type TraceListener } from "../core/trace";
-import type {
-  AnyDeviceType,
-  DeviceContext,
-  DeviceEffect,
-  DeviceEvent,
-  GroupObjectFlags,
-} from "../devices/device-type";
-import { getDpt, type DptCodec } from "../dpt";
-import {
-  ACK_OCTET,
-  BUSY_OCTET,
-  DEFAULT_HOP_COUNT,
-  NAK_OCTET,
-  type DataFrame,
-  type GroupService,
-  type Priority,
-} from "../frame";
-import { NO_ACK_OCTET, Tp1Line, Tp1Sender, type BusStats, type Telegram } from "../bus";
+import { ACK_OCTET, type Priority } from "../frame";
+import { Tp1Line, Tp1Sender, type BusStats } from "../bus";
+import { DeviceRunner, type DeviceRuntime } from "./device-runtime";
+import { FaultRegistry } from "./fault-registry";
+import { GroupObjectLayer, type LineRuntime } from "./group-objects";
+import { InputDispatch } from "./input-dispatch";
 import type { SimError } from "./sim-error";
+import type { Receipt, SimInput } from "./sim-input";
+import { TraceEmitter, type FaultSource } from "./trace-emitter";
+import { UNIT_LINK_DELAY_US, UnitLinkMedium } from "./unit-link-medium";
+
+export { BUS_FAULTS, UNIT_LINK_BROKEN } from "./fault-registry";
+export { DEFAULT_GROUP_PRIORITY } from "./group-objects";
+export { UNIT_LINK_DELAY_US } from "./unit-link-medium";
+
+type JsonValue = Extract<SimInput, { kind: "write" }>["value"];
 
 /**
- * The simulation runtime and the facade the UI, the scenario runner and the CLI
- * all use. It owns the virtual clock, the lines, the device state machines and
- * the trace, and applies every effect a device asks for:
+ * The simulation facade the UI, the scenario runner and the CLI all use: the
+ * virtual clock, the trace, state queries and `apply`, the one entry point for
+ * inputs from outside. The work is done by its parts:
  *
- * - group.send / group.read: encoded with the object's DPT and queued on the
- *   object's line from the device's individual address, on the object's first
- *   linked address (communication and transmit flags required); group.send also
- *   stores the value.
- * - object.store: stores without sending.
- * - timer.set / timer.cancel: a named timer per device; setting a name again
- *   replaces it.
- * - link.send: delivered to every other member of the unit link after
- *   `UNIT_LINK_DELAY_US`, and only while the link is not broken (checked when
- *   sent and again when delivered). Members are not told that a link broke:
- *   like real units they notice by silence (their own timeouts).
- * - fault.raise / fault.clear: kept per device and traced.
- * - note: traced.
- *
- * Group objects: a device takes a group frame (and acknowledges it) when any of
- * its objects is linked to the destination. A write is stored in every linked
- * object with the communication and write flags and handed to the device; a
- * response likewise for the update flag; a read is answered by the runtime for
- * every linked object with the communication and read flags, from the stored
- * value (all-zero octets when the object never had one, as a device's memory
- * would hold). A device does not hear its own frames. A device that took a
- * frame acknowledges but ignores its repetitions, even when other frames pass
- * in between (exactly once per device, a little stricter than devices that only
- * compare with the last frame they received).
+ * - InputDispatch (input-dispatch.ts): checks and applies inputs from outside.
+ * - DeviceRunner (device-runtime.ts): transitions, effects, timers.
+ * - GroupObjectLayer (group-objects.ts): flags, sending, listening, values.
+ * - UnitLinkMedium (unit-link-medium.ts): messages between unit-link members.
+ * - FaultRegistry (fault-registry.ts): active faults and who raised them.
+ * - TraceEmitter (trace-emitter.ts): every event the runtime records.
  *
  * Each bench line is its own medium; couplers are not modelled yet, so a
  * telegram reaches only devices on its sender's line. The test tool sits on the
@@ -74,20 +53,8 @@ import type { SimError } from "./sim-error";
  * its read-on-init reads.
  */
 
-/** Virtual delay of a message between unit-link members: 10 ms, our own figure for a wired HVAC link. */
-export const UNIT_LINK_DELAY_US = 10_000;
-
-/** Faults the runtime interprets on a device's bus connection. */
-export const BUS_FAULTS = { busy: "bus.busy", nak: "bus.nak", silent: "bus.silent" } as const;
-
-/** The one fault a unit link can have. */
-export const UNIT_LINK_BROKEN = "link.broken";
-
 /** Key for the test tool in per-sender counts. */
 export const TEST_TOOL_SENDER = "test-tool";
-
-/** Priority of group telegrams unless asked otherwise (knx-reference.md: low is the default). */
-export const DEFAULT_GROUP_PRIORITY: Priority = "low";
 
 export interface SimulationOptions {
   /** Seed of the run's random generator; same bench, seed and inputs give the same trace. */
@@ -98,67 +65,18 @@ export interface SimulationOptions {
   readonly unitLinkDelayUs?: number;
   /** Transmissions kept per line for windowed bus statistics. */
   readonly historyCapacity?: number;
+  /**
+   * Reuse work that depends only on the bench (object specs, the benches a
+   * parameter change leads to) across runs; true by default. False redoes it
+   * every run, as before templates existed (the replay benchmark's baseline).
+   */
+  readonly reuse?: boolean;
 }
 
 export interface SendOptions {
   /** Device id to send from; the test tool's address when absent. */
   readonly from?: string;
   readonly priority?: Priority;
-}
-
-interface ObjectRuntime {
-  readonly number: number;
-  readonly dpt: string;
-  readonly codec: DptCodec<unknown>;
-  readonly sizeBits: number;
-  readonly flags: GroupObjectFlags;
-  readonly groupAddresses: readonly number[];
-  value: unknown;
-}
-
-interface DeviceRuntime {
-  readonly index: number;
-  readonly id: string;
-  loaded: LoadedDevice;
-  readonly type: AnyDeviceType;
-  state: unknown;
-  objects: Map<number, ObjectRuntime>;
-  context: DeviceContext<unknown>;
-  readonly line: LineRuntime | undefined;
-  readonly sender: Tp1Sender | undefined;
-  /** Active faults and who raised them. */
-  readonly faults: Map<string, "device" | "user">;
-  /** Acknowledgement answered while a bus fault is active: ACK, BUSY, NAK, or NO_ACK_OCTET when silent. */
-  busAnswer: number;
-  /** Timer name -> generation of the live timer. */
-  readonly timers: Map<string, number>;
-  lastTakenTelegramId: number;
-}
-
-interface Listener {
-  readonly device: DeviceRuntime;
-  readonly objects: readonly ObjectRuntime[];
-}
-
-interface LineRuntime {
-  readonly id: string;
-  line: Tp1Line;
-  /** Group address -> devices with objects linked to it, in bench order. */
-  listeners: Map<number, Listener[]>;
-}
-
-interface TimerEntry {
-  readonly device: DeviceRuntime;
-  readonly name: string;
-  readonly generation: number;
-  readonly data: unknown;
-}
-
-interface LinkMessage {
-  readonly unitLink: string;
-  readonly from: string;
-  readonly to: DeviceRuntime;
-  readonly message: unknown;
 }
 
 /** Thrown by `createSimulation` when handed a bench that does not load; `tryCreateSimulation` returns the errors instead. */
@@ -198,13 +116,16 @@ function isLoadedBench(value: unknown): value is LoadedBench {
 }
 
 export class Simulation {
-  private readonly scheduler = new Scheduler(1024);
-  private readonly rng: Rng;
+  // Starts small and grows: a replay usually holds a few dozen pending events, and a fresh run should cost little.
+  private readonly scheduler = new Scheduler(64);
   private readonly traceLog: Trace;
+  private readonly emitter: TraceEmitter;
+  private readonly faults: FaultRegistry;
+  private readonly objects: GroupObjectLayer;
+  private readonly runner: DeviceRunner;
+  private readonly unitLinks: UnitLinkMedium<DeviceRuntime>;
   private readonly telegramIds = new SequentialIds();
-  private readonly timerTag: number;
-  private readonly linkTag: number;
-  private readonly unitLinkDelayUs: number;
+  private readonly reuse: boolean;
 
   private loadedBench: LoadedBench;
   private readonly lines = new Map<string, LineRuntime>();
@@ -212,28 +133,38 @@ export class Simulation {
   private readonly deviceById = new Map<string, DeviceRuntime>();
   private readonly testToolSender: Tp1Sender;
   private readonly testToolLine: LineRuntime;
-  private readonly brokenUnitLinks = new Set<string>();
-  private readonly groupValues = new Map<number, unknown>();
-  private timerGeneration = 0;
-  private deliveryCount = 0;
-
-  // Decode cache for the frame being delivered: listeners of one DPT share one decode.
-  private decodedTelegramId = -1;
-  private decodedDpt = "";
-  private decodedValue: unknown = undefined;
-  private decodedOk = false;
+  private readonly inputs: InputDispatch;
 
   constructor(bench: LoadedBench, options: SimulationOptions) {
     this.loadedBench = bench;
-    this.rng = createRng(options.seed);
+    this.reuse = options.reuse ?? true;
     this.traceLog = new Trace({ capacity: options.traceCapacity });
-    this.unitLinkDelayUs = options.unitLinkDelayUs ?? UNIT_LINK_DELAY_US;
-    if (!Number.isSafeInteger(this.unitLinkDelayUs) || this.unitLinkDelayUs < 0) {
-      throw new RangeError(`unitLinkDelayUs ${this.unitLinkDelayUs} is not a non-negative integer`);
-    }
-    this.timerTag = this.scheduler.register((_, payload) => this.onTimer(payload as TimerEntry));
-    this.linkTag = this.scheduler.register((_, payload) =>
-      this.onLinkMessage(payload as LinkMessage),
+    this.emitter = new TraceEmitter(this.traceLog, this.scheduler);
+    this.faults = new FaultRegistry(
+      this.emitter,
+      bench.devices.map((d) => d.id),
+    );
+    const benchNow = () => this.loadedBench;
+    this.objects = new GroupObjectLayer(this.emitter, this.telegramIds, benchNow);
+    this.runner = new DeviceRunner(
+      this.scheduler,
+      createRng(options.seed),
+      this.emitter,
+      this.faults,
+      this.objects,
+      () => this.unitLinks,
+      this.reuse,
+    );
+    this.objects.receiver = this.runner;
+    this.unitLinks = new UnitLinkMedium<DeviceRuntime>(
+      this.scheduler,
+      this.emitter,
+      this.faults,
+      benchNow,
+      (id) => this.deviceById.get(id)!,
+      options.unitLinkDelayUs ?? UNIT_LINK_DELAY_US,
+      (to, link, from, message) =>
+        this.runner.transition(to, { kind: "link.receive", link, from, message }),
     );
 
     for (const line of bench.lines) {
@@ -246,7 +177,7 @@ export class Simulation {
         line.id,
         this.scheduler,
         this.traceLog,
-        { receiveFrame: (t, r) => this.receiveFrame(runtime, t, r) },
+        { receiveFrame: (t, r) => this.objects.receiveFrame(runtime, t, r) },
         { historyCapacity: options.historyCapacity },
       );
       this.lines.set(line.id, runtime);
@@ -256,30 +187,30 @@ export class Simulation {
 
     bench.devices.forEach((loaded, index) => {
       const line = loaded.line === undefined ? undefined : this.lines.get(loaded.line);
-      const device: DeviceRuntime = {
-        index,
-        id: loaded.id,
-        loaded,
-        type: loaded.type,
-        state: loaded.type.initialState(loaded.parameters),
-        objects: buildObjects(loaded),
-        context: undefined as unknown as DeviceContext<unknown>,
-        line,
-        sender:
-          line === undefined || loaded.individualAddress === undefined
-            ? undefined
-            : new Tp1Sender(loaded.individualAddress, loaded.id, loaded.id),
-        faults: new Map(),
-        busAnswer: ACK_OCTET,
-        timers: new Map(),
-        lastTakenTelegramId: -1,
-      };
-      device.context = this.makeContext(device);
+      const sender =
+        line === undefined || loaded.individualAddress === undefined
+          ? undefined
+          : new Tp1Sender(loaded.individualAddress, loaded.id, loaded.id);
+      const device = this.runner.create(index, loaded, line, sender, ACK_OCTET);
       this.devices.push(device);
       this.deviceById.set(device.id, device);
     });
-    this.rebuildListeners();
-    for (const device of this.devices) this.startDevice(device);
+    this.objects.rebuildListeners(this.lines.values(), this.devices);
+    this.inputs = new InputDispatch({
+      clock: this.scheduler,
+      emitter: this.emitter,
+      faults: this.faults,
+      objects: this.objects,
+      runner: this.runner,
+      deviceById: this.deviceById,
+      reuse: this.reuse,
+      bench: benchNow,
+      setBench: (next) => (this.loadedBench = next),
+      rebuildListeners: () => this.objects.rebuildListeners(this.lines.values(), this.devices),
+      queueFromTestTool: (frame) =>
+        this.testToolLine.line.queue(this.testToolSender, frame, this.telegramIds.next()).id,
+    });
+    for (const device of this.devices) this.runner.start(device);
   }
 
   // ---------------------------------------------------------------- clock
@@ -349,7 +280,7 @@ export class Simulation {
 
   /** Group-telegram deliveries so far: a write reaching an object with the write flag, or a response one with the update flag. */
   get deliveries(): number {
-    return this.deliveryCount;
+    return this.objects.deliveries;
   }
 
   /** A device's state-machine state, or undefined for an unknown id. */
@@ -364,23 +295,24 @@ export class Simulation {
 
   /** Active faults of a device, or of a unit link, by id. */
   activeFaults(target: string): readonly string[] {
-    const device = this.deviceById.get(target);
-    if (device !== undefined) return [...device.faults.keys()];
-    return this.brokenUnitLinks.has(target) ? [UNIT_LINK_BROKEN] : [];
+    return this.faults.active(target);
+  }
+
+  /** Who raised an active fault of a device or unit link: the device itself or a person; undefined when not active. */
+  faultRaisedBy(target: string, fault: string): FaultSource | undefined {
+    return this.faults.raisedBy(target, fault);
   }
 
   /** Last value written or answered on a group address, decoded with the address's DPT; undefined if none yet. */
   groupValue(groupAddress: number | string): unknown {
     const raw = typeof groupAddress === "number" ? groupAddress : parseGroupAddress(groupAddress);
-    if (typeof raw === "number") return this.groupValues.get(raw);
-    return raw.ok ? this.groupValues.get(raw.value) : undefined;
+    if (typeof raw === "number") return this.objects.groupValues.get(raw);
+    return raw.ok ? this.objects.groupValues.get(raw.value) : undefined;
   }
 
   /** Bus load and counts over the last `windowUs` µs on a line (the test tool's line by default). */
   busStats(windowUs: number, lineId?: string): BusStats {
-    const line = lineId === undefined ? this.testToolLine : this.lines.get(lineId);
-    if (line === undefined) throw new RangeError(`busStats: no line "${lineId}"`);
-    return line.line.stats(windowUs);
+    return this.line(lineId, "busStats").stats(windowUs);
   }
 
   /** Telegram totals since the start, per destination group address and per sender (device id or "test-tool"). */
@@ -388,22 +320,27 @@ export class Simulation {
     readonly byGroupAddress: ReadonlyMap<number, number>;
     readonly bySender: ReadonlyMap<string, number>;
   } {
-    const line = lineId === undefined ? this.testToolLine : this.lines.get(lineId);
-    if (line === undefined) throw new RangeError(`telegramCounts: no line "${lineId}"`);
-    return {
-      byGroupAddress: line.line.telegramsByGroupAddress,
-      bySender: line.line.telegramsBySender,
-    };
+    const line = this.line(lineId, "telegramCounts");
+    return { byGroupAddress: line.telegramsByGroupAddress, bySender: line.telegramsBySender };
   }
 
   /** The TP1 line model by id (the test tool's line by default), for totals and tests. */
-  line(lineId?: string): Tp1Line {
+  line(lineId?: string, caller = "line"): Tp1Line {
     const line = lineId === undefined ? this.testToolLine : this.lines.get(lineId);
-    if (line === undefined) throw new RangeError(`line: no line "${lineId}"`);
+    if (line === undefined) throw new RangeError(`${caller}: no line "${lineId}"`);
     return line.line;
   }
 
   // ---------------------------------------------------------------- acting from outside
+
+  /**
+   * Applies one input from outside (console, scenario step, test): the one
+   * dispatch for everything done to a running bench. A refused input changes
+   * nothing and comes back as a `SimError` naming the input's field.
+   */
+  apply(input: SimInput): Result<Receipt, SimError> {
+    return this.inputs.apply(input);
+  }
 
   /** Sends a GroupValue_Write from the test tool (or a named device). Returns the telegram id. */
   sendGroupWrite(
@@ -411,7 +348,14 @@ export class Simulation {
     value: unknown,
     options: SendOptions = {},
   ): Result<number, SimError> {
-    return this.sendFromOutside("GroupValue_Write", groupAddress, value, options);
+    return telegramIdOf(
+      this.apply({
+        kind: "write",
+        groupAddress,
+        value: value as JsonValue,
+        ...sendFields(options),
+      }),
+    );
   }
 
   /** Sends a GroupValue_Read from the test tool (or a named device). Returns the telegram id. */
@@ -419,7 +363,7 @@ export class Simulation {
     groupAddress: number | string,
     options: SendOptions = {},
   ): Result<number, SimError> {
-    return this.sendFromOutside("GroupValue_Read", groupAddress, undefined, options);
+    return telegramIdOf(this.apply({ kind: "read", groupAddress, ...sendFields(options) }));
   }
 
   /** Sends a GroupValue_Response from the test tool (or a named device). Returns the telegram id. */
@@ -428,7 +372,14 @@ export class Simulation {
     value: unknown,
     options: SendOptions = {},
   ): Result<number, SimError> {
-    return this.sendFromOutside("GroupValue_Response", groupAddress, value, options);
+    return telegramIdOf(
+      this.apply({
+        kind: "response",
+        groupAddress,
+        value: value as JsonValue,
+        ...sendFields(options),
+      }),
+    );
   }
 
   /** Presses (or releases) one of a device's local buttons. */
@@ -437,73 +388,31 @@ export class Simulation {
     buttonId: string,
     action: "press" | "release" | "long-press" = "press",
   ): Result<void, SimError> {
-    const device = this.deviceById.get(deviceId);
-    if (device === undefined) return unknownDevice(deviceId);
-    const buttons = device.type.buttons(device.loaded.parameters);
-    if (!buttons.some((b) => b.id === buttonId)) {
-      return err({
-        kind: "sim.button-unknown",
-        field: "buttonId",
-        message: `device "${deviceId}" has no button "${buttonId}" (it has ${buttons.map((b) => `"${b.id}"`).join(", ") || "none"})`,
-      });
-    }
-    this.userAction({ action: "button", deviceId, detail: `${action} ${buttonId}` });
-    this.transition(device, { kind: "button", button: buttonId, action });
-    return ok(undefined);
+    return done(this.apply({ kind: "press", device: deviceId, button: buttonId, action }));
   }
 
   /** Changes a local input of a device that is not a button (a window contact, presence). */
   setInput(deviceId: string, input: string, value: unknown): Result<void, SimError> {
-    const device = this.deviceById.get(deviceId);
-    if (device === undefined) return unknownDevice(deviceId);
-    this.userAction({ action: "input", deviceId, detail: `${input} = ${JSON.stringify(value)}` });
-    this.transition(device, { kind: "input", input, value });
-    return ok(undefined);
+    return done(
+      this.apply({ kind: "set-input", device: deviceId, input, value: value as JsonValue }),
+    );
   }
 
   /** Sets one parameter (top-level key) and restarts the device; see the module comment. */
-  setParameter(
-    deviceId: string,
-    key: string,
-    value: unknown,
-  ): Result<void, SimError | readonly BenchError[]> {
-    const device = this.deviceById.get(deviceId);
-    if (device === undefined) return unknownDevice(deviceId);
-    const current = this.loadedBench.bench.devices.find((d) => d.id === deviceId)!;
-    return this.setParameters(deviceId, { ...current.parameters, [key]: value });
+  setParameter(deviceId: string, key: string, value: unknown): Result<void, SimError> {
+    return done(
+      this.apply({
+        kind: "set-parameter",
+        device: deviceId,
+        parameter: key,
+        value: value as JsonValue,
+      }),
+    );
   }
 
   /** Replaces a device's parameters and restarts it; the bench is re-checked first. */
-  setParameters(
-    deviceId: string,
-    parameters: Record<string, unknown>,
-  ): Result<void, SimError | readonly BenchError[]> {
-    const device = this.deviceById.get(deviceId);
-    if (device === undefined) return unknownDevice(deviceId);
-    const bench = this.loadedBench.bench;
-    const document: Bench = {
-      ...bench,
-      devices: bench.devices.map((d) => (d.id === deviceId ? { ...d, parameters } : d)),
-    };
-    // Drop links to objects the new parameters remove; the loader would otherwise refuse them.
-    const objects = new Set(
-      device.type
-        .groupObjects(device.type.parameters.safeParse(parameters).data ?? device.loaded.parameters)
-        .map((o) => o.number),
-    );
-    const pruned: Bench = {
-      ...document,
-      links: document.links.filter((l) => l.device !== deviceId || objects.has(l.object)),
-    };
-    const loaded = loadBench(pruned, {
-      deviceTypes: (id) =>
-        this.loadedBench.devices.find((d) => d.type.id === id)?.type ?? undefined,
-    });
-    if (!loaded.ok) return loaded;
-    this.loadedBench = loaded.value;
-    this.userAction({ action: "parameter", deviceId, detail: JSON.stringify(parameters) });
-    this.restartDevice(device, loaded.value.deviceById.get(deviceId)!);
-    return ok(undefined);
+  setParameters(deviceId: string, parameters: Record<string, unknown>): Result<void, SimError> {
+    return done(this.apply({ kind: "set-parameters", device: deviceId, parameters }));
   }
 
   /**
@@ -511,695 +420,26 @@ export class Simulation {
    * runtime) or breaks a unit link ("link.broken").
    */
   injectFault(target: string, faultId: string): Result<void, SimError> {
-    return this.setFault(target, faultId, true);
+    return done(this.apply({ kind: "inject-fault", device: target, fault: faultId }));
   }
 
   /** Clears a fault injected with `injectFault`. */
   clearFault(target: string, faultId: string): Result<void, SimError> {
-    return this.setFault(target, faultId, false);
-  }
-
-  // ---------------------------------------------------------------- internals: devices
-
-  private makeContext(device: DeviceRuntime): DeviceContext<unknown> {
-    const scheduler = this.scheduler;
-    const rng = this.rng;
-    const links = device.loaded.unitLinks;
-    return {
-      get nowUs() {
-        return scheduler.nowUs;
-      },
-      deviceId: device.id,
-      // Unit-link-only devices have no address; they see the unprogrammed default 15.15.255.
-      individualAddress: device.loaded.individualAddress ?? 0xffff,
-      parameters: device.loaded.parameters,
-      links,
-      objectValue: (object: number) => device.objects.get(object)?.value,
-      random: () => rng.next(),
-    };
-  }
-
-  private startDevice(device: DeviceRuntime): void {
-    this.transition(device, { kind: "start" });
-    for (const object of device.objects.values()) {
-      if (object.flags.readOnInit && object.flags.communication) this.queueRead(device, object);
-    }
-  }
-
-  private restartDevice(device: DeviceRuntime, loaded: LoadedDevice): void {
-    device.loaded = loaded;
-    device.objects = buildObjects(loaded);
-    device.context = this.makeContext(device);
-    device.state = device.type.initialState(loaded.parameters);
-    device.timers.clear();
-    device.lastTakenTelegramId = -1;
-    for (const [fault, by] of [...device.faults]) {
-      if (by !== "device") continue;
-      device.faults.delete(fault);
-      if (this.traceLog.active)
-        this.traceLog.append({
-          kind: "fault.cleared",
-          timeUs: this.nowUs,
-          fault,
-          by: "device",
-          deviceId: device.id,
-        });
-    }
-    this.rebuildListeners();
-    this.startDevice(device);
-  }
-
-  private rebuildListeners(): void {
-    for (const line of this.lines.values()) line.listeners = new Map();
-    for (const device of this.devices) {
-      if (device.line === undefined) continue;
-      const byAddress = new Map<number, ObjectRuntime[]>();
-      for (const object of device.objects.values()) {
-        for (const raw of object.groupAddresses) {
-          const list = byAddress.get(raw) ?? [];
-          list.push(object);
-          byAddress.set(raw, list);
-        }
-      }
-      for (const [raw, objects] of byAddress) {
-        const list = device.line.listeners.get(raw) ?? [];
-        list.push({ device, objects });
-        device.line.listeners.set(raw, list);
-      }
-    }
-  }
-
-  private transition(device: DeviceRuntime, event: DeviceEvent): void {
-    const result = device.type.transition(device.state, event, device.context);
-    device.state = result.state;
-    if (result.transition !== undefined && this.traceLog.active) {
-      this.traceLog.append({
-        kind: "device.transition",
-        timeUs: this.scheduler.nowUs,
-        deviceId: device.id,
-        transition: result.transition,
-        cause: event.kind,
-      });
-    }
-    const effects = result.effects;
-    for (let i = 0; i < effects.length; i++) this.apply(device, effects[i]!);
-  }
-
-  private apply(device: DeviceRuntime, effect: DeviceEffect): void {
-    switch (effect.kind) {
-      case "group.send": {
-        const object = this.objectOf(device, effect.object, effect.kind);
-        this.store(device, object, effect.value, "send", object.groupAddresses[0]);
-        if (!object.flags.communication || !object.flags.transmit) return;
-        const destination = object.groupAddresses[0];
-        if (destination === undefined) return;
-        const encoded = object.codec.encode(effect.value);
-        if (!encoded.ok)
-          throw new Error(
-            `device "${device.id}" object ${object.number}: ${encoded.error.message}`,
-          );
-        this.queueFromDevice(
-          device,
-          effect.service === "write" ? "GroupValue_Write" : "GroupValue_Response",
-          destination,
-          encoded.value,
-          object.sizeBits,
-        );
-        return;
-      }
-      case "group.read": {
-        const object = this.objectOf(device, effect.object, effect.kind);
-        if (object.flags.communication) this.queueRead(device, object);
-        return;
-      }
-      case "object.store":
-        this.store(
-          device,
-          this.objectOf(device, effect.object, effect.kind),
-          effect.value,
-          "store",
-          undefined,
-        );
-        return;
-      case "timer.set": {
-        if (!Number.isSafeInteger(effect.delayUs) || effect.delayUs < 0) {
-          throw new Error(
-            `device "${device.id}" timer "${effect.name}": delayUs ${effect.delayUs} is not a non-negative integer`,
-          );
-        }
-        const generation = ++this.timerGeneration;
-        device.timers.set(effect.name, generation);
-        const entry: TimerEntry = { device, name: effect.name, generation, data: effect.data };
-        this.scheduler.schedule(this.scheduler.nowUs + effect.delayUs, this.timerTag, 0, entry);
-        return;
-      }
-      case "timer.cancel":
-        device.timers.delete(effect.name);
-        return;
-      case "link.send":
-        this.sendOnUnitLink(device, effect.link, effect.message);
-        return;
-      case "fault.raise":
-        if (!device.faults.has(effect.fault)) {
-          device.faults.set(effect.fault, "device");
-          if (this.traceLog.active) {
-            this.traceLog.append({
-              kind: "fault.raised",
-              timeUs: this.nowUs,
-              fault: effect.fault,
-              by: "device",
-              deviceId: device.id,
-              text: effect.text,
-            });
-          }
-        }
-        return;
-      case "fault.clear":
-        if (device.faults.delete(effect.fault) && this.traceLog.active) {
-          this.traceLog.append({
-            kind: "fault.cleared",
-            timeUs: this.nowUs,
-            fault: effect.fault,
-            by: "device",
-            deviceId: device.id,
-          });
-        }
-        return;
-      case "note":
-        if (this.traceLog.active)
-          this.traceLog.append({
-            kind: "device.note",
-            timeUs: this.nowUs,
-            deviceId: device.id,
-            text: effect.text,
-          });
-        return;
-    }
-  }
-
-  private objectOf(device: DeviceRuntime, number: number, effect: string): ObjectRuntime {
-    const object = device.objects.get(number);
-    if (object === undefined)
-      throw new Error(
-        `device "${device.id}" (${device.type.id}) asked for ${effect} on object ${number}, which it does not have`,
-      );
-    return object;
-  }
-
-  private store(
-    device: DeviceRuntime,
-    object: ObjectRuntime,
-    value: unknown,
-    cause: "write" | "response" | "send" | "store",
-    groupAddress: number | undefined,
-  ): void {
-    const previous = object.value;
-    if (sameValue(previous, value)) return;
-    object.value = value;
-    if (this.traceLog.active) {
-      this.traceLog.append(
-        groupAddress === undefined
-          ? {
-              kind: "object.changed",
-              timeUs: this.scheduler.nowUs,
-              deviceId: device.id,
-              object: object.number,
-              value,
-              previous,
-              cause,
-            }
-          : {
-              kind: "object.changed",
-              timeUs: this.scheduler.nowUs,
-              deviceId: device.id,
-              object: object.number,
-              value,
-              previous,
-              cause,
-              groupAddress,
-            },
-      );
-    }
-  }
-
-  private onTimer(entry: TimerEntry): void {
-    const device = entry.device;
-    if (device.timers.get(entry.name) !== entry.generation) return; // replaced, cancelled or restarted
-    device.timers.delete(entry.name);
-    if (this.traceLog.active)
-      this.traceLog.append({
-        kind: "timer.fired",
-        timeUs: this.nowUs,
-        deviceId: device.id,
-        name: entry.name,
-      });
-    this.transition(
-      device,
-      entry.data === undefined
-        ? { kind: "timer", name: entry.name }
-        : { kind: "timer", name: entry.name, data: entry.data },
-    );
-  }
-
-  // ---------------------------------------------------------------- internals: unit links
-
-  private sendOnUnitLink(device: DeviceRuntime, unitLink: string, message: unknown): void {
-    if (!device.loaded.unitLinks.includes(unitLink)) {
-      throw new Error(
-        `device "${device.id}" sent on unit link "${unitLink}", which it is not a member of`,
-      );
-    }
-    const link = this.loadedBench.unitLinks.find((l) => l.id === unitLink)!;
-    for (const memberId of link.members) {
-      if (memberId === device.id) continue;
-      const to = this.deviceById.get(memberId)!;
-      if (this.brokenUnitLinks.has(unitLink)) {
-        if (this.traceLog.active)
-          this.traceLog.append({
-            kind: "link.dropped",
-            timeUs: this.nowUs,
-            unitLink,
-            from: device.id,
-            deviceId: memberId,
-            message,
-          });
-        continue;
-      }
-      const payload: LinkMessage = { unitLink, from: device.id, to, message };
-      this.scheduler.schedule(
-        this.scheduler.nowUs + this.unitLinkDelayUs,
-        this.linkTag,
-        0,
-        payload,
-      );
-    }
-  }
-
-  private onLinkMessage(message: LinkMessage): void {
-    const { unitLink, from, to } = message;
-    if (this.brokenUnitLinks.has(unitLink)) {
-      if (this.traceLog.active)
-        this.traceLog.append({
-          kind: "link.dropped",
-          timeUs: this.nowUs,
-          unitLink,
-          from,
-          deviceId: to.id,
-          message: message.message,
-        });
-      return;
-    }
-    if (this.traceLog.active)
-      this.traceLog.append({
-        kind: "link.delivered",
-        timeUs: this.nowUs,
-        unitLink,
-        from,
-        deviceId: to.id,
-        message: message.message,
-      });
-    this.transition(to, { kind: "link.receive", link: unitLink, from, message: message.message });
-  }
-
-  // ---------------------------------------------------------------- internals: faults
-
-  private setFault(target: string, faultId: string, active: boolean): Result<void, SimError> {
-    const device = this.deviceById.get(target);
-    const action = active ? "fault.inject" : "fault.clear";
-    if (device !== undefined) {
-      this.userAction({ action, deviceId: target, detail: faultId });
-      const had = device.faults.has(faultId);
-      if (active && !had) {
-        device.faults.set(faultId, "user");
-        if (this.traceLog.active)
-          this.traceLog.append({
-            kind: "fault.raised",
-            timeUs: this.nowUs,
-            fault: faultId,
-            by: "user",
-            deviceId: target,
-          });
-      } else if (!active && had) {
-        device.faults.delete(faultId);
-        if (this.traceLog.active)
-          this.traceLog.append({
-            kind: "fault.cleared",
-            timeUs: this.nowUs,
-            fault: faultId,
-            by: "user",
-            deviceId: target,
-          });
-      } else return ok(undefined);
-      device.busAnswer = device.faults.has(BUS_FAULTS.silent)
-        ? NO_ACK_OCTET
-        : device.faults.has(BUS_FAULTS.busy)
-          ? BUSY_OCTET
-          : device.faults.has(BUS_FAULTS.nak)
-            ? NAK_OCTET
-            : ACK_OCTET;
-      this.transition(
-        device,
-        active ? { kind: "fault.inject", fault: faultId } : { kind: "fault.clear", fault: faultId },
-      );
-      return ok(undefined);
-    }
-    if (this.loadedBench.unitLinks.some((l) => l.id === target)) {
-      if (faultId !== UNIT_LINK_BROKEN) {
-        return err({
-          kind: "sim.fault-unknown",
-          field: "faultId",
-          message: `a unit link only has the fault "${UNIT_LINK_BROKEN}", not "${faultId}"`,
-        });
-      }
-      this.userAction({ action, unitLink: target, detail: faultId });
-      if (active === this.brokenUnitLinks.has(target)) return ok(undefined);
-      if (active) this.brokenUnitLinks.add(target);
-      else this.brokenUnitLinks.delete(target);
-      if (this.traceLog.active) {
-        this.traceLog.append(
-          active
-            ? {
-                kind: "fault.raised",
-                timeUs: this.nowUs,
-                fault: faultId,
-                by: "user",
-                unitLink: target,
-              }
-            : {
-                kind: "fault.cleared",
-                timeUs: this.nowUs,
-                fault: faultId,
-                by: "user",
-                unitLink: target,
-              },
-        );
-      }
-      return ok(undefined);
-    }
-    return err({
-      kind: "sim.fault-target-unknown",
-      field: "target",
-      message: `no device or unit link "${target}"`,
-    });
-  }
-
-  // ---------------------------------------------------------------- internals: bus
-
-  private makeFrame(
-    source: number,
-    destination: number,
-    service: GroupService,
-    payload: Uint8Array,
-    sizeBits: number,
-    priority: Priority,
-  ): DataFrame {
-    return {
-      priority,
-      repeated: false,
-      source,
-      destination,
-      addressType: "group",
-      hopCount: DEFAULT_HOP_COUNT,
-      service,
-      payload,
-      shortPayload: service !== "GroupValue_Read" && sizeBits <= 6,
-    };
-  }
-
-  private queueFromDevice(
-    device: DeviceRuntime,
-    service: GroupService,
-    destination: number,
-    payload: Uint8Array,
-    sizeBits: number,
-    priority: Priority = DEFAULT_GROUP_PRIORITY,
-  ): number | undefined {
-    if (device.sender === undefined || device.line === undefined) return undefined; // unit-link-only device
-    if (device.busAnswer === NO_ACK_OCTET) {
-      if (this.traceLog.active)
-        this.traceLog.append({
-          kind: "device.note",
-          timeUs: this.nowUs,
-          deviceId: device.id,
-          text: `not sent: "${BUS_FAULTS.silent}" disconnects the device from the line`,
-        });
-      return undefined;
-    }
-    const frame = this.makeFrame(
-      device.sender.individualAddress,
-      destination,
-      service,
-      payload,
-      sizeBits,
-      priority,
-    );
-    return device.line.line.queue(device.sender, frame, this.telegramIds.next()).id;
-  }
-
-  private queueRead(device: DeviceRuntime, object: ObjectRuntime): void {
-    if (!object.flags.transmit) return;
-    const destination = object.groupAddresses[0];
-    if (destination === undefined) return;
-    this.queueFromDevice(device, "GroupValue_Read", destination, EMPTY_PAYLOAD, object.sizeBits);
-  }
-
-  private sendFromOutside(
-    service: GroupService,
-    groupAddress: number | string,
-    value: unknown,
-    options: SendOptions,
-  ): Result<number, SimError> {
-    let raw: number;
-    if (typeof groupAddress === "number") {
-      if (!Number.isInteger(groupAddress) || groupAddress < 1 || groupAddress > 0xffff) {
-        return err({
-          kind: "sim.group-address-invalid",
-          field: "groupAddress",
-          message: `group address ${groupAddress} is not a raw address 1..65535`,
-        });
-      }
-      raw = groupAddress;
-    } else {
-      const parsed = parseGroupAddress(groupAddress);
-      if (!parsed.ok)
-        return err({
-          kind: "sim.group-address-invalid",
-          field: "groupAddress",
-          message: parsed.error.message,
-        });
-      raw = parsed.value;
-    }
-    const ga = this.loadedBench.groupAddresses.get(raw);
-    if (ga === undefined) {
-      return err({
-        kind: "sim.group-address-unknown",
-        field: "groupAddress",
-        message: `group address ${formatGroupAddress(raw)} is not on this bench, so its DPT is unknown`,
-      });
-    }
-    let payload = EMPTY_PAYLOAD;
-    if (service !== "GroupValue_Read") {
-      const codec = getDpt(ga.dpt)!;
-      const encoded = codec.encode(value);
-      if (!encoded.ok)
-        return err({
-          kind: "sim.value-invalid",
-          field: "value",
-          message: `${formatGroupAddress(raw)}: ${encoded.error.message}`,
-        });
-      payload = encoded.value;
-    }
-    const priority = options.priority ?? DEFAULT_GROUP_PRIORITY;
-    const action = service === "GroupValue_Read" ? "group.read" : "group.write";
-    const detail =
-      service === "GroupValue_Read"
-        ? "read"
-        : `${service === "GroupValue_Write" ? "write" : "response"} ${JSON.stringify(value)}`;
-    if (options.from !== undefined) {
-      const device = this.deviceById.get(options.from);
-      if (device === undefined) return unknownDevice(options.from, "from");
-      if (device.sender === undefined) {
-        return err({
-          kind: "sim.device-not-on-line",
-          field: "from",
-          message: `device "${options.from}" is not on a KNX line and cannot send telegrams`,
-        });
-      }
-      this.userAction({ action, deviceId: device.id, groupAddress: raw, detail });
-      const id = this.queueFromDevice(device, service, raw, payload, ga.sizeBits, priority);
-      if (id === undefined)
-        return err({
-          kind: "sim.device-not-on-line",
-          field: "from",
-          message: `device "${options.from}" is disconnected ("${BUS_FAULTS.silent}")`,
-        });
-      return ok(id);
-    }
-    this.userAction({ action, groupAddress: raw, detail });
-    const frame = this.makeFrame(
-      this.loadedBench.testToolAddress,
-      raw,
-      service,
-      payload,
-      ga.sizeBits,
-      priority,
-    );
-    return ok(this.testToolLine.line.queue(this.testToolSender, frame, this.telegramIds.next()).id);
-  }
-
-  /** End of a frame on a line: acknowledge, take, store, hand to devices. Returns the wired-AND acknowledgement. */
-  private receiveFrame(line: LineRuntime, telegram: Telegram, repeated: boolean): number {
-    const frame = telegram.frame;
-    const destination = frame.destination;
-    const service = frame.service;
-    if (telegram.transmissions === 1 && service !== "GroupValue_Read")
-      this.recordGroupValue(destination, frame.payload);
-    const listeners = line.listeners.get(destination);
-    if (listeners === undefined) return NO_ACK_OCTET;
-    let answer = NO_ACK_OCTET;
-    const senderDeviceId = telegram.sender.deviceId;
-    for (let i = 0; i < listeners.length; i++) {
-      const { device, objects } = listeners[i]!;
-      if (device.id === senderDeviceId) continue;
-      const busAnswer = device.busAnswer;
-      if (busAnswer !== ACK_OCTET) {
-        answer &= busAnswer; // NO_ACK_OCTET (silent) leaves the line alone
-        continue;
-      }
-      answer &= ACK_OCTET;
-      // Already took an earlier transmission of this telegram: acknowledge, ignore.
-      if (
-        repeated &&
-        (device.lastTakenTelegramId === telegram.id || telegram.takenBy?.includes(device) === true)
-      )
-        continue;
-      device.lastTakenTelegramId = telegram.id;
-      for (let j = 0; j < objects.length; j++)
-        this.deliver(device, objects[j]!, telegram, destination, service);
-    }
-    if (answer !== ACK_OCTET) {
-      // A repetition will follow. Frames from other senders may pass in between and
-      // overwrite `lastTakenTelegramId`, so remember on the telegram who took this one.
-      for (let i = 0; i < listeners.length; i++) {
-        const device = listeners[i]!.device;
-        if (device.lastTakenTelegramId !== telegram.id) continue;
-        const takenBy = (telegram.takenBy ??= []);
-        if (!takenBy.includes(device)) takenBy.push(device);
-      }
-    }
-    return answer;
-  }
-
-  private deliver(
-    device: DeviceRuntime,
-    object: ObjectRuntime,
-    telegram: Telegram,
-    destination: number,
-    service: GroupService,
-  ): void {
-    const flags = object.flags;
-    if (!flags.communication) return;
-    if (service === "GroupValue_Read") {
-      if (!flags.read) return;
-      let payload: Uint8Array;
-      if (object.value === undefined)
-        payload = new Uint8Array(object.sizeBits <= 6 ? 1 : Math.ceil(object.sizeBits / 8));
-      else {
-        const encoded = object.codec.encode(object.value);
-        if (!encoded.ok)
-          throw new Error(
-            `device "${device.id}" object ${object.number} holds a value its DPT refuses: ${encoded.error.message}`,
-          );
-        payload = encoded.value;
-      }
-      this.queueFromDevice(device, "GroupValue_Response", destination, payload, object.sizeBits);
-      return;
-    }
-    const isWrite = service === "GroupValue_Write";
-    if (isWrite ? !flags.write : !flags.update) return;
-    if (this.decodedTelegramId !== telegram.id || this.decodedDpt !== object.dpt) {
-      const decoded = object.codec.decode(telegram.frame.payload);
-      this.decodedTelegramId = telegram.id;
-      this.decodedDpt = object.dpt;
-      this.decodedOk = decoded.ok;
-      this.decodedValue = decoded.ok ? decoded.value : decoded.error.message;
-    }
-    if (!this.decodedOk) {
-      if (this.traceLog.active)
-        this.traceLog.append({
-          kind: "device.note",
-          timeUs: this.nowUs,
-          deviceId: device.id,
-          text: `object ${object.number}: ${String(this.decodedValue)}`,
-        });
-      return;
-    }
-    const value = this.decodedValue;
-    this.deliveryCount++;
-    this.store(device, object, value, isWrite ? "write" : "response", destination);
-    this.transition(
-      device,
-      isWrite
-        ? { kind: "group.write", object: object.number, value, source: telegram.frame.source }
-        : { kind: "group.response", object: object.number, value, source: telegram.frame.source },
-    );
-  }
-
-  private recordGroupValue(destination: number, payload: Uint8Array): void {
-    const ga = this.loadedBench.groupAddresses.get(destination);
-    if (ga === undefined) return;
-    const decoded = getDpt(ga.dpt)!.decode(payload);
-    if (decoded.ok) this.groupValues.set(destination, decoded.value);
-  }
-
-  private userAction(fields: {
-    action: Extract<TraceEvent, { kind: "user.action" }>["action"];
-    deviceId?: string;
-    unitLink?: string;
-    groupAddress?: number;
-    detail: string;
-  }): void {
-    if (this.traceLog.active)
-      this.traceLog.append({ kind: "user.action", timeUs: this.nowUs, ...fields });
+    return done(this.apply({ kind: "clear-fault", device: target, fault: faultId }));
   }
 }
 
-const EMPTY_PAYLOAD: Uint8Array = new Uint8Array(0);
-
-function buildObjects(loaded: LoadedDevice): Map<number, ObjectRuntime> {
-  const objects = new Map<number, ObjectRuntime>();
-  for (const object of loaded.objects) {
-    objects.set(object.number, {
-      number: object.number,
-      dpt: object.dpt,
-      codec: getDpt(object.dpt)!,
-      sizeBits: object.sizeBits,
-      flags: object.flags,
-      groupAddresses: object.groupAddresses,
-      value: undefined,
-    });
-  }
-  return objects;
+function sendFields(options: SendOptions): { from?: string; priority?: Priority } {
+  return {
+    ...(options.from === undefined ? {} : { from: options.from }),
+    ...(options.priority === undefined ? {} : { priority: options.priority }),
+  };
 }
 
-function unknownDevice(
-  deviceId: string,
-  field = "deviceId",
-): { readonly ok: false; readonly error: SimError } {
-  return err({
-    kind: "sim.device-unknown",
-    field,
-    message: `no device "${deviceId}" on this bench`,
-  });
+function telegramIdOf(result: Result<Receipt, SimError>): Result<number, SimError> {
+  return result.ok ? ok(result.value.telegramId!) : result;
 }
 
-/** Equality for DPT values: primitives, and flat objects such as {control, value} or {r, g, b}. */
-function sameValue(a: unknown, b: unknown): boolean {
-  if (a === b) return true;
-  if (typeof a !== "object" || typeof b !== "object" || a === null || b === null) return false;
-  const keysA = Object.keys(a);
-  if (keysA.length !== Object.keys(b).length) return false;
-  for (const key of keysA)
-    if ((a as Record<string, unknown>)[key] !== (b as Record<string, unknown>)[key]) return false;
-  return true;
+function done(result: Result<Receipt, SimError>): Result<void, SimError> {
+  return result.ok ? ok(undefined) : result;
 }

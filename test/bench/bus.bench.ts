@@ -18,11 +18,11 @@
  */
 import { performance } from "node:perf_hooks";
 import { z } from "zod";
-import type { BenchInput } from "../../engine/bench/bench-schema";
-import { createRng } from "../../engine/core/rng";
-import { registerDeviceType } from "../../engine/devices/catalogue";
-import { flags, type DeviceType } from "../../engine/devices/device-type";
-import { createSimulation } from "../../engine/sim";
+import type { BenchInput } from "../../engine";
+import { createRng } from "../../engine";
+import { registerDeviceType } from "../../engine";
+import { flags, type DeviceType } from "../../engine";
+import { createSimulation } from "../../engine";
 import { benchBuilder } from "../harness/bench-builder";
 
 const TARGET_DELIVERIES_PER_S = 1_000_000;

@@ -14,8 +14,8 @@
 import { readFileSync } from "node:fs";
 import { performance } from "node:perf_hooks";
 import { fileURLToPath } from "node:url";
-import { benchSchema, type Bench } from "../../engine/bench";
-import { checkBench } from "../../engine/checks/check-bench";
+import { benchSchema, type Bench } from "../../engine";
+import { checkBench } from "../../engine";
 import { addressRows } from "../../components/bench-editor/address-table";
 import ELK from "elkjs/lib/elk.bundled.js";
 import { benchGraph } from "../../components/canvas/bench-graph";

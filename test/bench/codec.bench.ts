@@ -11,7 +11,7 @@
 import { createRequire } from "node:module";
 import { loadavg } from "node:os";
 import { performance } from "node:perf_hooks";
-import { getDpt, type DptCodec } from "../../engine/dpt";
+import { getDpt, type DptCodec } from "../../engine";
 
 interface KnxDptLib {
   resolve(id: string): unknown;

@@ -11,10 +11,10 @@
  */
 import { loadavg } from "node:os";
 import { performance } from "node:perf_hooks";
-import { SimHost } from "../../components/sim/sim-host";
-import { parseSimMessage, type SimMessage } from "../../components/sim/sim-protocol";
+import { LiveSession as SimHost } from "../../engine";
+import { parseSimMessage, type SimMessage } from "../../engine";
 import { createSimStore } from "../../components/sim/sim-store";
-import { trainingRoomBench } from "../../components/sim/training-room-bench";
+import { trainingRoomBench } from "../harness/training-room-bench";
 import { emptyLogFilter, FilteredLog } from "../../components/console/log-filter";
 
 const TELEGRAMS = 20_000;

@@ -25,8 +25,8 @@ import { createRequire } from "node:module";
 import { performance } from "node:perf_hooks";
 import { pacedSimulationLine } from "../../app/_lib/knxnet/simulation-line";
 import { startKnxNetIpEndpoint } from "../../app/_lib/knxnet/udp-endpoint";
-import { getDpt } from "../../engine/dpt";
-import { encodeCemi, decodeCemi, type DataFrame } from "../../engine/frame";
+import { getDpt } from "../../engine";
+import { encodeCemi, decodeCemi, type DataFrame } from "../../engine";
 import {
   decodeKnxNetIpFrame,
   encodeKnxNetIpFrame,
@@ -34,8 +34,8 @@ import {
   tunnelAddressPool,
   tunnelCri,
   type KnxNetIpFrame,
-} from "../../engine/knxnetip";
-import { createSimulation } from "../../engine/sim";
+} from "../../engine";
+import { createSimulation } from "../../engine";
 
 const PHYSICAL_RATE = 9600 / 193;
 const TARGET_OVERHEAD_MS = 2;

@@ -1,4 +1,4 @@
-import type { BenchInput } from "../../engine/bench";
+import type { BenchInput } from "../../engine";
 
 /**
  * A generated bench for size checks: `rooms` rooms on up to 15 lines, each

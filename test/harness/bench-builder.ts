@@ -1,4 +1,4 @@
-import type { BenchInput } from "@/engine/bench/bench-schema";
+import type { BenchInput } from "@/engine";
 
 type Device = NonNullable<BenchInput["devices"]>[number];
 type Link = NonNullable<BenchInput["links"]>[number];

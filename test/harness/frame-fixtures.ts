@@ -1,6 +1,6 @@
 import fc from "fast-check";
-import type { DataFrame } from "../../engine/frame/data-frame";
-import { fromHex } from "../../engine/frame/hex";
+import type { DataFrame } from "../../engine";
+import { fromHex } from "../../engine";
 
 /*
  * Shared fixtures for frame tests (TP1 and cEMI): one generator of valid frames

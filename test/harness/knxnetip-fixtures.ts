@@ -1,8 +1,8 @@
 /** fast-check arbitraries of KNXnet/IP values, shared by the frame and server properties. */
 import fc from "fast-check";
-import type { Dib } from "../../engine/knxnetip/dib";
-import type { Hpai } from "../../engine/knxnetip/hpai";
-import type { KnxNetIpFrame } from "../../engine/knxnetip/knxnetip-frame";
+import type { Dib } from "../../engine";
+import type { Hpai } from "../../engine";
+import type { KnxNetIpFrame } from "../../engine";
 
 const hpaiArbitrary: fc.Arbitrary<Hpai> = fc.record({
   protocol: fc.constantFrom("udp" as const, "tcp" as const),

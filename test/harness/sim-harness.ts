@@ -1,10 +1,10 @@
 import { expect } from "vitest";
-import { formatGroupAddress, parseGroupAddress } from "@/engine/address";
-import type { BenchInput } from "@/engine/bench/bench-schema";
-import { filterTrace, type TraceEvent, type TraceFilter } from "@/engine/core/trace";
-import type { Priority } from "@/engine/frame";
-import { parseDuration } from "@/engine/scenario/duration";
-import { createSimulation, type Simulation, type SimulationOptions } from "@/engine/sim";
+import { formatGroupAddress, parseGroupAddress } from "@/engine";
+import type { BenchInput } from "@/engine";
+import { filterTrace, type TraceEvent, type TraceFilter } from "@/engine";
+import type { Priority } from "@/engine";
+import { parseDuration } from "@/engine";
+import { createSimulation, type SimInput, type Simulation, type SimulationOptions } from "@/engine";
 
 /** A duration as integer µs or as readable text ("500ms", "2s"). */
 export type Duration = number | string;
@@ -59,6 +59,12 @@ export class SimHarness {
   }
 
   // -------------------------------------------------------------- acting
+
+  /** Applies any simulation input (the one input language); a refused input fails the test with its error. */
+  do(input: SimInput): this {
+    unwrap(this.sim.apply(input), `${input.kind}`);
+    return this;
+  }
 
   write(
     groupAddress: string | number,

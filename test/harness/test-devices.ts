@@ -1,6 +1,6 @@
 import { z } from "zod";
-import { registerDeviceType } from "@/engine/devices/catalogue";
-import { flags, type DeviceEffect, type DeviceType } from "@/engine/devices/device-type";
+import { registerDeviceType } from "@/engine";
+import { flags, type DeviceEffect, type DeviceType } from "@/engine";
 
 /**
  * A device type for the runtime's own tests and benchmarks, never in the

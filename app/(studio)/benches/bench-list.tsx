@@ -4,7 +4,7 @@ import Link from "next/link";
 import { useRouter } from "next/navigation";
 import { useState } from "react";
 import type { BenchOffers } from "@/app/_lib/bench-offers";
-import { BENCH_FORMAT, type Bench } from "@/engine/bench";
+import { BENCH_FORMAT, type Bench } from "@/engine";
 import { Button } from "@/components/ui/button";
 import { StatusBadge } from "@/components/ui/status-badge";
 import { errorText, sendJson } from "../_shell/api-client";

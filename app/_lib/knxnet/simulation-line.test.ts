@@ -6,7 +6,7 @@
  */
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
-import { encodeCemi } from "@/engine/frame";
+import { encodeCemi } from "@/engine";
 import {
   encodeKnxNetIpFrame,
   initialTunnellingServerState,
@@ -15,10 +15,10 @@ import {
   tunnellingServerConfig,
   tunnellingServerTransition,
   type TunnellingServerState,
-} from "@/engine/knxnetip";
+} from "@/engine";
 import { dataFrameArbitrary } from "@/test/harness/frame-fixtures";
-import { bitTimesToUs, frameDurationUs, type DataFrame } from "@/engine/frame";
-import { createSimulation } from "@/engine/sim";
+import { bitTimesToUs, frameDurationUs, type DataFrame } from "@/engine";
+import { createSimulation } from "@/engine";
 import { benchBuilder } from "@/test/harness/bench-builder";
 import type { WallClock } from "./real-time-pacer";
 import { pacedSimulationLine } from "./simulation-line";

@@ -1,9 +1,9 @@
-import { formatIndividualAddress } from "@/engine/address";
-import { Tp1Sender, type Tp1Line } from "@/engine/bus";
-import type { TraceEvent } from "@/engine/core/trace";
-import { DEFAULT_HOP_COUNT, fromHex, type DataFrame } from "@/engine/frame";
-import type { LineAccess } from "@/engine/knxnetip";
-import type { Simulation } from "@/engine/sim";
+import { formatIndividualAddress } from "@/engine";
+import { Tp1Sender, type Tp1Line } from "@/engine";
+import type { TraceEvent } from "@/engine";
+import { DEFAULT_HOP_COUNT, fromHex, type DataFrame } from "@/engine";
+import type { LineAccess } from "@/engine";
+import type { Simulation } from "@/engine";
 import { RealTimePacer, type RealTimePacerOptions } from "./real-time-pacer";
 
 /**

@@ -9,16 +9,16 @@ import dgram from "node:dgram";
 import { readFileSync } from "node:fs";
 import { createRequire } from "node:module";
 import { afterEach, beforeAll, describe, expect, it } from "vitest";
-import { parseIndividualAddress } from "@/engine/address";
-import { getDpt } from "@/engine/dpt";
+import { parseIndividualAddress } from "@/engine";
+import { getDpt } from "@/engine";
 import {
   decodeKnxNetIpFrame,
   encodeKnxNetIpFrame,
   ROUTE_BACK_HPAI,
   STATUS,
   type TunnellingServerEffect,
-} from "@/engine/knxnetip";
-import { createSimulation } from "@/engine/sim";
+} from "@/engine";
+import { createSimulation } from "@/engine";
 import { pacedSimulationLine } from "./simulation-line";
 import { startKnxNetIpEndpoint, type KnxNetIpEndpoint } from "./udp-endpoint";
 

@@ -13,7 +13,7 @@ import {
   type TunnellingServerEvent,
   type TunnellingServerState,
   type UdpAddress,
-} from "@/engine/knxnetip";
+} from "@/engine";
 import { systemClock, type WallClock } from "./real-time-pacer";
 
 /**

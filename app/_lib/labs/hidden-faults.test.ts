@@ -1,6 +1,6 @@
 import { readFileSync } from "node:fs";
 import { describe, expect, it } from "vitest";
-import { loadBench } from "@/engine/bench";
+import { loadBench } from "@/engine";
 import { applyHiddenFaults } from "./hidden-faults";
 
 const fernhill = JSON.parse(

@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { err, ok, type Result } from "@/engine/core/result";
+import { err, ok, type Result } from "@/engine";
 
 /**
  * Faults a trainer hides in a lab: edits applied to the lab bench's document

@@ -1,7 +1,7 @@
 import { readFileSync } from "node:fs";
 import { describe, expect, it } from "vitest";
-import { parseScenarioText } from "@/engine/scenario/parse-scenario";
-import type { Scenario } from "@/engine/scenario/scenario-schema";
+import { parseScenarioText } from "@/engine";
+import type { Scenario } from "@/engine";
 import { executeRunJob } from "./execute-run-job";
 import type { RunJob } from "./run-job";
 import { worstCaseVirtualTimeUs } from "./worst-case-virtual-time";

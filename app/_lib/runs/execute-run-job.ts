@@ -1,5 +1,5 @@
 import { performance } from "node:perf_hooks";
-import { runScenario } from "@/engine/scenario/run-scenario";
+import { runScenario } from "@/engine";
 import type { RunCaps, RunJob, RunJobOutcome } from "./run-job";
 import { resultForStorage } from "./stored-result";
 import { worstCaseVirtualTimeUs } from "./worst-case-virtual-time";

@@ -1,5 +1,5 @@
-import type { ScenarioResult } from "@/engine/scenario/scenario-result";
-import type { Scenario } from "@/engine/scenario/scenario-schema";
+import type { ScenarioResult } from "@/engine";
+import type { Scenario } from "@/engine";
 
 /** The server's caps on one scenario replay (see runLimits() in app/_lib/config.ts). */
 export interface RunCaps {

@@ -15,8 +15,8 @@ import {
   type SuiteRun,
 } from "@/db/queries/runs";
 import type { ScenarioRow } from "@/db/queries/scenarios";
-import { parseScenarioText } from "@/engine/scenario/parse-scenario";
-import type { Scenario } from "@/engine/scenario/scenario-schema";
+import { parseScenarioText } from "@/engine";
+import type { Scenario } from "@/engine";
 import { runLimits } from "../config";
 import { AppError } from "../errors";
 import { publishRunEvent } from "./run-events";

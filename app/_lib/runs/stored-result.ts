@@ -1,6 +1,6 @@
 import { z } from "zod";
-import type { TraceEvent } from "@/engine/core/trace";
-import type { ScenarioResult, StepResult } from "@/engine/scenario/scenario-result";
+import type { TraceEvent } from "@/engine";
+import type { ScenarioResult, StepResult } from "@/engine";
 import type { RunVerdict } from "@/db/schema";
 
 /**

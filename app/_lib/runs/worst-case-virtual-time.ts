@@ -1,5 +1,5 @@
-import { parseDuration } from "@/engine/scenario/duration";
-import type { Scenario, Step } from "@/engine/scenario/scenario-schema";
+import { parseDuration } from "@/engine";
+import type { Scenario, Step } from "@/engine";
 
 function us(text: string): number {
   const parsed = parseDuration(text);

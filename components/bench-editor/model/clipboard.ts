@@ -1,5 +1,5 @@
-import type { Bench, BenchDevice, BenchLink, BenchUnitLink } from "@/engine/bench";
-import { getDeviceType } from "@/engine/devices";
+import type { Bench, BenchDevice, BenchLink, BenchUnitLink } from "@/engine";
+import { getDeviceType } from "@/engine";
 import { freshDeviceId } from "./devices";
 import { groupAddressKey } from "./group-address-key";
 import {
@@ -7,7 +7,7 @@ import {
   nextIndividualAddress,
   takenIndividualAddresses,
 } from "./individual-addresses";
-import { parseIndividualAddress } from "@/engine/address";
+import { parseIndividualAddress } from "@/engine";
 
 /** Devices copied from a bench, with the links and unit links among them. */
 export interface DeviceClipboard {

@@ -1,7 +1,7 @@
-import type { BenchDevice } from "@/engine/bench";
-import { getDeviceType } from "@/engine/devices";
-import type { AnyDeviceType, GroupObjectSpec } from "@/engine/devices";
-import { dptSizeBits } from "@/engine/dpt";
+import type { BenchDevice } from "@/engine";
+import { getDeviceType } from "@/engine";
+import type { AnyDeviceType, GroupObjectSpec } from "@/engine";
+import { dptSizeBits } from "@/engine";
 
 /** A group object as the editor shows it: the type's spec with the bench's flag overrides. */
 export interface EditorObject extends GroupObjectSpec {

@@ -1,8 +1,8 @@
-import { parseIndividualAddress } from "@/engine/address";
-import { ok } from "@/engine/core/result";
-import type { Bench, BenchDevice, Position } from "@/engine/bench";
-import { getDeviceType, type GroupObjectFlags } from "@/engine/devices";
-import { dptSizeBits } from "@/engine/dpt";
+import { parseIndividualAddress } from "@/engine";
+import { ok } from "@/engine";
+import type { Bench, BenchDevice, Position } from "@/engine";
+import { getDeviceType, type GroupObjectFlags } from "@/engine";
+import { dptSizeBits } from "@/engine";
 import { deviceObjects } from "./device-objects";
 import { refuse, type EditResult } from "./edit-refusal";
 import { sameGroupAddress } from "./group-address-key";

@@ -1,5 +1,5 @@
-import { err, type Result } from "@/engine/core/result";
-import type { Bench } from "@/engine/bench";
+import { err, type Result } from "@/engine";
+import type { Bench } from "@/engine";
 
 /**
  * Why the editor refused an edit. Refusals are expected (a person dragged a

@@ -1,4 +1,4 @@
-import { formatGroupAddress, parseGroupAddress } from "@/engine/address";
+import { formatGroupAddress, parseGroupAddress } from "@/engine";
 
 /**
  * Links may spell an address differently from the list ("1/257" vs "1/1/1"),

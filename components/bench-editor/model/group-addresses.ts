@@ -1,7 +1,7 @@
-import { formatGroupAddress, parseGroupAddress } from "@/engine/address";
-import { ok } from "@/engine/core/result";
-import type { Bench, BenchGroupAddress, Position } from "@/engine/bench";
-import { dptSizeBits } from "@/engine/dpt";
+import { formatGroupAddress, parseGroupAddress } from "@/engine";
+import { ok } from "@/engine";
+import type { Bench, BenchGroupAddress, Position } from "@/engine";
+import { dptSizeBits } from "@/engine";
 import { deviceObjects } from "./device-objects";
 import { refuse, type EditResult } from "./edit-refusal";
 import { groupAddressKey, sameGroupAddress } from "./group-address-key";

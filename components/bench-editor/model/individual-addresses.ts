@@ -1,5 +1,5 @@
-import { formatIndividualAddress, parseIndividualAddress } from "@/engine/address";
-import type { Bench, BenchLine } from "@/engine/bench";
+import { formatIndividualAddress, parseIndividualAddress } from "@/engine";
+import type { Bench, BenchLine } from "@/engine";
 
 /** The raw individual addresses taken on the bench, the test tool's included. */
 export function takenIndividualAddresses(bench: Bench, exceptDevice?: string): Set<number> {

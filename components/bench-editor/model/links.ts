@@ -1,6 +1,6 @@
-import { ok } from "@/engine/core/result";
-import type { Bench, BenchLink } from "@/engine/bench";
-import { dptSizeBits } from "@/engine/dpt";
+import { ok } from "@/engine";
+import type { Bench, BenchLink } from "@/engine";
+import { dptSizeBits } from "@/engine";
 import { deviceObjects } from "./device-objects";
 import { refuse, type EditResult } from "./edit-refusal";
 import { sameGroupAddress } from "./group-address-key";

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
-import { loadBench, type Bench } from "@/engine/bench";
-import { checkBench } from "@/engine/checks/check-bench";
+import { loadBench, type Bench } from "@/engine";
+import { checkBench } from "@/engine";
 import {
   addDevice,
   addGroupAddress,

@@ -1,4 +1,4 @@
-import type { Bench, Position } from "@/engine/bench";
+import type { Bench, Position } from "@/engine";
 import { groupAddressKey } from "./group-address-key";
 
 /** A node on the canvas: a device card or a group address bus-bar. */

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { getDeviceType } from "@/engine/devices";
+import { getDeviceType } from "@/engine";
 import { emptyValue, fieldLabel, parameterFields } from "./parameter-fields";
 
 describe("parameterFields", () => {

@@ -1,4 +1,4 @@
-import type { Bench } from "@/engine/bench";
+import type { Bench } from "@/engine";
 import { groupAddressKey } from "./group-address-key";
 
 function plural(count: number, noun: string): string {

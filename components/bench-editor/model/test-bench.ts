@@ -1,4 +1,4 @@
-import { benchSchema, type Bench } from "@/engine/bench";
+import { benchSchema, type Bench } from "@/engine";
 import { hallFixture } from "@/test/harness/fixture-benches";
 
 /** A small bench for the editor's tests: a rocker, a relay and four addresses on two lines. */

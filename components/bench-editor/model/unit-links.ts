@@ -1,6 +1,6 @@
-import { ok } from "@/engine/core/result";
-import type { Bench } from "@/engine/bench";
-import { getDeviceType } from "@/engine/devices";
+import { ok } from "@/engine";
+import type { Bench } from "@/engine";
+import { getDeviceType } from "@/engine";
 import { refuse, type EditResult } from "./edit-refusal";
 
 /**

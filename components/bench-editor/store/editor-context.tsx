@@ -2,7 +2,7 @@
 
 import { createContext, useContext, useState } from "react";
 import { useStore, type StoreApi } from "zustand";
-import type { Bench } from "@/engine/bench";
+import type { Bench } from "@/engine";
 import { createEditorStore, type EditorState } from "./editor-store";
 
 const EditorStoreContext = createContext<StoreApi<EditorState> | null>(null);

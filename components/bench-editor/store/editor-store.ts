@@ -1,5 +1,5 @@
 import { createStore, type StoreApi } from "zustand/vanilla";
-import type { Bench } from "@/engine/bench";
+import type { Bench } from "@/engine";
 import type { EditRefusal, EditResult } from "../model/edit-refusal";
 import { copyDevices, pasteDevices, type DeviceClipboard } from "../model/clipboard";
 import { removeDevices } from "../model/devices";

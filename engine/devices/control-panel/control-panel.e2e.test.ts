@@ -79,7 +79,7 @@ describe("control panel on a simulated line", () => {
     const sim = createSimulation(panelBench(), { seed: 1 });
     sim.runFor(1 * S);
     const refused = sim.pressButton("cp", "tile-2");
-    expect(refused.ok ? "" : refused.error.field).toBe("buttonId");
+    expect(refused.ok ? "" : refused.error.field).toBe("button");
     sim.pressButton("cp", "tile-3");
     sim.runFor(1 * S);
     // DPT spec §3.4 5.001: 40 % travels as round(40 * 255 / 100) = 102 and reads back as 40 %.

@@ -1,4 +1,4 @@
-import { DeviceHarness, HARNESS_LINK_DELAY_US } from "../hvac/device-harness";
+import { DeviceHarness, HARNESS_LINK_DELAY_US } from "../../../test/harness/device-harness";
 import { indoorUnitType } from "../indoor-unit/indoor-unit";
 import type { IndoorUnitState } from "../indoor-unit/state";
 import { wallControllerType } from "../wall-controller/wall-controller";

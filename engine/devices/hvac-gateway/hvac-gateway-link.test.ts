@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { DeviceHarness, HARNESS_LINK_DELAY_US } from "../hvac/device-harness";
+import { DeviceHarness, HARNESS_LINK_DELAY_US } from "../../../test/harness/device-harness";
 import { dpt20105FromMode } from "../hvac/hvac-mode";
 import {
   CONTROLLER_ANNOUNCE_PERIOD_US,

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { DeviceHarness } from "../hvac/device-harness";
+import { DeviceHarness } from "../../../test/harness/device-harness";
 import { LINK_SUPERVISION_GRACE_US, type UnitStatus } from "../hvac/unit-link-messages";
 import { indoorUnitType } from "./indoor-unit";
 import type { IndoorUnitState } from "./state";

@@ -36,4 +36,9 @@ export const indoorUnitType: DeviceType<IndoorUnitParameters, IndoorUnitState> =
     reportedRoomC: null,
   }),
   transition: indoorUnitTransition,
+  // The console's room chart: the room the unit conditions and what it aims for.
+  roomSample: (state) =>
+    typeof state.roomC === "number" && typeof state.setpointC === "number"
+      ? { roomC: state.roomC, setpointC: state.setpointC, power: state.power === true }
+      : undefined,
 };

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { DeviceHarness, HARNESS_LINK_DELAY_US } from "../hvac/device-harness";
+import { DeviceHarness, HARNESS_LINK_DELAY_US } from "../../../test/harness/device-harness";
 import type { HvacMode } from "../hvac/hvac-mode";
 import { indoorUnitType } from "../indoor-unit/indoor-unit";
 import type { IndoorUnitState } from "../indoor-unit/state";

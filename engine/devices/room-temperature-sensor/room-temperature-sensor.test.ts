@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { DeviceHarness } from "../hvac/device-harness";
+import { DeviceHarness } from "../../../test/harness/device-harness";
 import { roomTemperatureSensorParametersSchema } from "./parameters";
 import {
   profileValueC,

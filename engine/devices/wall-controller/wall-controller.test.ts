@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { DeviceHarness } from "../hvac/device-harness";
+import { DeviceHarness } from "../../../test/harness/device-harness";
 import {
   CONTROLLER_ANNOUNCE_PERIOD_US,
   LINK_SUPERVISION_GRACE_US,

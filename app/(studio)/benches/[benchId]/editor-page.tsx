@@ -1,7 +1,7 @@
 "use client";
 
 import { useRef } from "react";
-import { benchSchema, type Bench } from "@/engine/bench";
+import { benchSchema, type Bench } from "@/engine";
 import {
   BenchEditor,
   type BenchEditorActions,

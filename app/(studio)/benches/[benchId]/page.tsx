@@ -6,7 +6,7 @@ import { requireCapability } from "@/app/_lib/dal";
 import { loadBench } from "@/app/_lib/policy/bench";
 import { orNotFound } from "@/app/_lib/policy/for-page";
 import { findReadableFloorPlan } from "@/app/_lib/policy/upload";
-import { benchSchema } from "@/engine/bench";
+import { benchSchema } from "@/engine";
 import { latestRevision } from "@/db/queries/benches";
 import { EditorPage } from "./editor-page";
 

@@ -1,10 +1,12 @@
-import { formatGroupAddress } from "@/engine/address";
-import { loadBench, type LoadedBench } from "@/engine/bench";
-import type { TraceEvent } from "@/engine/core/trace";
-import { getDpt } from "@/engine/dpt";
-import { DEFAULT_HOP_COUNT, describeTelegram, fromHex, type DataFrame } from "@/engine/frame";
-import type { ConsoleAction, ObservedTelegram, RecordedAction } from "@/engine/scenario/recorder";
-import { Simulation } from "@/engine/sim";
+import { formatGroupAddress } from "../../address";
+import { loadBench, type LoadedBench } from "../../bench";
+import type { TraceEvent } from "../../core/trace";
+import { getDpt } from "../../dpt";
+import { DEFAULT_HOP_COUNT, describeTelegram, fromHex, type DataFrame } from "../../frame";
+import { TraceRecorder, type RecordedAction } from "../../scenario/recorder";
+import type { Result } from "../../core/result";
+import type { SimError } from "../sim-error";
+import { Simulation } from "../simulation";
 import { summarizeBench } from "./bench-summary";
 import {
   parseSimCommand,
@@ -20,9 +22,9 @@ import {
   type SimClock,
   type SimMessage,
   type SimSpeed,
-} from "./sim-protocol";
+} from "./live-protocol";
 
-export interface SimHostOptions {
+export interface LiveSessionOptions {
   /** Where messages for the page go (postMessage in the worker). */
   readonly post: (message: SimMessage) => void;
   /** Wall clock in milliseconds (performance.now in the worker; a fake in tests). */
@@ -46,13 +48,9 @@ const MAX_SECONDS_PER_TICK = 600;
 /** Chart samples kept waiting between batches; older ones would scroll off the charts anyway. */
 const MAX_PENDING_SAMPLES = 600;
 
-interface MutableRecordedAction {
-  readonly action: ConsoleAction;
-  readonly observed: ObservedTelegram[];
-}
-
 /**
- * Runs one simulation for the live console, driven by commands, and turns its
+ * The live session: one simulation for the live console (in the browser's
+ * worker, or in a server process), driven by commands, and turns its
  * trace into batches for the page: log rows (each telegram once its
  * acknowledgement is known), snapshots of the devices that changed, active
  * faults, and chart samples taken at whole virtual seconds.
@@ -64,10 +62,12 @@ interface MutableRecordedAction {
  * worth of rows is waiting, which is the back-pressure that keeps the page fed
  * but never flooded.
  *
- * Pure apart from the two functions it is given, so a node test can drive it
- * with a fake clock and no Worker.
+ * Pure apart from the two functions it is given (where messages go, and the
+ * wall clock), so it runs unchanged in a Worker, in a Node process, and in a
+ * test with a fake clock. It names no device type: charts come from the
+ * types' own `roomSample` hook.
  */
-export class SimHost {
+export class LiveSession {
   private readonly post: (message: SimMessage) => void;
   private readonly now: () => number;
   private readonly maxRowsPerBatch: number;
@@ -96,18 +96,17 @@ export class SimHost {
 
   private readonly dirtyDevices = new Set<string>();
   private readonly transitions = new Map<string, { name: string; atUs: number }>();
-  private readonly faultSources = new Map<string, "device" | "user">();
   private faultsDirty = false;
 
   private roomSample: RoomSample[] | undefined;
   private busLoad: BusLoadSample[] = [];
   private rates: AddressRateSample[] = [];
 
-  private recording: MutableRecordedAction[] | undefined;
+  private recorder: TraceRecorder | undefined;
   /** Devices that took a telegram or changed during a scene dry-run; undefined outside one. */
   private responders: Set<string> | undefined;
 
-  constructor(options: SimHostOptions) {
+  constructor(options: LiveSessionOptions) {
     this.post = options.post;
     this.now = options.now;
     this.maxRowsPerBatch = options.maxRowsPerBatch ?? DEFAULT_MAX_ROWS_PER_BATCH;
@@ -201,121 +200,55 @@ export class SimHost {
       case "reset":
         this.start(true);
         return;
-      case "write": {
-        const result = sim.sendGroupWrite(
-          command.groupAddress,
-          command.value,
-          command.from === undefined ? {} : { from: command.from },
-        );
-        if (this.refused("write", result)) return;
-        this.recordAction({
-          kind: "write",
-          atUs: sim.nowUs,
-          groupAddress: command.groupAddress,
-          value: command.value,
-          ...(command.from ? { from: command.from } : {}),
-        });
-        return;
-      }
-      case "read": {
-        const result = sim.sendGroupRead(
-          command.groupAddress,
-          command.from === undefined ? {} : { from: command.from },
-        );
-        if (this.refused("read", result)) return;
-        this.recordAction({
-          kind: "read",
-          atUs: sim.nowUs,
-          groupAddress: command.groupAddress,
-          ...(command.from ? { from: command.from } : {}),
-        });
-        return;
-      }
-      case "press": {
-        const atUs = sim.nowUs;
-        if (
-          this.refused("press", sim.pressButton(command.deviceId, command.buttonId, command.action))
-        )
+      case "input": {
+        const result = sim.apply(command.input);
+        if (!result.ok) {
+          const { field, message } = result.error;
+          this.post({
+            type: "command-error",
+            command: command.command,
+            field: command.fields[field] ?? field,
+            message,
+          });
           return;
-        this.recordAction({
-          kind: "press",
-          atUs,
-          device: command.deviceId,
-          button: command.buttonId,
-          ...(command.action === "press" ? {} : { action: command.action }),
-        });
-        return;
-      }
-      case "set-input": {
-        const atUs = sim.nowUs;
-        if (this.refused("set-input", sim.setInput(command.deviceId, command.input, command.value)))
-          return;
-        this.recordAction({
-          kind: "set-input",
-          atUs,
-          device: command.deviceId,
-          input: command.input,
-          value: command.value,
-        });
-        return;
-      }
-      case "set-parameter": {
-        const atUs = sim.nowUs;
-        if (
-          this.refused(
-            "set-parameter",
-            sim.setParameter(command.deviceId, command.key, command.value),
-          )
-        )
-          return;
-        this.recordAction({
-          kind: "set-parameter",
-          atUs,
-          device: command.deviceId,
-          parameter: command.key,
-          value: command.value,
-        });
-        this.loaded = sim.bench;
-        this.dirtyDevices.add(command.deviceId);
-        this.post({
-          type: "loaded",
-          bench: summarizeBench(sim.bench),
-          clock: this.clock(),
-          fresh: false,
-        });
-        return;
-      }
-      case "inject-fault":
-      case "clear-fault": {
-        const atUs = sim.nowUs;
-        const result =
-          command.type === "inject-fault"
-            ? sim.injectFault(command.target, command.faultId)
-            : sim.clearFault(command.target, command.faultId);
-        if (this.refused(command.type, result)) return;
-        this.faultsDirty = true;
-        this.recordAction({
-          kind: command.type,
-          atUs,
-          device: command.target,
-          fault: command.faultId,
-        });
+        }
+        const input = command.input;
+        if (input.kind === "set-parameter" || input.kind === "set-parameters") {
+          this.loaded = sim.bench;
+          this.dirtyDevices.add(input.device);
+          this.post({
+            type: "loaded",
+            bench: summarizeBench(sim.bench),
+            clock: this.clock(),
+            fresh: false,
+          });
+        } else if (input.kind === "inject-fault" || input.kind === "clear-fault") {
+          this.faultsDirty = true;
+        }
         return;
       }
       case "flood": {
         // The test tool queues every telegram at once; the line sends them back to back, which is what a flood is.
-        for (let i = 0; i < command.count; i++) {
-          if (this.refused("flood", sim.sendGroupWrite(command.groupAddress, command.value)))
-            return;
+        // A flood is load, not an action to replay: the recorder does not see its writes.
+        const recorder = this.recorder;
+        this.recorder = undefined;
+        try {
+          for (let i = 0; i < command.count; i++) {
+            if (this.refused("flood", sim.sendGroupWrite(command.groupAddress, command.value)))
+              return;
+          }
+        } finally {
+          this.recorder = recorder;
         }
         return;
       }
       case "record":
         if (command.on) {
-          this.recording = [];
+          const groupAddresses = sim.bench.groupAddresses;
+          this.recorder = new TraceRecorder((raw) => groupAddresses.get(raw)?.dpt);
         } else {
-          const actions: RecordedAction[] = this.recording ?? [];
-          this.recording = undefined;
+          const actions: RecordedAction[] = this.recorder?.actions() ?? [];
+          this.recorder = undefined;
           this.post({
             type: "recording",
             on: false,
@@ -333,21 +266,15 @@ export class SimHost {
   }
 
   /** Posts the error of a refused request; true when it was refused. */
-  private refused(command: string, result: { ok: true } | { ok: false; error: unknown }): boolean {
+  private refused(command: string, result: Result<unknown, SimError>): boolean {
     if (result.ok) return false;
-    const errors = Array.isArray(result.error) ? result.error : [result.error];
-    const first = errors[0] as { field?: string; path?: string; message?: string } | undefined;
     this.post({
       type: "command-error",
       command,
-      field: first?.field ?? first?.path ?? "value",
-      message: errors.map((e) => (e as { message?: string }).message ?? String(e)).join("; "),
+      field: result.error.field,
+      message: result.error.message,
     });
     return true;
-  }
-
-  private recordAction(action: ConsoleAction): void {
-    this.recording?.push({ action, observed: [] });
   }
 
   // ---------------------------------------------------------------- lifecycle
@@ -363,13 +290,12 @@ export class SimHost {
     this.awaiting.clear();
     this.dirtyDevices.clear();
     this.transitions.clear();
-    this.faultSources.clear();
     this.roomSample = undefined;
     this.busLoad = [];
     this.rates = [];
     this.rowSeq = 0;
-    if (this.recording !== undefined) {
-      this.recording = undefined;
+    if (this.recorder !== undefined) {
+      this.recorder = undefined;
       this.post({ type: "recording", on: false, actions: [], settleUs: 0 });
     }
     const loaded = loadBench(this.document);
@@ -470,21 +396,19 @@ export class SimHost {
     this.sampleRooms();
   }
 
-  /** The latest room temperature and setpoint of every indoor unit; only the newest is kept per batch. */
+  /** The latest chart sample of every device whose type offers one (`roomSample`); only the newest is kept per batch. */
   private sampleRooms(): void {
     const sim = this.sim!;
     const samples: RoomSample[] = [];
     for (const device of this.loaded!.devices) {
-      if (device.type.id !== "indoor-unit") continue;
-      const state = sim.deviceState(device.id) as
-        { roomC?: unknown; setpointC?: unknown; power?: unknown } | undefined;
-      if (typeof state?.roomC !== "number" || typeof state.setpointC !== "number") continue;
+      const sample = device.type.roomSample?.(sim.deviceState(device.id));
+      if (sample === undefined) continue;
       samples.push({
         timeUs: sim.nowUs,
         unitId: device.id,
-        roomC: state.roomC,
-        setpointC: state.setpointC,
-        power: state.power === true,
+        roomC: sample.roomC,
+        setpointC: sample.setpointC,
+        power: sample.power,
       });
     }
     if (samples.length > 0) this.roomSample = samples;
@@ -493,10 +417,10 @@ export class SimHost {
   // ---------------------------------------------------------------- trace -> rows
 
   private onTrace(event: TraceEvent): void {
+    this.recorder?.onEvent(event);
     switch (event.kind) {
       case "telegram.sent": {
         this.awaiting.set(event.telegramId, this.telegramRow(event));
-        if (this.recording !== undefined && event.attempt === 0) this.observe(event);
         return;
       }
       case "telegram.acked":
@@ -509,9 +433,6 @@ export class SimHost {
       case "fault.raised":
       case "fault.cleared": {
         const target = event.deviceId ?? event.unitLink ?? "";
-        const key = `${target}\u0000${event.fault}`;
-        if (event.kind === "fault.raised") this.faultSources.set(key, event.by);
-        else this.faultSources.delete(key);
         this.faultsDirty = true;
         if (event.deviceId !== undefined) this.dirtyDevices.add(event.deviceId);
         const device =
@@ -607,31 +528,6 @@ export class SimHost {
     }
   }
 
-  private observe(event: Extract<TraceEvent, { kind: "telegram.sent" }>): void {
-    const last = this.recording![this.recording!.length - 1];
-    if (last === undefined) return;
-    const service =
-      event.service === "GroupValue_Read"
-        ? "read"
-        : event.service === "GroupValue_Write"
-          ? "write"
-          : "response";
-    let value: unknown;
-    if (service !== "read") {
-      const ga = this.loaded?.groupAddresses.get(event.destination);
-      const codec = ga === undefined ? undefined : getDpt(ga.dpt);
-      const decoded = codec?.decode(fromHex(event.payloadHex) ?? new Uint8Array(0));
-      if (decoded?.ok) value = decoded.value;
-    }
-    last.observed.push({
-      atUs: event.timeUs,
-      groupAddress: formatGroupAddress(event.destination),
-      service,
-      ...(value === undefined ? {} : { value }),
-      ...(event.deviceId === undefined ? {} : { device: event.deviceId }),
-    });
-  }
-
   // ---------------------------------------------------------------- batches
 
   private flush(): void {
@@ -714,7 +610,7 @@ export class SimHost {
         faults.push({
           target,
           fault,
-          by: this.faultSources.get(`${target}\u0000${fault}`) ?? "device",
+          by: sim.faultRaisedBy(target, fault) ?? "device",
         });
       }
     }
@@ -734,7 +630,6 @@ export class SimHost {
     const atUs = sim.nowUs;
     const result = sim.sendGroupWrite(groupAddress, scene);
     if (this.refused("scene-dry-run", result)) return;
-    this.recordAction({ kind: "write", atUs, groupAddress, value: scene });
     const responders = new Set<string>();
     this.responders = responders;
     try {
@@ -809,3 +704,10 @@ function describeDevice(sim: Simulation, deviceId: string): Map<string, string> 
   }
   return fields;
 }
+
+/** The live session's older name. */
+export const SimHost = LiveSession;
+/** The live session's older name. */
+export type SimHost = LiveSession;
+/** The live session options' older name. */
+export type SimHostOptions = LiveSessionOptions;

@@ -1,4 +1,4 @@
-import type { BenchInput } from "@/engine/bench";
+import type { BenchInput } from "../../engine";
 
 /**
  * A small invented bench for the console's own tests and benchmark: a light

@@ -1,12 +1,12 @@
-import { formatGroupAddress, formatIndividualAddress } from "@/engine/address";
-import type { LoadedBench } from "@/engine/bench";
+import { formatGroupAddress, formatIndividualAddress } from "../../address";
+import type { LoadedBench } from "../../bench";
 import {
   controlPanelButtonId,
   controlPanelType,
   isCommandTile,
   type ControlPanelParameters,
-} from "@/engine/devices/control-panel";
-import type { BenchSummary } from "./sim-protocol";
+} from "../../devices/control-panel";
+import type { BenchSummary } from "./live-protocol";
 
 /** Device types whose parameters carry a controller role on the unit link. */
 const ROLE_TYPES = new Set(["hvac-gateway", "wall-controller"]);

@@ -1,0 +1,246 @@
+import type { LoadedDevice } from "../bench";
+import type { Rng } from "../core/rng";
+import type { Scheduler } from "../core/scheduler";
+import type {
+  AnyDeviceType,
+  DeviceContext,
+  DeviceEffect,
+  DeviceEvent,
+  TransitionResult,
+} from "../devices/device-type";
+import type { Tp1Sender } from "../bus";
+import type { FaultRegistry } from "./fault-registry";
+import {
+  buildObjects,
+  type GroupObjectLayer,
+  type LineRuntime,
+  type ObjectOwner,
+  type ObjectRuntime,
+} from "./group-objects";
+import type { TraceEmitter } from "./trace-emitter";
+import type { UnitLinkMedium } from "./unit-link-medium";
+
+/** A running device: its state machine, objects, timers and bus connection. */
+export interface DeviceRuntime extends ObjectOwner {
+  readonly index: number;
+  readonly id: string;
+  loaded: LoadedDevice;
+  readonly type: AnyDeviceType;
+  state: unknown;
+  objects: Map<number, ObjectRuntime>;
+  context: DeviceContext<unknown>;
+  readonly line: LineRuntime | undefined;
+  readonly sender: Tp1Sender | undefined;
+  busAnswer: number;
+  /** Timer name -> generation of the live timer. */
+  readonly timers: Map<string, number>;
+  lastTakenTelegramId: number;
+}
+
+interface TimerEntry {
+  readonly device: DeviceRuntime;
+  readonly name: string;
+  readonly generation: number;
+  readonly data: unknown;
+}
+
+/**
+ * The device runtime: drives each device's pure transition and applies the
+ * effects it asks for.
+ *
+ * - group.send / group.read / object.store: through the group-object layer.
+ * - timer.set / timer.cancel: a named timer per device; setting a name again
+ *   replaces it, a restart drops them all.
+ * - link.send: through the unit-link medium.
+ * - fault.raise / fault.clear: in the fault registry, as raised by the device.
+ * - note: traced.
+ */
+export class DeviceRunner {
+  private readonly timerTag: number;
+  private timerGeneration = 0;
+
+  constructor(
+    private readonly scheduler: Scheduler,
+    private readonly rng: Rng,
+    private readonly emitter: TraceEmitter,
+    private readonly faults: FaultRegistry,
+    private readonly objects: GroupObjectLayer,
+    private readonly links: () => UnitLinkMedium<DeviceRuntime>,
+    private readonly reuse: boolean,
+    /** Sees every effect before it is applied (test support); absent in a simulation. */
+    private readonly observeEffect?: (device: DeviceRuntime, effect: DeviceEffect) => void,
+  ) {
+    this.timerTag = scheduler.register((_, payload) => this.onTimer(payload as TimerEntry));
+  }
+
+  /** A device at its initial state, not yet started. */
+  create(
+    index: number,
+    loaded: LoadedDevice,
+    line: LineRuntime | undefined,
+    sender: Tp1Sender | undefined,
+    busAnswer: number,
+  ): DeviceRuntime {
+    const device: DeviceRuntime = {
+      index,
+      id: loaded.id,
+      loaded,
+      type: loaded.type,
+      state: loaded.type.initialState(loaded.parameters),
+      objects: buildObjects(loaded, this.reuse),
+      context: undefined as unknown as DeviceContext<unknown>,
+      line,
+      sender,
+      busAnswer,
+      timers: new Map(),
+      lastTakenTelegramId: -1,
+    };
+    device.context = this.makeContext(device);
+    return device;
+  }
+
+  /** The `start` event, then the read-on-init reads. */
+  start(device: DeviceRuntime): void {
+    this.transition(device, { kind: "start" });
+    for (const object of device.objects.values()) {
+      if (object.flags.readOnInit && object.flags.communication)
+        this.objects.queueRead(device, object);
+    }
+  }
+
+  /**
+   * A restart after a parameter download: initial state, empty objects, no
+   * timers, the faults the device raised itself cleared (injected ones stay).
+   * The caller rebuilds the listener tables, then calls `start`.
+   */
+  reset(device: DeviceRuntime, loaded: LoadedDevice): void {
+    device.loaded = loaded;
+    device.objects = buildObjects(loaded, this.reuse);
+    device.context = this.makeContext(device);
+    device.state = device.type.initialState(loaded.parameters);
+    device.timers.clear();
+    device.lastTakenTelegramId = -1;
+    this.faults.clearRaisedByDevice(device.id);
+  }
+
+  /**
+   * New parameters without a restart, for devices that read their parameters
+   * live (the device test harness); a bench download goes through `reset`.
+   */
+  reconfigure(device: DeviceRuntime, loaded: LoadedDevice): void {
+    device.loaded = loaded;
+    device.context = this.makeContext(device);
+  }
+
+  /** Hands one event to a device and applies the effects of its transition; returns the transition's result. */
+  transition(device: DeviceRuntime, event: DeviceEvent): TransitionResult<unknown> {
+    const result = device.type.transition(device.state, event, device.context);
+    device.state = result.state;
+    if (result.transition !== undefined && this.emitter.active)
+      this.emitter.deviceTransition(device.id, result.transition, event.kind);
+    const effects = result.effects;
+    const observe = this.observeEffect;
+    if (observe === undefined) {
+      for (let i = 0; i < effects.length; i++) this.applyEffect(device, effects[i]!);
+    } else {
+      for (let i = 0; i < effects.length; i++) {
+        observe(device, effects[i]!);
+        this.applyEffect(device, effects[i]!);
+      }
+    }
+    return result;
+  }
+
+  private makeContext(device: DeviceRuntime): DeviceContext<unknown> {
+    const scheduler = this.scheduler;
+    const rng = this.rng;
+    return {
+      get nowUs() {
+        return scheduler.nowUs;
+      },
+      deviceId: device.id,
+      // Unit-link-only devices have no address; they see the unprogrammed default 15.15.255.
+      individualAddress: device.loaded.individualAddress ?? 0xffff,
+      parameters: device.loaded.parameters,
+      links: device.loaded.unitLinks,
+      objectValue: (object: number) => device.objects.get(object)?.value,
+      random: () => rng.next(),
+    };
+  }
+
+  private applyEffect(device: DeviceRuntime, effect: DeviceEffect): void {
+    switch (effect.kind) {
+      case "group.send":
+        this.objects.send(
+          device,
+          this.objectOf(device, effect.object, effect.kind),
+          effect.value,
+          effect.service,
+        );
+        return;
+      case "group.read": {
+        const object = this.objectOf(device, effect.object, effect.kind);
+        if (object.flags.communication) this.objects.queueRead(device, object);
+        return;
+      }
+      case "object.store":
+        this.objects.store(
+          device,
+          this.objectOf(device, effect.object, effect.kind),
+          effect.value,
+          "store",
+          undefined,
+        );
+        return;
+      case "timer.set": {
+        if (!Number.isSafeInteger(effect.delayUs) || effect.delayUs < 0) {
+          throw new Error(
+            `device "${device.id}" timer "${effect.name}": delayUs ${effect.delayUs} is not a non-negative integer`,
+          );
+        }
+        const generation = ++this.timerGeneration;
+        device.timers.set(effect.name, generation);
+        const entry: TimerEntry = { device, name: effect.name, generation, data: effect.data };
+        this.scheduler.schedule(this.scheduler.nowUs + effect.delayUs, this.timerTag, 0, entry);
+        return;
+      }
+      case "timer.cancel":
+        device.timers.delete(effect.name);
+        return;
+      case "link.send":
+        this.links().send(device, effect.link, effect.message);
+        return;
+      case "fault.raise":
+        this.faults.raise(device.id, effect.fault, "device", effect.text);
+        return;
+      case "fault.clear":
+        this.faults.clear(device.id, effect.fault, "device");
+        return;
+      case "note":
+        this.emitter.deviceNote(device.id, effect.text);
+        return;
+    }
+  }
+
+  private objectOf(device: DeviceRuntime, number: number, effect: string): ObjectRuntime {
+    const object = device.objects.get(number);
+    if (object === undefined)
+      throw new Error(
+        `device "${device.id}" (${device.type.id}) asked for ${effect} on object ${number}, which it does not have`,
+      );
+    return object;
+  }
+
+  private onTimer(entry: TimerEntry): void {
+    const device = entry.device;
+    if (device.timers.get(entry.name) !== entry.generation) return; // replaced, cancelled or restarted
+    device.timers.delete(entry.name);
+    this.emitter.timerFired(device.id, entry.name);
+    this.transition(
+      device,
+      entry.data === undefined
+        ? { kind: "timer", name: entry.name }
+        : { kind: "timer", name: entry.name, data: entry.data },
+    );
+  }
+}

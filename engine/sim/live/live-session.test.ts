@@ -1,0 +1,57 @@
+import { describe, expect, it } from "vitest";
+import { trainingRoomBench } from "../../../test/harness/training-room-bench";
+import { LiveSession } from "./live-session";
+import type { SimMessage } from "./live-protocol";
+
+/**
+ * The live session runs in a plain Node process (this test's), with no Worker
+ * and no DOM: wall time comes from an injected clock, messages go to a list.
+ * The same class runs in the browser's worker (components/sim/sim.worker.ts).
+ */
+function nodeSession() {
+  let wallMs = 0;
+  const messages: SimMessage[] = [];
+  const session = new LiveSession({ post: (m) => messages.push(m), now: () => wallMs });
+  return {
+    session,
+    messages,
+    batches: () => messages.filter((m) => m.type === "batch"),
+    advanceWall(ms: number, tickMs = 50) {
+      for (let t = 0; t < ms; t += tickMs) {
+        wallMs += tickMs;
+        session.tick();
+      }
+    },
+  };
+}
+
+describe("LiveSession in a Node process", () => {
+  it("paces virtual time by the injected wall clock at the chosen speed", () => {
+    const node = nodeSession();
+    node.session.handle({ type: "load", bench: trainingRoomBench });
+    expect(node.messages[0]).toMatchObject({ type: "loaded", fresh: true });
+    node.session.handle({ type: "play", speed: 10 });
+    node.advanceWall(2_000);
+    // 2 s of wall time at 10x is 20 s of virtual time.
+    expect(node.session.nowUs).toBe(20_000_000);
+  });
+
+  it("logs a telegram with its acknowledgement and charts rooms through the device type's hook", () => {
+    const node = nodeSession();
+    node.session.handle({ type: "load", bench: trainingRoomBench });
+    node.session.handle({ type: "play", speed: 1 });
+    node.session.handle({
+      type: "input",
+      input: { kind: "write", groupAddress: "1/0/1", value: true },
+    });
+    node.advanceWall(2_000);
+    const rows = node.batches().flatMap((b) => (b.type === "batch" ? b.rows : []));
+    expect(rows.find((r) => r.destination === "1/0/1" && r.source === "1.1.250")).toMatchObject({
+      service: "GroupValue_Write",
+      ack: "ack",
+    });
+    const rooms = node.batches().flatMap((b) => (b.type === "batch" ? b.rooms : []));
+    // Only the indoor unit offers a room sample; the session names no device type itself.
+    expect(new Set(rooms.map((r) => r.unitId))).toEqual(new Set(["unit"]));
+  });
+});

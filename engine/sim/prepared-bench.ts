@@ -1,0 +1,75 @@
+import type { BenchError, LoadedBench, LoadedDevice } from "../bench";
+import type { Result } from "../core/result";
+import type { GroupObjectFlags } from "../devices/device-type";
+import { getDpt, type DptCodec } from "../dpt";
+
+/**
+ * Work that depends only on a loaded bench, done once and kept beside it, so
+ * starting a run (a scenario replay, a console reset) does not repeat it: the
+ * group-object specs of each device with their codecs resolved, and the
+ * benches a parameter change leads to (a parameter change re-checks the whole
+ * bench, and a suite replays the same change many times).
+ *
+ * Everything kept is immutable and derived deterministically from the bench,
+ * so sharing it between runs cannot change what a run does. Loaded benches are
+ * the keys of weak maps: nothing is kept once a bench is no longer used.
+ */
+
+/** A group object's fixed part; the runtime adds the stored value per run. */
+export interface ObjectSpec {
+  readonly number: number;
+  readonly dpt: string;
+  readonly codec: DptCodec<unknown>;
+  readonly sizeBits: number;
+  readonly flags: GroupObjectFlags;
+  readonly groupAddresses: readonly number[];
+}
+
+const specsByDevice = new WeakMap<LoadedDevice, readonly ObjectSpec[]>();
+const reloadsByBench = new WeakMap<
+  LoadedBench,
+  Map<string, Result<LoadedBench, readonly BenchError[]>>
+>();
+
+/** The object specs of a loaded device (kept when `reuse` is true). */
+export function objectSpecs(device: LoadedDevice, reuse: boolean): readonly ObjectSpec[] {
+  const kept = reuse ? specsByDevice.get(device) : undefined;
+  if (kept !== undefined) return kept;
+  const specs = device.objects.map((object) => ({
+    number: object.number,
+    dpt: object.dpt,
+    codec: getDpt(object.dpt)!,
+    sizeBits: object.sizeBits,
+    flags: object.flags,
+    groupAddresses: object.groupAddresses,
+  }));
+  if (reuse) specsByDevice.set(device, specs);
+  return specs;
+}
+
+/**
+ * The bench after giving `deviceId` new parameters: `load` computes it the
+ * first time; later runs that make the same change from the same bench get the
+ * same result (kept when `reuse` is true).
+ */
+export function reloadedBench(
+  current: LoadedBench,
+  deviceId: string,
+  parameters: Readonly<Record<string, unknown>>,
+  reuse: boolean,
+  load: () => Result<LoadedBench, readonly BenchError[]>,
+): Result<LoadedBench, readonly BenchError[]> {
+  if (!reuse) return load();
+  let reloads = reloadsByBench.get(current);
+  if (reloads === undefined) {
+    reloads = new Map();
+    reloadsByBench.set(current, reloads);
+  }
+  const key = `${deviceId}\u0000${JSON.stringify(parameters)}`;
+  let result = reloads.get(key);
+  if (result === undefined) {
+    result = load();
+    reloads.set(key, result);
+  }
+  return result;
+}
