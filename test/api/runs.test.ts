@@ -246,12 +246,16 @@ describe("GET /api/runs/:id/events", () => {
     expect(response.headers.get("content-type")).toMatch(/^text\/event-stream/);
     const events = await readEventStream(response);
     const kinds = events.map((e) => e.event);
-    expect(kinds[0]).toMatch(/^run\.(snapshot|started)$/);
     expect(kinds.at(-1)).toBe("run.finished");
-    const finishedScenarios = events.filter((e) => e.event === "scenario.finished");
-    // Every scenario is announced once (some may have finished before the stream opened).
-    const snapshotDone = Number(events[0]!.data.done);
-    expect(finishedScenarios.length + snapshotDone).toBe(runIds.length);
+    // On a busy machine the whole suite can finish before the stream opens; the
+    // stream then answers with the final state alone, as for any finished run.
+    if (kinds.length > 1) {
+      expect(kinds[0]).toMatch(/^run\.(snapshot|started)$/);
+      const finishedScenarios = events.filter((e) => e.event === "scenario.finished");
+      // Every scenario is announced once (some may have finished before the stream opened).
+      const snapshotDone = Number(events[0]!.data.done);
+      expect(finishedScenarios.length + snapshotDone).toBe(runIds.length);
+    }
     const last = events.at(-1)!.data;
     expect(last).toMatchObject({ done: runIds.length, total: runIds.length, verdict: "pass" });
   });
