@@ -8,8 +8,17 @@ import { RoomTemperatureChart } from "./room-temperature-chart";
 
 const CHART_REFRESH_MS = 1000;
 
-/** The console's charts, fed from the store: rooms per indoor unit, bus load per line, rates per address. */
-export function ConsoleCharts() {
+/**
+ * The console's charts, fed from the store: rooms per indoor unit, bus load
+ * per line, rates per address. Each chart works out its data only when its
+ * samples changed, and draws a few hundred points at most.
+ */
+export function ConsoleCharts({
+  lineLabels,
+}: {
+  /** "1.1 Lab room line" by line id. */
+  lineLabels: ReadonlyMap<string, string>;
+}) {
   const bench = useSimState((s) => s.bench);
   // Charts are the heaviest thing on the page: redraw them once a second, not per batch.
   const rooms = useThrottledSimState((s) => s.rooms, CHART_REFRESH_MS);
@@ -27,7 +36,12 @@ export function ConsoleCharts() {
         <RoomTemperatureChart key={unit.id} name={unit.name} samples={rooms[unit.id] ?? []} />
       ))}
       {bench.lines.map((line) => (
-        <BusLoadChart key={line.id} line={line.id} samples={busLoad} />
+        <BusLoadChart
+          key={line.id}
+          line={line.id}
+          label={lineLabels.get(line.id) ?? line.name}
+          samples={busLoad}
+        />
       ))}
       <AddressRateChart samples={rates} names={names} />
     </div>

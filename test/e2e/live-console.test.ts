@@ -40,7 +40,7 @@ describe("live console in headless Chromium", () => {
     await input.fill(address);
     await page
       .getByRole("listbox", { name: "Matching group addresses" })
-      .getByRole("button")
+      .getByRole("option")
       .first()
       .click();
     if (fill !== undefined) await page.getByRole("spinbutton", { name: "Value" }).fill(fill);
@@ -48,7 +48,7 @@ describe("live console in headless Chromium", () => {
   }
 
   function logRows(): Locator {
-    return page.getByRole("log", { name: "Telegram log" }).getByRole("row");
+    return page.getByRole("table", { name: "Telegram log" }).getByRole("row");
   }
 
   async function filterLog(address: string, service = "") {
