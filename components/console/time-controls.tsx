@@ -50,19 +50,17 @@ export function TimeControls() {
           </>
         )}
       </span>
-      {clock.running ? (
-        <Button variant="secondary" className="w-20" onClick={() => send({ type: "pause" })}>
-          Pause
-        </Button>
-      ) : (
-        <Button
-          className="w-20"
-          onClick={() => send({ type: "play", speed: clock.speed })}
-          title={`Run ${speedText(clock.speed)}`}
-        >
-          Run
-        </Button>
-      )}
+      {/* One button that keeps the focus while its label flips between the two actions. */}
+      <Button
+        variant={clock.running ? "secondary" : "primary"}
+        className="w-20"
+        onClick={() =>
+          send(clock.running ? { type: "pause" } : { type: "play", speed: clock.speed })
+        }
+        title={clock.running ? "Pause the simulation" : `Run ${speedText(clock.speed)}`}
+      >
+        {clock.running ? "Pause" : "Run"}
+      </Button>
       <Button variant="secondary" onClick={() => send({ type: "step" })}>
         Step
       </Button>

@@ -1,0 +1,220 @@
+import AxeBuilder from "@axe-core/playwright";
+import type { Browser, Page } from "playwright-core";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { launchChromium } from "./chromium";
+import { demoPassword, signIn } from "./support/sign-in";
+
+/**
+ * The live console as people use it on the demo bench: every log column
+ * readable at 1440x900 without scrolling sideways, the navigation folded and
+ * the log in view on a 1024x768 tablet, every action reachable from the
+ * keyboard with a visible focus, the layout remembered, and an axe-core scan
+ * (WCAG rules) of the console while it runs.
+ */
+describe("live console layout, keyboard and accessibility in headless Chromium", () => {
+  const trainer = "ada.trainer@fernhill.example";
+  let browser: Browser;
+  let page: Page;
+  const pageErrors: string[] = [];
+
+  beforeAll(async () => {
+    browser = await launchChromium();
+    page = await browser.newPage({ viewport: { width: 1440, height: 900 } });
+    page.on("pageerror", (error) => pageErrors.push(error.message));
+    await signIn(page, trainer, demoPassword(trainer), "/console");
+    await page.getByRole("link", { name: "Open Fernhill Training Centre live" }).click();
+    await page.waitForURL(/\/benches\/[^/]+\/live$/);
+    await page.getByRole("toolbar", { name: "Time controls" }).waitFor();
+    await page.getByRole("button", { name: "Run at 10x" }).click();
+  });
+
+  afterAll(async () => {
+    await browser?.close();
+  });
+
+  const log = () => page.getByRole("table", { name: "Telegram log" });
+
+  /** Presses Tab (or Shift+Tab) until the focused element has this name, within `within` if given. */
+  async function tabTo(name: string, options: { back?: boolean; within?: string } = {}) {
+    for (let i = 0; i < 80; i++) {
+      await page.keyboard.press(options.back ? "Shift+Tab" : "Tab");
+      const focused = await page.evaluate((within) => {
+        const el = document.activeElement as HTMLElement | null;
+        if (el === null || (within && el.closest(within) === null)) return null;
+        const style = getComputedStyle(el);
+        return {
+          name: (el.getAttribute("aria-label") ?? el.textContent ?? "").trim(),
+          // The focus ring: the house :focus-visible outline (or a ring drawn as a shadow).
+          visible: style.outlineStyle !== "none" || style.boxShadow !== "none",
+        };
+      }, options.within);
+      if (focused?.name === name) {
+        expect(focused.visible, `focus on "${name}" is visible`).toBe(true);
+        return;
+      }
+    }
+    throw new Error(`"${name}" was not reached from the keyboard`);
+  }
+
+  it("shows every log column with its value at 1440x900 without scrolling sideways", async () => {
+    const firstWrite = log()
+      .getByRole("row")
+      .filter({ has: page.getByRole("cell", { name: "Write", exact: true }) })
+      .first();
+    await firstWrite.waitFor({ timeout: 30_000 });
+    const headers = await log().getByRole("columnheader").allInnerTexts();
+    expect(headers).toEqual([
+      "Time",
+      "Source",
+      "Destination",
+      "Service",
+      "Value",
+      "Priority",
+      "Repeat",
+      "Ack",
+      "Raw",
+    ]);
+    const layout = await log().evaluate(
+      (table, rowIndex) => {
+        const row = table.querySelector(`[role=row][aria-rowindex="${rowIndex}"]`)!;
+        const box = table.getBoundingClientRect();
+        return {
+          tableFits: table.scrollWidth <= table.clientWidth,
+          pageFits: document.documentElement.scrollWidth <= window.innerWidth,
+          cells: [...row.querySelectorAll("[role=cell]")].map((cell) => {
+            const r = cell.getBoundingClientRect();
+            return {
+              text: (cell as HTMLElement).innerText.trim(),
+              inside: r.left >= box.left && r.right <= box.right && r.width > 0,
+              whole: cell.scrollWidth <= cell.clientWidth,
+            };
+          }),
+        };
+      },
+      await firstWrite.getAttribute("aria-rowindex"),
+    );
+    expect(layout.tableFits).toBe(true);
+    expect(layout.pageFits).toBe(true);
+    expect(layout.cells).toHaveLength(9);
+    for (const cell of layout.cells) expect(cell.inside).toBe(true);
+    const [time, source, destination, service, value, priority, repeat, ack, raw] = layout.cells;
+    expect(time!.text).toMatch(/^\d+:\d{2}:\d{2}\.\d{3}$/);
+    // Sender and destination with their names, e.g. "1.1.31 Room temperature sensor".
+    expect(source!.text).toMatch(/^\d+\.\d+\.\d+ \S/);
+    expect(destination!.text).toMatch(/^\d+\/\d+\/\d+ \S/);
+    expect(service!.text).toBe("Write");
+    expect(value!.text).not.toBe("");
+    expect(value!.whole).toBe(true);
+    expect(["low", "normal", "urgent", "system"]).toContain(priority!.text);
+    expect(["yes", "no"]).toContain(repeat!.text);
+    expect(ack!.text).not.toBe("");
+    expect(raw!.text).toMatch(/^[0-9A-F]{2}( [0-9A-F]{2})+$/);
+    expect(raw!.whole).toBe(true);
+  });
+
+  it("names the line by number and name in the charts", async () => {
+    await page.getByRole("figure", { name: "Bus load of line 1.1 Lab room line" }).waitFor();
+  });
+
+  it("works from the keyboard: pause, step, run, filter, write, read and a local button", async () => {
+    const state = page.getByTestId("run-state");
+    await page.getByRole("button", { name: "Run at 10x" }).focus();
+    await tabTo("Pause", { back: true });
+    await page.keyboard.press("Enter");
+    await expect.poll(() => state.innerText()).toContain("Paused");
+    const clock = page.getByRole("status", { name: "Virtual clock" });
+    const before = await clock.innerText();
+    await tabTo("Step");
+    await page.keyboard.press("Enter");
+    await expect.poll(() => clock.innerText()).not.toBe(before);
+    await tabTo("Run", { back: true });
+    await page.keyboard.press("Enter");
+    await expect.poll(() => state.innerText()).toContain("Running");
+
+    await tabTo("Filter by address");
+    await page.keyboard.type("1/0/1");
+    await tabTo("Group address");
+    await page.keyboard.type("1/0/1");
+    await page.keyboard.press("ArrowDown");
+    await page.keyboard.press("Enter");
+    await tabTo("Write");
+    await page.keyboard.press("Enter");
+    await tabTo("Read");
+    await page.keyboard.press("Enter");
+    const rows = log().getByRole("row");
+    await rows
+      .filter({ hasText: "test tool" })
+      .filter({ has: page.getByRole("cell", { name: "Read", exact: true }) })
+      .first()
+      .waitFor({ timeout: 20_000 });
+
+    const door = '[role=group][aria-label="Buttons of Door push-button"]';
+    const label = await page.locator(`${door} button`).first().innerText();
+    await tabTo(label, { within: door });
+    await page.keyboard.press("Enter");
+    await rows.filter({ hasText: "1.1.1 Door push-button" }).first().waitFor({ timeout: 20_000 });
+    await page.getByRole("textbox", { name: "Filter by address" }).fill("");
+  });
+
+  it("remembers a folded panel and the log's height for the member", async () => {
+    const charts = page.getByRole("button", { name: "Charts", expanded: true });
+    await charts.click();
+    const handle = page.getByRole("separator", { name: "Height of the telegram log" });
+    await handle.focus();
+    const height = Number(await handle.getAttribute("aria-valuenow"));
+    await page.keyboard.press("ArrowDown");
+    await expect
+      .poll(async () => Number(await handle.getAttribute("aria-valuenow")))
+      .toBe(height + 16);
+    await page.reload();
+    await page.getByRole("toolbar", { name: "Time controls" }).waitFor();
+    await page.getByRole("button", { name: "Charts", expanded: false }).waitFor();
+    expect(Number(await handle.getAttribute("aria-valuenow"))).toBe(height + 16);
+    // Back as it was, for the scan below.
+    await page.getByRole("button", { name: "Charts", expanded: false }).click();
+    await handle.focus();
+    await page.keyboard.press("ArrowUp");
+    await page.getByRole("button", { name: "Run at 10x" }).click();
+  });
+
+  it("has no serious or critical axe-core violations while it runs", async () => {
+    await log().getByRole("row").nth(5).waitFor({ timeout: 30_000 });
+    // Open a device's local buttons and a fault so those states are scanned too.
+    await page.getByRole("combobox", { name: "Group address" }).fill("2/0/2");
+    const results = await new AxeBuilder({ page })
+      .withTags(["wcag2a", "wcag2aa", "wcag21a", "wcag21aa", "wcag22aa"])
+      .analyze();
+    const serious = results.violations
+      .filter((v) => v.impact === "serious" || v.impact === "critical")
+      .map((v) => ({
+        rule: v.id,
+        impact: v.impact,
+        nodes: v.nodes.slice(0, 5).map((n) => n.target.join(" ")),
+      }));
+    expect(serious).toEqual([]);
+  });
+
+  it("folds the navigation on a 1024x768 tablet and shows the log without scrolling", async () => {
+    await page.setViewportSize({ width: 1024, height: 768 });
+    await page.evaluate(() => window.scrollTo(0, 0));
+    const menu = page.getByRole("button", { name: "Menu" });
+    await menu.waitFor();
+    expect(await menu.getAttribute("aria-expanded")).toBe("false");
+    expect(await page.getByRole("navigation", { name: "Studio" }).isVisible()).toBe(false);
+    const rows = await log().getByRole("rowgroup").nth(1).boundingBox();
+    const pad = await page.getByRole("region", { name: "Control pad" }).boundingBox();
+    expect(rows).not.toBeNull();
+    // The log's rows start on the first screen, above the control pad.
+    expect(rows!.y + 5 * 24).toBeLessThan(768);
+    expect(rows!.x).toBeGreaterThanOrEqual(0);
+    expect(pad!.y).toBeGreaterThan(rows!.y);
+    await menu.click();
+    await page.getByRole("navigation", { name: "Studio" }).waitFor();
+    await menu.click();
+    await page.setViewportSize({ width: 1440, height: 900 });
+  });
+
+  it("throws no page errors", () => {
+    expect(pageErrors).toEqual([]);
+  });
+});
