@@ -1,7 +1,8 @@
 "use client";
 
 import { useMemo } from "react";
-import { useSimState, useThrottledSimState } from "@/components/sim/sim-context";
+import { useDeferredSimState } from "@/components/console/use-deferred-sim-state";
+import { useSimState } from "@/components/sim/sim-context";
 import { AddressRateChart } from "./address-rate-chart";
 import { BusLoadChart } from "./bus-load-chart";
 import { RoomTemperatureChart } from "./room-temperature-chart";
@@ -20,10 +21,11 @@ export function ConsoleCharts({
   lineLabels: ReadonlyMap<string, string>;
 }) {
   const bench = useSimState((s) => s.bench);
-  // Charts are the heaviest thing on the page: redraw them once a second, not per batch.
-  const rooms = useThrottledSimState((s) => s.rooms, CHART_REFRESH_MS);
-  const busLoad = useThrottledSimState((s) => s.busLoad, CHART_REFRESH_MS);
-  const rates = useThrottledSimState((s) => s.rates, CHART_REFRESH_MS);
+  // Charts are the heaviest thing on the page: redraw them once a second, not per batch,
+  // and as interruptible transitions so a press is never stuck behind a redraw.
+  const rooms = useDeferredSimState((s) => s.rooms, CHART_REFRESH_MS);
+  const busLoad = useDeferredSimState((s) => s.busLoad, CHART_REFRESH_MS);
+  const rates = useDeferredSimState((s) => s.rates, CHART_REFRESH_MS);
   const names = useMemo(
     () => Object.fromEntries((bench?.groupAddresses ?? []).map((ga) => [ga.address, ga.name])),
     [bench],

@@ -1,7 +1,7 @@
 "use client";
 
 import { memo } from "react";
-import { useSimState, useThrottledSimState } from "@/components/sim/sim-context";
+import { useSimState } from "@/components/sim/sim-context";
 import type { BenchDeviceSummary } from "@/components/sim/sim-protocol";
 import type { DeviceView } from "@/components/sim/sim-store";
 import { Mono } from "@/components/ui/mono";
@@ -9,6 +9,7 @@ import { StatusBadge } from "@/components/ui/status-badge";
 import { Flash } from "./flash";
 import { formatVirtualTime } from "./format-time";
 import { ShownValue } from "./shown-value";
+import { useDeferredSimState } from "./use-deferred-sim-state";
 
 /** Plain fields of a device's state (numbers, text, flags) for a compact summary. */
 function stateFields(state: unknown): [string, string][] {
@@ -28,11 +29,12 @@ function stateFields(state: unknown): [string, string][] {
 /**
  * Each device's state and group object values, highlighted as they change,
  * with the latest transition's name. It follows the store four times a
- * second, and a device whose snapshot did not change is not drawn again.
+ * second as an interruptible transition, and a device whose snapshot did not
+ * change is not drawn again.
  */
 export function StateInspector() {
   const bench = useSimState((s) => s.bench);
-  const devices = useThrottledSimState((s) => s.devices, 250);
+  const devices = useDeferredSimState((s) => s.devices, 250);
   if (bench === null) return null;
   return (
     <ul className="space-y-3" aria-label="Devices">
