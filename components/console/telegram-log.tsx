@@ -23,11 +23,12 @@ const DEFAULT_VIEWPORT_HEIGHT_PX = 384;
 const OVERSCAN_ROWS = 8;
 /**
  * Every column fits a 1,110 px log (1440 px window with the navigation open)
- * without scrolling sideways; names and long frames shrink first, then the raw
- * frame, down to about 890 px (a 1024 px tablet with the navigation folded).
+ * without scrolling sideways, frames of up to 11 octets whole; names and
+ * longer frames are cut with "…" (whole on hover), down to about 890 px (a
+ * 1024 px tablet with the navigation folded).
  */
 const COLUMNS =
-  "grid grid-cols-[6rem_minmax(8rem,1fr)_minmax(9rem,1.2fr)_5rem_minmax(6rem,1fr)_3.5rem_3rem_2.5rem_minmax(8rem,13.5rem)] gap-x-2";
+  "grid grid-cols-[6rem_minmax(8rem,1fr)_minmax(9rem,1.2fr)_5rem_minmax(6rem,1fr)_3.5rem_3rem_2.5rem_minmax(8rem,15rem)] gap-x-2";
 const HEADERS = [
   "Time",
   "Source",
