@@ -46,18 +46,15 @@ describe("live console layout, keyboard and accessibility in headless Chromium",
         const el = document.activeElement as HTMLElement | null;
         if (el === null || (within && el.closest(within) === null)) return null;
         const style = getComputedStyle(el);
+        // Named by aria-label, by its <label>, or by its text.
+        const labelled = (el as HTMLInputElement).labels?.[0]?.textContent ?? null;
         return {
-          name: (el.getAttribute("aria-label") ?? el.textContent ?? "").trim(),
+          name: (el.getAttribute("aria-label") ?? labelled ?? el.textContent ?? "").trim(),
           // The focus ring: the house :focus-visible outline (or a ring drawn as a shadow).
           visible: style.outlineStyle !== "none" || style.boxShadow !== "none",
         };
       }, options.within);
-      seen.push(
-        (focused?.name.slice(0, 30) ?? "(outside)") +
-          (await page.evaluate(
-            () => `<${document.activeElement?.tagName}#${document.activeElement?.id}>`,
-          )),
-      );
+      seen.push(focused?.name.slice(0, 30) ?? "(outside)");
       if (focused?.name === name) {
         expect(focused.visible, `focus on "${name}" is visible`).toBe(true);
         return;
