@@ -135,6 +135,8 @@ export async function measureConsoleInBrowser(): Promise<void> {
   const browser = await launchChromium();
   try {
     const page = await browser.newPage({ viewport: { width: 1440, height: 900 } });
+    // tsx keeps function names with an `__name` helper that the page does not have.
+    await page.addInitScript("globalThis.__name = (fn) => fn;");
     const password = demoPeople.find((p) => p.email === TRAINER)!.password;
     await page.goto(`${baseURL}/sign-in?next=${encodeURIComponent("/console")}`);
     await page.getByLabel("E-mail").fill(TRAINER);
