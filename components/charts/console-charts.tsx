@@ -1,7 +1,8 @@
 "use client";
 
-import { useMemo } from "react";
+import { useMemo, useRef } from "react";
 import { useDeferredSimState } from "@/components/console/use-deferred-sim-state";
+import { useOnScreen } from "@/components/console/use-on-screen";
 import { useSimState } from "@/components/sim/sim-context";
 import { AddressRateChart } from "./address-rate-chart";
 import { BusLoadChart } from "./bus-load-chart";
@@ -23,9 +24,12 @@ export function ConsoleCharts({
   const bench = useSimState((s) => s.bench);
   // Charts are the heaviest thing on the page: redraw them once a second, not per batch,
   // and as interruptible transitions so a press is never stuck behind a redraw.
-  const rooms = useDeferredSimState((s) => s.rooms, CHART_REFRESH_MS);
-  const busLoad = useDeferredSimState((s) => s.busLoad, CHART_REFRESH_MS);
-  const rates = useDeferredSimState((s) => s.rates, CHART_REFRESH_MS);
+  // Charts scrolled out of view do not redraw at all.
+  const box = useRef<HTMLDivElement>(null);
+  const onScreen = useOnScreen(box);
+  const rooms = useDeferredSimState((s) => s.rooms, CHART_REFRESH_MS, onScreen);
+  const busLoad = useDeferredSimState((s) => s.busLoad, CHART_REFRESH_MS, onScreen);
+  const rates = useDeferredSimState((s) => s.rates, CHART_REFRESH_MS, onScreen);
   const names = useMemo(
     () => Object.fromEntries((bench?.groupAddresses ?? []).map((ga) => [ga.address, ga.name])),
     [bench],
@@ -33,7 +37,7 @@ export function ConsoleCharts({
   if (bench === null) return null;
   const units = bench.devices.filter((d) => d.type === "indoor-unit");
   return (
-    <div className="space-y-4">
+    <div ref={box} className="space-y-4">
       {units.map((unit) => (
         <RoomTemperatureChart key={unit.id} name={unit.name} samples={rooms[unit.id] ?? []} />
       ))}

@@ -1,6 +1,6 @@
 "use client";
 
-import { memo } from "react";
+import { memo, useRef } from "react";
 import { useSimState } from "@/components/sim/sim-context";
 import type { BenchDeviceSummary } from "@/components/sim/sim-protocol";
 import type { DeviceView } from "@/components/sim/sim-store";
@@ -10,6 +10,7 @@ import { Flash } from "./flash";
 import { formatVirtualTime } from "./format-time";
 import { ShownValue } from "./shown-value";
 import { useDeferredSimState } from "./use-deferred-sim-state";
+import { useOnScreen } from "./use-on-screen";
 
 /** Plain fields of a device's state (numbers, text, flags) for a compact summary. */
 function stateFields(state: unknown): [string, string][] {
@@ -29,15 +30,16 @@ function stateFields(state: unknown): [string, string][] {
 /**
  * Each device's state and group object values, highlighted as they change,
  * with the latest transition's name. It follows the store four times a
- * second as an interruptible transition, and a device whose snapshot did not
- * change is not drawn again.
+ * second as an interruptible transition, only while on screen, and a device
+ * whose snapshot did not change is not drawn again.
  */
 export function StateInspector() {
   const bench = useSimState((s) => s.bench);
-  const devices = useDeferredSimState((s) => s.devices, 250);
+  const list = useRef<HTMLUListElement>(null);
+  const devices = useDeferredSimState((s) => s.devices, 250, useOnScreen(list));
   if (bench === null) return null;
   return (
-    <ul className="space-y-3" aria-label="Devices">
+    <ul ref={list} className="space-y-3" aria-label="Devices">
       {bench.devices.map((device) => (
         <DeviceCard key={device.id} device={device} view={devices[device.id]} />
       ))}

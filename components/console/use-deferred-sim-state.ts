@@ -14,11 +14,14 @@ import type { SimActions, SimState } from "@/components/sim/sim-store";
 export function useDeferredSimState<T>(
   selector: (state: SimState & SimActions) => T,
   intervalMs: number,
+  /** False pauses the updates (a view scrolled away); true again catches up at once. */
+  enabled = true,
 ): T {
   const store = useSimStore();
   const [value, setValue] = useState(() => selector(store.getState()));
   const read = useEffectEvent(() => selector(store.getState()));
   useEffect(() => {
+    if (!enabled) return;
     let timer: ReturnType<typeof setTimeout> | undefined;
     let lastMs = 0;
     const update = () => {
@@ -37,6 +40,6 @@ export function useDeferredSimState<T>(
       unsubscribe();
       if (timer !== undefined) clearTimeout(timer);
     };
-  }, [store, intervalMs]);
+  }, [store, intervalMs, enabled]);
   return value;
 }

@@ -12,24 +12,33 @@ import type { SimActions, SimState } from "@/components/sim/sim-store";
  * fixed wall-clock throttle. The selector must return a value held by the
  * store (or a primitive), never a new object.
  */
-export function useFrameSimState<T>(selector: (state: SimState & SimActions) => T): T {
+export function useFrameSimState<T>(
+  selector: (state: SimState & SimActions) => T,
+  /** At least this long between two renders, ms (0: every frame with a change). */
+  minIntervalMs = 0,
+): T {
   const store = useSimStore();
   const subscribe = useCallback(
     (notify: () => void) => {
       let frame: number | null = null;
-      const unsubscribe = store.subscribe(() => {
-        if (frame !== null) return;
-        frame = requestAnimationFrame(() => {
+      let lastMs = -Infinity;
+      const schedule = () => {
+        frame = requestAnimationFrame((nowMs) => {
+          if (nowMs - lastMs < minIntervalMs) return schedule();
           frame = null;
+          lastMs = nowMs;
           notify();
         });
+      };
+      const unsubscribe = store.subscribe(() => {
+        if (frame === null) schedule();
       });
       return () => {
         unsubscribe();
         if (frame !== null) cancelAnimationFrame(frame);
       };
     },
-    [store],
+    [store, minIntervalMs],
   );
   const snapshot = () => selector(store.getState());
   return useSyncExternalStore(subscribe, snapshot, snapshot);
