@@ -65,6 +65,8 @@ describe("live console in headless Chromium", () => {
       .first()
       .waitFor({ timeout: 20_000 });
     const status = page.locator('[data-device="gw-front"] [data-object="1"]');
+    // The inspector and the charts redraw only while on screen, as a person would look at them.
+    await status.scrollIntoViewIfNeeded();
     await expect.poll(() => status.innerText(), { timeout: 20_000 }).toContain("On");
   });
 
@@ -74,6 +76,7 @@ describe("live console in headless Chromium", () => {
     });
     await chart.waitFor();
     await write("2/0/2", "26");
+    await chart.scrollIntoViewIfNeeded();
     await expect.poll(() => chart.getAttribute("data-setpoint"), { timeout: 20_000 }).toBe("26");
     await filterLog("2/1/2");
     await logRows().filter({ hasText: "26.00 °C" }).first().waitFor({ timeout: 20_000 });
