@@ -10,7 +10,11 @@ import {
   XAxis,
   YAxis,
 } from "recharts";
+import { useMemo } from "react";
 import type { BusLoadSample } from "@/components/sim/sim-protocol";
+
+/** Bars drawn: one per virtual second; older seconds still count for the peak. */
+const SECONDS_SHOWN = 120;
 
 /**
  * Bus load per virtual second on one line, with the line's maximum (100 %,
@@ -19,23 +23,32 @@ import type { BusLoadSample } from "@/components/sim/sim-protocol";
  */
 export function BusLoadChart({
   line,
+  label,
   samples,
 }: {
+  /** The line's id, as the samples name it. */
   line: string;
+  /** The line as people say it: "1.1 Lab room line". */
+  label: string;
   samples: readonly BusLoadSample[];
 }) {
-  const data = samples
-    .filter((s) => s.line === line)
-    .map((s) => ({
-      second: s.second,
-      load: Math.round(s.loadPercent * 10) / 10,
-      telegrams: s.telegrams,
-    }));
-  const peak = data.reduce((max, s) => Math.max(max, s.load), 0);
+  const { data, peak } = useMemo(() => {
+    const own = samples.filter((s) => s.line === line);
+    return {
+      // The peak is over every kept second; the bars show the latest ones a chart can draw.
+      peak: own.reduce((max, s) => Math.max(max, Math.round(s.loadPercent * 10) / 10), 0),
+      data: own.slice(-SECONDS_SHOWN).map((s) => ({
+        second: s.second,
+        load: Math.round(s.loadPercent * 10) / 10,
+        telegrams: s.telegrams,
+      })),
+    };
+  }, [samples, line]);
   return (
-    <figure aria-label={`Bus load of line ${line}`} data-peak={peak}>
+    <figure aria-label={`Bus load of line ${label}`} data-peak={peak}>
       <figcaption className="mb-1 text-xs text-ink-soft">
-        Line {line}: peak {peak.toFixed(1)} % of the line maximum in one second
+        Line {label}: peak {peak.toFixed(1)} % of the line maximum in one second (last{" "}
+        {SECONDS_SHOWN} s shown)
       </figcaption>
       <ResponsiveContainer width="100%" height={160}>
         <BarChart data={data} margin={{ top: 12, right: 8, bottom: 4, left: 0 }}>

@@ -1,20 +1,35 @@
 "use client";
 
-import { useMemo } from "react";
-import { useSimState, useThrottledSimState } from "@/components/sim/sim-context";
+import { useMemo, useRef } from "react";
+import { useDeferredSimState } from "@/components/console/use-deferred-sim-state";
+import { useOnScreen } from "@/components/console/use-on-screen";
+import { useSimState } from "@/components/sim/sim-context";
 import { AddressRateChart } from "./address-rate-chart";
 import { BusLoadChart } from "./bus-load-chart";
 import { RoomTemperatureChart } from "./room-temperature-chart";
 
 const CHART_REFRESH_MS = 1000;
 
-/** The console's charts, fed from the store: rooms per indoor unit, bus load per line, rates per address. */
-export function ConsoleCharts() {
+/**
+ * The console's charts, fed from the store: rooms per indoor unit, bus load
+ * per line, rates per address. Each chart works out its data only when its
+ * samples changed, and draws a few hundred points at most.
+ */
+export function ConsoleCharts({
+  lineLabels,
+}: {
+  /** "1.1 Lab room line" by line id. */
+  lineLabels: ReadonlyMap<string, string>;
+}) {
   const bench = useSimState((s) => s.bench);
-  // Charts are the heaviest thing on the page: redraw them once a second, not per batch.
-  const rooms = useThrottledSimState((s) => s.rooms, CHART_REFRESH_MS);
-  const busLoad = useThrottledSimState((s) => s.busLoad, CHART_REFRESH_MS);
-  const rates = useThrottledSimState((s) => s.rates, CHART_REFRESH_MS);
+  // Charts are the heaviest thing on the page: redraw them once a second, not per batch,
+  // and as interruptible transitions so a press is never stuck behind a redraw.
+  // Charts scrolled out of view do not redraw at all.
+  const box = useRef<HTMLDivElement>(null);
+  const onScreen = useOnScreen(box);
+  const rooms = useDeferredSimState((s) => s.rooms, CHART_REFRESH_MS, onScreen);
+  const busLoad = useDeferredSimState((s) => s.busLoad, CHART_REFRESH_MS, onScreen);
+  const rates = useDeferredSimState((s) => s.rates, CHART_REFRESH_MS, onScreen);
   const names = useMemo(
     () => Object.fromEntries((bench?.groupAddresses ?? []).map((ga) => [ga.address, ga.name])),
     [bench],
@@ -22,12 +37,17 @@ export function ConsoleCharts() {
   if (bench === null) return null;
   const units = bench.devices.filter((d) => d.type === "indoor-unit");
   return (
-    <div className="space-y-4">
+    <div ref={box} className="space-y-4">
       {units.map((unit) => (
         <RoomTemperatureChart key={unit.id} name={unit.name} samples={rooms[unit.id] ?? []} />
       ))}
       {bench.lines.map((line) => (
-        <BusLoadChart key={line.id} line={line.id} samples={busLoad} />
+        <BusLoadChart
+          key={line.id}
+          line={line.id}
+          label={lineLabels.get(line.id) ?? line.name}
+          samples={busLoad}
+        />
       ))}
       <AddressRateChart samples={rates} names={names} />
     </div>

@@ -10,7 +10,12 @@ import {
   XAxis,
   YAxis,
 } from "recharts";
+import { useMemo } from "react";
 import type { RoomSample } from "@/components/sim/sim-protocol";
+import { thinSamples } from "./thin-samples";
+
+/** Points drawn per line: more than a chart of this width can show apart. */
+const MAX_POINTS = 240;
 
 const COPPER = "#b3662c";
 const TEAL = "#1e8377";
@@ -23,11 +28,15 @@ export function RoomTemperatureChart({
   name: string;
   samples: readonly RoomSample[];
 }) {
-  const data = samples.map((s) => ({
-    minute: s.timeUs / 60_000_000,
-    roomC: Math.round(s.roomC * 100) / 100,
-    setpointC: s.setpointC,
-  }));
+  const data = useMemo(
+    () =>
+      thinSamples(samples, MAX_POINTS).map((s) => ({
+        minute: s.timeUs / 60_000_000,
+        roomC: Math.round(s.roomC * 100) / 100,
+        setpointC: s.setpointC,
+      })),
+    [samples],
+  );
   const latest = samples.at(-1);
   return (
     <figure

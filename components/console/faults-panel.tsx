@@ -1,12 +1,13 @@
 "use client";
 
 import { useState } from "react";
-import { useSimSend, useSimState, useThrottledSimState } from "@/components/sim/sim-context";
+import { useSimSend, useSimState } from "@/components/sim/sim-context";
 import { Button } from "@/components/ui/button";
 import { Mono } from "@/components/ui/mono";
 import { StatusBadge } from "@/components/ui/status-badge";
 import { BUS_FAULTS, UNIT_LINK_BROKEN } from "@/engine";
 import { defaultDptValue } from "./dpt-value";
+import { useFrameSimState } from "./use-frame-sim-state";
 
 const SENSOR_OPEN = "unit.sensor-open";
 const fieldClass = "rounded-md border border-paper-line bg-white px-2 py-1 text-sm";
@@ -15,7 +16,14 @@ const fieldClass = "rounded-md border border-paper-line bg-white px-2 py-1 text-
 export function FaultsPanel() {
   const bench = useSimState((s) => s.bench);
   const faults = useSimState((s) => s.faults);
-  const devices = useThrottledSimState((s) => s.devices, 250);
+  // Only which windows are open, as one string: the panel re-renders when one opens or closes,
+  // not with every batch of device snapshots.
+  const openContacts = useFrameSimState((s) =>
+    Object.values(s.devices)
+      .filter((d) => (d.state as { open?: boolean } | null)?.open === true)
+      .map((d) => d.id)
+      .join(" "),
+  );
   const send = useSimSend();
   const [disconnect, setDisconnect] = useState("");
   const [floodAddress, setFloodAddress] = useState("");
@@ -46,7 +54,10 @@ export function FaultsPanel() {
           <ul className="mt-1 space-y-1">
             {faults.map((f) => (
               <li key={`${f.target}-${f.fault}`} className="flex items-center gap-2">
-                <StatusBadge tone="fault">{f.fault}</StatusBadge>
+                <StatusBadge tone="fault">
+                  <span aria-hidden="true">⚠&nbsp;</span>
+                  {f.fault}
+                </StatusBadge>
                 <span>{nameOf(f.target)}</span>
                 <span className="text-xs text-ink-soft">
                   {f.by === "user" ? "injected" : "raised by the device"}
@@ -110,8 +121,7 @@ export function FaultsPanel() {
           <h3 className="text-xs font-medium text-ink-soft">Windows and sensors</h3>
           <ul className="mt-1 space-y-1">
             {contacts.map((device) => {
-              const open =
-                (devices[device.id]?.state as { open?: boolean } | undefined)?.open === true;
+              const open = openContacts.split(" ").includes(device.id);
               return (
                 <li key={device.id} className="flex items-center gap-2">
                   <span className="flex-1">{device.name}</span>

@@ -63,6 +63,7 @@ function LiveCanvasBody() {
               <p className="mt-1 flex flex-wrap gap-1">
                 {deviceFaults.map((fault) => (
                   <StatusBadge key={fault} tone="fault">
+                    <span aria-hidden="true">⚠&nbsp;</span>
                     {fault}
                   </StatusBadge>
                 ))}

@@ -1,39 +1,55 @@
 "use client";
 
-import { useEffect } from "react";
+import { useEffect, useMemo } from "react";
 import { ConsoleCharts } from "@/components/charts/console-charts";
 import { SimProvider, useSimState, useSimStore } from "@/components/sim/sim-context";
 import { Panel } from "@/components/ui/panel";
+import { LAYOUT_BOUNDS } from "./console-layout";
 import { ControlPad } from "./control-pad";
+import { DockPanel } from "./dock-panel";
 import { FaultsPanel } from "./faults-panel";
+import { lineLabels } from "./line-labels";
 import { LiveCanvas } from "./live-canvas";
 import { RecordPanel } from "./record-panel";
+import { ResizeHandle } from "./resize-handle";
 import { SceneDryRun } from "./scene-dry-run";
 import { StateInspector } from "./state-inspector";
 import { TelegramLog } from "./telegram-log";
 import { TimeControls } from "./time-controls";
+import { useConsoleLayout } from "./use-console-layout";
 
 /**
  * The live console for one bench revision: the engine runs in a Web Worker
- * (components/sim) and every panel here reads the store it feeds.
+ * (components/sim) and every panel here reads the store it feeds. `memberId`
+ * keys the remembered layout, so each member gets back their own.
  */
 export function LiveConsole({
   benchId,
   document,
+  memberId,
   seed = 1,
 }: {
   benchId: string;
   document: unknown;
+  memberId?: string;
   seed?: number;
 }) {
   return (
     <SimProvider bench={document} seed={seed}>
-      <ConsoleBody benchId={benchId} document={document} />
+      <ConsoleBody benchId={benchId} document={document} memberId={memberId} />
     </SimProvider>
   );
 }
 
-function ConsoleBody({ benchId, document }: { benchId: string; document: unknown }) {
+function ConsoleBody({
+  benchId,
+  document,
+  memberId,
+}: {
+  benchId: string;
+  document: unknown;
+  memberId?: string;
+}) {
   const status = useSimState((s) => s.status);
   const loadErrors = useSimState((s) => s.loadErrors);
   if (status === "failed") {
@@ -51,40 +67,126 @@ function ConsoleBody({ benchId, document }: { benchId: string; document: unknown
     );
   }
   if (status === "idle") return <p className="text-sm text-ink-soft">Starting the simulation…</p>;
+  return <ConsoleWorkbench benchId={benchId} document={document} memberId={memberId} />;
+}
+
+/**
+ * The log is the wide main area, full width under the time controls so every
+ * column fits; the other panels sit in a dock below it: control pad, faults
+ * and scene dry-run on the left, the canvas and charts in the middle, the
+ * inspector on the right on wide screens (under the canvas on narrower ones,
+ * one column on a tablet). The log's height and the side columns' widths
+ * resize with the handles between them; every dock panel folds.
+ */
+function ConsoleWorkbench({
+  benchId,
+  document,
+  memberId,
+}: {
+  benchId: string;
+  document: unknown;
+  memberId?: string;
+}) {
+  const { layout, resize, toggle } = useConsoleLayout(memberId);
+  const lines = useMemo(() => lineLabels(document), [document]);
+  const collapsed = layout.collapsed;
+  const columns = {
+    "--console-left": `${layout.leftWidthPx}px`,
+    "--console-right": `${layout.rightWidthPx}px`,
+  } as React.CSSProperties;
+
   return (
-    <div className="space-y-4">
+    <div className="space-y-3">
       <div className="flex flex-wrap items-center justify-between gap-3">
         <TimeControls />
         <RecordPanel benchId={benchId} />
       </div>
       <ErrorLine />
-      <div className="grid gap-4 xl:grid-cols-[22rem_minmax(0,1fr)_24rem]">
-        <div className="space-y-4">
-          <Panel title="Control pad">
-            <ControlPad />
-          </Panel>
-          <Panel title="Faults">
-            <FaultsPanel />
-          </Panel>
-          <Panel title="Scene dry-run">
-            <SceneDryRun />
-          </Panel>
-        </div>
-        <div className="min-w-0 space-y-4">
-          {/* Stacked, not side by side: both need the column's width to be readable. */}
-          <Panel title="Bench">
-            <LiveCanvas key={benchId} document={document} />
-          </Panel>
-          <Panel title="Telegram log">
-            <TelegramLog />
-          </Panel>
-          <Panel title="Charts">
-            <ConsoleCharts />
-          </Panel>
-        </div>
-        <Panel title="State inspector">
-          <StateInspector />
+      <div>
+        <Panel title="Telegram log" className="p-3 md:p-4">
+          <TelegramLog heightPx={layout.logHeightPx} />
         </Panel>
+        <ResizeHandle
+          label="Height of the telegram log"
+          orientation="horizontal"
+          valuePx={layout.logHeightPx}
+          minPx={LAYOUT_BOUNDS.logHeightPx.min}
+          maxPx={LAYOUT_BOUNDS.logHeightPx.max}
+          onResize={(px) => resize("logHeightPx", px)}
+          className="w-full"
+        />
+      </div>
+      <div
+        style={columns}
+        className="grid items-start gap-y-4 xl:grid-cols-[var(--console-left)_0.75rem_minmax(0,1fr)] 2xl:grid-cols-[var(--console-left)_0.75rem_minmax(0,1fr)_0.75rem_var(--console-right)]"
+      >
+        <div className="min-w-0 space-y-4 xl:col-start-1 xl:row-span-2 xl:row-start-1">
+          <DockPanel
+            title="Control pad"
+            collapsed={collapsed["control-pad"] === true}
+            onToggle={() => toggle("control-pad")}
+          >
+            <ControlPad />
+          </DockPanel>
+          <DockPanel
+            title="Faults"
+            collapsed={collapsed.faults === true}
+            onToggle={() => toggle("faults")}
+          >
+            <FaultsPanel />
+          </DockPanel>
+          <DockPanel
+            title="Scene dry-run"
+            collapsed={collapsed["scene-dry-run"] === true}
+            onToggle={() => toggle("scene-dry-run")}
+          >
+            <SceneDryRun />
+          </DockPanel>
+        </div>
+        <ResizeHandle
+          label="Width of the control pad column"
+          orientation="vertical"
+          valuePx={layout.leftWidthPx}
+          minPx={LAYOUT_BOUNDS.leftWidthPx.min}
+          maxPx={LAYOUT_BOUNDS.leftWidthPx.max}
+          onResize={(px) => resize("leftWidthPx", px)}
+          className="hidden self-stretch xl:col-start-2 xl:row-span-2 xl:row-start-1 xl:flex"
+        />
+        <div className="min-w-0 space-y-4 xl:col-start-3 xl:row-start-1">
+          <DockPanel
+            title="Bench"
+            collapsed={collapsed.bench === true}
+            onToggle={() => toggle("bench")}
+          >
+            <LiveCanvas key={benchId} document={document} />
+          </DockPanel>
+          <DockPanel
+            title="Charts"
+            collapsed={collapsed.charts === true}
+            onToggle={() => toggle("charts")}
+          >
+            <ConsoleCharts lineLabels={lines} />
+          </DockPanel>
+        </div>
+        <ResizeHandle
+          label="Width of the state inspector column"
+          orientation="vertical"
+          direction={-1}
+          valuePx={layout.rightWidthPx}
+          minPx={LAYOUT_BOUNDS.rightWidthPx.min}
+          maxPx={LAYOUT_BOUNDS.rightWidthPx.max}
+          onResize={(px) => resize("rightWidthPx", px)}
+          className="hidden self-stretch 2xl:col-start-4 2xl:row-span-2 2xl:row-start-1 2xl:flex"
+        />
+        <div className="min-w-0 xl:col-start-3 xl:row-start-2 2xl:col-start-5 2xl:row-span-2 2xl:row-start-1">
+          <DockPanel
+            title="State inspector"
+            collapsed={collapsed.inspector === true}
+            onToggle={() => toggle("inspector")}
+          >
+            <StateInspector />
+          </DockPanel>
+        </div>
       </div>
     </div>
   );

@@ -79,7 +79,7 @@ export function SceneDryRun() {
         </Button>
       </div>
       {result ? (
-        <div
+        <section
           aria-label="Scene summary"
           className="rounded-md border border-paper-line bg-white/70 p-3"
         >
@@ -99,11 +99,12 @@ export function SceneDryRun() {
             ) : null}
             {result.silent.map((device) => (
               <li key={device.deviceId} className="text-fault">
+                <span aria-hidden="true">⚠ </span>
                 {device.name} listens to the address but did not respond.
               </li>
             ))}
           </ul>
-        </div>
+        </section>
       ) : null}
     </div>
   );

@@ -1,8 +1,9 @@
 "use client";
 
-import { useEffect, useMemo, useRef, useState } from "react";
+import { useVirtualizer } from "@tanstack/react-virtual";
+import { memo, useLayoutEffect, useMemo, useRef, useState } from "react";
 import { useSimState, useSimStore } from "@/components/sim/sim-context";
-import type { LogRow } from "@/components/sim/sim-protocol";
+import type { BenchSummary, LogRow } from "@/components/sim/sim-protocol";
 import { Button } from "@/components/ui/button";
 import { cx } from "@/components/ui/cx";
 import { formatVirtualTime } from "./format-time";
@@ -13,13 +14,33 @@ import {
   logRowsToCsv,
   type LogFilter,
 } from "./log-filter";
+import { ShownValue } from "./shown-value";
+import { useFrameSimState } from "./use-frame-sim-state";
 
-/** Fixed row height: the windowing below depends on it. */
+/** Fixed row height: the virtualizer's estimate is exact, so no row is measured. */
 export const LOG_ROW_HEIGHT_PX = 24;
-const VIEWPORT_HEIGHT_PX = 384;
+const DEFAULT_VIEWPORT_HEIGHT_PX = 384;
 const OVERSCAN_ROWS = 8;
+const LOG_REFRESH_MS = 100;
+/**
+ * Every column fits a 1,110 px log (1440 px window with the navigation open)
+ * without scrolling sideways, frames of up to 11 octets whole; names and
+ * longer frames are cut with "…" (whole on hover), down to about 890 px (a
+ * 1024 px tablet with the navigation folded).
+ */
 const COLUMNS =
-  "grid grid-cols-[6.5rem_4.5rem_13rem_8.5rem_minmax(6rem,1fr)_3.5rem_1.5rem_2.5rem_12rem] gap-x-2";
+  "grid grid-cols-[6rem_minmax(8rem,1fr)_minmax(9rem,1.2fr)_5rem_minmax(6rem,1fr)_3.5rem_3rem_2.5rem_minmax(8rem,15rem)] gap-x-2";
+const HEADERS = [
+  "Time",
+  "Source",
+  "Destination",
+  "Service",
+  "Value",
+  "Priority",
+  "Repeat",
+  "Ack",
+  "Raw",
+] as const;
 
 const SERVICE_LABEL: Record<string, string> = {
   GroupValue_Write: "Write",
@@ -28,20 +49,27 @@ const SERVICE_LABEL: Record<string, string> = {
 };
 
 /**
- * The telegram log: every telegram (and fault) with its time, addresses,
- * service, decoded value, priority, repeat flag, acknowledgement and raw
- * frame. Rows have a fixed height and only the visible window is rendered,
- * so 100,000 rows scroll as smoothly as 100; it re-renders once per batch.
+ * The telegram log: every telegram (and fault) with its time, sender and
+ * destination with their names, service, decoded value, priority, repeat
+ * flag, acknowledgement and raw frame. Rows have a fixed height and only the
+ * visible window is rendered (@tanstack/react-virtual), so 100,000 rows
+ * scroll as smoothly as 100; new rows show at most ten times a second.
  */
-export function TelegramLog() {
+export function TelegramLog({
+  heightPx = DEFAULT_VIEWPORT_HEIGHT_PX,
+}: {
+  /** Height of the scrolling rows, px; the console's layout resizes it. */
+  heightPx?: number;
+}) {
   const store = useSimStore();
-  const version = useSimState((s) => s.logVersion);
+  // Ten redraws a second follow a busy bus as well as sixty, for a sixth of the page's work.
+  const version = useFrameSimState((s) => s.logVersion, LOG_REFRESH_MS);
   const bench = useSimState((s) => s.bench);
-  const dropped = useSimState((s) => s.droppedRows);
+  const dropped = useFrameSimState((s) => s.droppedRows);
   const [filter, setFilter] = useState<LogFilter>(emptyLogFilter);
   const [follow, setFollow] = useState(true);
-  const [scrollTop, setScrollTop] = useState(0);
   const viewport = useRef<HTMLDivElement>(null);
+  const senders = useMemo(() => senderNames(bench), [bench]);
 
   const log = store.getState().log;
   const filtered = useMemo(
@@ -50,19 +78,24 @@ export function TelegramLog() {
   );
   // Re-rendered when `version` moves (the ring gained rows); `update` only scans the new rows.
   const count = filtered === null ? log.length : filtered.update(log);
-
-  useEffect(() => {
-    if (follow && viewport.current) viewport.current.scrollTop = count * LOG_ROW_HEIGHT_PX;
-  }, [follow, count, version]);
-
-  const first = Math.max(0, Math.floor(scrollTop / LOG_ROW_HEIGHT_PX) - OVERSCAN_ROWS);
-  const last = Math.min(
-    count,
-    Math.ceil((scrollTop + VIEWPORT_HEIGHT_PX) / LOG_ROW_HEIGHT_PX) + OVERSCAN_ROWS,
-  );
   const rowAt = (i: number): LogRow => log.at(filtered === null ? i : filtered.ringIndex(i, log));
-  const visible: { index: number; row: LogRow }[] = [];
-  for (let i = first; i < last; i++) visible.push({ index: i, row: rowAt(i) });
+
+  // The virtualizer hands back fresh functions each render; this component is not compiler-memoised.
+  // eslint-disable-next-line react-hooks/incompatible-library
+  const virtualizer = useVirtualizer({
+    count,
+    getScrollElement: () => viewport.current,
+    estimateSize: () => LOG_ROW_HEIGHT_PX,
+    overscan: OVERSCAN_ROWS,
+    getItemKey: (i) => rowAt(i).seq,
+    // Before the first measurement (and in tests without layout) assume the set height.
+    initialRect: { width: 0, height: heightPx },
+  });
+
+  // Following the newest row: jump to the end before the browser paints.
+  useLayoutEffect(() => {
+    if (follow && viewport.current) viewport.current.scrollTop = count * LOG_ROW_HEIGHT_PX;
+  }, [follow, count, version, heightPx]);
 
   const exportCsv = () => {
     const rows: LogRow[] = [];
@@ -126,52 +159,63 @@ export function TelegramLog() {
         <Button variant="secondary" onClick={exportCsv} disabled={count === 0}>
           Export CSV
         </Button>
-        <span className="ml-auto text-xs text-ink-soft" aria-live="off">
+        <span className="ml-auto text-xs text-ink-soft">
           <span data-testid="log-count">{count}</span> rows{filtered ? " match" : ""}
           {dropped > 0 ? ` · ${dropped} dropped while the page caught up` : ""}
         </span>
       </div>
-      <div className="overflow-x-auto rounded-md border border-paper-line bg-white">
-        <div className="min-w-[62rem]">
+      <div
+        role="table"
+        aria-label="Telegram log"
+        aria-rowcount={count + 1}
+        className="overflow-x-auto rounded-md border border-paper-line bg-white"
+      >
+        <div role="rowgroup">
           <div
+            role="row"
+            aria-rowindex={1}
             className={cx(
               COLUMNS,
               "border-b border-paper-line bg-paper-deep px-2 py-1 text-xs font-medium text-ink-soft",
             )}
-            role="row"
           >
-            <span>Time</span>
-            <span>Source</span>
-            <span>Destination</span>
-            <span>Service</span>
-            <span>Value</span>
-            <span>Priority</span>
-            <span title="Repeat flag">R</span>
-            <span>Ack</span>
-            <span>Raw</span>
+            {HEADERS.map((header) => (
+              <span key={header} role="columnheader" className="truncate">
+                {header}
+              </span>
+            ))}
           </div>
-          <div
-            ref={viewport}
-            role="log"
-            aria-label="Telegram log"
-            className="relative overflow-y-auto"
-            style={{ height: VIEWPORT_HEIGHT_PX }}
-            onScroll={(e) => {
-              const target = e.currentTarget;
-              setScrollTop(target.scrollTop);
-              // Scrolling up away from the newest row pauses following, as a reader expects.
-              if (
-                follow &&
-                target.scrollTop + target.clientHeight < target.scrollHeight - 2 * LOG_ROW_HEIGHT_PX
-              )
-                setFollow(false);
-            }}
-          >
-            <div style={{ height: count * LOG_ROW_HEIGHT_PX }}>
-              {visible.map(({ index, row }) => (
-                <LogRowView key={row.seq} row={row} top={index * LOG_ROW_HEIGHT_PX} />
-              ))}
-            </div>
+        </div>
+        {/* Focusable so the rows scroll from the keyboard (arrows, Page Up/Down, Home/End). */}
+        <div
+          ref={viewport}
+          role="rowgroup"
+          tabIndex={0}
+          className="relative overflow-y-auto focus-visible:outline-offset-[-2px]"
+          style={{ height: heightPx }}
+          onScroll={(e) => {
+            const target = e.currentTarget;
+            // Scrolling up away from the newest row pauses following, as a reader expects.
+            if (
+              follow &&
+              target.scrollTop + target.clientHeight < target.scrollHeight - 2 * LOG_ROW_HEIGHT_PX
+            )
+              setFollow(false);
+          }}
+        >
+          <div style={{ height: virtualizer.getTotalSize() }}>
+            {virtualizer.getVirtualItems().map((item) => {
+              const row = rowAt(item.index);
+              return (
+                <LogRowView
+                  key={item.key}
+                  row={row}
+                  index={item.index}
+                  top={item.start}
+                  sender={senders.get(row.deviceId) ?? ""}
+                />
+              );
+            })}
           </div>
         </div>
       </div>
@@ -179,11 +223,33 @@ export function TelegramLog() {
   );
 }
 
-function LogRowView({ row, top }: { row: LogRow; top: number }) {
+/** Device id -> name; the test tool sends with no device id. */
+function senderNames(bench: BenchSummary | null): Map<string, string> {
+  const names = new Map<string, string>([["", "test tool"]]);
+  for (const device of bench?.devices ?? []) names.set(device.id, device.name);
+  return names;
+}
+
+/** One row; rows are immutable in the ring, so a row already on screen never re-renders. */
+const LogRowView = memo(function LogRowView({
+  row,
+  index,
+  top,
+  sender,
+}: {
+  row: LogRow;
+  index: number;
+  top: number;
+  sender: string;
+}) {
   const fault = row.kind === "fault";
+  const service = fault ? row.service : (SERVICE_LABEL[row.service] ?? row.service);
+  const source = fault ? row.source : `${row.source} ${sender}`;
+  const destination = `${row.destination} ${row.destinationName}`;
   return (
     <div
       role="row"
+      aria-rowindex={index + 2}
       data-kind={row.kind}
       className={cx(
         COLUMNS,
@@ -192,26 +258,44 @@ function LogRowView({ row, top }: { row: LogRow; top: number }) {
       )}
       style={{ top, height: LOG_ROW_HEIGHT_PX }}
     >
-      <span className="tabular-nums">{formatVirtualTime(row.timeUs)}</span>
-      <span className="truncate">{row.source}</span>
-      <span className="truncate">
-        <span className="text-copper-deep">{row.destination}</span>{" "}
+      <span role="cell" className="tabular-nums">
+        {formatVirtualTime(row.timeUs)}
+      </span>
+      <span role="cell" className="truncate" title={source}>
+        {fault ? (
+          <span className="font-sans">{row.source}</span>
+        ) : (
+          <>
+            {row.source} <span className="font-sans">{sender}</span>
+          </>
+        )}
+      </span>
+      <span role="cell" className="truncate" title={destination}>
+        <span className={fault ? undefined : "text-copper-deep"}>{row.destination}</span>{" "}
         <span className="font-sans">{row.destinationName}</span>
       </span>
-      <span className="truncate font-sans">
-        {fault ? row.service : (SERVICE_LABEL[row.service] ?? row.service)}
+      <span role="cell" className="truncate font-sans">
+        {/* A fault row says so in words and with a mark, not by its colour alone. */}
+        {fault ? (
+          <span aria-hidden="true">{row.service.endsWith("cleared") ? "✓ " : "⚠ "}</span>
+        ) : null}
+        {service}
       </span>
-      <span className="truncate" title={row.value}>
-        {row.value}
+      <span role="cell" className="truncate" title={row.value}>
+        <ShownValue value={row.value} />
       </span>
-      <span className="font-sans">{row.priority}</span>
-      <span>{row.kind === "telegram" ? (row.repeated ? "R" : "·") : ""}</span>
-      <span className={row.ack === "ack" ? "text-teal" : row.ack === "" ? "" : "text-fault"}>
+      <span role="cell" className="font-sans">
+        {row.priority}
+      </span>
+      <span role="cell" className="font-sans">
+        {row.kind === "telegram" ? (row.repeated ? "yes" : "no") : ""}
+      </span>
+      <span role="cell" className={row.ack === "ack" ? "text-teal" : undefined}>
         {row.ack}
       </span>
-      <span className="truncate text-ink-soft" title={row.rawHex}>
+      <span role="cell" className="truncate text-ink-soft" title={row.rawHex}>
         {row.rawHex}
       </span>
     </div>
   );
-}
+});

@@ -38,6 +38,8 @@ export function ValueEditor({
                   : "bg-white px-3 py-1 text-sm text-ink"
               }
             >
+              {/* The chosen side carries a mark, not only its colour. */}
+              {value === option ? <span aria-hidden="true">✓ </span> : null}
               {option ? editor.onLabel : editor.offLabel}
             </button>
           ))}

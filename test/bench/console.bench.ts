@@ -7,7 +7,9 @@
  * plain which side would limit a flooded bus. Run: npm run bench:console
  *
  * Figures are medians of several rounds in CPU time of this process (the
- * machine is shared); wall-clock rates are printed too.
+ * machine is shared); wall-clock rates are printed too. Then the live console
+ * in Chromium (console-browser.ts): long tasks and press-to-screen times at
+ * 10x and Max. BENCH_CONSOLE_BROWSER=0 skips the browser part.
  */
 import { loadavg } from "node:os";
 import { performance } from "node:perf_hooks";
@@ -16,6 +18,7 @@ import { parseSimMessage, type SimMessage } from "../../engine";
 import { createSimStore } from "../../components/sim/sim-store";
 import { trainingRoomBench } from "../harness/training-room-bench";
 import { emptyLogFilter, FilteredLog } from "../../components/console/log-filter";
+import { measureConsoleInBrowser } from "./console-browser";
 
 const TELEGRAMS = 20_000;
 const ROUNDS = 5;
@@ -117,3 +120,6 @@ console.log(
 console.log(
   `a saturated TP1 line carries about 50 short telegrams/s (knx-reference.md, TP1 timing): the page absorbs ${Math.round(absorbCpu / 50)}x that`,
 );
+
+// The same page side in the real browser: long tasks and press-to-screen times (test/bench/console-browser.ts).
+if (process.env.BENCH_CONSOLE_BROWSER !== "0") await measureConsoleInBrowser();

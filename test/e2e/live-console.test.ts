@@ -40,7 +40,7 @@ describe("live console in headless Chromium", () => {
     await input.fill(address);
     await page
       .getByRole("listbox", { name: "Matching group addresses" })
-      .getByRole("button")
+      .getByRole("option")
       .first()
       .click();
     if (fill !== undefined) await page.getByRole("spinbutton", { name: "Value" }).fill(fill);
@@ -48,7 +48,7 @@ describe("live console in headless Chromium", () => {
   }
 
   function logRows(): Locator {
-    return page.getByRole("log", { name: "Telegram log" }).getByRole("row");
+    return page.getByRole("table", { name: "Telegram log" }).getByRole("row");
   }
 
   async function filterLog(address: string, service = "") {
@@ -65,6 +65,8 @@ describe("live console in headless Chromium", () => {
       .first()
       .waitFor({ timeout: 20_000 });
     const status = page.locator('[data-device="gw-front"] [data-object="1"]');
+    // The inspector and the charts redraw only while on screen, as a person would look at them.
+    await status.scrollIntoViewIfNeeded();
     await expect.poll(() => status.innerText(), { timeout: 20_000 }).toContain("On");
   });
 
@@ -74,6 +76,7 @@ describe("live console in headless Chromium", () => {
     });
     await chart.waitFor();
     await write("2/0/2", "26");
+    await chart.scrollIntoViewIfNeeded();
     await expect.poll(() => chart.getAttribute("data-setpoint"), { timeout: 20_000 }).toBe("26");
     await filterLog("2/1/2");
     await logRows().filter({ hasText: "26.00 °C" }).first().waitFor({ timeout: 20_000 });

@@ -31,7 +31,7 @@ export default async function LiveBenchPage({ params }: { params: Promise<{ benc
   return (
     <div className="flex flex-col gap-4 px-4 py-6 md:px-6">
       <PageHeader title={bench.name} lead={`Live console · revision ${revision.number}`} />
-      <LiveConsole benchId={bench.id} document={document} />
+      <LiveConsole benchId={bench.id} document={document} memberId={session.userId} />
       <SimulatorCaution />
     </div>
   );
