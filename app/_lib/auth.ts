@@ -19,6 +19,12 @@ import type { SessionPayload } from "./session";
  * so one machine cannot try many). There is no lock on the account as a whole:
  * whoever knows an address could otherwise lock its owner out; failures from
  * one address hold back that address only.
+ *
+ * Without a trusted proxy the client address is unknown (Next does not tell a
+ * route handler who connected), so every client would share one pair per
+ * account and refusing it would lock the owner out again. Then a failure
+ * streak on an account slows each further attempt down instead
+ * (`unknownAddressDelayMs`), and the right password still signs in.
  */
 export const signInLimits = {
   windowMs: 15 * 60 * 1000,
@@ -29,7 +35,26 @@ export const signInLimits = {
   failuresPerAccount: 5,
   /** The 21st attempt from one address within the window is refused. */
   failuresPerAddress: 20,
+  /** From an unknown address: the first slowed attempt waits this long, and each further failure doubles it. */
+  firstDelayMs: 1_000,
+  /** From an unknown address: the longest wait before an attempt is checked. */
+  longestDelayMs: 16_000,
 } as const;
+
+/**
+ * How long an attempt on an account waits before its password is checked when
+ * the client address is unknown: nothing until `failuresPerAccount` recent
+ * failures, then 1 s doubling per failure up to 16 s. Slowing down, not
+ * refusing, so someone who knows an e-mail address cannot lock its owner out;
+ * with bcrypt at cost 12 on top, guessing stays slow.
+ */
+export function unknownAddressDelayMs(recentFailures: number): number {
+  const over = recentFailures - signInLimits.failuresPerAccount;
+  if (over < 0) return 0;
+  return Math.min(signInLimits.longestDelayMs, signInLimits.firstDelayMs * 2 ** Math.min(over, 30));
+}
+
+const sleep = (ms: number) => new Promise<void>((resolve) => setTimeout(resolve, ms));
 
 /**
  * Password-reset request limits: every request counts (each may send a mail),
@@ -108,19 +133,24 @@ export async function signInWithPassword({
   password,
   clientAddress,
   now = new Date(),
+  wait = sleep,
 }: {
   email: string;
   password: string;
   clientAddress: string | null;
   now?: Date;
+  /** How the slow-down waits; tests pass a recorder instead of sleeping. */
+  wait?: (ms: number) => Promise<void>;
 }): Promise<SessionPayload> {
   const normalized = normalizeEmail(email);
   const since = new Date(now.getTime() - signInLimits.windowMs);
-  if (
-    countRecentPairFailures({ email: normalized, clientAddress, since }) >=
-      signInLimits.failuresPerAccount ||
-    (clientAddress !== null &&
-      countRecentAddressFailures({ clientAddress, since }) >= signInLimits.failuresPerAddress)
+  const pairFailures = countRecentPairFailures({ email: normalized, clientAddress, since });
+  if (clientAddress === null) {
+    const delayMs = unknownAddressDelayMs(pairFailures);
+    if (delayMs > 0) await wait(delayMs);
+  } else if (
+    pairFailures >= signInLimits.failuresPerAccount ||
+    countRecentAddressFailures({ clientAddress, since }) >= signInLimits.failuresPerAddress
   ) {
     throw new AppError("rate_limited", signInLimitedMessage);
   }

@@ -1,6 +1,11 @@
 import { afterAll, afterEach, beforeAll, describe, expect, it, vi } from "vitest";
 import { sealData } from "iron-session";
-import { signInLimits, signInFailedMessage } from "@/app/_lib/auth";
+import {
+  signInFailedMessage,
+  signInLimits,
+  signInWithPassword,
+  unknownAddressDelayMs,
+} from "@/app/_lib/auth";
 import { setUserDisabled } from "@/db/queries/users";
 import {
   call,
@@ -124,6 +129,35 @@ describe("rate limiting", () => {
     expect(limited.status).toBe(429);
     // Another address is still served.
     expect((await signIn("admin@a.example", testPassword, "192.0.2.100")).status).toBe(200);
+  });
+});
+
+describe("rate limiting when the client address is unknown (no trusted proxy)", () => {
+  it("slows attempts on an account down after a failure streak instead of refusing them: 1 s doubling to 16 s", () => {
+    const atLimit = signInLimits.failuresPerAccount;
+    expect(unknownAddressDelayMs(atLimit - 1)).toBe(0);
+    expect(unknownAddressDelayMs(atLimit)).toBe(1_000);
+    expect(unknownAddressDelayMs(atLimit + 1)).toBe(2_000);
+    expect(unknownAddressDelayMs(atLimit + 4)).toBe(16_000);
+    expect(unknownAddressDelayMs(atLimit + 500)).toBe(16_000);
+  });
+
+  it("lets the owner sign in with the right password after someone else's failures, only later", async () => {
+    const waits: number[] = [];
+    const wait = async (ms: number) => {
+      waits.push(ms);
+    };
+    const attempt = (password: string) =>
+      signInWithPassword({ email: world.users.qa.email, password, clientAddress: null, wait });
+    for (let i = 0; i < signInLimits.failuresPerAccount + 2; i++) {
+      await expect(attempt("wrong-password")).rejects.toMatchObject({
+        code: "invalid_credentials",
+      });
+    }
+    // Before this change the sixth attempt was refused with 429 whatever the password.
+    const payload = await attempt(testPassword);
+    expect(payload.userId).toBe(world.users.qa.userId);
+    expect(waits).toEqual([1_000, 2_000, 4_000]);
   });
 });
 
