@@ -26,6 +26,10 @@ const shippedSuite = JSON.parse(
   readFileSync(path.join(demoContentRoot(), demoSuiteFile), "utf8"),
 ) as { name: string; scenarios: string[] };
 
+// Seeding hashes every demo password with bcrypt at cost 12 (slow by design, about
+// 0.25 s each on this machine's cores), so these tests get more than vitest's 5 s.
+const bcryptTimeoutMs = 60_000;
+
 describe("migrations and demo seed on a fresh database", () => {
   let dir: string;
   let db: Db;
@@ -57,32 +61,36 @@ describe("migrations and demo seed on a fresh database", () => {
     );
   });
 
-  it("seeds twice without duplicating anything", () => {
-    const first = seedDemoWorld(db);
-    expect(first).toEqual({
-      workspacesCreated: demoWorkspaces.length,
-      usersCreated: demoPeople.length,
-      membershipsCreated: demoPeople.flatMap((p) => p.memberships).length,
-      benchesCreated: demoContent.length,
-      scenariosCreated: shippedSuite.scenarios.length,
-      suitesCreated: demoContent.length,
-    });
-    const second = seedDemoWorld(db);
-    expect(second).toEqual({
-      workspacesCreated: 0,
-      usersCreated: 0,
-      membershipsCreated: 0,
-      benchesCreated: 0,
-      scenariosCreated: 0,
-      suitesCreated: 0,
-    });
+  it(
+    "seeds twice without duplicating anything",
+    () => {
+      const first = seedDemoWorld(db);
+      expect(first).toEqual({
+        workspacesCreated: demoWorkspaces.length,
+        usersCreated: demoPeople.length,
+        membershipsCreated: demoPeople.flatMap((p) => p.memberships).length,
+        benchesCreated: demoContent.length,
+        scenariosCreated: shippedSuite.scenarios.length,
+        suitesCreated: demoContent.length,
+      });
+      const second = seedDemoWorld(db);
+      expect(second).toEqual({
+        workspacesCreated: 0,
+        usersCreated: 0,
+        membershipsCreated: 0,
+        benchesCreated: 0,
+        scenariosCreated: 0,
+        suitesCreated: 0,
+      });
 
-    const countOf = (table: typeof workspaces | typeof users | typeof memberships) =>
-      db.select({ n: count() }).from(table).get()?.n;
-    expect(countOf(workspaces)).toBe(demoWorkspaces.length);
-    expect(countOf(users)).toBe(demoPeople.length);
-    expect(countOf(memberships)).toBe(demoPeople.flatMap((p) => p.memberships).length);
-  });
+      const countOf = (table: typeof workspaces | typeof users | typeof memberships) =>
+        db.select({ n: count() }).from(table).get()?.n;
+      expect(countOf(workspaces)).toBe(demoWorkspaces.length);
+      expect(countOf(users)).toBe(demoPeople.length);
+      expect(countOf(memberships)).toBe(demoPeople.flatMap((p) => p.memberships).length);
+    },
+    bcryptTimeoutMs,
+  );
 
   it("gives Fernhill Training Centre one member per role, and the engineer a second workspace", () => {
     const fernhill = findWorkspaceBySlug({ db, slug: "fernhill" });
@@ -147,15 +155,19 @@ describe("migrations and demo seed on a fresh database", () => {
     expect(JSON.parse(ordered[0]!.document).bench).toEqual({ name: "Fernhill Training Centre" });
   });
 
-  it("stores only bcrypt hashes of the demo passwords", () => {
-    for (const person of demoPeople) {
-      const user = findUserByEmail({ db, email: person.email });
-      expect(user?.passwordHash).not.toContain(person.password);
-      // bcrypt modular crypt format: $2a$/$2b$, two-digit cost, 53 more characters.
-      expect(user?.passwordHash).toMatch(/^\$2[ab]\$12\$[./A-Za-z0-9]{53}$/);
-      expect(bcrypt.compareSync(person.password, user!.passwordHash)).toBe(true);
-    }
-  });
+  it(
+    "stores only bcrypt hashes of the demo passwords",
+    () => {
+      for (const person of demoPeople) {
+        const user = findUserByEmail({ db, email: person.email });
+        expect(user?.passwordHash).not.toContain(person.password);
+        // bcrypt modular crypt format: $2a$/$2b$, two-digit cost, 53 more characters.
+        expect(user?.passwordHash).toMatch(/^\$2[ab]\$12\$[./A-Za-z0-9]{53}$/);
+        expect(bcrypt.compareSync(person.password, user!.passwordHash)).toBe(true);
+      }
+    },
+    bcryptTimeoutMs,
+  );
 
   it("refuses a second membership of the same user in the same workspace", () => {
     const fernhill = findWorkspaceBySlug({ db, slug: "fernhill" })!;
