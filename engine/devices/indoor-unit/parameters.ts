@@ -24,8 +24,22 @@ export const indoorUnitParametersSchema = z.object({
   initialMode: hvacModeSchema.default("auto"),
   initialSetpointC: z.number().min(5).max(40).default(21),
   initialFanLevel: fanLevelSchema.default(0),
+  /**
+   * Steps in which the unit takes a setpoint, kelvin: 0.5 K and 1 K are usual
+   * (common practice, no published source). The unit rounds a commanded setpoint
+   * to its nearest step (halves up) and reports the value it took.
+   */
+  setpointResolutionK: z
+    .union([z.literal(0.5), z.literal(1)], { error: "setpointResolutionK must be 0.5 or 1" })
+    .default(0.5),
 });
 export type IndoorUnitParameters = z.infer<typeof indoorUnitParametersSchema>;
 
 /** Setpoints the unit itself accepts, °C; controllers apply their own, narrower limits. */
 export const UNIT_SETPOINT_RANGE_C = { min: 5, max: 40 } as const;
+
+/** The setpoint the unit takes for a commanded one: its nearest step (halves up), inside its range. */
+export function unitSetpointC(commandedC: number, resolutionK: number): number {
+  const stepped = Math.round(commandedC / resolutionK) * resolutionK;
+  return Math.min(UNIT_SETPOINT_RANGE_C.max, Math.max(UNIT_SETPOINT_RANGE_C.min, stepped));
+}

@@ -10,7 +10,7 @@ import {
   type UnitRefusal,
   type UnitStatus,
 } from "../hvac/unit-link-messages";
-import { UNIT_SETPOINT_RANGE_C, type IndoorUnitParameters } from "./parameters";
+import { unitSetpointC, type IndoorUnitParameters } from "./parameters";
 import type { IndoorUnitState } from "./state";
 import { stepRoomTemperature } from "./thermal-model";
 
@@ -162,10 +162,7 @@ function applyCommand(
   if (command.setpointC !== undefined) {
     next = {
       ...next,
-      setpointC: Math.min(
-        UNIT_SETPOINT_RANGE_C.max,
-        Math.max(UNIT_SETPOINT_RANGE_C.min, command.setpointC),
-      ),
+      setpointC: unitSetpointC(command.setpointC, context.parameters.setpointResolutionK),
     };
   }
   if (command.mode !== undefined) {
