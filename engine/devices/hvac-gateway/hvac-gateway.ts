@@ -31,6 +31,8 @@ export const hvacGatewayType: DeviceType<HvacGatewayParameters, HvacGatewayState
     learnedScenes: {},
     faults: [],
     roomSender: initialSenderState,
+    modeRequest: null,
+    modeConflict: false,
   }),
   transition: hvacGatewayTransition,
 };

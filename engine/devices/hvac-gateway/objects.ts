@@ -24,6 +24,7 @@ export const gatewayObjects = {
   fault: 18,
   faultText: 19,
   modeAuthority: 20,
+  modeConflict: 21,
 } as const;
 
 const O = gatewayObjects;
@@ -77,6 +78,9 @@ export function gatewayGroupObjects(p: HvacGatewayParameters): GroupObjectSpec[]
   if (p.lock) objects.push(command(O.lock, "Lock", "1.001"));
   objects.push(status(O.fault, "Fault", "1.005"), status(O.faultText, "Fault text", "16.000"));
   if (p.systemType === "multi-split")
-    objects.push(status(O.modeAuthority, "Mode authority", "1.002"));
+    objects.push(
+      status(O.modeAuthority, "Mode authority", "1.002"),
+      status(O.modeConflict, "Mode conflict", "1.002"),
+    );
   return objects;
 }

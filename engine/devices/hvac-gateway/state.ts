@@ -27,4 +27,8 @@ export interface HvacGatewayState {
   /** Faults the gateway reports on its fault objects. */
   readonly faults: readonly string[];
   readonly roomSender: RoomTemperatureSenderState;
+  /** The mode last asked for on KNX, kept while the outdoor unit refuses it and re-sent once allowed. */
+  readonly modeRequest: HvacMode | null;
+  /** The outdoor unit refuses `modeRequest`; reported on the mode conflict object (multi-split). */
+  readonly modeConflict: boolean;
 }

@@ -11,6 +11,9 @@ import {
   dpt20105FromMode,
   modeFromDpt1100,
   modeFromDpt20105,
+  modesAllowedFor,
+  type HvacMode,
+  type SystemDirection,
 } from "../hvac/hvac-mode";
 import {
   cycleUs,
@@ -52,6 +55,7 @@ function sendCommand(command: Omit<UnitCommand, "kind">, context: Context): Devi
 function statusValues(
   unit: UnitStatus,
   p: HvacGatewayParameters,
+  modeConflict: boolean,
 ): { fn?: GatewayFunction; object: number; value: unknown }[] {
   const values: { fn?: GatewayFunction; object: number; value: unknown }[] = [
     { fn: "power", object: O.powerStatus, value: unit.power },
@@ -66,15 +70,35 @@ function statusValues(
   if (p.modeControl === "full")
     values.push({ fn: "mode", object: O.modeStatus, value: dpt20105FromMode(unit.mode) });
   else {
-    // DPT spec §4.2 (1.100): 0 cooling, 1 heating; fan has no heat/cool meaning, so the status keeps its value.
-    const heating = dpt1100FromMode(unit.mode, unit.direction);
+    // DPT spec §4.2 (1.100): 0 cooling, 1 heating. Fan has no heat/cool meaning of its own: on a
+    // multi-split the direction the outdoor unit imposes is the one in force; else the status keeps its value.
+    const heating =
+      dpt1100FromMode(unit.mode, unit.direction) ?? heatingInForce(unit.systemDirection);
     if (heating !== undefined)
       values.push({ fn: "mode", object: O.heatCoolStatus, value: heating });
   }
   if (p.louvre) values.push({ fn: "louvre", object: O.louvreStatus, value: unit.louvrePercent });
   if (p.systemType === "multi-split")
-    values.push({ object: O.modeAuthority, value: unit.modeAuthority });
+    values.push(
+      { object: O.modeAuthority, value: unit.modeAuthority },
+      { object: O.modeConflict, value: modeConflict },
+    );
   return values;
+}
+
+function heatingInForce(direction: SystemDirection | undefined): boolean | undefined {
+  return direction === "heating" ? true : direction === "cooling" ? false : undefined;
+}
+
+/**
+ * Whether the mode asked for on KNX is held off by the shared outdoor unit: the
+ * unit runs something else because the system moves heat the other way. Common
+ * practice, no published source: a multi-split member whose request conflicts
+ * with the system keeps the request and shows a conflict until the system allows it.
+ */
+function modeHeldOff(request: HvacMode | null, unit: UnitStatus): boolean {
+  if (request === null || unit.mode === request) return false;
+  return !modesAllowedFor(unit.systemDirection ?? "none").includes(request);
 }
 
 /** Sends the status of `fns` now from the last unit status (a refused command snaps visualisations back). */
@@ -84,7 +108,7 @@ function reassert(
   context: Context,
 ): DeviceEffect[] {
   if (state.unit === null) return [];
-  return statusValues(state.unit, context.parameters)
+  return statusValues(state.unit, context.parameters, state.modeConflict)
     .filter((entry) => entry.fn !== undefined && fns.includes(entry.fn))
     .map((entry) => ({
       kind: "group.send",
@@ -116,8 +140,20 @@ function onUnitStatus(state: HvacGatewayState, unit: UnitStatus, context: Contex
   const p = context.parameters;
   const first = state.unit === null;
   const effects: DeviceEffect[] = [];
+  // Another controller changed the mode meanwhile: that supersedes the KNX request.
+  const superseded =
+    state.unit !== null &&
+    state.unit.mode !== unit.mode &&
+    unit.mode !== state.modeRequest &&
+    unit.refusal === undefined;
+  const modeRequest = superseded ? null : state.modeRequest;
+  const modeConflict = modeHeldOff(modeRequest, unit);
+  // The system now allows the kept request: ask for it again.
+  const reapply =
+    state.modeConflict && !modeConflict && modeRequest !== null && unit.mode !== modeRequest;
+  if (reapply) effects.push(...sendCommand({ mode: modeRequest }, context));
   let sentStatus = false;
-  for (const entry of statusValues(unit, p)) {
+  for (const entry of statusValues(unit, p, modeConflict)) {
     const pending = entry.fn !== undefined && state.pendingStatus.includes(entry.fn);
     if (!pending && context.objectValue(entry.object) === entry.value) continue;
     // The first report only fills the status objects (they answer reads); later changes are sent.
@@ -177,10 +213,21 @@ function onUnitStatus(state: HvacGatewayState, unit: UnitStatus, context: Contex
     pendingStatus: [],
     roomSender,
     faults: unit.faults,
+    modeRequest,
+    modeConflict,
   };
   const refusedHere =
     unit.refusal?.controller === context.deviceId ? unit.refusal.transition : undefined;
-  const transition = refusedHere ?? faults.changed ?? (sentStatus ? "status.sent" : undefined);
+  const conflictChanged =
+    modeConflict === state.modeConflict
+      ? undefined
+      : modeConflict
+        ? "mode.conflict"
+        : reapply
+          ? "mode.request-reapplied"
+          : "mode.conflict-cleared";
+  const transition =
+    refusedHere ?? conflictChanged ?? faults.changed ?? (sentStatus ? "status.sent" : undefined);
   return { state: next, effects, ...(transition === undefined ? {} : { transition }) };
 }
 
@@ -216,6 +263,11 @@ function knxCommand(
       return named(next, "window.power-held", reassert(state, ["power"], context));
   }
   return named(next, transition, sendCommand(held, context));
+}
+
+/** Remembers a mode asked for on KNX (not while locked: the command is refused). */
+function requesting(state: HvacGatewayState, mode: HvacMode): HvacGatewayState {
+  return state.locked ? state : { ...state, modeRequest: mode };
 }
 
 function sceneSetting(
@@ -301,17 +353,13 @@ function onWrite(
           ...reassert(state, ["mode"], context),
         ]);
       }
-      return knxCommand(state, "mode", { mode }, "mode.selected", context);
+      return knxCommand(requesting(state, mode), "mode", { mode }, "mode.selected", context);
     }
-    case O.heatCool:
+    case O.heatCool: {
       // DPT spec §4.2 (1.100): 0 = cooling, 1 = heating.
-      return knxCommand(
-        state,
-        "mode",
-        { mode: modeFromDpt1100(value === true) },
-        "mode.selected",
-        context,
-      );
+      const mode = modeFromDpt1100(value === true);
+      return knxCommand(requesting(state, mode), "mode", { mode }, "mode.selected", context);
+    }
     case O.fan: {
       if (typeof value !== "number") return named(state, "fan.refused");
       if (value === 0 && !p.fanAuto) {

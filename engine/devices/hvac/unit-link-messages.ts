@@ -65,6 +65,12 @@ export const unitStatusSchema = z.object({
   faults: z.array(z.string()),
   /** Multi-split only: this unit holds mode authority for the shared outdoor unit. */
   modeAuthority: z.boolean(),
+  /**
+   * Multi-split only: the direction the shared outdoor unit imposes on this
+   * unit ("none" while it holds mode authority itself or nobody does). A
+   * controller reports it as the heat/cool in force when the unit only moves air.
+   */
+  systemDirection: systemDirectionSchema.optional(),
   refusal: unitRefusalSchema.optional(),
 });
 export type UnitStatus = z.infer<typeof unitStatusSchema>;

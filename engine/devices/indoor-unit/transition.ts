@@ -1,6 +1,11 @@
 import type { DeviceContext, DeviceEffect, DeviceEvent, TransitionResult } from "../device-type";
 import { hvacFaults, type HvacFaultId } from "../hvac/fault-ids";
-import { directionOfMode, modesAllowedFor, type HvacMode } from "../hvac/hvac-mode";
+import {
+  directionOfMode,
+  modesAllowedFor,
+  type HvacMode,
+  type SystemDirection,
+} from "../hvac/hvac-mode";
 import {
   CONTROLLER_ANNOUNCE_PERIOD_US,
   CONTROLLER_TIMEOUT_US,
@@ -50,6 +55,7 @@ function statusMessage(
     roomC: quantize(controlTemperatureC(state)),
     faults,
     modeAuthority: state.system?.authority === context.deviceId,
+    ...(state.system === null ? {} : { systemDirection: imposedDirection(state, context) }),
     ...(refusal === undefined ? {} : { refusal }),
   };
 }
@@ -73,6 +79,14 @@ function resolveAutoDirection(state: IndoorUnitState, hysteresisK: number): Indo
   if (controlC < state.setpointC - hysteresisK) return { ...state, autoDirection: "heating" };
   if (controlC > state.setpointC + hysteresisK) return { ...state, autoDirection: "cooling" };
   return state;
+}
+
+/** The direction the outdoor unit imposes on this member: none while it holds authority or nobody does. */
+function imposedDirection(state: IndoorUnitState, context: Context): SystemDirection {
+  const system = state.system;
+  if (system === null || system.authority === null || system.authority === context.deviceId)
+    return "none";
+  return system.direction;
 }
 
 /** Whether this member may run `mode` under the outdoor unit's current direction (always, on a single split or as the authority). */
