@@ -33,6 +33,7 @@ export const hvacGatewayType: DeviceType<HvacGatewayParameters, HvacGatewayState
     roomSender: initialSenderState,
     modeRequest: null,
     modeConflict: false,
+    gatewayFaults: [],
   }),
   transition: hvacGatewayTransition,
 };

@@ -50,6 +50,33 @@ export const hvacGatewayParametersSchema = z
     windowContact: z.boolean().default(false),
     /** Lock input (DPT 1.001, 1 = locked): KNX commands are refused while locked. */
     lock: z.boolean().default(false),
+    /**
+     * Supervision of the wired link: nothing heard from the indoor unit for this
+     * long raises gateway.unit-lost on the fault objects; the next word from the
+     * unit clears it. The unit says it is alive every 10 s, so 15 s is the least.
+     */
+    unitTimeoutS: z
+      .number()
+      .int()
+      .min(15, "unitTimeoutS must be 15..600 s (the unit reports every 10 s)")
+      .max(600, "unitTimeoutS must be 15..600 s (the unit reports every 10 s)")
+      .default(30),
+    /**
+     * With an external room temperature: no value for this long hands control
+     * back to the unit's own sensor and raises gateway.external-temperature-lost
+     * until a value arrives again. 0 = never (the gateway keeps the last value).
+     * Set it to two or three of the sensor's cycle times.
+     */
+    externalTemperatureTimeoutS: z
+      .number()
+      .int()
+      .min(0, "externalTemperatureTimeoutS must be 0 (off) or 60..86400 s")
+      .max(86_400, "externalTemperatureTimeoutS must be 0 (off) or 60..86400 s")
+      .refine(
+        (s) => s === 0 || s >= 60,
+        "externalTemperatureTimeoutS must be 0 (off) or 60..86400 s",
+      )
+      .default(0),
   })
   .superRefine((value, context) => {
     refineSetpointLimits(value, context);

@@ -31,4 +31,6 @@ export interface HvacGatewayState {
   readonly modeRequest: HvacMode | null;
   /** The outdoor unit refuses `modeRequest`; reported on the mode conflict object (multi-split). */
   readonly modeConflict: boolean;
+  /** Faults the gateway itself detects (supervision), reported beside the unit's on the fault objects. */
+  readonly gatewayFaults: readonly string[];
 }

@@ -5,7 +5,7 @@ import {
   periodicAnnounceEffects,
   withRoleAnnouncement,
 } from "../hvac/controller-link";
-import { faultDisplayText } from "../hvac/fault-ids";
+import { faultDisplayText, hvacFaults } from "../hvac/fault-ids";
 import {
   dpt1100FromMode,
   dpt20105FromMode,
@@ -38,6 +38,11 @@ type Result = TransitionResult<HvacGatewayState>;
 
 const ROOM_SEND_TIMER = "room.send-due";
 const ROOM_CYCLE_TIMER = "room.cycle";
+/** Watchdog re-armed by every message from the unit. */
+const UNIT_WATCH_TIMER = "unit.watch";
+/** Watchdog re-armed by every external room temperature. */
+const EXTERNAL_WATCH_TIMER = "room.external-watch";
+const US_PER_S = 1_000_000;
 
 function named(state: HvacGatewayState, transition: string, effects: DeviceEffect[] = []): Result {
   return { state, effects, transition };
@@ -52,20 +57,45 @@ function sendCommand(command: Omit<UnitCommand, "kind">, context: Context): Devi
 }
 
 /** The status objects and values for a unit status, for the objects these parameters enable. */
+/** The fault object (DPT 1.005) and fault text (DPT 16.000) for the gateway's own faults and the unit's. */
+function faultValues(
+  unitFaults: readonly string[],
+  gatewayFaults: readonly string[],
+): { object: number; value: unknown }[] {
+  const first = gatewayFaults[0] ?? unitFaults[0];
+  return [
+    { object: O.fault, value: first !== undefined },
+    { object: O.faultText, value: first === undefined ? "" : faultDisplayText(first) },
+  ];
+}
+
+/** Sends the fault objects where they changed: supervision raises faults with no unit status to carry them. */
+function sendChangedFaults(
+  state: HvacGatewayState,
+  gatewayFaults: readonly string[],
+  context: Context,
+): DeviceEffect[] {
+  return faultValues(state.unit?.faults ?? [], gatewayFaults)
+    .filter((entry) => context.objectValue(entry.object) !== entry.value)
+    .map((entry) => ({
+      kind: "group.send",
+      object: entry.object,
+      service: "write",
+      value: entry.value,
+    }));
+}
+
 function statusValues(
   unit: UnitStatus,
   p: HvacGatewayParameters,
   modeConflict: boolean,
+  gatewayFaults: readonly string[],
 ): { fn?: GatewayFunction; object: number; value: unknown }[] {
   const values: { fn?: GatewayFunction; object: number; value: unknown }[] = [
     { fn: "power", object: O.powerStatus, value: unit.power },
     { fn: "setpoint", object: O.setpointStatus, value: unit.setpointC },
     { fn: "fan", object: O.fanStatus, value: Math.min(unit.fanLevel, p.fanLevels) },
-    { object: O.fault, value: unit.faults.length > 0 },
-    {
-      object: O.faultText,
-      value: unit.faults[0] === undefined ? "" : faultDisplayText(unit.faults[0]),
-    },
+    ...faultValues(unit.faults, gatewayFaults),
   ];
   if (p.modeControl === "full")
     values.push({ fn: "mode", object: O.modeStatus, value: dpt20105FromMode(unit.mode) });
@@ -108,7 +138,7 @@ function reassert(
   context: Context,
 ): DeviceEffect[] {
   if (state.unit === null) return [];
-  return statusValues(state.unit, context.parameters, state.modeConflict)
+  return statusValues(state.unit, context.parameters, state.modeConflict, state.gatewayFaults)
     .filter((entry) => entry.fn !== undefined && fns.includes(entry.fn))
     .map((entry) => ({
       kind: "group.send",
@@ -136,6 +166,80 @@ function roomEffects(step: SenderStep, context: Context): DeviceEffect[] {
   return effects;
 }
 
+function watchUnit(context: Context): DeviceEffect {
+  return {
+    kind: "timer.set",
+    name: UNIT_WATCH_TIMER,
+    delayUs: context.parameters.unitTimeoutS * US_PER_S,
+  };
+}
+
+/**
+ * The unit was heard: re-arm the watchdog and, if it had been lost, clear the
+ * fault (sending the fault objects unless a unit status that follows will). Common practice, no published source: gateways supervise their unit
+ * and report a lost unit on KNX, clearing it when communication returns.
+ */
+function unitHeard(state: HvacGatewayState, context: Context, sendFaults: boolean): Result {
+  const lost = state.gatewayFaults.includes(hvacFaults.unitLost);
+  if (!lost) return { state, effects: [watchUnit(context)] };
+  const gatewayFaults = state.gatewayFaults.filter((f) => f !== hvacFaults.unitLost);
+  return {
+    state: { ...state, gatewayFaults },
+    effects: [
+      watchUnit(context),
+      { kind: "fault.clear", fault: hvacFaults.unitLost },
+      ...(sendFaults ? sendChangedFaults(state, gatewayFaults, context) : []),
+    ],
+    transition: "unit.communication-restored",
+  };
+}
+
+function onUnitLost(state: HvacGatewayState, context: Context): Result {
+  if (state.gatewayFaults.includes(hvacFaults.unitLost)) return { state, effects: [] };
+  const gatewayFaults = [hvacFaults.unitLost, ...state.gatewayFaults];
+  return named({ ...state, gatewayFaults }, hvacFaults.unitLost, [
+    {
+      kind: "fault.raise",
+      fault: hvacFaults.unitLost,
+      text: `nothing heard from the indoor unit for ${context.parameters.unitTimeoutS} s`,
+    },
+    ...sendChangedFaults(state, gatewayFaults, context),
+  ]);
+}
+
+function watchExternal(context: Context): DeviceEffect[] {
+  const p = context.parameters;
+  if (p.roomTemperatureSource !== "external" || p.externalTemperatureTimeoutS === 0) return [];
+  return [
+    {
+      kind: "timer.set",
+      name: EXTERNAL_WATCH_TIMER,
+      delayUs: p.externalTemperatureTimeoutS * US_PER_S,
+    },
+  ];
+}
+
+/**
+ * No external temperature for the configured time: the unit goes back to its
+ * own sensor rather than hold a stale value, and the fault objects say so.
+ * Common practice, no published source.
+ */
+function onExternalLost(state: HvacGatewayState, context: Context): Result {
+  const fault = hvacFaults.externalTemperatureLost;
+  if (state.gatewayFaults.includes(fault) || context.parameters.role !== "primary")
+    return { state, effects: [] };
+  const gatewayFaults = [...state.gatewayFaults, fault];
+  return named({ ...state, gatewayFaults }, fault, [
+    {
+      kind: "fault.raise",
+      fault,
+      text: `no external room temperature for ${context.parameters.externalTemperatureTimeoutS} s: the unit controls on its own sensor`,
+    },
+    ...sendCommand({ externalRoomC: null }, context),
+    ...sendChangedFaults(state, gatewayFaults, context),
+  ]);
+}
+
 function onUnitStatus(state: HvacGatewayState, unit: UnitStatus, context: Context): Result {
   const p = context.parameters;
   const first = state.unit === null;
@@ -153,7 +257,7 @@ function onUnitStatus(state: HvacGatewayState, unit: UnitStatus, context: Contex
     state.modeConflict && !modeConflict && modeRequest !== null && unit.mode !== modeRequest;
   if (reapply) effects.push(...sendCommand({ mode: modeRequest }, context));
   let sentStatus = false;
-  for (const entry of statusValues(unit, p, modeConflict)) {
+  for (const entry of statusValues(unit, p, modeConflict, state.gatewayFaults)) {
     const pending = entry.fn !== undefined && state.pendingStatus.includes(entry.fn);
     if (!pending && context.objectValue(entry.object) === entry.value) continue;
     // The first report only fills the status objects (they answer reads); later changes are sent.
@@ -414,7 +518,15 @@ function onExternalRoom(state: HvacGatewayState, value: unknown, context: Contex
     ]);
   if (typeof value !== "number" || isDptInvalid(value))
     return named(state, "room.external-invalid");
-  return named(state, "room.external-updated", sendCommand({ externalRoomC: value }, context));
+  const fault = hvacFaults.externalTemperatureLost;
+  const effects = [...watchExternal(context), ...sendCommand({ externalRoomC: value }, context)];
+  if (!state.gatewayFaults.includes(fault)) return named(state, "room.external-updated", effects);
+  const gatewayFaults = state.gatewayFaults.filter((f) => f !== fault);
+  return named({ ...state, gatewayFaults }, "room.external-restored", [
+    ...effects,
+    { kind: "fault.clear", fault },
+    ...sendChangedFaults(state, gatewayFaults, context),
+  ]);
 }
 
 /** DPT 1.019: true = open. Open stops the unit; close restores the power it had (or was asked for meanwhile). */
@@ -437,6 +549,8 @@ function onWindow(state: HvacGatewayState, open: boolean, context: Context): Res
 }
 
 function onTimer(state: HvacGatewayState, name: string, context: Context): Result {
+  if (name === UNIT_WATCH_TIMER) return onUnitLost(state, context);
+  if (name === EXTERNAL_WATCH_TIMER) return onExternalLost(state, context);
   const sending = context.parameters.roomTemperatureSending;
   if (name === ROOM_SEND_TIMER) {
     const step = sendDueRoomTemperature(state.roomSender, context.nowUs, sending);
@@ -472,7 +586,11 @@ export function hvacGatewayTransition(
   return withRoleAnnouncement(state, event, p.role, "gateway", context.links, (current) => {
     switch (event.kind) {
       case "start": {
-        const effects = periodicAnnounceEffects(p.role, "gateway", context.links);
+        const effects = [
+          ...periodicAnnounceEffects(p.role, "gateway", context.links),
+          watchUnit(context),
+          ...watchExternal(context),
+        ];
         if (sendsCyclically(p.roomTemperatureSending))
           effects.push({
             kind: "timer.set",
@@ -493,9 +611,19 @@ export function hvacGatewayTransition(
         return onWrite(current, event.object, event.value, context);
       case "link.receive": {
         const message = parseUnitLinkMessage(event.message);
-        return message?.kind === "unit.status"
-          ? onUnitStatus(current, message, context)
-          : { state: current, effects: [] };
+        if (message?.kind !== "unit.status" && message?.kind !== "unit.alive")
+          return { state: current, effects: [] };
+        // A status sends the fault objects itself, with the unit's faults in them.
+        const heard = unitHeard(current, context, message.kind === "unit.alive");
+        if (message.kind === "unit.alive") return heard;
+        const result = onUnitStatus(heard.state, message, context);
+        // A restored link names the transition; what the status then sends follows from it.
+        const transition = heard.transition ?? result.transition;
+        return {
+          state: result.state,
+          effects: [...heard.effects, ...result.effects],
+          ...(transition === undefined ? {} : { transition }),
+        };
       }
       case "timer":
         return onTimer(current, event.name, context);

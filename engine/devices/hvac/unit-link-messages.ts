@@ -34,8 +34,11 @@ export const unitCommandSchema = z.object({
   fanLevel: fanLevelSchema.optional(),
   louvrePercent: z.number().min(0).max(100).optional(),
   setpointC: z.number().optional(),
-  /** Room temperature from a KNX sensor; only the primary gateway may send it. */
-  externalRoomC: z.number().optional(),
+  /**
+   * Room temperature from a KNX sensor; only the primary gateway may send it.
+   * null hands control back to the unit's own sensor (the KNX value stopped arriving).
+   */
+  externalRoomC: z.number().nullable().optional(),
 });
 export type UnitCommand = z.infer<typeof unitCommandSchema>;
 
@@ -84,12 +87,20 @@ export const systemStateSchema = z.object({
 });
 export type SystemState = z.infer<typeof systemStateSchema>;
 
+/**
+ * The indoor unit's sign of life, repeated every `UNIT_ALIVE_PERIOD_US`, so a
+ * controller notices a broken link even while nothing changes.
+ */
+export const unitAliveSchema = z.object({ kind: z.literal("unit.alive") });
+export type UnitAlive = z.infer<typeof unitAliveSchema>;
+
 /** Any message on a unit link. */
 export const unitLinkMessageSchema = z.discriminatedUnion("kind", [
   controllerAnnounceSchema,
   unitCommandSchema,
   unitStatusSchema,
   systemStateSchema,
+  unitAliveSchema,
 ]);
 export type UnitLinkMessage = z.infer<typeof unitLinkMessageSchema>;
 
@@ -98,6 +109,7 @@ const unitLinkMessageKinds: ReadonlySet<unknown> = new Set<UnitLinkMessage["kind
   "unit.command",
   "unit.status",
   "system.state",
+  "unit.alive",
 ]);
 
 /**
@@ -127,3 +139,6 @@ export const CONTROLLER_TIMEOUT_US = 3 * CONTROLLER_ANNOUNCE_PERIOD_US + 1_000_0
  * download) hears every controller before it could report a missing primary.
  */
 export const LINK_SUPERVISION_GRACE_US = CONTROLLER_ANNOUNCE_PERIOD_US + 1_000_000;
+
+/** How often an indoor unit says it is alive on its links (virtual µs); the same period as controllers announce. */
+export const UNIT_ALIVE_PERIOD_US = CONTROLLER_ANNOUNCE_PERIOD_US;

@@ -7,10 +7,11 @@ import {
   type SystemDirection,
 } from "../hvac/hvac-mode";
 import {
-  CONTROLLER_ANNOUNCE_PERIOD_US,
   CONTROLLER_TIMEOUT_US,
   LINK_SUPERVISION_GRACE_US,
   parseUnitLinkMessage,
+  UNIT_ALIVE_PERIOD_US,
+  type UnitAlive,
   type UnitCommand,
   type UnitRefusal,
   type UnitStatus,
@@ -275,6 +276,7 @@ function receive(state: IndoorUnitState, from: string, raw: unknown, context: Co
       return { ...reported, transition: "system.state-changed" };
     }
     case "unit.status":
+    case "unit.alive":
       // Another indoor unit on a shared system link; not ours to act on.
       return { state, effects: [] };
   }
@@ -307,10 +309,16 @@ export function indoorUnitTransition(
       if (event.name === MODEL_TIMER) return stepModel(state, context);
       if (event.name === SUPERVISION_TIMER) {
         const evaluated = evaluateLinkFault({ ...state, supervising: true }, context);
+        const alive: UnitAlive = { kind: "unit.alive" };
         return {
           ...evaluated,
           effects: [
-            { kind: "timer.set", name: SUPERVISION_TIMER, delayUs: CONTROLLER_ANNOUNCE_PERIOD_US },
+            { kind: "timer.set", name: SUPERVISION_TIMER, delayUs: UNIT_ALIVE_PERIOD_US },
+            ...context.links.map((link): DeviceEffect => ({
+              kind: "link.send",
+              link,
+              message: alive,
+            })),
             ...evaluated.effects,
           ],
         };
