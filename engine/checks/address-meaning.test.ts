@@ -131,6 +131,12 @@ describe("panel.preset-out-of-range", () => {
     expect(
       rule(panelOnGateway("5.100", 0, 8, { fanAuto: false }), "panel.preset-out-of-range"),
     ).toHaveLength(1);
+    expect(
+      rule(panelOnGateway("5.010", 4, 8, { fanEncoding: "counter" }), "panel.preset-out-of-range"),
+    ).toHaveLength(1);
+    expect(
+      rule(panelOnGateway("5.100", 0, 8, { fanAutoObject: true }), "panel.preset-out-of-range"),
+    ).toHaveLength(1);
   });
   it("passes: 22 °C and fan level 2", () => {
     expect(rule(panelOnGateway("9.001", 22, 2), "panel.preset-out-of-range")).toEqual([]);

@@ -13,14 +13,17 @@ function refusal(
   value: number,
   parameters: Record<string, unknown>,
 ): string | undefined {
-  const { setpointMinC: min, setpointMaxC: max, fanLevels, fanAuto } = parameters;
+  const { setpointMinC: min, setpointMaxC: max, fanLevels, fanAuto, fanAutoObject } = parameters;
   if (dpt === "9.001" && typeof min === "number" && typeof max === "number") {
     if (value < min || value > max)
       return `${value} °C is outside its setpoint limits ${min}..${max} °C, so it will clamp and report ${value < min ? min : max} °C`;
   }
-  if (dpt === "5.100" && typeof fanLevels === "number") {
+  // 5.100 fan stage and 5.010 level counter carry the level number (hvac-gateway/fan-speed.ts).
+  if ((dpt === "5.100" || dpt === "5.010") && typeof fanLevels === "number") {
     if (value > fanLevels)
       return `fan level ${value} is above its ${fanLevels} levels, so it will run at level ${fanLevels}`;
+    if (value === 0 && fanAutoObject === true)
+      return "fan level 0 is refused: it takes the automatic fan on its separate automatic-fan object";
     if (value === 0 && fanAuto === false)
       return "fan level 0 asks for the automatic fan, which it does not offer";
   }

@@ -1,4 +1,5 @@
 import { flags, type GroupObjectSpec } from "../device-type";
+import { FAN_DPT } from "./fan-speed";
 import type { HvacGatewayParameters } from "./parameters";
 
 /** Group object numbers of the HVAC gateway; stable whatever the parameters, absent when disabled. */
@@ -25,6 +26,8 @@ export const gatewayObjects = {
   faultText: 19,
   modeAuthority: 20,
   modeConflict: 21,
+  fanAuto: 22,
+  fanAutoStatus: 23,
 } as const;
 
 const O = gatewayObjects;
@@ -58,9 +61,18 @@ export function gatewayGroupObjects(p: HvacGatewayParameters): GroupObjectSpec[]
       status(O.heatCoolStatus, "Heat/cool status", "1.100"),
     );
   objects.push(
-    command(O.fan, "Fan level", "5.100"),
-    status(O.fanStatus, "Fan level status", "5.100"),
+    command(O.fan, p.fanEncoding === "percent" ? "Fan speed" : "Fan level", FAN_DPT[p.fanEncoding]),
+    status(
+      O.fanStatus,
+      p.fanEncoding === "percent" ? "Fan speed status" : "Fan level status",
+      FAN_DPT[p.fanEncoding],
+    ),
   );
+  if (p.fanAutoObject)
+    objects.push(
+      command(O.fanAuto, "Automatic fan", "1.001"),
+      status(O.fanAutoStatus, "Automatic fan status", "1.001"),
+    );
   if (p.louvre)
     objects.push(
       command(O.louvre, "Louvre position", "5.001"),

@@ -3,6 +3,7 @@ import { hvacModeSchema } from "../hvac/hvac-mode";
 import { roomTemperatureSendingSchema } from "../hvac/room-temperature-sending";
 import { controllerRoleSchema, fanLevelSchema } from "../hvac/unit-link-messages";
 import { refineSetpointLimits } from "../wall-controller/parameters";
+import { fanEncodingSchema } from "./fan-speed";
 
 /** One scene slot: what a recall of `scene` (1..64, as people count, DPT 17.001) sets on the unit. */
 export const sceneSlotSchema = z.object({
@@ -28,14 +29,22 @@ export const hvacGatewayParametersSchema = z
     systemType: z.enum(["single-split", "multi-split"]).default("single-split"),
     /** Full: mode objects on DPT 20.105. Simplified: heat/cool objects on DPT 1.100 (0 cooling, 1 heating). */
     modeControl: z.enum(["full", "simplified"]).default("full"),
-    /** Fixed fan levels the unit offers on DPT 5.100 (1..fanLevels). */
+    /** How the fan speed travels on KNX: DPT 5.100 level, 5.010 level counter or 5.001 percentage (fan-speed.ts). */
+    fanEncoding: fanEncodingSchema.default("level"),
+    /**
+     * A separate 1-bit object for the automatic fan (DPT 1.001, 1 = automatic),
+     * with its status. With it, automatic is chosen there only and a fan value
+     * of 0 is refused.
+     */
+    fanAutoObject: z.boolean().default(false),
+    /** Fixed fan levels the unit offers (1..fanLevels). */
     fanLevels: z
       .number()
       .int()
       .min(2, "fanLevels must be 2..5")
       .max(5, "fanLevels must be 2..5")
       .default(3),
-    /** Whether fan value 0 selects the automatic fan. */
+    /** Whether the unit offers the automatic fan (fan value 0, or the automatic-fan object). */
     fanAuto: z.boolean().default(true),
     /** Louvre position objects (DPT 5.001). */
     louvre: z.boolean().default(false),

@@ -29,6 +29,7 @@ import {
   type UnitCommand,
   type UnitStatus,
 } from "../hvac/unit-link-messages";
+import { fanLevelFromKnx, fanStatusToKnx } from "./fan-speed";
 import { gatewayObjects as O } from "./objects";
 import type { HvacGatewayParameters } from "./parameters";
 import type { GatewayFunction, HvacGatewayState, LearnedScene } from "./state";
@@ -94,7 +95,11 @@ function statusValues(
   const values: { fn?: GatewayFunction; object: number; value: unknown }[] = [
     { fn: "power", object: O.powerStatus, value: unit.power },
     { fn: "setpoint", object: O.setpointStatus, value: unit.setpointC },
-    { fn: "fan", object: O.fanStatus, value: Math.min(unit.fanLevel, p.fanLevels) },
+    {
+      fn: "fan",
+      object: O.fanStatus,
+      value: fanStatusToKnx(unit.fanLevel, p.fanEncoding, p.fanLevels),
+    },
     ...faultValues(unit.faults, gatewayFaults),
   ];
   if (p.modeControl === "full")
@@ -107,6 +112,8 @@ function statusValues(
     if (heating !== undefined)
       values.push({ fn: "mode", object: O.heatCoolStatus, value: heating });
   }
+  if (p.fanAutoObject)
+    values.push({ fn: "fan", object: O.fanAutoStatus, value: unit.fanLevel === 0 });
   if (p.louvre) values.push({ fn: "louvre", object: O.louvreStatus, value: unit.louvrePercent });
   if (p.systemType === "multi-split")
     values.push(
@@ -466,20 +473,40 @@ function onWrite(
     }
     case O.fan: {
       if (typeof value !== "number") return named(state, "fan.refused");
-      if (value === 0 && !p.fanAuto) {
+      const asked = fanLevelFromKnx(value, p.fanEncoding, p.fanLevels);
+      if (asked === 0 && (!p.fanAuto || p.fanAutoObject)) {
         return named(state, "fan.refused", [
-          { kind: "note", text: "fan level 0 (automatic) is not enabled" },
+          {
+            kind: "note",
+            text: p.fanAutoObject
+              ? "fan value 0 refused: automatic is chosen on the automatic-fan object"
+              : "fan level 0 (automatic) is not enabled",
+          },
           ...reassert(state, ["fan"], context),
         ]);
       }
-      const fanLevel = Math.min(value, p.fanLevels);
+      const fanLevel = Math.min(asked, p.fanLevels);
       return knxCommand(
         state,
         "fan",
         { fanLevel },
-        fanLevel === value ? "fan.selected" : "fan.clamped",
+        fanLevel === asked ? "fan.selected" : "fan.clamped",
         context,
       );
+    }
+    case O.fanAuto: {
+      if (!p.fanAutoObject) return { state, effects: [] };
+      if (value === true && !p.fanAuto)
+        return named(state, "fan.refused", [
+          { kind: "note", text: "the automatic fan is not enabled" },
+          ...reassert(state, ["fan"], context),
+        ]);
+      // Already fixed: nothing to leave; the status answers so a visualisation snaps back.
+      if (value !== true && state.unit !== null && state.unit.fanLevel !== 0)
+        return named(state, "fan.selected", reassert(state, ["fan"], context));
+      // Common practice, no published source: leaving automatic runs the lowest fixed level.
+      const fanLevel = value === true ? 0 : 1;
+      return knxCommand(state, "fan", { fanLevel }, "fan.selected", context);
     }
     case O.louvre:
       if (!p.louvre || typeof value !== "number") return named(state, "louvre.refused");
