@@ -229,3 +229,24 @@ describe("address.dpt-meaning grading of 1-bit pairs", () => {
     expect(rule(b, "address.dpt-meaning").map((f) => f.severity)).toEqual(["info"]);
   });
 });
+
+describe("the night economy exercise bench", () => {
+  it("hides exactly one DPT-meaning mistake, which the check explains", async () => {
+    const { readFileSync } = await import("node:fs");
+    const doc: unknown = JSON.parse(
+      readFileSync(
+        new URL("../../scenarios/fernhill/exercise-night-economy.bench.json", import.meta.url),
+        "utf8",
+      ),
+    );
+    const errors = checkBench(benchSchema.parse(doc)).filter((f) => f.severity === "error");
+    // DPT spec §4: 20.102 3 = Economy; 20.105 3 = Cool.
+    // Both ways on the one address: the gateway reads the tile's Economy as Cool, and the
+    // tile (which listens too) reads the trainer panel's Cool as Economy.
+    expect(errors.map((f) => [f.rule, f.location.groupAddress])).toEqual([
+      ["address.dpt-meaning", "2/0/3"],
+      ["address.dpt-meaning", "2/0/3"],
+    ]);
+    expect(errors.map((f) => f.message).join("\n")).toContain("Economy (3) will arrive as Cool");
+  });
+});
