@@ -27,6 +27,7 @@ export const hvacGatewayType: DeviceType<HvacGatewayParameters, HvacGatewayState
     pendingStatus: [],
     locked: false,
     windowOpen: false,
+    windowOpening: false,
     powerAfterWindow: false,
     learnedScenes: {},
     faults: [],

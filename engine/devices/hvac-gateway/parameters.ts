@@ -20,6 +20,12 @@ export const sceneSlotSchema = z.object({
 });
 export type SceneSlot = z.infer<typeof sceneSlotSchema>;
 
+/** Setpoint limits for one direction of the unit, °C. */
+export const setpointLimitsSchema = z
+  .object({ setpointMinC: z.number().min(5).max(40), setpointMaxC: z.number().min(5).max(40) })
+  .superRefine(refineSetpointLimits);
+export type SetpointLimits = z.infer<typeof setpointLimitsSchema>;
+
 /** Parameters of an HVAC gateway (KNX on one side, an indoor unit's wired link on the other). */
 export const hvacGatewayParametersSchema = z
   .object({
@@ -50,6 +56,13 @@ export const hvacGatewayParametersSchema = z
     louvre: z.boolean().default(false),
     setpointMinC: z.number().min(5).max(40).default(16),
     setpointMaxC: z.number().min(5).max(40).default(30),
+    /**
+     * Narrower limits while the unit heats or cools (e.g. heating 16..24 °C,
+     * cooling 22..30 °C, a common energy-saving setting; common practice, no
+     * published source). Without them the general limits apply.
+     */
+    heatingLimits: setpointLimitsSchema.optional(),
+    coolingLimits: setpointLimitsSchema.optional(),
     /** The unit's own sensor, or an external KNX value (object 13); only a primary may use "external". */
     roomTemperatureSource: z.enum(["unit", "external"]).default("unit"),
     roomTemperatureSending: roomTemperatureSendingSchema.prefault({}),
@@ -57,6 +70,19 @@ export const hvacGatewayParametersSchema = z
     scenes: z.array(sceneSlotSchema).max(16).default([]),
     /** Window contact input (DPT 1.019): the unit stops while a window is open. */
     windowContact: z.boolean().default(false),
+    /**
+     * The window must stay open this long before the unit stops, so airing a
+     * room for a moment or a door slammed by a draught does not cycle it
+     * (common practice, no published source). 0 = at once.
+     */
+    windowContactDelayS: z
+      .number()
+      .int()
+      .min(0, "windowContactDelayS must be 0..3600 s")
+      .max(3600, "windowContactDelayS must be 0..3600 s")
+      .default(0),
+    /** For contacts that send 0 when open (normally closed wiring): 0 = open, 1 = closed. */
+    windowContactInverted: z.boolean().default(false),
     /** Lock input (DPT 1.001, 1 = locked): KNX commands are refused while locked. */
     lock: z.boolean().default(false),
     /**

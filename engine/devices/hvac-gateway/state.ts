@@ -20,6 +20,8 @@ export interface HvacGatewayState {
   readonly pendingStatus: readonly GatewayFunction[];
   readonly locked: boolean;
   readonly windowOpen: boolean;
+  /** The window opened and the contact delay is running; the unit has not stopped yet. */
+  readonly windowOpening: boolean;
   /** Power to restore when the window closes (updated by power commands while it is open). */
   readonly powerAfterWindow: boolean;
   /** Scenes learned by DPT 18.001, keyed by scene number 1..64; they override the parameter slots. */

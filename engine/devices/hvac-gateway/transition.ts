@@ -44,6 +44,23 @@ const UNIT_WATCH_TIMER = "unit.watch";
 /** Watchdog re-armed by every external room temperature. */
 const EXTERNAL_WATCH_TIMER = "room.external-watch";
 const US_PER_S = 1_000_000;
+const WINDOW_DELAY_TIMER = "window.delay";
+
+/** The limits in force for the direction the unit runs: the mode's own when set, else the general ones. */
+function limitsFor(p: HvacGatewayParameters, direction: SystemDirection | undefined) {
+  const own =
+    direction === "heating"
+      ? p.heatingLimits
+      : direction === "cooling"
+        ? p.coolingLimits
+        : undefined;
+  return own ?? { setpointMinC: p.setpointMinC, setpointMaxC: p.setpointMaxC };
+}
+
+function clampSetpoint(p: HvacGatewayParameters, valueC: number, direction?: SystemDirection) {
+  const limits = limitsFor(p, direction);
+  return Math.min(limits.setpointMaxC, Math.max(limits.setpointMinC, valueC));
+}
 
 function named(state: HvacGatewayState, transition: string, effects: DeviceEffect[] = []): Result {
   return { state, effects, transition };
@@ -259,6 +276,12 @@ function onUnitStatus(state: HvacGatewayState, unit: UnitStatus, context: Contex
     unit.refusal === undefined;
   const modeRequest = superseded ? null : state.modeRequest;
   const modeConflict = modeHeldOff(modeRequest, unit);
+  // The unit changed direction: a setpoint outside the new direction's limits is brought inside.
+  const limited =
+    state.unit !== null && state.unit.direction !== unit.direction
+      ? clampSetpoint(p, unit.setpointC, unit.direction)
+      : unit.setpointC;
+  if (limited !== unit.setpointC) effects.push(...sendCommand({ setpointC: limited }, context));
   // The system now allows the kept request: ask for it again.
   const reapply =
     state.modeConflict && !modeConflict && modeRequest !== null && unit.mode !== modeRequest;
@@ -338,7 +361,11 @@ function onUnitStatus(state: HvacGatewayState, unit: UnitStatus, context: Contex
           ? "mode.request-reapplied"
           : "mode.conflict-cleared";
   const transition =
-    refusedHere ?? conflictChanged ?? faults.changed ?? (sentStatus ? "status.sent" : undefined);
+    refusedHere ??
+    conflictChanged ??
+    (limited !== unit.setpointC ? "setpoint.limited-for-mode" : undefined) ??
+    faults.changed ??
+    (sentStatus ? "status.sent" : undefined);
   return { state: next, effects, ...(transition === undefined ? {} : { transition }) };
 }
 
@@ -444,7 +471,7 @@ function onWrite(
     case O.setpoint: {
       if (typeof value !== "number")
         return named(state, "setpoint.refused", reassert(state, ["setpoint"], context));
-      const setpointC = Math.min(p.setpointMaxC, Math.max(p.setpointMinC, value));
+      const setpointC = clampSetpoint(p, value, state.unit?.direction);
       return knxCommand(
         state,
         "setpoint",
@@ -522,8 +549,11 @@ function onWrite(
       if (typeof control?.scene !== "number") return named(state, "scene.unknown");
       return onScene(state, control.scene, control.learn === true, context);
     }
-    case O.windowContact:
-      return onWindow(state, value === true, context);
+    case O.windowContact: {
+      // DPT spec §3.1 (1.019): 1 = open; an inverted contact sends 0 when open.
+      const open = (value === true) !== p.windowContactInverted;
+      return onWindowContact(state, open, context);
+    }
     case O.lock:
       if ((value === true) === state.locked) return { state, effects: [] };
       return named(
@@ -556,6 +586,25 @@ function onExternalRoom(state: HvacGatewayState, value: unknown, context: Contex
   ]);
 }
 
+/**
+ * The contact as it arrives: with a delay, an opening only stops the unit once
+ * the delay has run with the window still open (common practice, no published source).
+ */
+function onWindowContact(state: HvacGatewayState, open: boolean, context: Context): Result {
+  const delayS = context.parameters.windowContactDelayS;
+  if (open && delayS > 0 && !state.windowOpen) {
+    if (state.windowOpening) return { state, effects: [] };
+    return named({ ...state, windowOpening: true }, "window.opening", [
+      { kind: "timer.set", name: WINDOW_DELAY_TIMER, delayUs: delayS * US_PER_S },
+    ]);
+  }
+  if (!open && state.windowOpening)
+    return named({ ...state, windowOpening: false }, "window.closed-within-delay", [
+      { kind: "timer.cancel", name: WINDOW_DELAY_TIMER },
+    ]);
+  return onWindow(state, open, context);
+}
+
 /** DPT 1.019: true = open. Open stops the unit; close restores the power it had (or was asked for meanwhile). */
 function onWindow(state: HvacGatewayState, open: boolean, context: Context): Result {
   if (open === state.windowOpen) return { state, effects: [] };
@@ -577,6 +626,10 @@ function onWindow(state: HvacGatewayState, open: boolean, context: Context): Res
 
 function onTimer(state: HvacGatewayState, name: string, context: Context): Result {
   if (name === UNIT_WATCH_TIMER) return onUnitLost(state, context);
+  if (name === WINDOW_DELAY_TIMER)
+    return state.windowOpening
+      ? onWindow({ ...state, windowOpening: false }, true, context)
+      : { state, effects: [] };
   if (name === EXTERNAL_WATCH_TIMER) return onExternalLost(state, context);
   const sending = context.parameters.roomTemperatureSending;
   if (name === ROOM_SEND_TIMER) {
