@@ -34,6 +34,8 @@ export const hvacGatewayType: DeviceType<HvacGatewayParameters, HvacGatewayState
     roomSender: initialSenderState,
     modeRequest: null,
     modeConflict: false,
+    baseSetpointC: null,
+    shiftK: 0,
     gatewayFaults: [],
   }),
   transition: hvacGatewayTransition,

@@ -28,6 +28,8 @@ export const gatewayObjects = {
   modeConflict: 21,
   fanAuto: 22,
   fanAutoStatus: 23,
+  setpointShift: 24,
+  setpointShiftStatus: 25,
 } as const;
 
 const O = gatewayObjects;
@@ -68,6 +70,13 @@ export function gatewayGroupObjects(p: HvacGatewayParameters): GroupObjectSpec[]
       FAN_DPT[p.fanEncoding],
     ),
   );
+  if (p.setpointShift !== "off") {
+    const dpt = p.setpointShift === "kelvin" ? "9.002" : "6.010";
+    objects.push(
+      command(O.setpointShift, "Setpoint shift", dpt),
+      status(O.setpointShiftStatus, "Setpoint shift status", dpt),
+    );
+  }
   if (p.fanAutoObject)
     objects.push(
       command(O.fanAuto, "Automatic fan", "1.001"),

@@ -62,6 +62,17 @@ export const hvacGatewayParametersSchema = z
      * published source). Without them the general limits apply.
      */
     heatingLimits: setpointLimitsSchema.optional(),
+    /**
+     * Setpoint shift objects, as room operating units send them: "kelvin" on
+     * DPT 9.002 (a temperature difference), "steps" on DPT 6.010 (a signed count
+     * of setpointShiftStepK steps); "off" has none. The unit runs the last
+     * absolute setpoint plus the shift, inside the limits; a new absolute
+     * setpoint clears the shift (common practice, no published source).
+     */
+    setpointShift: z.enum(["off", "kelvin", "steps"]).default("off"),
+    setpointShiftStepK: z.number().min(0.1).max(2).default(0.5),
+    /** Largest shift either way, kelvin. */
+    setpointShiftMaxK: z.number().min(0.5).max(10).default(3),
     coolingLimits: setpointLimitsSchema.optional(),
     /** The unit's own sensor, or an external KNX value (object 13); only a primary may use "external". */
     roomTemperatureSource: z.enum(["unit", "external"]).default("unit"),

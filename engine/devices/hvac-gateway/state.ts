@@ -33,6 +33,10 @@ export interface HvacGatewayState {
   readonly modeRequest: HvacMode | null;
   /** The outdoor unit refuses `modeRequest`; reported on the mode conflict object (multi-split). */
   readonly modeConflict: boolean;
+  /** The last absolute setpoint from KNX (null until one arrives: the unit's own then counts). */
+  readonly baseSetpointC: number | null;
+  /** The setpoint shift in force, kelvin. */
+  readonly shiftK: number;
   /** Faults the gateway itself detects (supervision), reported beside the unit's on the fault objects. */
   readonly gatewayFaults: readonly string[];
 }

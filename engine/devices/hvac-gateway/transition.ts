@@ -408,6 +408,38 @@ function requesting(state: HvacGatewayState, mode: HvacMode): HvacGatewayState {
   return state.locked ? state : { ...state, modeRequest: mode };
 }
 
+/** The shift status in the object's own encoding: kelvin (9.002) or steps (6.010). */
+function shiftStatusEffect(shiftK: number, p: HvacGatewayParameters): DeviceEffect {
+  const value = p.setpointShift === "steps" ? Math.round(shiftK / p.setpointShiftStepK) : shiftK;
+  return { kind: "group.send", object: O.setpointShiftStatus, service: "write", value };
+}
+
+/** A relative setpoint: the base setpoint plus the shift, each kept inside its limits. */
+function onShift(state: HvacGatewayState, value: unknown, context: Context): Result {
+  const p = context.parameters;
+  if (p.setpointShift === "off" || typeof value !== "number" || state.unit === null)
+    return named(state, "setpoint.shift-refused");
+  const askedK = p.setpointShift === "steps" ? value * p.setpointShiftStepK : value;
+  const maxK = p.setpointShiftMaxK;
+  const base = state.baseSetpointC ?? state.unit.setpointC - state.shiftK;
+  const setpointC = clampSetpoint(
+    p,
+    base + Math.min(maxK, Math.max(-maxK, askedK)),
+    state.unit.direction,
+  );
+  // The shift reported is the one the limits left, so the status never promises more.
+  const shiftK = Math.round((setpointC - base) * 100) / 100;
+  const result = knxCommand(
+    state.locked ? state : { ...state, baseSetpointC: base, shiftK },
+    "setpoint",
+    { setpointC },
+    shiftK === askedK ? "setpoint.shifted" : "setpoint.shift-limited",
+    context,
+  );
+  if (state.locked) return result;
+  return { ...result, effects: [...result.effects, shiftStatusEffect(shiftK, p)] };
+}
+
 function sceneSetting(
   state: HvacGatewayState,
   scene: number,
@@ -472,14 +504,22 @@ function onWrite(
       if (typeof value !== "number")
         return named(state, "setpoint.refused", reassert(state, ["setpoint"], context));
       const setpointC = clampSetpoint(p, value, state.unit?.direction);
-      return knxCommand(
-        state,
+      const cleared = state.shiftK !== 0;
+      const result = knxCommand(
+        state.locked ? state : { ...state, baseSetpointC: setpointC, shiftK: 0 },
         "setpoint",
         { setpointC },
         setpointC === value ? "setpoint.accepted" : "setpoint.clamped",
         context,
       );
+      if (!cleared || state.locked) return result;
+      return {
+        ...result,
+        effects: [...result.effects, shiftStatusEffect(0, p)],
+      };
     }
+    case O.setpointShift:
+      return onShift(state, value, context);
     case O.mode: {
       const mode = typeof value === "number" ? modeFromDpt20105(value) : undefined;
       if (mode === undefined || p.modeControl !== "full") {
