@@ -30,6 +30,7 @@ export const gatewayObjects = {
   fanAutoStatus: 23,
   setpointShift: 24,
   setpointShiftStatus: 25,
+  outdoorTemperature: 26,
 } as const;
 
 const O = gatewayObjects;
@@ -88,6 +89,8 @@ export function gatewayGroupObjects(p: HvacGatewayParameters): GroupObjectSpec[]
       status(O.louvreStatus, "Louvre position status", "5.001"),
     );
   objects.push(status(O.roomTemperature, "Room temperature", "9.001"));
+  if (p.outdoorTemperature)
+    objects.push(status(O.outdoorTemperature, "Outdoor temperature", "9.001"));
   if (p.roomTemperatureSource === "external")
     objects.push(input(O.externalRoomTemperature, "External room temperature", "9.001"));
   if (p.scenes.length > 0)

@@ -94,6 +94,21 @@ export const hvacGatewayParametersSchema = z
       .default(0),
     /** For contacts that send 0 when open (normally closed wiring): 0 = open, 1 = closed. */
     windowContactInverted: z.boolean().default(false),
+    /** Outdoor temperature object (DPT 9.001) reporting the unit's outdoor sensor. */
+    outdoorTemperature: z.boolean().default(false),
+    /**
+     * Every status object (and the room and outdoor temperature) is sent again
+     * this often, so a visualisation or a supervising controller sees the
+     * gateway alive and catches up after missing a telegram (common practice,
+     * no published source). 0 = only on change.
+     */
+    statusCycleS: z
+      .number()
+      .int()
+      .min(0, "statusCycleS must be 0 (off) or 60..86400 s")
+      .max(86_400, "statusCycleS must be 0 (off) or 60..86400 s")
+      .refine((s) => s === 0 || s >= 60, "statusCycleS must be 0 (off) or 60..86400 s")
+      .default(0),
     /** Lock input (DPT 1.001, 1 = locked): KNX commands are refused while locked. */
     lock: z.boolean().default(false),
     /**

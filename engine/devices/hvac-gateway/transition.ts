@@ -45,6 +45,7 @@ const UNIT_WATCH_TIMER = "unit.watch";
 const EXTERNAL_WATCH_TIMER = "room.external-watch";
 const US_PER_S = 1_000_000;
 const WINDOW_DELAY_TIMER = "window.delay";
+const STATUS_CYCLE_TIMER = "status.cycle";
 
 /** The limits in force for the direction the unit runs: the mode's own when set, else the general ones. */
 function limitsFor(p: HvacGatewayParameters, direction: SystemDirection | undefined) {
@@ -131,6 +132,8 @@ function statusValues(
   }
   if (p.fanAutoObject)
     values.push({ fn: "fan", object: O.fanAutoStatus, value: unit.fanLevel === 0 });
+  if (p.outdoorTemperature && unit.outdoorC !== undefined)
+    values.push({ object: O.outdoorTemperature, value: unit.outdoorC });
   if (p.louvre) values.push({ fn: "louvre", object: O.louvreStatus, value: unit.louvrePercent });
   if (p.systemType === "multi-split")
     values.push(
@@ -664,8 +667,45 @@ function onWindow(state: HvacGatewayState, open: boolean, context: Context): Res
   );
 }
 
+function statusCycleEffects(context: Context): DeviceEffect[] {
+  const cycleS = context.parameters.statusCycleS;
+  return cycleS === 0
+    ? []
+    : [{ kind: "timer.set", name: STATUS_CYCLE_TIMER, delayUs: cycleS * US_PER_S }];
+}
+
+/** The heartbeat: every status object sends its value again, with the room temperature it holds. */
+function onStatusCycle(state: HvacGatewayState, context: Context): Result {
+  const effects: DeviceEffect[] = statusCycleEffects(context);
+  if (state.unit !== null) {
+    const entries = statusValues(
+      state.unit,
+      context.parameters,
+      state.modeConflict,
+      state.gatewayFaults,
+    );
+    for (const entry of entries)
+      effects.push({
+        kind: "group.send",
+        object: entry.object,
+        service: "write",
+        value: entry.value,
+      });
+    const roomC = context.objectValue(O.roomTemperature);
+    if (typeof roomC === "number" && context.parameters.roomTemperatureSending.mode !== "off")
+      effects.push({
+        kind: "group.send",
+        object: O.roomTemperature,
+        service: "write",
+        value: roomC,
+      });
+  }
+  return named(state, "status.heartbeat", effects);
+}
+
 function onTimer(state: HvacGatewayState, name: string, context: Context): Result {
   if (name === UNIT_WATCH_TIMER) return onUnitLost(state, context);
+  if (name === STATUS_CYCLE_TIMER) return onStatusCycle(state, context);
   if (name === WINDOW_DELAY_TIMER)
     return state.windowOpening
       ? onWindow({ ...state, windowOpening: false }, true, context)
@@ -710,6 +750,7 @@ export function hvacGatewayTransition(
           ...periodicAnnounceEffects(p.role, "gateway", context.links),
           watchUnit(context),
           ...watchExternal(context),
+          ...statusCycleEffects(context),
         ];
         if (sendsCyclically(p.roomTemperatureSending))
           effects.push({

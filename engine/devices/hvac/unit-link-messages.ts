@@ -74,6 +74,8 @@ export const unitStatusSchema = z.object({
    * controller reports it as the heat/cool in force when the unit only moves air.
    */
   systemDirection: systemDirectionSchema.optional(),
+  /** What the unit's outdoor sensor reads, °C (the outdoor temperature the room model uses). */
+  outdoorC: z.number().optional(),
   refusal: unitRefusalSchema.optional(),
 });
 export type UnitStatus = z.infer<typeof unitStatusSchema>;

@@ -56,6 +56,7 @@ function statusMessage(
     roomC: quantize(controlTemperatureC(state)),
     faults,
     modeAuthority: state.system?.authority === context.deviceId,
+    outdoorC: context.parameters.outdoorC,
     ...(state.system === null ? {} : { systemDirection: imposedDirection(state, context) }),
     ...(refusal === undefined ? {} : { refusal }),
   };
