@@ -31,6 +31,8 @@ export const gatewayObjects = {
   setpointShift: 24,
   setpointShiftStatus: 25,
   outdoorTemperature: 26,
+  localLock: 27,
+  localLockStatus: 28,
 } as const;
 
 const O = gatewayObjects;
@@ -100,6 +102,11 @@ export function gatewayGroupObjects(p: HvacGatewayParameters): GroupObjectSpec[]
     );
   if (p.windowContact) objects.push(input(O.windowContact, "Window contact", "1.019"));
   if (p.lock) objects.push(command(O.lock, "Lock", "1.001"));
+  if (p.localLock)
+    objects.push(
+      command(O.localLock, "Local operation lock", "1.001"),
+      status(O.localLockStatus, "Local operation lock status", "1.001"),
+    );
   objects.push(status(O.fault, "Fault", "1.005"), status(O.faultText, "Fault text", "16.000"));
   if (p.systemType === "multi-split")
     objects.push(

@@ -109,6 +109,11 @@ export const hvacGatewayParametersSchema = z
       .max(86_400, "statusCycleS must be 0 (off) or 60..86400 s")
       .refine((s) => s === 0 || s >= 60, "statusCycleS must be 0 (off) or 60..86400 s")
       .default(0),
+    /**
+     * Local operation lock (DPT 1.001, 1 = locked) with its status: the wall
+     * controllers' keys stop working while KNX commands still work.
+     */
+    localLock: z.boolean().default(false),
     /** Lock input (DPT 1.001, 1 = locked): KNX commands are refused while locked. */
     lock: z.boolean().default(false),
     /**

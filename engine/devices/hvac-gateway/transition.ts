@@ -132,6 +132,7 @@ function statusValues(
   }
   if (p.fanAutoObject)
     values.push({ fn: "fan", object: O.fanAutoStatus, value: unit.fanLevel === 0 });
+  if (p.localLock) values.push({ object: O.localLockStatus, value: unit.localLocked === true });
   if (p.outdoorTemperature && unit.outdoorC !== undefined)
     values.push({ object: O.outdoorTemperature, value: unit.outdoorC });
   if (p.louvre) values.push({ fn: "louvre", object: O.louvreStatus, value: unit.louvrePercent });
@@ -523,6 +524,14 @@ function onWrite(
     }
     case O.setpointShift:
       return onShift(state, value, context);
+    case O.localLock:
+      // Not a command for the unit's operation, so the gateway's own KNX lock does not hold it back.
+      if (!p.localLock) return { state, effects: [] };
+      return named(
+        state,
+        value === true ? "local.lock-requested" : "local.release-requested",
+        sendCommand({ localLock: value === true }, context),
+      );
     case O.mode: {
       const mode = typeof value === "number" ? modeFromDpt20105(value) : undefined;
       if (mode === undefined || p.modeControl !== "full") {

@@ -39,6 +39,11 @@ export const unitCommandSchema = z.object({
    * null hands control back to the unit's own sensor (the KNX value stopped arriving).
    */
   externalRoomC: z.number().nullable().optional(),
+  /**
+   * The gateway locks (true) or releases the local keys of the wall
+   * controllers on the unit; commands from KNX are not affected.
+   */
+  localLock: z.boolean().optional(),
 });
 export type UnitCommand = z.infer<typeof unitCommandSchema>;
 
@@ -76,6 +81,8 @@ export const unitStatusSchema = z.object({
   systemDirection: systemDirectionSchema.optional(),
   /** What the unit's outdoor sensor reads, °C (the outdoor temperature the room model uses). */
   outdoorC: z.number().optional(),
+  /** The wall controllers' keys are locked from KNX. */
+  localLocked: z.boolean().optional(),
   refusal: unitRefusalSchema.optional(),
 });
 export type UnitStatus = z.infer<typeof unitStatusSchema>;

@@ -28,6 +28,7 @@ export const indoorUnitType: DeviceType<IndoorUnitParameters, IndoorUnitState> =
     roomC: parameters.initialRoomC,
     externalRoomC: null,
     sensorOpen: false,
+    localLocked: false,
     controllers: {},
     linkFault: null,
     supervising: false,

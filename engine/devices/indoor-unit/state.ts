@@ -23,6 +23,8 @@ export interface IndoorUnitState {
   /** Room temperature from the primary gateway's KNX sensor, when one is supplied. */
   readonly externalRoomC: number | null;
   readonly sensorOpen: boolean;
+  /** Commands from wall controllers are refused (locked from KNX through the gateway). */
+  readonly localLocked: boolean;
   readonly controllers: Readonly<Record<string, KnownController>>;
   readonly linkFault: HvacFaultId | null;
   /** The grace after start is over: a missing primary now counts as a fault. */

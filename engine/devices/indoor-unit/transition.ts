@@ -57,6 +57,7 @@ function statusMessage(
     faults,
     modeAuthority: state.system?.authority === context.deviceId,
     outdoorC: context.parameters.outdoorC,
+    localLocked: state.localLocked,
     ...(state.system === null ? {} : { systemDirection: imposedDirection(state, context) }),
     ...(refusal === undefined ? {} : { refusal }),
   };
@@ -150,8 +151,24 @@ function applyCommand(
       transition: refusal.transition,
     };
   }
+  // Common practice, no published source: a lock from KNX stops the local keys, not KNX itself.
+  if (state.localLocked && controller?.controller === "wall-controller") {
+    const refusal = {
+      transition: "local.locked",
+      controller: from,
+      text: "wall controller keys are locked from KNX",
+    };
+    const reported = report(state, context, refusal);
+    return {
+      state: reported.state,
+      effects: [{ kind: "note", text: refusal.text }, ...reported.effects],
+      transition: refusal.transition,
+    };
+  }
   let next: IndoorUnitState = state;
   const refusals: UnitRefusal[] = [];
+  if (command.localLock !== undefined && controller?.controller === "gateway")
+    next = { ...next, localLocked: command.localLock };
   if (command.externalRoomC !== undefined) {
     // Common practice, no published source: only the primary controller may supply the room temperature.
     if (controller?.role === "primary") next = { ...next, externalRoomC: command.externalRoomC };
