@@ -33,6 +33,8 @@ export const gatewayObjects = {
   outdoorTemperature: 26,
   localLock: 27,
   localLockStatus: 28,
+  filterAlarm: 29,
+  filterReset: 30,
 } as const;
 
 const O = gatewayObjects;
@@ -102,6 +104,11 @@ export function gatewayGroupObjects(p: HvacGatewayParameters): GroupObjectSpec[]
     );
   if (p.windowContact) objects.push(input(O.windowContact, "Window contact", "1.019"));
   if (p.lock) objects.push(command(O.lock, "Lock", "1.001"));
+  if (p.filterAlarm)
+    objects.push(
+      status(O.filterAlarm, "Filter alarm", "1.005"),
+      command(O.filterReset, "Filter reset", "1.015"),
+    );
   if (p.localLock)
     objects.push(
       command(O.localLock, "Local operation lock", "1.001"),

@@ -132,6 +132,7 @@ function statusValues(
   }
   if (p.fanAutoObject)
     values.push({ fn: "fan", object: O.fanAutoStatus, value: unit.fanLevel === 0 });
+  if (p.filterAlarm) values.push({ object: O.filterAlarm, value: unit.filterAlarm === true });
   if (p.localLock) values.push({ object: O.localLockStatus, value: unit.localLocked === true });
   if (p.outdoorTemperature && unit.outdoorC !== undefined)
     values.push({ object: O.outdoorTemperature, value: unit.outdoorC });
@@ -524,6 +525,10 @@ function onWrite(
     }
     case O.setpointShift:
       return onShift(state, value, context);
+    case O.filterReset:
+      // DPT spec §3.1 (1.015): 1 = reset; 0 asks for nothing.
+      if (!p.filterAlarm || value !== true) return { state, effects: [] };
+      return named(state, "filter.reset", sendCommand({ filterReset: true }, context));
     case O.localLock:
       // Not a command for the unit's operation, so the gateway's own KNX lock does not hold it back.
       if (!p.localLock) return { state, effects: [] };

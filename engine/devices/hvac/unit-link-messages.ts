@@ -44,6 +44,8 @@ export const unitCommandSchema = z.object({
    * controllers on the unit; commands from KNX are not affected.
    */
   localLock: z.boolean().optional(),
+  /** The filter was cleaned or changed: restart the filter's running-time count. */
+  filterReset: z.literal(true).optional(),
 });
 export type UnitCommand = z.infer<typeof unitCommandSchema>;
 
@@ -83,6 +85,8 @@ export const unitStatusSchema = z.object({
   outdoorC: z.number().optional(),
   /** The wall controllers' keys are locked from KNX. */
   localLocked: z.boolean().optional(),
+  /** The fan has run long enough that the filter is due for cleaning. */
+  filterAlarm: z.boolean().optional(),
   refusal: unitRefusalSchema.optional(),
 });
 export type UnitStatus = z.infer<typeof unitStatusSchema>;

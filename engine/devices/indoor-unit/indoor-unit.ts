@@ -29,6 +29,7 @@ export const indoorUnitType: DeviceType<IndoorUnitParameters, IndoorUnitState> =
     externalRoomC: null,
     sensorOpen: false,
     localLocked: false,
+    filterRunS: 0,
     controllers: {},
     linkFault: null,
     supervising: false,

@@ -29,6 +29,12 @@ export const indoorUnitParametersSchema = z.object({
    * (common practice, no published source). The unit rounds a commanded setpoint
    * to its nearest step (halves up) and reports the value it took.
    */
+  /**
+   * Fan running hours after which the unit asks for its filter to be cleaned;
+   * 0 = no filter alarm. Manufacturers set a few thousand hours (common
+   * practice, no published source); a lab sets minutes to see it.
+   */
+  filterAlarmAfterH: z.number().min(0).max(20_000).default(0),
   setpointResolutionK: z
     .union([z.literal(0.5), z.literal(1)], { error: "setpointResolutionK must be 0.5 or 1" })
     .default(0.5),

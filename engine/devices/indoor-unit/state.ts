@@ -25,6 +25,8 @@ export interface IndoorUnitState {
   readonly sensorOpen: boolean;
   /** Commands from wall controllers are refused (locked from KNX through the gateway). */
   readonly localLocked: boolean;
+  /** Seconds the unit has run since the filter was last reset. */
+  readonly filterRunS: number;
   readonly controllers: Readonly<Record<string, KnownController>>;
   readonly linkFault: HvacFaultId | null;
   /** The grace after start is over: a missing primary now counts as a fault. */

@@ -33,6 +33,12 @@ export function controlTemperatureC(state: IndoorUnitState): number | null {
   return state.sensorOpen ? null : state.roomC;
 }
 
+/** Common practice, no published source: the filter is due after the configured fan running time. */
+function filterDue(state: IndoorUnitState, context: Context): boolean {
+  const hours = context.parameters.filterAlarmAfterH;
+  return hours > 0 && state.filterRunS >= hours * 3600;
+}
+
 function quantize(valueC: number | null): number | null {
   return valueC === null ? null : Math.round(valueC * 100) / 100;
 }
@@ -58,6 +64,7 @@ function statusMessage(
     modeAuthority: state.system?.authority === context.deviceId,
     outdoorC: context.parameters.outdoorC,
     localLocked: state.localLocked,
+    filterAlarm: filterDue(state, context),
     ...(state.system === null ? {} : { systemDirection: imposedDirection(state, context) }),
     ...(refusal === undefined ? {} : { refusal }),
   };
@@ -169,6 +176,7 @@ function applyCommand(
   const refusals: UnitRefusal[] = [];
   if (command.localLock !== undefined && controller?.controller === "gateway")
     next = { ...next, localLocked: command.localLock };
+  if (command.filterReset === true) next = { ...next, filterRunS: 0 };
   if (command.externalRoomC !== undefined) {
     // Common practice, no published source: only the primary controller may supply the room temperature.
     if (controller?.role === "primary") next = { ...next, externalRoomC: command.externalRoomC };
@@ -237,21 +245,27 @@ function stepModel(state: IndoorUnitState, context: Context): Result {
     },
   );
   const before = state.autoDirection;
+  const ranS = state.power ? (context.nowUs - state.lastStepUs) / US_PER_S : 0;
   const next = resolveAutoDirection(
-    { ...state, roomC, lastStepUs: context.nowUs },
+    { ...state, roomC, lastStepUs: context.nowUs, filterRunS: state.filterRunS + ranS },
     parameters.autoHysteresisK,
   );
+  const filterChanged = filterDue(next, context) !== filterDue(state, context);
   const effects: DeviceEffect[] = [
     { kind: "timer.set", name: MODEL_TIMER, delayUs: Math.round(parameters.modelStepS * US_PER_S) },
   ];
   const autoSwitched = next.mode === "auto" && next.power && next.autoDirection !== before;
-  if (!autoSwitched && quantize(controlTemperatureC(next)) === next.reportedRoomC)
+  if (!autoSwitched && !filterChanged && quantize(controlTemperatureC(next)) === next.reportedRoomC)
     return { state: next, effects };
   const reported = report(next, context);
   return {
     state: reported.state,
     effects: [...effects, ...reported.effects],
-    ...(autoSwitched ? { transition: "auto.direction-changed" } : {}),
+    ...(autoSwitched
+      ? { transition: "auto.direction-changed" }
+      : filterChanged
+        ? { transition: "filter.alarm" }
+        : {}),
   };
 }
 
