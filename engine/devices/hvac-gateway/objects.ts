@@ -35,6 +35,7 @@ export const gatewayObjects = {
   localLockStatus: 28,
   filterAlarm: 29,
   filterReset: 30,
+  frostProtection: 31,
 } as const;
 
 const O = gatewayObjects;
@@ -104,6 +105,8 @@ export function gatewayGroupObjects(p: HvacGatewayParameters): GroupObjectSpec[]
     );
   if (p.windowContact) objects.push(input(O.windowContact, "Window contact", "1.019"));
   if (p.lock) objects.push(command(O.lock, "Lock", "1.001"));
+  if (p.frostProtectionStatus)
+    objects.push(status(O.frostProtection, "Frost protection active", "1.002"));
   if (p.filterAlarm)
     objects.push(
       status(O.filterAlarm, "Filter alarm", "1.005"),

@@ -94,6 +94,8 @@ export const hvacGatewayParametersSchema = z
       .default(0),
     /** For contacts that send 0 when open (normally closed wiring): 0 = open, 1 = closed. */
     windowContactInverted: z.boolean().default(false),
+    /** Status object (DPT 1.002) showing that the unit heats for frost protection. */
+    frostProtectionStatus: z.boolean().default(false),
     /** Filter alarm (DPT 1.005) and filter reset (DPT 1.015) objects. */
     filterAlarm: z.boolean().default(false),
     /** Outdoor temperature object (DPT 9.001) reporting the unit's outdoor sensor. */

@@ -132,6 +132,8 @@ function statusValues(
   }
   if (p.fanAutoObject)
     values.push({ fn: "fan", object: O.fanAutoStatus, value: unit.fanLevel === 0 });
+  if (p.frostProtectionStatus)
+    values.push({ object: O.frostProtection, value: unit.frostProtection === true });
   if (p.filterAlarm) values.push({ object: O.filterAlarm, value: unit.filterAlarm === true });
   if (p.localLock) values.push({ object: O.localLockStatus, value: unit.localLocked === true });
   if (p.outdoorTemperature && unit.outdoorC !== undefined)

@@ -87,6 +87,8 @@ export const unitStatusSchema = z.object({
   localLocked: z.boolean().optional(),
   /** The fan has run long enough that the filter is due for cleaning. */
   filterAlarm: z.boolean().optional(),
+  /** The unit heats to hold its frost-protection minimum, whatever it was set to. */
+  frostProtection: z.boolean().optional(),
   refusal: unitRefusalSchema.optional(),
 });
 export type UnitStatus = z.infer<typeof unitStatusSchema>;

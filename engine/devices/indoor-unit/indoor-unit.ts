@@ -30,6 +30,7 @@ export const indoorUnitType: DeviceType<IndoorUnitParameters, IndoorUnitState> =
     sensorOpen: false,
     localLocked: false,
     filterRunS: 0,
+    frostActive: false,
     controllers: {},
     linkFault: null,
     supervising: false,

@@ -35,11 +35,25 @@ export const indoorUnitParametersSchema = z.object({
    * practice, no published source); a lab sets minutes to see it.
    */
   filterAlarmAfterH: z.number().min(0).max(20_000).default(0),
+  /**
+   * Frost / building protection: below this room temperature the unit heats,
+   * off or in any mode, until the room is FROST_BAND_K above it. 0 = off;
+   * 5..12 °C when on (7 °C is a usual choice; common practice, no published
+   * source). A simulation; it does not replace the manufacturer's
+   * instructions or local codes for protecting a real building.
+   */
+  frostProtectionC: z
+    .number()
+    .refine((c) => c === 0 || (c >= 5 && c <= 12), "frostProtectionC must be 0 (off) or 5..12 °C")
+    .default(0),
   setpointResolutionK: z
     .union([z.literal(0.5), z.literal(1)], { error: "setpointResolutionK must be 0.5 or 1" })
     .default(0.5),
 });
 export type IndoorUnitParameters = z.infer<typeof indoorUnitParametersSchema>;
+
+/** Frost protection stops heating this far above its minimum (common practice, no published source). */
+export const FROST_BAND_K = 2;
 
 /** Setpoints the unit itself accepts, °C; controllers apply their own, narrower limits. */
 export const UNIT_SETPOINT_RANGE_C = { min: 5, max: 40 } as const;

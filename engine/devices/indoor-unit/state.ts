@@ -27,6 +27,8 @@ export interface IndoorUnitState {
   readonly localLocked: boolean;
   /** Seconds the unit has run since the filter was last reset. */
   readonly filterRunS: number;
+  /** Heating to hold the frost-protection minimum. */
+  readonly frostActive: boolean;
   readonly controllers: Readonly<Record<string, KnownController>>;
   readonly linkFault: HvacFaultId | null;
   /** The grace after start is over: a missing primary now counts as a fault. */

@@ -16,7 +16,7 @@ import {
   type UnitRefusal,
   type UnitStatus,
 } from "../hvac/unit-link-messages";
-import { unitSetpointC, type IndoorUnitParameters } from "./parameters";
+import { FROST_BAND_K, unitSetpointC, type IndoorUnitParameters } from "./parameters";
 import type { IndoorUnitState } from "./state";
 import { stepRoomTemperature } from "./thermal-model";
 
@@ -65,6 +65,7 @@ function statusMessage(
     outdoorC: context.parameters.outdoorC,
     localLocked: state.localLocked,
     filterAlarm: filterDue(state, context),
+    frostProtection: state.frostActive,
     ...(state.system === null ? {} : { systemDirection: imposedDirection(state, context) }),
     ...(refusal === undefined ? {} : { refusal }),
   };
@@ -231,13 +232,32 @@ function applyCommand(
   };
 }
 
+/** Whether frost protection heats after this reading: on below the minimum, off a band above it. */
+function frostActiveAfter(state: IndoorUnitState, context: Context): boolean {
+  const minC = context.parameters.frostProtectionC;
+  const controlC = controlTemperatureC(state);
+  if (minC === 0 || controlC === null) return false;
+  if (state.frostActive) return controlC < minC + FROST_BAND_K;
+  return controlC < minC;
+}
+
 function stepModel(state: IndoorUnitState, context: Context): Result {
   const parameters = context.parameters;
-  const direction = state.power ? directionOfMode(state.mode, state.autoDirection) : "none";
+  const frost = state.frostActive;
+  const direction = frost
+    ? "heating"
+    : state.power
+      ? directionOfMode(state.mode, state.autoDirection)
+      : "none";
   const roomC = stepRoomTemperature(
     state.roomC,
     (context.nowUs - state.lastStepUs) / US_PER_S,
-    { direction, setpointC: state.setpointC, rateFactor: state.mode === "dry" ? 0.5 : 1 },
+    {
+      direction,
+      // Aims past the band's top so the band, not the approach, ends the heating.
+      setpointC: frost ? parameters.frostProtectionC + FROST_BAND_K + 1 : state.setpointC,
+      rateFactor: !frost && state.mode === "dry" ? 0.5 : 1,
+    },
     {
       outdoorC: parameters.outdoorC,
       timeConstantS: parameters.timeConstantS,
@@ -246,16 +266,24 @@ function stepModel(state: IndoorUnitState, context: Context): Result {
   );
   const before = state.autoDirection;
   const ranS = state.power ? (context.nowUs - state.lastStepUs) / US_PER_S : 0;
-  const next = resolveAutoDirection(
+  const stepped = resolveAutoDirection(
     { ...state, roomC, lastStepUs: context.nowUs, filterRunS: state.filterRunS + ranS },
     parameters.autoHysteresisK,
   );
+  const frostActive = frostActiveAfter(stepped, context);
+  const frostChanged = frostActive !== state.frostActive;
+  const next = frostChanged ? { ...stepped, frostActive } : stepped;
   const filterChanged = filterDue(next, context) !== filterDue(state, context);
   const effects: DeviceEffect[] = [
     { kind: "timer.set", name: MODEL_TIMER, delayUs: Math.round(parameters.modelStepS * US_PER_S) },
   ];
   const autoSwitched = next.mode === "auto" && next.power && next.autoDirection !== before;
-  if (!autoSwitched && !filterChanged && quantize(controlTemperatureC(next)) === next.reportedRoomC)
+  if (
+    !autoSwitched &&
+    !filterChanged &&
+    !frostChanged &&
+    quantize(controlTemperatureC(next)) === next.reportedRoomC
+  )
     return { state: next, effects };
   const reported = report(next, context);
   return {
@@ -263,9 +291,11 @@ function stepModel(state: IndoorUnitState, context: Context): Result {
     effects: [...effects, ...reported.effects],
     ...(autoSwitched
       ? { transition: "auto.direction-changed" }
-      : filterChanged
-        ? { transition: "filter.alarm" }
-        : {}),
+      : frostChanged
+        ? { transition: frostActive ? "frost.protection-on" : "frost.protection-off" }
+        : filterChanged
+          ? { transition: "filter.alarm" }
+          : {}),
   };
 }
 
