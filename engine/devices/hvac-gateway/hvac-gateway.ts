@@ -36,6 +36,8 @@ export const hvacGatewayType: DeviceType<HvacGatewayParameters, HvacGatewayState
     modeConflict: false,
     baseSetpointC: null,
     shiftK: 0,
+    operatingMode: 1,
+    occupied: null,
     gatewayFaults: [],
   }),
   transition: hvacGatewayTransition,

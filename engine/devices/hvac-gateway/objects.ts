@@ -36,6 +36,9 @@ export const gatewayObjects = {
   filterAlarm: 29,
   filterReset: 30,
   frostProtection: 31,
+  operatingMode: 32,
+  operatingModeStatus: 33,
+  presence: 34,
 } as const;
 
 const O = gatewayObjects;
@@ -105,6 +108,12 @@ export function gatewayGroupObjects(p: HvacGatewayParameters): GroupObjectSpec[]
     );
   if (p.windowContact) objects.push(input(O.windowContact, "Window contact", "1.019"));
   if (p.lock) objects.push(command(O.lock, "Lock", "1.001"));
+  if (p.operatingMode)
+    objects.push(
+      input(O.operatingMode, "Operating mode", "20.102"),
+      status(O.operatingModeStatus, "Operating mode status", "20.102"),
+      input(O.presence, "Presence", "1.018"),
+    );
   if (p.frostProtectionStatus)
     objects.push(status(O.frostProtection, "Frost protection active", "1.002"));
   if (p.filterAlarm)

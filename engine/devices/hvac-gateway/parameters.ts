@@ -94,6 +94,19 @@ export const hvacGatewayParametersSchema = z
       .default(0),
     /** For contacts that send 0 when open (normally closed wiring): 0 = open, 1 = closed. */
     windowContactInverted: z.boolean().default(false),
+    /**
+     * Operating mode input (DPT 20.102: 0 auto, 1 comfort, 2 standby, 3 economy,
+     * 4 building protection) with its status, and a presence input (DPT 1.018).
+     * The setpoint from KNX is the comfort setpoint; standby and economy set it
+     * back (down while heating, up while cooling), building protection holds
+     * the protection setpoints, and an unoccupied room in comfort or auto runs
+     * standby (common practice, no published source).
+     */
+    operatingMode: z.boolean().default(false),
+    standbySetbackK: z.number().min(0).max(10).default(2),
+    economySetbackK: z.number().min(0).max(15).default(4),
+    protectionHeatingC: z.number().min(5).max(15).default(7),
+    protectionCoolingC: z.number().min(28).max(40).default(35),
     /** Status object (DPT 1.002) showing that the unit heats for frost protection. */
     frostProtectionStatus: z.boolean().default(false),
     /** Filter alarm (DPT 1.005) and filter reset (DPT 1.015) objects. */

@@ -37,6 +37,10 @@ export interface HvacGatewayState {
   readonly baseSetpointC: number | null;
   /** The setpoint shift in force, kelvin. */
   readonly shiftK: number;
+  /** DPT 20.102 operating mode from KNX (1 comfort until told otherwise). */
+  readonly operatingMode: number;
+  /** Presence from KNX; null until a presence value arrives. */
+  readonly occupied: boolean | null;
   /** Faults the gateway itself detects (supervision), reported beside the unit's on the fault objects. */
   readonly gatewayFaults: readonly string[];
 }

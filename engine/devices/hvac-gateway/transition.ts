@@ -415,6 +415,53 @@ function requesting(state: HvacGatewayState, mode: HvacMode): HvacGatewayState {
   return state.locked ? state : { ...state, modeRequest: mode };
 }
 
+/** The operating level in force: DPT 20.102 codes; presence turns comfort (or auto) into standby when empty. */
+function levelInForce(state: HvacGatewayState): number {
+  const asked = state.operatingMode;
+  if ((asked === 0 || asked === 1) && state.occupied === false) return 2;
+  return asked === 0 ? 1 : asked;
+}
+
+/** The setpoint the unit runs for a comfort setpoint at the level in force. */
+function setBack(state: HvacGatewayState, comfortC: number, context: Context): number {
+  const p = context.parameters;
+  if (!p.operatingMode) return comfortC;
+  const cooling = state.unit?.direction === "cooling";
+  const sign = cooling ? 1 : -1;
+  switch (levelInForce(state)) {
+    case 2:
+      return comfortC + sign * p.standbySetbackK;
+    case 3:
+      return comfortC + sign * p.economySetbackK;
+    case 4:
+      return cooling ? p.protectionCoolingC : p.protectionHeatingC;
+    default:
+      return comfortC;
+  }
+}
+
+/** A new operating mode or presence: the unit gets the setpoint for the level now in force. */
+function onOperatingLevel(
+  state: HvacGatewayState,
+  next: HvacGatewayState,
+  context: Context,
+): Result {
+  const p = context.parameters;
+  if (!p.operatingMode || state.unit === null) return named(next, "operating-mode.stored");
+  const comfortC = next.baseSetpointC ?? state.unit.setpointC;
+  const withComfort = { ...next, baseSetpointC: comfortC };
+  const shiftedC = clampSetpoint(p, comfortC + next.shiftK, state.unit.direction);
+  return named(withComfort, "operating-mode.applied", [
+    ...sendCommand({ setpointC: setBack(withComfort, shiftedC, context) }, context),
+    {
+      kind: "group.send",
+      object: O.operatingModeStatus,
+      service: "write",
+      value: levelInForce(next),
+    },
+  ]);
+}
+
 /** The shift status in the object's own encoding: kelvin (9.002) or steps (6.010). */
 function shiftStatusEffect(shiftK: number, p: HvacGatewayParameters): DeviceEffect {
   const value = p.setpointShift === "steps" ? Math.round(shiftK / p.setpointShiftStepK) : shiftK;
@@ -429,13 +476,14 @@ function onShift(state: HvacGatewayState, value: unknown, context: Context): Res
   const askedK = p.setpointShift === "steps" ? value * p.setpointShiftStepK : value;
   const maxK = p.setpointShiftMaxK;
   const base = state.baseSetpointC ?? state.unit.setpointC - state.shiftK;
-  const setpointC = clampSetpoint(
+  const shiftedC = clampSetpoint(
     p,
     base + Math.min(maxK, Math.max(-maxK, askedK)),
     state.unit.direction,
   );
   // The shift reported is the one the limits left, so the status never promises more.
-  const shiftK = Math.round((setpointC - base) * 100) / 100;
+  const shiftK = Math.round((shiftedC - base) * 100) / 100;
+  const setpointC = setBack(state, shiftedC, context);
   const result = knxCommand(
     state.locked ? state : { ...state, baseSetpointC: base, shiftK },
     "setpoint",
@@ -510,13 +558,13 @@ function onWrite(
     case O.setpoint: {
       if (typeof value !== "number")
         return named(state, "setpoint.refused", reassert(state, ["setpoint"], context));
-      const setpointC = clampSetpoint(p, value, state.unit?.direction);
+      const comfortC = clampSetpoint(p, value, state.unit?.direction);
       const cleared = state.shiftK !== 0;
       const result = knxCommand(
-        state.locked ? state : { ...state, baseSetpointC: setpointC, shiftK: 0 },
+        state.locked ? state : { ...state, baseSetpointC: comfortC, shiftK: 0 },
         "setpoint",
-        { setpointC },
-        setpointC === value ? "setpoint.accepted" : "setpoint.clamped",
+        { setpointC: setBack(state, comfortC, context) },
+        comfortC === value ? "setpoint.accepted" : "setpoint.clamped",
         context,
       );
       if (!cleared || state.locked) return result;
@@ -527,6 +575,15 @@ function onWrite(
     }
     case O.setpointShift:
       return onShift(state, value, context);
+    case O.operatingMode:
+      // DPT spec §4 (20.102): 0 auto, 1 comfort, 2 standby, 3 economy, 4 building protection.
+      if (!p.operatingMode || typeof value !== "number" || value < 0 || value > 4)
+        return named(state, "operating-mode.refused");
+      return onOperatingLevel(state, { ...state, operatingMode: value }, context);
+    case O.presence:
+      // DPT spec §3.1 (1.018): 1 occupied.
+      if (!p.operatingMode) return { state, effects: [] };
+      return onOperatingLevel(state, { ...state, occupied: value === true }, context);
     case O.filterReset:
       // DPT spec §3.1 (1.015): 1 = reset; 0 asks for nothing.
       if (!p.filterAlarm || value !== true) return { state, effects: [] };
@@ -782,7 +839,9 @@ export function hvacGatewayTransition(
         if (
           event.kind === "group.response" &&
           event.object !== O.externalRoomTemperature &&
-          event.object !== O.windowContact
+          event.object !== O.windowContact &&
+          event.object !== O.operatingMode &&
+          event.object !== O.presence
         )
           return { state: current, effects: [] };
         return onWrite(current, event.object, event.value, context);
