@@ -24,6 +24,7 @@ import {
   indoorUnitNoPrimaryRule,
   indoorUnitSeveralOutdoorUnitsRule,
   indoorUnitTwoPrimariesRule,
+  outdoorUnitLeaderNotMemberRule,
 } from "./hvac-rules";
 import { lineExpectedLoadRule } from "./line-load";
 import { objectStatusOnCommandAddressRule, objectStatusUnlinkedRule } from "./object-rules";
@@ -57,6 +58,7 @@ export const benchCheckRules: readonly BenchCheckRule[] = [
   gatewayExternalTemperatureOnSecondaryRule,
   gatewayMultiSplitWithoutOutdoorUnitRule,
   gatewaySingleSplitOnOutdoorUnitRule,
+  outdoorUnitLeaderNotMemberRule,
   panelPresetOutOfRangeRule,
   lineExpectedLoadRule,
   // Last: it only reports what the specific rules above did not already explain.

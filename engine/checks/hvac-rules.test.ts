@@ -163,4 +163,30 @@ describe("HVAC bench rules, counted per indoor unit", () => {
       ],
     ]);
   });
+
+  it("an outdoor unit following a leader that is not one of its indoor units is an error", () => {
+    // Common practice, no published source: a fixed leader must be a member of the system.
+    const withLeader = (leaderUnit: string) =>
+      bench({
+        devices: [
+          device("iu", "indoor-unit"),
+          device("gw", "hvac-gateway", { systemType: "multi-split" }),
+          device("ou", "outdoor-unit", { modeAuthority: "leader", leaderUnit }),
+        ],
+        unitLinks: [
+          { id: "ctl", members: ["iu", "gw"] },
+          { id: "refrigerant", members: ["iu", "ou"] },
+        ],
+      });
+    expect(hvacRules(withLeader("iu-typo"))).toEqual([]);
+    expect(
+      checkBench(withLeader("iu-typo"), { rules: ["outdoor-unit.leader-not-member"] }),
+    ).toEqual([
+      expect.objectContaining({
+        severity: "error",
+        location: { device: "ou", parameter: "leaderUnit" },
+      }),
+    ]);
+    expect(checkBench(withLeader("iu"), { rules: ["outdoor-unit.leader-not-member"] })).toEqual([]);
+  });
 });

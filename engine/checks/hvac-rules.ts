@@ -267,3 +267,29 @@ export const gatewayExternalTemperatureOnSecondaryRule: BenchCheckRule = {
     return findings;
   },
 };
+
+/**
+ * An outdoor unit set to follow a leader must name an indoor unit on its own
+ * refrigerant system; otherwise nobody ever holds mode authority and the
+ * members heat and cool against each other.
+ */
+export const outdoorUnitLeaderNotMemberRule: BenchCheckRule = {
+  id: "outdoor-unit.leader-not-member",
+  severity: "error",
+  title: "An outdoor unit's leader is not one of its indoor units",
+  check(view) {
+    return devicesOfType(view, "outdoor-unit").flatMap((outdoor) => {
+      const p = view.devices.get(outdoor)?.parameters;
+      if (p?.modeAuthority !== "leader" || typeof p.leaderUnit !== "string") return [];
+      if (neighbours(view, outdoor, ["indoor-unit"]).includes(p.leaderUnit)) return [];
+      return [
+        {
+          rule: this.id,
+          severity: this.severity,
+          message: `${nameOf(view, outdoor)} follows leader "${p.leaderUnit}", which is not an indoor unit on its refrigerant system, so no unit ever holds mode authority`,
+          location: { device: outdoor, parameter: "leaderUnit" },
+        },
+      ];
+    });
+  },
+};
