@@ -39,6 +39,7 @@ export const gatewayObjects = {
   operatingMode: 32,
   operatingModeStatus: 33,
   presence: 34,
+  fanHeld: 35,
 } as const;
 
 const O = gatewayObjects;
@@ -114,6 +115,7 @@ export function gatewayGroupObjects(p: HvacGatewayParameters): GroupObjectSpec[]
       status(O.operatingModeStatus, "Operating mode status", "20.102"),
       input(O.presence, "Presence", "1.018"),
     );
+  if (p.fanHeldStatus) objects.push(status(O.fanHeld, "Defrost / hot start", "1.002"));
   if (p.frostProtectionStatus)
     objects.push(status(O.frostProtection, "Frost protection active", "1.002"));
   if (p.filterAlarm)

@@ -107,6 +107,8 @@ export const hvacGatewayParametersSchema = z
     economySetbackK: z.number().min(0).max(15).default(4),
     protectionHeatingC: z.number().min(5).max(15).default(7),
     protectionCoolingC: z.number().min(28).max(40).default(35),
+    /** Status object (DPT 1.002): the fan is held off for a hot start or a defrost. */
+    fanHeldStatus: z.boolean().default(false),
     /** Status object (DPT 1.002) showing that the unit heats for frost protection. */
     frostProtectionStatus: z.boolean().default(false),
     /** Filter alarm (DPT 1.005) and filter reset (DPT 1.015) objects. */

@@ -132,6 +132,7 @@ function statusValues(
   }
   if (p.fanAutoObject)
     values.push({ fn: "fan", object: O.fanAutoStatus, value: unit.fanLevel === 0 });
+  if (p.fanHeldStatus) values.push({ object: O.fanHeld, value: (unit.fanHeld ?? null) !== null });
   if (p.frostProtectionStatus)
     values.push({ object: O.frostProtection, value: unit.frostProtection === true });
   if (p.filterAlarm) values.push({ object: O.filterAlarm, value: unit.filterAlarm === true });

@@ -89,6 +89,8 @@ export const unitStatusSchema = z.object({
   filterAlarm: z.boolean().optional(),
   /** The unit heats to hold its frost-protection minimum, whatever it was set to. */
   frostProtection: z.boolean().optional(),
+  /** Why the fan is held off while heating: the coil warming up, or a defrost cycle; null when it runs. */
+  fanHeld: z.enum(["hot-start", "defrost"]).nullable().optional(),
   refusal: unitRefusalSchema.optional(),
 });
 export type UnitStatus = z.infer<typeof unitStatusSchema>;

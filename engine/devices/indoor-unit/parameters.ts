@@ -46,6 +46,21 @@ export const indoorUnitParametersSchema = z.object({
     .number()
     .refine((c) => c === 0 || (c >= 5 && c <= 12), "frostProtectionC must be 0 (off) or 5..12 °C")
     .default(0),
+  /**
+   * Hot start: when heating begins the fan is held off this long while the coil
+   * warms, so the room gets no cold draught; no heat reaches the room meanwhile.
+   * 0 = off. A minute or two is usual (common practice, no published source).
+   */
+  hotStartS: z.number().int().min(0).max(600).default(0),
+  /**
+   * Defrost: while heating with the outdoor temperature below
+   * defrostBelowOutdoorC, every defrostEveryMin the outdoor coil is defrosted for
+   * defrostS, the fan held off and no heat delivered. defrostEveryMin 0 = off
+   * (common practice, no published source; figures vary by unit).
+   */
+  defrostEveryMin: z.number().int().min(0).max(600).default(0),
+  defrostS: z.number().int().min(30).max(1800).default(300),
+  defrostBelowOutdoorC: z.number().min(-20).max(10).default(3),
   setpointResolutionK: z
     .union([z.literal(0.5), z.literal(1)], { error: "setpointResolutionK must be 0.5 or 1" })
     .default(0.5),

@@ -66,6 +66,7 @@ function statusMessage(
     localLocked: state.localLocked,
     filterAlarm: filterDue(state, context),
     frostProtection: state.frostActive,
+    fanHeld: state.fanHeld,
     ...(state.system === null ? {} : { systemDirection: imposedDirection(state, context) }),
     ...(refusal === undefined ? {} : { refusal }),
   };
@@ -241,14 +242,53 @@ function frostActiveAfter(state: IndoorUnitState, context: Context): boolean {
   return controlC < minC;
 }
 
+type FanHold = Pick<IndoorUnitState, "fanHeld" | "heldUntilUs" | "wasHeating" | "nextDefrostUs">;
+
+/** Hot start when heating begins, then defrost cycles in the cold (common practice, no published source). */
+function fanHoldAt(state: IndoorUnitState, heating: boolean, context: Context): FanHold {
+  const p = context.parameters;
+  const now = context.nowUs;
+  if (!heating) return { fanHeld: null, heldUntilUs: 0, wasHeating: false, nextDefrostUs: null };
+  const every = p.defrostEveryMin * 60 * US_PER_S;
+  if (!state.wasHeating)
+    return {
+      fanHeld: p.hotStartS > 0 ? "hot-start" : null,
+      heldUntilUs: now + p.hotStartS * US_PER_S,
+      wasHeating: true,
+      nextDefrostUs: every > 0 ? now + every : null,
+    };
+  let hold: FanHold = {
+    fanHeld: state.fanHeld,
+    heldUntilUs: state.heldUntilUs,
+    wasHeating: state.wasHeating,
+    nextDefrostUs: state.nextDefrostUs,
+  };
+  if (hold.fanHeld !== null && now >= hold.heldUntilUs) hold = { ...hold, fanHeld: null };
+  if (
+    hold.fanHeld === null &&
+    hold.nextDefrostUs !== null &&
+    now >= hold.nextDefrostUs &&
+    p.outdoorC < p.defrostBelowOutdoorC
+  )
+    hold = {
+      ...hold,
+      fanHeld: "defrost",
+      heldUntilUs: now + p.defrostS * US_PER_S,
+      nextDefrostUs: now + every,
+    };
+  return hold;
+}
+
 function stepModel(state: IndoorUnitState, context: Context): Result {
   const parameters = context.parameters;
   const frost = state.frostActive;
-  const direction = frost
+  const asked = frost
     ? "heating"
     : state.power
       ? directionOfMode(state.mode, state.autoDirection)
       : "none";
+  // While the fan is held off no heat reaches the room.
+  const direction = state.fanHeld !== null ? "none" : asked;
   const roomC = stepRoomTemperature(
     state.roomC,
     (context.nowUs - state.lastStepUs) / US_PER_S,
@@ -272,7 +312,9 @@ function stepModel(state: IndoorUnitState, context: Context): Result {
   );
   const frostActive = frostActiveAfter(stepped, context);
   const frostChanged = frostActive !== state.frostActive;
-  const next = frostChanged ? { ...stepped, frostActive } : stepped;
+  const hold = fanHoldAt(state, asked === "heating", context);
+  const holdChanged = hold.fanHeld !== state.fanHeld;
+  const next = { ...stepped, frostActive, ...hold };
   const filterChanged = filterDue(next, context) !== filterDue(state, context);
   const effects: DeviceEffect[] = [
     { kind: "timer.set", name: MODEL_TIMER, delayUs: Math.round(parameters.modelStepS * US_PER_S) },
@@ -282,6 +324,7 @@ function stepModel(state: IndoorUnitState, context: Context): Result {
     !autoSwitched &&
     !filterChanged &&
     !frostChanged &&
+    !holdChanged &&
     quantize(controlTemperatureC(next)) === next.reportedRoomC
   )
     return { state: next, effects };
@@ -291,11 +334,15 @@ function stepModel(state: IndoorUnitState, context: Context): Result {
     effects: [...effects, ...reported.effects],
     ...(autoSwitched
       ? { transition: "auto.direction-changed" }
-      : frostChanged
-        ? { transition: frostActive ? "frost.protection-on" : "frost.protection-off" }
-        : filterChanged
-          ? { transition: "filter.alarm" }
-          : {}),
+      : holdChanged
+        ? {
+            transition: `fan.${next.fanHeld ?? state.fanHeld}-${next.fanHeld === null ? "end" : "begin"}`,
+          }
+        : frostChanged
+          ? { transition: frostActive ? "frost.protection-on" : "frost.protection-off" }
+          : filterChanged
+            ? { transition: "filter.alarm" }
+            : {}),
   };
 }
 
