@@ -235,7 +235,7 @@ describe("the night economy exercise bench", () => {
     const { readFileSync } = await import("node:fs");
     const doc: unknown = JSON.parse(
       readFileSync(
-        new URL("../../scenarios/fernhill/exercise-night-economy.bench.json", import.meta.url),
+        new URL("../../scenarios/exercises/night-economy.bench.json", import.meta.url),
         "utf8",
       ),
     );
@@ -248,5 +248,21 @@ describe("the night economy exercise bench", () => {
       ["address.dpt-meaning", "2/0/3"],
     ]);
     expect(errors.map((f) => f.message).join("\n")).toContain("Economy (3) will arrive as Cool");
+  });
+
+  it("fails as its brief expects: the heating unit is turned to cooling", async () => {
+    const { readFileSync } = await import("node:fs");
+    const { parseScenario } = await import("../scenario/parse-scenario");
+    const { runSuite } = await import("../scenario/run-suite");
+    const read = (name: string): unknown =>
+      JSON.parse(
+        readFileSync(new URL(`../../scenarios/exercises/${name}`, import.meta.url), "utf8"),
+      );
+    const parsed = parseScenario(read("night-economy.scenario.json"));
+    if (!parsed.ok) throw new Error(parsed.error.message);
+    const result = runSuite("exercise", [
+      { scenario: parsed.value, bench: read("night-economy.bench.json") as never },
+    ]);
+    expect(result.scenarios.map((s) => s.outcome)).toEqual(["expected-failure"]);
   });
 });

@@ -69,6 +69,6 @@ describe("shipped demo content", () => {
     );
     expect(outcomes).toEqual(expected);
     expect(result.ok).toBe(true);
-    expect(result.totals.expectedFailures).toBe(2);
+    expect(result.totals.expectedFailures).toBe(1);
   });
 });
