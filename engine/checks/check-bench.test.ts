@@ -73,10 +73,13 @@ describe("checkBench", () => {
       "address.no-listener",
       "object.status-unlinked",
       "device.duplicate-individual-address",
-      "unit-link.two-primaries",
+      "address.dpt-meaning",
+      "address.several-read-responders",
+      "object.status-on-command-address",
+      "object.read-on-init-unanswered",
+      "indoor-unit.two-primaries",
       "gateway.external-temperature-on-secondary",
-      "scene.number-out-of-range",
-      "setpoint.limits-inverted",
+      "panel.preset-out-of-range",
       "line.expected-load",
     ]) {
       expect(ids).toContain(id);
@@ -200,54 +203,6 @@ describe("checkBench", () => {
     });
   });
 
-  describe("unit-link.two-primaries", () => {
-    const controllers = (roleB: string) =>
-      bench({
-        devices: [
-          {
-            id: "wc-a",
-            type: "wall-controller",
-            name: "Controller A",
-            parameters: { role: "primary" },
-          },
-          {
-            id: "wc-b",
-            type: "wall-controller",
-            name: "Controller B",
-            parameters: { role: roleB },
-          },
-        ],
-        unitLinks: [{ id: "link-1", name: "Lab unit", members: ["wc-a", "wc-b"] }],
-      });
-    it("fails: both controllers are primary", () => {
-      // Common practice, no published source (knx-reference.md "Trade practice"): one primary per indoor unit.
-      expect(rulesOf(controllers("primary"), "unit-link.two-primaries")).toEqual([
-        expect.objectContaining({
-          severity: "error",
-          location: { unitLink: "link-1", device: "wc-b" },
-        }),
-      ]);
-    });
-    it("counts a controller left at its default role (primary)", () => {
-      const b = bench({
-        devices: [
-          {
-            id: "wc-a",
-            type: "wall-controller",
-            name: "Controller A",
-            parameters: { role: "primary" },
-          },
-          { id: "wc-b", type: "wall-controller", name: "Controller B", parameters: {} },
-        ],
-        unitLinks: [{ id: "link-1", members: ["wc-a", "wc-b"] }],
-      });
-      expect(rulesOf(b, "unit-link.two-primaries")).toHaveLength(1);
-    });
-    it("passes: one primary, one secondary", () => {
-      expect(rulesOf(controllers("secondary"), "unit-link.two-primaries")).toEqual([]);
-    });
-  });
-
   describe("gateway.external-temperature-on-secondary", () => {
     const gateway = (role: string) =>
       bench({
@@ -272,26 +227,6 @@ describe("checkBench", () => {
     });
     it("passes: the primary gateway takes it", () => {
       expect(rulesOf(gateway("primary"), "gateway.external-temperature-on-secondary")).toEqual([]);
-    });
-  });
-
-  describe("unit-link.no-primary", () => {
-    it("fails: the only controller is secondary", () => {
-      const b = bench({
-        devices: [
-          {
-            id: "wc-a",
-            type: "wall-controller",
-            name: "Controller A",
-            parameters: { role: "secondary" },
-          },
-          { id: "pb-1", type: "push-button", name: "Button", individualAddress: "1.1.1" },
-        ],
-        unitLinks: [{ id: "link-1", members: ["wc-a", "pb-1"] }],
-      });
-      expect(rulesOf(b, "unit-link.no-primary")).toEqual([
-        expect.objectContaining({ severity: "warning", location: { unitLink: "link-1" } }),
-      ]);
     });
   });
 
@@ -320,39 +255,9 @@ describe("checkBench", () => {
     });
   });
 
-  describe("scene.number-out-of-range", () => {
-    const sceneButton = (scene: number) =>
-      bench({
-        devices: [
-          {
-            id: "pb-s",
-            type: "push-button",
-            name: "Scene button",
-            individualAddress: "1.1.5",
-            parameters: { channels: [{ function: "scene", scene }] },
-          },
-        ],
-      });
-    it("fails: scene 65 (DPT 17.001 carries scenes 1..64), reported once", () => {
-      const findings = checkBench(sceneButton(65)).filter(
-        (f) => f.location.device === "pb-s" && f.severity === "error",
-      );
-      expect(findings).toEqual([
-        expect.objectContaining({
-          rule: "scene.number-out-of-range",
-          location: { device: "pb-s", parameter: "channels.0.scene" },
-        }),
-      ]);
-    });
-    it("fails: scene 0", () => {
-      expect(rulesOf(sceneButton(0), "scene.number-out-of-range")).toHaveLength(1);
-    });
-    it("passes: scene 64", () => {
-      expect(rulesOf(sceneButton(64), "scene.number-out-of-range")).toEqual([]);
-    });
-  });
-
-  it("scene.number-out-of-range: finds a gateway scene slot's number", () => {
+  // What one device's parameters get wrong on their own is left to its schema: reported once.
+  it("a scene number outside 1..64 is reported once, by the type's schema", () => {
+    // DPT spec §3 (17.001 / 18.001): scenes 1..64 travel as 0..63.
     const b = bench({
       devices: [
         {
@@ -368,7 +273,7 @@ describe("checkBench", () => {
       checkBench(b)
         .filter((f) => f.severity === "error")
         .map((f) => [f.rule, f.location.parameter]),
-    ).toEqual([["scene.number-out-of-range", "scenes.1.scene"]]);
+    ).toEqual([["device.parameters-invalid", "scenes.1.scene"]]);
   });
 
   it("line.expected-load: counts a gateway's room-temperature sending with its defaults", () => {
@@ -383,30 +288,22 @@ describe("checkBench", () => {
     ]);
   });
 
-  describe("setpoint.limits-inverted", () => {
-    const controller = (minC: number, maxC: number) =>
-      bench({
-        devices: [
-          {
-            id: "wc-a",
-            type: "wall-controller",
-            name: "Controller A",
-            parameters: { setpointMinC: minC, setpointMaxC: maxC },
-          },
-        ],
-      });
-    it("fails: minimum 28 °C above maximum 18 °C, reported once", () => {
-      const findings = checkBench(controller(28, 18)).filter((f) => f.severity === "error");
-      expect(findings).toEqual([
-        expect.objectContaining({
-          rule: "setpoint.limits-inverted",
-          location: { device: "wc-a", parameter: "setpointMinC" },
-        }),
-      ]);
+  it("inverted setpoint limits are reported once, by the type's schema", () => {
+    const b = bench({
+      devices: [
+        {
+          id: "wc-a",
+          type: "wall-controller",
+          name: "Controller A",
+          parameters: { setpointMinC: 28, setpointMaxC: 18 },
+        },
+      ],
     });
-    it("passes: 16..30 °C", () => {
-      expect(rulesOf(controller(16, 30), "setpoint.limits-inverted")).toEqual([]);
-    });
+    expect(
+      checkBench(b)
+        .filter((f) => f.severity === "error")
+        .map((f) => f.rule),
+    ).toEqual(["device.parameters-invalid"]);
   });
 
   describe("line.expected-load", () => {

@@ -13,30 +13,53 @@ import {
   deviceParametersInvalidRule,
   deviceUnknownTypeRule,
 } from "./device-rules";
+import { addressDptMeaningRule } from "./dpt-meaning";
 import {
+  controllerNoUnitRule,
+  controllerSeveralUnitsRule,
   gatewayExternalTemperatureOnSecondaryRule,
-  setpointLimitsInvertedRule,
-  unitLinkNoPrimaryRule,
-  unitLinkTwoPrimariesRule,
+  gatewayMultiSplitWithoutOutdoorUnitRule,
+  gatewaySingleSplitOnOutdoorUnitRule,
+  indoorUnitNoControllerRule,
+  indoorUnitNoPrimaryRule,
+  indoorUnitSeveralOutdoorUnitsRule,
+  indoorUnitTwoPrimariesRule,
+  outdoorUnitLeaderNotMemberRule,
 } from "./hvac-rules";
 import { lineExpectedLoadRule } from "./line-load";
-import { objectStatusUnlinkedRule } from "./object-rules";
-import { sceneNumberOutOfRangeRule } from "./scene-rules";
+import { objectStatusOnCommandAddressRule, objectStatusUnlinkedRule } from "./object-rules";
+import { panelPresetOutOfRangeRule } from "./panel-rules";
+import { addressSeveralReadRespondersRule, objectReadOnInitUnansweredRule } from "./read-rules";
 
-/** Every rule, in the order the documentation lists them. */
+/**
+ * Every rule, in the order the documentation lists them. Rules look at what a
+ * schema cannot: several objects, devices or links together. What one device's
+ * parameters get wrong on their own (inverted setpoint limits, a scene number
+ * outside 1..64) is the type's schema's job, reported by device.parameters-invalid.
+ */
 export const benchCheckRules: readonly BenchCheckRule[] = [
   addressMixedSizesRule,
+  addressDptMeaningRule,
   addressNoSenderRule,
   addressNoListenerRule,
   addressUnlinkedRule,
+  addressSeveralReadRespondersRule,
   objectStatusUnlinkedRule,
+  objectStatusOnCommandAddressRule,
+  objectReadOnInitUnansweredRule,
   deviceDuplicateIndividualAddressRule,
   deviceUnknownTypeRule,
-  unitLinkTwoPrimariesRule,
-  unitLinkNoPrimaryRule,
+  indoorUnitTwoPrimariesRule,
+  indoorUnitNoPrimaryRule,
+  indoorUnitNoControllerRule,
+  indoorUnitSeveralOutdoorUnitsRule,
+  controllerNoUnitRule,
+  controllerSeveralUnitsRule,
   gatewayExternalTemperatureOnSecondaryRule,
-  sceneNumberOutOfRangeRule,
-  setpointLimitsInvertedRule,
+  gatewayMultiSplitWithoutOutdoorUnitRule,
+  gatewaySingleSplitOnOutdoorUnitRule,
+  outdoorUnitLeaderNotMemberRule,
+  panelPresetOutOfRangeRule,
   lineExpectedLoadRule,
   // Last: it only reports what the specific rules above did not already explain.
   deviceParametersInvalidRule,

@@ -1,6 +1,6 @@
 /**
  * What a bench check reports. Rule ids are Benchline's own, dotted by what they
- * look at (`address.no-sender`, `unit-link.two-primaries`).
+ * look at (`address.no-sender`, `indoor-unit.two-primaries`).
  */
 
 /** error: the bench will misbehave; warning: it probably will; info: worth knowing. */

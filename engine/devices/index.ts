@@ -54,9 +54,3 @@ export {
   type ControlPanelParameters,
   type ControlPanelTile,
 } from "./control-panel";
-export {
-  checkHvacBench,
-  validateHvacBench,
-  type HvacBenchFinding,
-  type HvacBenchInput,
-} from "./hvac";

@@ -32,6 +32,9 @@ describe("bit-sized DPTs", () => {
     expect(enc("1.001", true)).toBe("01");
     expect(enc("1.001", false)).toBe("00");
     expect(codec("1.001").format(true)).toBe("On");
+    // DPT spec §3.1 (1.015 reset): 0 no action, 1 reset (from memory of the spec's table).
+    expect(codec("1.015").format(true)).toBe("Reset");
+    expect(dec("1.015", 1)).toBe(true);
     // DPT spec §4.2: 1.100 0 = cooling, 1 = heating.
     expect(dec("1.100", 0)).toBe(false);
     expect(codec("1.100").format(false)).toBe("Cooling");

@@ -31,6 +31,8 @@ export const dpt1Codecs: readonly DptCodec<boolean>[] = [
   dpt1("1.002", "boolean", "False", "True"),
   dpt1("1.003", "enable", "Disable", "Enable"),
   dpt1("1.005", "alarm", "No alarm", "Alarm"),
+  // DPT spec §3.1 (1.015 reset): 0 no action, 1 reset (from memory of the spec's table).
+  dpt1("1.015", "reset", "No action", "Reset"),
   dpt1("1.008", "up/down", "Up", "Down"),
   dpt1("1.009", "open/close", "Open", "Close"),
   dpt1("1.018", "occupancy", "Not occupied", "Occupied"),

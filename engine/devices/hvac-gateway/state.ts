@@ -20,6 +20,8 @@ export interface HvacGatewayState {
   readonly pendingStatus: readonly GatewayFunction[];
   readonly locked: boolean;
   readonly windowOpen: boolean;
+  /** The window opened and the contact delay is running; the unit has not stopped yet. */
+  readonly windowOpening: boolean;
   /** Power to restore when the window closes (updated by power commands while it is open). */
   readonly powerAfterWindow: boolean;
   /** Scenes learned by DPT 18.001, keyed by scene number 1..64; they override the parameter slots. */
@@ -27,4 +29,18 @@ export interface HvacGatewayState {
   /** Faults the gateway reports on its fault objects. */
   readonly faults: readonly string[];
   readonly roomSender: RoomTemperatureSenderState;
+  /** The mode last asked for on KNX, kept while the outdoor unit refuses it and re-sent once allowed. */
+  readonly modeRequest: HvacMode | null;
+  /** The outdoor unit refuses `modeRequest`; reported on the mode conflict object (multi-split). */
+  readonly modeConflict: boolean;
+  /** The last absolute setpoint from KNX (null until one arrives: the unit's own then counts). */
+  readonly baseSetpointC: number | null;
+  /** The setpoint shift in force, kelvin. */
+  readonly shiftK: number;
+  /** DPT 20.102 operating mode from KNX (1 comfort until told otherwise). */
+  readonly operatingMode: number;
+  /** Presence from KNX; null until a presence value arrives. */
+  readonly occupied: boolean | null;
+  /** Faults the gateway itself detects (supervision), reported beside the unit's on the fault objects. */
+  readonly gatewayFaults: readonly string[];
 }

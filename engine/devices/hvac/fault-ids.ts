@@ -9,6 +9,10 @@ export const hvacFaults = {
   noPrimary: "link.no-primary",
   /** The indoor unit's own room temperature sensor reads open circuit; the unit stops. */
   sensorOpen: "unit.sensor-open",
+  /** The gateway has heard nothing from its indoor unit for its supervision time (wiring broken, unit unpowered). */
+  unitLost: "gateway.unit-lost",
+  /** The external room temperature stopped arriving; the unit controls on its own sensor meanwhile. */
+  externalTemperatureLost: "gateway.external-temperature-lost",
 } as const;
 
 export type HvacFaultId = (typeof hvacFaults)[keyof typeof hvacFaults];
@@ -21,6 +25,8 @@ const faultText: Readonly<Record<string, string>> = {
   [hvacFaults.twoPrimaries]: "two primaries",
   [hvacFaults.noPrimary]: "no primary",
   [hvacFaults.sensorOpen]: "sensor open",
+  [hvacFaults.unitLost]: "unit lost",
+  [hvacFaults.externalTemperatureLost]: "ext temp lost",
 };
 
 /** Maximum characters of a DPT 16.000 string (14 octets). */

@@ -1,11 +1,4 @@
-/** Shared pieces of the HVAC family: modes, fault ids, the unit-link protocol, sending rules and bench rules. */
-export {
-  checkHvacBench,
-  validateHvacBench,
-  type HvacBenchFinding,
-  type HvacBenchInput,
-  type HvacRuleId,
-} from "./bench-rules";
+/** Shared pieces of the HVAC family: modes, fault ids, the unit-link protocol, and sending rules (the bench rules are in engine/checks/hvac-rules.ts). */
 export { faultDisplayText, hvacFaults, type HvacFaultId } from "./fault-ids";
 export {
   dpt1100FromMode,

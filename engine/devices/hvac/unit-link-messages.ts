@@ -34,8 +34,18 @@ export const unitCommandSchema = z.object({
   fanLevel: fanLevelSchema.optional(),
   louvrePercent: z.number().min(0).max(100).optional(),
   setpointC: z.number().optional(),
-  /** Room temperature from a KNX sensor; only the primary gateway may send it. */
-  externalRoomC: z.number().optional(),
+  /**
+   * Room temperature from a KNX sensor; only the primary gateway may send it.
+   * null hands control back to the unit's own sensor (the KNX value stopped arriving).
+   */
+  externalRoomC: z.number().nullable().optional(),
+  /**
+   * The gateway locks (true) or releases the local keys of the wall
+   * controllers on the unit; commands from KNX are not affected.
+   */
+  localLock: z.boolean().optional(),
+  /** The filter was cleaned or changed: restart the filter's running-time count. */
+  filterReset: z.literal(true).optional(),
 });
 export type UnitCommand = z.infer<typeof unitCommandSchema>;
 
@@ -65,6 +75,22 @@ export const unitStatusSchema = z.object({
   faults: z.array(z.string()),
   /** Multi-split only: this unit holds mode authority for the shared outdoor unit. */
   modeAuthority: z.boolean(),
+  /**
+   * Multi-split only: the direction the shared outdoor unit imposes on this
+   * unit ("none" while it holds mode authority itself or nobody does). A
+   * controller reports it as the heat/cool in force when the unit only moves air.
+   */
+  systemDirection: systemDirectionSchema.optional(),
+  /** What the unit's outdoor sensor reads, °C (the outdoor temperature the room model uses). */
+  outdoorC: z.number().optional(),
+  /** The wall controllers' keys are locked from KNX. */
+  localLocked: z.boolean().optional(),
+  /** The fan has run long enough that the filter is due for cleaning. */
+  filterAlarm: z.boolean().optional(),
+  /** The unit heats to hold its frost-protection minimum, whatever it was set to. */
+  frostProtection: z.boolean().optional(),
+  /** Why the fan is held off while heating: the coil warming up, or a defrost cycle; null when it runs. */
+  fanHeld: z.enum(["hot-start", "defrost"]).nullable().optional(),
   refusal: unitRefusalSchema.optional(),
 });
 export type UnitStatus = z.infer<typeof unitStatusSchema>;
@@ -78,12 +104,20 @@ export const systemStateSchema = z.object({
 });
 export type SystemState = z.infer<typeof systemStateSchema>;
 
+/**
+ * The indoor unit's sign of life, repeated every `UNIT_ALIVE_PERIOD_US`, so a
+ * controller notices a broken link even while nothing changes.
+ */
+export const unitAliveSchema = z.object({ kind: z.literal("unit.alive") });
+export type UnitAlive = z.infer<typeof unitAliveSchema>;
+
 /** Any message on a unit link. */
 export const unitLinkMessageSchema = z.discriminatedUnion("kind", [
   controllerAnnounceSchema,
   unitCommandSchema,
   unitStatusSchema,
   systemStateSchema,
+  unitAliveSchema,
 ]);
 export type UnitLinkMessage = z.infer<typeof unitLinkMessageSchema>;
 
@@ -92,6 +126,7 @@ const unitLinkMessageKinds: ReadonlySet<unknown> = new Set<UnitLinkMessage["kind
   "unit.command",
   "unit.status",
   "system.state",
+  "unit.alive",
 ]);
 
 /**
@@ -121,3 +156,6 @@ export const CONTROLLER_TIMEOUT_US = 3 * CONTROLLER_ANNOUNCE_PERIOD_US + 1_000_0
  * download) hears every controller before it could report a missing primary.
  */
 export const LINK_SUPERVISION_GRACE_US = CONTROLLER_ANNOUNCE_PERIOD_US + 1_000_000;
+
+/** How often an indoor unit says it is alive on its links (virtual µs); the same period as controllers announce. */
+export const UNIT_ALIVE_PERIOD_US = CONTROLLER_ANNOUNCE_PERIOD_US;

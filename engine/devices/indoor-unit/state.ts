@@ -23,6 +23,19 @@ export interface IndoorUnitState {
   /** Room temperature from the primary gateway's KNX sensor, when one is supplied. */
   readonly externalRoomC: number | null;
   readonly sensorOpen: boolean;
+  /** Commands from wall controllers are refused (locked from KNX through the gateway). */
+  readonly localLocked: boolean;
+  /** Seconds the unit has run since the filter was last reset. */
+  readonly filterRunS: number;
+  /** Heating to hold the frost-protection minimum. */
+  readonly frostActive: boolean;
+  /** The fan is held off (hot start or defrost) until heldUntilUs. */
+  readonly fanHeld: "hot-start" | "defrost" | null;
+  readonly heldUntilUs: number;
+  /** Heating was asked for at the last model step (a new start of heating begins a hot start). */
+  readonly wasHeating: boolean;
+  /** When the next defrost is due while heating; null when not heating. */
+  readonly nextDefrostUs: number | null;
   readonly controllers: Readonly<Record<string, KnownController>>;
   readonly linkFault: HvacFaultId | null;
   /** The grace after start is over: a missing primary now counts as a fault. */

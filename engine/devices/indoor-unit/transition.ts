@@ -1,16 +1,22 @@
 import type { DeviceContext, DeviceEffect, DeviceEvent, TransitionResult } from "../device-type";
 import { hvacFaults, type HvacFaultId } from "../hvac/fault-ids";
-import { directionOfMode, modesAllowedFor, type HvacMode } from "../hvac/hvac-mode";
 import {
-  CONTROLLER_ANNOUNCE_PERIOD_US,
+  directionOfMode,
+  modesAllowedFor,
+  type HvacMode,
+  type SystemDirection,
+} from "../hvac/hvac-mode";
+import {
   CONTROLLER_TIMEOUT_US,
   LINK_SUPERVISION_GRACE_US,
   parseUnitLinkMessage,
+  UNIT_ALIVE_PERIOD_US,
+  type UnitAlive,
   type UnitCommand,
   type UnitRefusal,
   type UnitStatus,
 } from "../hvac/unit-link-messages";
-import { UNIT_SETPOINT_RANGE_C, type IndoorUnitParameters } from "./parameters";
+import { FROST_BAND_K, unitSetpointC, type IndoorUnitParameters } from "./parameters";
 import type { IndoorUnitState } from "./state";
 import { stepRoomTemperature } from "./thermal-model";
 
@@ -25,6 +31,12 @@ const US_PER_S = 1_000_000;
 export function controlTemperatureC(state: IndoorUnitState): number | null {
   if (state.externalRoomC !== null) return state.externalRoomC;
   return state.sensorOpen ? null : state.roomC;
+}
+
+/** Common practice, no published source: the filter is due after the configured fan running time. */
+function filterDue(state: IndoorUnitState, context: Context): boolean {
+  const hours = context.parameters.filterAlarmAfterH;
+  return hours > 0 && state.filterRunS >= hours * 3600;
 }
 
 function quantize(valueC: number | null): number | null {
@@ -50,6 +62,12 @@ function statusMessage(
     roomC: quantize(controlTemperatureC(state)),
     faults,
     modeAuthority: state.system?.authority === context.deviceId,
+    outdoorC: context.parameters.outdoorC,
+    localLocked: state.localLocked,
+    filterAlarm: filterDue(state, context),
+    frostProtection: state.frostActive,
+    fanHeld: state.fanHeld,
+    ...(state.system === null ? {} : { systemDirection: imposedDirection(state, context) }),
     ...(refusal === undefined ? {} : { refusal }),
   };
 }
@@ -73,6 +91,14 @@ function resolveAutoDirection(state: IndoorUnitState, hysteresisK: number): Indo
   if (controlC < state.setpointC - hysteresisK) return { ...state, autoDirection: "heating" };
   if (controlC > state.setpointC + hysteresisK) return { ...state, autoDirection: "cooling" };
   return state;
+}
+
+/** The direction the outdoor unit imposes on this member: none while it holds authority or nobody does. */
+function imposedDirection(state: IndoorUnitState, context: Context): SystemDirection {
+  const system = state.system;
+  if (system === null || system.authority === null || system.authority === context.deviceId)
+    return "none";
+  return system.direction;
 }
 
 /** Whether this member may run `mode` under the outdoor unit's current direction (always, on a single split or as the authority). */
@@ -134,8 +160,25 @@ function applyCommand(
       transition: refusal.transition,
     };
   }
+  // Common practice, no published source: a lock from KNX stops the local keys, not KNX itself.
+  if (state.localLocked && controller?.controller === "wall-controller") {
+    const refusal = {
+      transition: "local.locked",
+      controller: from,
+      text: "wall controller keys are locked from KNX",
+    };
+    const reported = report(state, context, refusal);
+    return {
+      state: reported.state,
+      effects: [{ kind: "note", text: refusal.text }, ...reported.effects],
+      transition: refusal.transition,
+    };
+  }
   let next: IndoorUnitState = state;
   const refusals: UnitRefusal[] = [];
+  if (command.localLock !== undefined && controller?.controller === "gateway")
+    next = { ...next, localLocked: command.localLock };
+  if (command.filterReset === true) next = { ...next, filterRunS: 0 };
   if (command.externalRoomC !== undefined) {
     // Common practice, no published source: only the primary controller may supply the room temperature.
     if (controller?.role === "primary") next = { ...next, externalRoomC: command.externalRoomC };
@@ -162,10 +205,7 @@ function applyCommand(
   if (command.setpointC !== undefined) {
     next = {
       ...next,
-      setpointC: Math.min(
-        UNIT_SETPOINT_RANGE_C.max,
-        Math.max(UNIT_SETPOINT_RANGE_C.min, command.setpointC),
-      ),
+      setpointC: unitSetpointC(command.setpointC, context.parameters.setpointResolutionK),
     };
   }
   if (command.mode !== undefined) {
@@ -193,13 +233,71 @@ function applyCommand(
   };
 }
 
+/** Whether frost protection heats after this reading: on below the minimum, off a band above it. */
+function frostActiveAfter(state: IndoorUnitState, context: Context): boolean {
+  const minC = context.parameters.frostProtectionC;
+  const controlC = controlTemperatureC(state);
+  if (minC === 0 || controlC === null) return false;
+  if (state.frostActive) return controlC < minC + FROST_BAND_K;
+  return controlC < minC;
+}
+
+type FanHold = Pick<IndoorUnitState, "fanHeld" | "heldUntilUs" | "wasHeating" | "nextDefrostUs">;
+
+/** Hot start when heating begins, then defrost cycles in the cold (common practice, no published source). */
+function fanHoldAt(state: IndoorUnitState, heating: boolean, context: Context): FanHold {
+  const p = context.parameters;
+  const now = context.nowUs;
+  if (!heating) return { fanHeld: null, heldUntilUs: 0, wasHeating: false, nextDefrostUs: null };
+  const every = p.defrostEveryMin * 60 * US_PER_S;
+  if (!state.wasHeating)
+    return {
+      fanHeld: p.hotStartS > 0 ? "hot-start" : null,
+      heldUntilUs: now + p.hotStartS * US_PER_S,
+      wasHeating: true,
+      nextDefrostUs: every > 0 ? now + every : null,
+    };
+  let hold: FanHold = {
+    fanHeld: state.fanHeld,
+    heldUntilUs: state.heldUntilUs,
+    wasHeating: state.wasHeating,
+    nextDefrostUs: state.nextDefrostUs,
+  };
+  if (hold.fanHeld !== null && now >= hold.heldUntilUs) hold = { ...hold, fanHeld: null };
+  if (
+    hold.fanHeld === null &&
+    hold.nextDefrostUs !== null &&
+    now >= hold.nextDefrostUs &&
+    p.outdoorC < p.defrostBelowOutdoorC
+  )
+    hold = {
+      ...hold,
+      fanHeld: "defrost",
+      heldUntilUs: now + p.defrostS * US_PER_S,
+      nextDefrostUs: now + every,
+    };
+  return hold;
+}
+
 function stepModel(state: IndoorUnitState, context: Context): Result {
   const parameters = context.parameters;
-  const direction = state.power ? directionOfMode(state.mode, state.autoDirection) : "none";
+  const frost = state.frostActive;
+  const asked = frost
+    ? "heating"
+    : state.power
+      ? directionOfMode(state.mode, state.autoDirection)
+      : "none";
+  // While the fan is held off no heat reaches the room.
+  const direction = state.fanHeld !== null ? "none" : asked;
   const roomC = stepRoomTemperature(
     state.roomC,
     (context.nowUs - state.lastStepUs) / US_PER_S,
-    { direction, setpointC: state.setpointC, rateFactor: state.mode === "dry" ? 0.5 : 1 },
+    {
+      direction,
+      // Aims past the band's top so the band, not the approach, ends the heating.
+      setpointC: frost ? parameters.frostProtectionC + FROST_BAND_K + 1 : state.setpointC,
+      rateFactor: !frost && state.mode === "dry" ? 0.5 : 1,
+    },
     {
       outdoorC: parameters.outdoorC,
       timeConstantS: parameters.timeConstantS,
@@ -207,21 +305,44 @@ function stepModel(state: IndoorUnitState, context: Context): Result {
     },
   );
   const before = state.autoDirection;
-  const next = resolveAutoDirection(
-    { ...state, roomC, lastStepUs: context.nowUs },
+  const ranS = state.power ? (context.nowUs - state.lastStepUs) / US_PER_S : 0;
+  const stepped = resolveAutoDirection(
+    { ...state, roomC, lastStepUs: context.nowUs, filterRunS: state.filterRunS + ranS },
     parameters.autoHysteresisK,
   );
+  const frostActive = frostActiveAfter(stepped, context);
+  const frostChanged = frostActive !== state.frostActive;
+  const hold = fanHoldAt(state, asked === "heating", context);
+  const holdChanged = hold.fanHeld !== state.fanHeld;
+  const next = { ...stepped, frostActive, ...hold };
+  const filterChanged = filterDue(next, context) !== filterDue(state, context);
   const effects: DeviceEffect[] = [
     { kind: "timer.set", name: MODEL_TIMER, delayUs: Math.round(parameters.modelStepS * US_PER_S) },
   ];
   const autoSwitched = next.mode === "auto" && next.power && next.autoDirection !== before;
-  if (!autoSwitched && quantize(controlTemperatureC(next)) === next.reportedRoomC)
+  if (
+    !autoSwitched &&
+    !filterChanged &&
+    !frostChanged &&
+    !holdChanged &&
+    quantize(controlTemperatureC(next)) === next.reportedRoomC
+  )
     return { state: next, effects };
   const reported = report(next, context);
   return {
     state: reported.state,
     effects: [...effects, ...reported.effects],
-    ...(autoSwitched ? { transition: "auto.direction-changed" } : {}),
+    ...(autoSwitched
+      ? { transition: "auto.direction-changed" }
+      : holdChanged
+        ? {
+            transition: `fan.${next.fanHeld ?? state.fanHeld}-${next.fanHeld === null ? "end" : "begin"}`,
+          }
+        : frostChanged
+          ? { transition: frostActive ? "frost.protection-on" : "frost.protection-off" }
+          : filterChanged
+            ? { transition: "filter.alarm" }
+            : {}),
   };
 }
 
@@ -264,6 +385,7 @@ function receive(state: IndoorUnitState, from: string, raw: unknown, context: Co
       return { ...reported, transition: "system.state-changed" };
     }
     case "unit.status":
+    case "unit.alive":
       // Another indoor unit on a shared system link; not ours to act on.
       return { state, effects: [] };
   }
@@ -296,10 +418,16 @@ export function indoorUnitTransition(
       if (event.name === MODEL_TIMER) return stepModel(state, context);
       if (event.name === SUPERVISION_TIMER) {
         const evaluated = evaluateLinkFault({ ...state, supervising: true }, context);
+        const alive: UnitAlive = { kind: "unit.alive" };
         return {
           ...evaluated,
           effects: [
-            { kind: "timer.set", name: SUPERVISION_TIMER, delayUs: CONTROLLER_ANNOUNCE_PERIOD_US },
+            { kind: "timer.set", name: SUPERVISION_TIMER, delayUs: UNIT_ALIVE_PERIOD_US },
+            ...context.links.map((link): DeviceEffect => ({
+              kind: "link.send",
+              link,
+              message: alive,
+            })),
             ...evaluated.effects,
           ],
         };

@@ -6,10 +6,10 @@ import type { IndoorUnitState } from "../indoor-unit/state";
 import { outdoorUnitType, type OutdoorUnitState } from "./outdoor-unit";
 
 /** Two indoor units on one outdoor unit; their primary controllers ("gw-a", "gw-b") are played by hand. */
-function multiSplit() {
+function multiSplit(outdoorParameters: Record<string, unknown> = {}) {
   const harness = new DeviceHarness(
     [
-      { id: "outdoor", type: outdoorUnitType },
+      { id: "outdoor", type: outdoorUnitType, parameters: outdoorParameters },
       {
         id: "unit-a",
         type: indoorUnitType,
@@ -167,5 +167,43 @@ describe("outdoor unit mode authority", () => {
     command("unit-a", "heat");
     expect(unit("unit-a").system?.authority).toBe("unit-a");
     expect(harness.transitionNames("outdoor")).toContain("system.authority-changed");
+  });
+});
+
+// Common practice, no published source: the three arrangements of mode authority.
+describe("outdoor unit mode authority options", () => {
+  it("leader: the leading unit decides even when another asked first", () => {
+    const { command, unit, outdoor } = multiSplit({
+      modeAuthority: "leader",
+      leaderUnit: "unit-b",
+    });
+    command("unit-a", "cool");
+    expect(outdoor()).toMatchObject({ authority: null, direction: "none" });
+    expect(unit("unit-a").mode).toBe("cool");
+    command("unit-b", "heat");
+    expect(outdoor()).toMatchObject({ authority: "unit-b", direction: "heating" });
+    // The follower may not cool any more (cooling is not allowed while the system heats).
+    expect(["heat", "fan"]).toContain(unit("unit-a").mode);
+  });
+
+  it("leader: a follower's request against the leader is refused", () => {
+    const { command, unit } = multiSplit({ modeAuthority: "leader", leaderUnit: "unit-a" });
+    command("unit-a", "heat");
+    expect(command("unit-b", "cool").transition).toBe("system.mode-refused");
+    expect(unit("unit-b").mode).not.toBe("cool");
+  });
+
+  it("heat recovery: every unit picks its own mode", () => {
+    const { command, unit, outdoor } = multiSplit({ modeAuthority: "heat-recovery" });
+    command("unit-a", "heat");
+    expect(command("unit-b", "cool").transition).toBe("unit.command-applied");
+    expect(unit("unit-a").mode).toBe("heat");
+    expect(unit("unit-b").mode).toBe("cool");
+    expect(outdoor().authority).toBeNull();
+  });
+
+  it("refuses leader without a leader unit, naming the field", () => {
+    const parsed = outdoorUnitType.parameters.safeParse({ modeAuthority: "leader" });
+    expect(parsed.success ? [] : parsed.error.issues[0]!.path).toEqual(["leaderUnit"]);
   });
 });

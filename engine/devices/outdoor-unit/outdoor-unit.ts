@@ -13,8 +13,30 @@ import {
   type UnitStatus,
 } from "../hvac/unit-link-messages";
 
-/** The outdoor unit has no settings yet; mode authority goes to the first member that heats or cools. */
-export const outdoorUnitParametersSchema = z.object({});
+/**
+ * Who decides the system's direction (common practice, no published source; the
+ * three arrangements multi-split and multi-zone systems are sold with):
+ * - "first-request": the first member that heats or cools holds mode authority
+ *   until it stops; the others may only run compatible modes.
+ * - "leader": one indoor unit (`leaderUnit`) decides; while it heats or cools the
+ *   others follow, while it is off or only moves air they are free.
+ * - "heat-recovery": the outdoor unit moves heat between members, so each picks
+ *   its own mode and nobody holds authority.
+ */
+export const outdoorUnitParametersSchema = z
+  .object({
+    modeAuthority: z.enum(["first-request", "leader", "heat-recovery"]).default("first-request"),
+    /** Device id of the leading indoor unit, for "leader". */
+    leaderUnit: z.string().min(1).optional(),
+  })
+  .superRefine((value, context) => {
+    if (value.modeAuthority === "leader" && value.leaderUnit === undefined)
+      context.addIssue({
+        code: "custom",
+        path: ["leaderUnit"],
+        message: "leaderUnit names the indoor unit that decides (modeAuthority leader)",
+      });
+  });
 export type OutdoorUnitParameters = z.infer<typeof outdoorUnitParametersSchema>;
 
 export interface OutdoorUnitState {
@@ -61,7 +83,15 @@ function onStatus(
 ): Result {
   const memberDirection: SystemDirection = status.power ? status.direction : "none";
   const members = { ...state.members, [from]: { direction: memberDirection } };
-  const authority = electAuthority(members, state.authority, from);
+  const p = context.parameters;
+  const authority =
+    p.modeAuthority === "heat-recovery"
+      ? null
+      : p.modeAuthority === "leader"
+        ? (members[p.leaderUnit!]?.direction ?? "none") === "none"
+          ? null
+          : p.leaderUnit!
+        : electAuthority(members, state.authority, from);
   const direction = authority === null ? "none" : (members[authority]?.direction ?? "none");
   const next: OutdoorUnitState = { members, authority, direction };
   if (authority !== state.authority || direction !== state.direction) {
