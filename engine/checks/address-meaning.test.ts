@@ -261,7 +261,11 @@ describe("the night economy exercise bench", () => {
     const parsed = parseScenario(read("night-economy.scenario.json"));
     if (!parsed.ok) throw new Error(parsed.error.message);
     const result = runSuite("exercise", [
-      { scenario: parsed.value, bench: read("night-economy.bench.json") as never },
+      {
+        source: "night-economy.scenario.json",
+        scenario: parsed.value,
+        bench: read("night-economy.bench.json") as never,
+      },
     ]);
     expect(result.scenarios.map((s) => s.outcome)).toEqual(["expected-failure"]);
   });

@@ -1,7 +1,7 @@
 import { readFileSync } from "node:fs";
 import { describe, expect, it } from "vitest";
-import { benchSchema, loadBench, type Bench } from "@/engine/bench";
-import { checkBench } from "@/engine/checks/check-bench";
+import { benchSchema, loadBench, type Bench } from "@/engine";
+import { checkBench } from "@/engine";
 import { benchGraph } from "@/components/canvas/bench-graph";
 import { addDevice, joinUnitLink, removeDevices, type EditResult } from "./index";
 import { testBench } from "./test-bench";

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { DeviceHarness } from "../hvac/device-harness";
+import { DeviceHarness } from "../../../test/harness/device-harness";
 import { indoorUnitType } from "./indoor-unit";
 import { FROST_BAND_K, indoorUnitParametersSchema } from "./parameters";
 import type { IndoorUnitState } from "./state";
