@@ -14,7 +14,7 @@ import { demoContentRoot, demoSuiteFile, seedDemoWorld } from "@/db/seed";
 import { runScenario } from "@/engine";
 import { parseScenarioText } from "@/engine";
 import { parseStoredResult, verdictOf } from "../runs/stored-result";
-import { practiceCopyName } from "../bench-offers";
+import { practiceCopyName } from "../practice-copy-name";
 import { demoLab, demoSuiteReplays, seedDemoHistory } from "./seed-demo-history";
 
 describe("the demo history seed on a fresh database", () => {

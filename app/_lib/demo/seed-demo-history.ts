@@ -14,7 +14,7 @@ import {
 import { listSuiteRuns } from "@/db/queries/runs";
 import { listSuiteScenarios } from "@/db/queries/suites";
 import { benches, labAssignments, labs, scenarios, suites, users, workspaces } from "@/db/schema";
-import { practiceCopyName } from "../bench-offers";
+import { practiceCopyName } from "../practice-copy-name";
 import { applyHiddenFaults, type HiddenFault } from "../labs/hidden-faults";
 import { createRunPool, type RunPool } from "../runs/run-pool";
 import { startScenarioRun, startSuiteRun } from "../runs/run-service";
