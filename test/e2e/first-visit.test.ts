@@ -63,11 +63,11 @@ describe("first visit to a fresh demo in headless Chromium", () => {
     await apprenticePage.getByRole("combobox", { name: "Group address" }).fill("1/0/1");
     await apprenticePage
       .getByRole("listbox", { name: "Matching group addresses" })
-      .getByRole("button")
+      .getByRole("option")
       .first()
       .click();
     await apprenticePage.getByRole("button", { name: "Write", exact: true }).click();
-    const log = apprenticePage.getByRole("log", { name: "Telegram log" });
+    const log = apprenticePage.getByRole("table", { name: "Telegram log" });
     await log
       .getByRole("row")
       .filter({ hasText: "Ceiling lights switch" })
