@@ -215,6 +215,15 @@ describe("SimHost driven like the worker", () => {
 });
 
 describe("SimHost input commands", () => {
+  it("keeps the bench the worker runs in the store, parameter changes included (what the live canvas draws)", () => {
+    const h = harness();
+    const gatewayOf = () =>
+      h.store.getState().benchDocument?.devices.find((d) => d.id === "gateway");
+    expect(gatewayOf()?.parameters).not.toMatchObject({ setpointMaxC: 26 });
+    h.send({ type: "set-parameter", deviceId: "gateway", key: "setpointMaxC", value: 26 });
+    expect(gatewayOf()?.parameters).toMatchObject({ setpointMaxC: 26 });
+  });
+
   it("applies a simulation input and names the input's own field when it is refused", () => {
     const h = harness();
     h.send({ type: "input", input: { kind: "press", device: "rocker", button: "channel-1" } });

@@ -1,5 +1,6 @@
 import { createStore, type StoreApi } from "zustand/vanilla";
 import { LogRing } from "./log-ring";
+import type { Bench } from "@/engine";
 import type {
   ActiveFault,
   AddressRateSample,
@@ -44,6 +45,8 @@ export interface RecordedDraft {
 export interface SimState {
   readonly status: "idle" | "ready" | "failed";
   readonly bench: BenchSummary | null;
+  /** The bench document the worker runs (parameter changes applied); what the live canvas draws. */
+  readonly benchDocument: Bench | null;
   readonly loadErrors: readonly { message: string; path?: string }[];
   readonly clock: SimClock;
   /** Mutated in place; watch `logVersion`. */
@@ -77,6 +80,7 @@ function initialState(log: LogRing): SimState {
   return {
     status: "idle",
     bench: null,
+    benchDocument: null,
     loadErrors: [],
     clock: { nowUs: 0, running: false, speed: 1 },
     log,
@@ -119,11 +123,12 @@ export function createSimStore(options: { logCapacity?: number } = {}): SimStore
               ...initialState(log),
               status: "ready",
               bench: message.bench,
+              benchDocument: message.document,
               clock: message.clock,
               logVersion: state.logVersion + 1,
             });
           } else {
-            set({ bench: message.bench, clock: message.clock });
+            set({ bench: message.bench, benchDocument: message.document, clock: message.clock });
           }
           return;
         case "load-failed":

@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { benchSchema } from "../../bench";
 import { simInputSchema, type SimInput } from "../sim-input";
 
 /**
@@ -329,6 +330,11 @@ export const simMessageSchema = z.discriminatedUnion("type", [
   z.object({
     type: z.literal("loaded"),
     bench: benchSummarySchema,
+    /**
+     * The bench document the session runs, with every parameter change applied,
+     * so the page draws exactly what is simulated instead of parsing its own copy.
+     */
+    document: benchSchema,
     clock: clockSchema,
     /** True for a new run (clear the log); false when only the bench changed (a parameter). */
     fresh: z.boolean(),

@@ -54,4 +54,24 @@ describe("LiveSession in a Node process", () => {
     // Only the indoor unit offers a room sample; the session names no device type itself.
     expect(new Set(rooms.map((r) => r.unitId))).toEqual(new Set(["unit"]));
   });
+
+  it("sends the bench it runs on load and again after a parameter change, so the page draws no second copy", () => {
+    const node = nodeSession();
+    node.session.handle({ type: "load", bench: trainingRoomBench });
+    const first = node.messages[0];
+    expect(first?.type === "loaded" && first.document.devices.map((d) => d.id)).toEqual(
+      (trainingRoomBench.devices ?? []).map((d) => d.id),
+    );
+    node.session.handle({
+      type: "input",
+      input: { kind: "set-parameter", device: "gateway", parameter: "setpointMaxC", value: 26 },
+    });
+    const reloaded = node.messages.filter((m) => m.type === "loaded").at(-1);
+    expect(reloaded).toMatchObject({ type: "loaded", fresh: false });
+    const gateway =
+      reloaded?.type === "loaded"
+        ? reloaded.document.devices.find((d) => d.id === "gateway")
+        : undefined;
+    expect(gateway?.parameters).toMatchObject({ setpointMaxC: 26 });
+  });
 });

@@ -219,6 +219,7 @@ export class LiveSession {
           this.post({
             type: "loaded",
             bench: summarizeBench(sim.bench),
+            document: sim.bench.bench,
             clock: this.clock(),
             fresh: false,
           });
@@ -315,7 +316,13 @@ export class LiveSession {
     for (const device of loaded.value.devices) this.dirtyDevices.add(device.id);
     this.faultsDirty = true;
     this.anchor();
-    this.post({ type: "loaded", bench: summarizeBench(loaded.value), clock: this.clock(), fresh });
+    this.post({
+      type: "loaded",
+      bench: summarizeBench(loaded.value),
+      document: loaded.value.bench,
+      clock: this.clock(),
+      fresh,
+    });
     this.sampleRooms();
     this.flush();
   }
