@@ -306,8 +306,10 @@ export { objectViewSchema } from "./sim/live/live-protocol";
 export type { ParsedSimCommand } from "./sim/live/live-protocol";
 /** Parses a command or names the field that is wrong. */
 export { parseSimCommand } from "./sim/live/live-protocol";
-/** Parses a worker message; a bad one is a bug in the worker, so it throws with the field. */
+/** Parses a worker message against the full schema (tests check the session's output with it); throws with the field. */
 export { parseSimMessage } from "./sim/live/live-protocol";
+/** The page's cheap check of a worker message: its `type` is a protocol message type, then it is trusted as typed. */
+export { checkSimMessage } from "./sim/live/live-protocol";
 /** A playback control (load, play, pause, step, jump, reset, flood, record, scene dry-run). */
 export type { PlaybackCommand } from "./sim/live/live-protocol";
 /** Canvas position in canvas units (not pixels); the canvas owns the scale. */
