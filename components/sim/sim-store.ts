@@ -98,7 +98,7 @@ function initialState(log: LogRing, charts: ChartSamples): SimState {
 /**
  * The live console's page state, fed by the worker's batches. The log lives
  * in a ring mutated in place, and each batch is one `set`, so a busy bus
- * costs at most one re-render per batch (about 40 a second), never one per
+ * costs at most one re-render per batch (about 20 a second), never one per
  * telegram.
  */
 export function createSimStore(options: { logCapacity?: number } = {}): SimStore {
