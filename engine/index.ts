@@ -242,37 +242,37 @@ export { estimateLineLoad, type LineLoadEstimate, type LoadContribution } from "
 export type { Ack } from "./sim/live/live-protocol";
 /** How a telegram's transmission ended for the sender. */
 export { ackSchema } from "./sim/live/live-protocol";
-/** `ActiveFault` of engine/sim/live/live-protocol. */
+/** One active fault as the live console lists it: the device or unit link it sits on (`target`), the fault id, and whether the device raised it itself or a user injected it (`by`). */
 export type { ActiveFault } from "./sim/live/live-protocol";
-/** `activeFaultSchema` of engine/sim/live/live-protocol. */
+/** Schema of an `ActiveFault` in a batch message; a batch carries the full list of active faults whenever any changed. */
 export { activeFaultSchema } from "./sim/live/live-protocol";
 /** First transmissions per destination address within one virtual second. */
 export type { AddressRateSample } from "./sim/live/live-protocol";
 /** First transmissions per destination address within one virtual second. */
 export { addressRateSampleSchema } from "./sim/live/live-protocol";
-/** `BenchDevice` of engine/bench. */
+/** One device of a bench document: catalogue type id, name, line, individual address as text ("1.1.10"; absent for a unit-link-only device), parameters checked by its type on load, flag overrides by object number, canvas position in canvas units. */
 export type { BenchDevice } from "./bench";
-/** `BenchDeviceSummary` of engine/sim/live/live-protocol. */
+/** A device as the page knows it from a `BenchSummary`: type and label, medium, individual address as text (null on a unit link only), local buttons, group objects with their addresses as text, unit links and controller role. */
 export type { BenchDeviceSummary } from "./sim/live/live-protocol";
-/** `BenchGroupAddress` of engine/bench. */
+/** One group address of a bench document: the address as text ("1/0/1"), its name and the DPT of the value it carries ("9.001"). */
 export type { BenchGroupAddress } from "./bench";
-/** `BenchGroupAddressSummary` of engine/sim/live/live-protocol. */
+/** A group address as the page knows it from a `BenchSummary`: the 16-bit raw value, the text form ("1/0/1"), name and DPT id. */
 export type { BenchGroupAddressSummary } from "./sim/live/live-protocol";
-/** `BenchLine` of engine/bench. */
+/** One line of a bench document: id, line address "area.line" ("1.1") and name; a device sits on the line named in it, else the one matching its individual address. */
 export type { BenchLine } from "./bench";
-/** `BenchLink` of engine/bench. */
+/** A link of a device's group object to a group address (text); the first link of an object in the document is the address it sends on, all its links are listened to. */
 export type { BenchLink } from "./bench";
-/** `BenchSummary` of engine/sim/live/live-protocol. */
+/** What the live console page needs of the running bench, sent with every `loaded` message: lines, test tool address, group addresses, devices, unit links and control-panel tiles, all as plain JSON (addresses as text). */
 export type { BenchSummary } from "./sim/live/live-protocol";
-/** `benchSummarySchema` of engine/sim/live/live-protocol. */
+/** Schema of a `BenchSummary`: the bench as the page shows it (names, addresses as text, buttons, tiles), not a document to load. */
 export { benchSummarySchema } from "./sim/live/live-protocol";
-/** `BenchUnitLink` of engine/bench. */
+/** A unit link of a bench document: the non-KNX link between an indoor unit and its gateway and wall controllers; at least two members, by device id. */
 export type { BenchUnitLink } from "./bench";
 /** Bus load over one whole virtual second on one line. */
 export type { BusLoadSample } from "./sim/live/live-protocol";
 /** Bus load over one whole virtual second on one line. */
 export { busLoadSampleSchema } from "./sim/live/live-protocol";
-/** `clockSchema` of engine/sim/live/live-protocol. */
+/** Schema of a `SimClock`: virtual time in µs, whether the session runs, and its speed. */
 export { clockSchema } from "./sim/live/live-protocol";
 /** What the inspector shows of one device, sent whenever something about it changed. */
 export type { DeviceSnapshot } from "./sim/live/live-protocol";
@@ -298,41 +298,43 @@ export { logRowSchema } from "./sim/live/live-protocol";
 export { MAX_FLOOD_COUNT } from "./sim/live/live-protocol";
 /** The longest jump ahead one command may ask for: one virtual day. */
 export { MAX_JUMP_US } from "./sim/live/live-protocol";
-/** `ObjectView` of engine/sim/live/live-protocol. */
+/** One group object of a device snapshot: object number, the value formatted by its DPT with unit ("21.00 °C"; null before the object has a value) and the raw value as JSON. */
 export type { ObjectView } from "./sim/live/live-protocol";
-/** `objectViewSchema` of engine/sim/live/live-protocol. */
+/** Schema of an `ObjectView`, one object of a `DeviceSnapshot`. */
 export { objectViewSchema } from "./sim/live/live-protocol";
-/** `ParsedSimCommand` of engine/sim/live/live-protocol. */
+/** A command after the live session checked it: a playback control, or an input command with the `SimInput` it stands for and the field names its errors report. */
 export type { ParsedSimCommand } from "./sim/live/live-protocol";
 /** Parses a command or names the field that is wrong. */
 export { parseSimCommand } from "./sim/live/live-protocol";
-/** Parses a worker message; a bad one is a bug in the worker, so it throws with the field. */
+/** Parses a worker message against the full schema (tests check the session's output with it); throws with the field. */
 export { parseSimMessage } from "./sim/live/live-protocol";
+/** The page's cheap check of a worker message: its `type` is a protocol message type, then it is trusted as typed. */
+export { checkSimMessage } from "./sim/live/live-protocol";
 /** A playback control (load, play, pause, step, jump, reset, flood, record, scene dry-run). */
 export type { PlaybackCommand } from "./sim/live/live-protocol";
 /** Canvas position in canvas units (not pixels); the canvas owns the scale. */
 export type { Position } from "./bench";
-/** `RoomSample` of engine/sim/live/live-protocol. */
+/** A chart sample of one indoor unit, taken through its device type's `roomSample` hook at a whole virtual second: time in µs, room and setpoint in °C, power on or off. */
 export type { RoomSample } from "./sim/live/live-protocol";
-/** `roomSampleSchema` of engine/sim/live/live-protocol. */
+/** Schema of a `RoomSample`; a batch carries only the newest sample per unit. */
 export { roomSampleSchema } from "./sim/live/live-protocol";
-/** `SceneDryRunResult` of engine/sim/live/live-protocol. */
+/** What a scene dry-run found: the scene sent (1..64) to a group address at a virtual time in µs, settled for `settleUs`; the devices that changed with each change as "label: before → after", and the listeners that stayed silent. */
 export type { SceneDryRunResult } from "./sim/live/live-protocol";
-/** `sceneDryRunResultSchema` of engine/sim/live/live-protocol. */
+/** Schema of a `SceneDryRunResult`, sent in a `scene-result` message. */
 export { sceneDryRunResultSchema } from "./sim/live/live-protocol";
-/** `SimClock` of engine/sim/live/live-protocol. */
+/** The live session's clock as the page shows it: virtual time `nowUs` (µs since the run started), whether it runs, and the speed (1, 10, 100 virtual s per wall s, or "max"). */
 export type { SimClock } from "./sim/live/live-protocol";
 /** A command as the page sends it: playback controls, an input, or an input in the older spelling. */
 export type { SimCommand } from "./sim/live/live-protocol";
-/** `simCommandSchema` of engine/sim/live/live-protocol. */
+/** Schema of the commands the live session takes in their older single-purpose spelling and of the playback controls (load, play, pause, step, jump, reset, flood, record, scene dry-run); `jump` is at most one virtual day, `flood` at most 20,000 telegrams. */
 export { simCommandSchema } from "./sim/live/live-protocol";
 /** The live session's older name. */
 export { SimHost } from "./sim";
 /** One thing done to a running bench from outside; see the module comment. */
 export type { SimInput } from "./sim";
-/** `SimMessage` of engine/sim/live/live-protocol. */
+/** A message from the live session to the page: loaded (bench summary and document), load-failed, batch (log rows, device snapshots, faults, chart samples, clock), reset-done, command-error naming the field, recording, scene-result. */
 export type { SimMessage } from "./sim/live/live-protocol";
-/** `simMessageSchema` of engine/sim/live/live-protocol. */
+/** Full schema of a `SimMessage`; tests check the session's output with it, the page checks only the envelope (`checkSimMessage`). */
 export { simMessageSchema } from "./sim/live/live-protocol";
 /** Playback speed: virtual seconds per wall second, or as fast as the worker can go. */
 export type { SimSpeed } from "./sim/live/live-protocol";
@@ -347,7 +349,7 @@ export { DeviceBench, type DeviceBenchLink, type DeviceBenchMember } from "./sim
 export { decodeKnxNetIpFrame } from "./knxnetip";
 /** Hop count devices send with (knx-reference.md, TP1 standard frame). */
 export { DEFAULT_HOP_COUNT } from "./frame";
-/** `Dib` of engine/knxnetip/dib. */
+/** A KNXnet/IP description information block: device information (54 octets), supported service families, or any other block kept as its type and octets so a response round-trips. */
 export type { Dib } from "./knxnetip/dib";
 /** Encodes a frame, header included. */
 export { encodeKnxNetIpFrame } from "./knxnetip";
@@ -367,11 +369,11 @@ export { nextDeadlineUs } from "./knxnetip";
 export { ROUTE_BACK_HPAI } from "./knxnetip";
 /** Status codes of the specification (Core §7.8.5 and Tunnelling §2.7; 0x01, 0x02 from memory). */
 export { STATUS } from "./knxnetip";
-/** `Tp1Line` of engine/bus. */
+/** One TP1 line at 9600 bit/s: queues telegrams, arbitrates senders by priority bit by bit, repeats up to 3 times after NAK, BUSY or no answer, and keeps windowed bus-load statistics (times in µs). */
 export type { Tp1Line } from "./bus";
 /** One station's sending side: a queue of telegrams sent one at a time, each with its repetitions. */
 export { Tp1Sender } from "./bus";
-/** `tunnelAddressPool` of engine/knxnetip. */
+/** Individual addresses for a KNXnet/IP endpoint on one bench line: its own address and one per tunnel, all on that line and free of devices and the test tool (from device number 240 upward, then downward from 239); an error names `lineId` or `tunnels`. */
 export { tunnelAddressPool } from "./knxnetip";
 /** One open tunnel. */
 export type { TunnelConnection } from "./knxnetip";
@@ -383,11 +385,11 @@ export { tunnellingServerConfig } from "./knxnetip";
 export type { TunnellingServerConfig } from "./knxnetip";
 /** Counts of what the server dropped or refused, for the console and tests. */
 export type { TunnellingServerCounters } from "./knxnetip";
-/** `TunnellingServerEffect` of engine/knxnetip. */
+/** What the tunnelling server asks its host to do after an event: send a datagram, put a frame on the line, report a tunnel opened or closed (with the reason), or report a dropped datagram (with the reason). */
 export type { TunnellingServerEffect } from "./knxnetip";
-/** `TunnellingServerEvent` of engine/knxnetip. */
+/** What the tunnelling server reacts to, each with the virtual time `nowUs`: a datagram from a client, a frame on the line, a line put confirmed, a tick for heartbeat and acknowledgement timeouts, an operator disconnect, shutdown. */
 export type { TunnellingServerEvent } from "./knxnetip";
-/** `TunnellingServerState` of engine/knxnetip. */
+/** The tunnelling server's whole state as a value: open tunnels by channel id, the next channel and request ids, frames on their way to the line, rate-limit token buckets, drop counters. Changed only by the server's pure transition. */
 export type { TunnellingServerState } from "./knxnetip";
 /** Applies one event; see the module comment. */
 export { tunnellingServerTransition } from "./knxnetip";

@@ -3,7 +3,7 @@
 import { useMemo, useRef } from "react";
 import { useDeferredSimState } from "@/components/console/use-deferred-sim-state";
 import { useOnScreen } from "@/components/console/use-on-screen";
-import { useSimState } from "@/components/sim/sim-context";
+import { useSimState, useSimStore } from "@/components/sim/sim-context";
 import { AddressRateChart } from "./address-rate-chart";
 import { BusLoadChart } from "./bus-load-chart";
 import { RoomTemperatureChart } from "./room-temperature-chart";
@@ -27,9 +27,15 @@ export function ConsoleCharts({
   // Charts scrolled out of view do not redraw at all.
   const box = useRef<HTMLDivElement>(null);
   const onScreen = useOnScreen(box);
-  const rooms = useDeferredSimState((s) => s.rooms, CHART_REFRESH_MS, onScreen);
-  const busLoad = useDeferredSimState((s) => s.busLoad, CHART_REFRESH_MS, onScreen);
-  const rates = useDeferredSimState((s) => s.rates, CHART_REFRESH_MS, onScreen);
+  const store = useSimStore();
+  const version = useDeferredSimState((s) => s.chartVersion, CHART_REFRESH_MS, onScreen);
+  // The store appends samples to rings in place (same object, new version); they are copied out
+  // here, once per redraw, so `version` is the dependency that says the rings changed.
+  const { rooms, busLoad, rates } = useMemo(
+    () => store.getState().charts.snapshot(),
+    // eslint-disable-next-line react-hooks/exhaustive-deps -- the rings are mutated in place; version says when
+    [store, version],
+  );
   const names = useMemo(
     () => Object.fromEntries((bench?.groupAddresses ?? []).map((ga) => [ga.address, ga.name])),
     [bench],

@@ -68,6 +68,16 @@ function mount(children: React.ReactNode, sent: SimCommand[] = []) {
   store.getState().apply({
     type: "loaded",
     bench,
+    document: {
+      format: 1,
+      name: "Test bench",
+      lines: [{ id: "line-1", address: "1.1", name: "Test line" }],
+      testToolAddress: "1.1.250",
+      groupAddresses: [],
+      devices: [],
+      links: [],
+      unitLinks: [],
+    },
     clock: { nowUs: 0, running: false, speed: 10 },
     fresh: true,
   });

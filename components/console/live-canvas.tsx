@@ -1,28 +1,36 @@
 "use client";
 
 import { ReactFlowProvider } from "@xyflow/react";
-import { useMemo, useState } from "react";
+import { useEffect, useMemo, useState } from "react";
 import { BenchCanvas } from "@/components/canvas/bench-canvas";
 import { EditorStoreProvider, useEditor } from "@/components/bench-editor/store/editor-context";
 import { createEditorStore } from "@/components/bench-editor/store/editor-store";
 import { useSimState } from "@/components/sim/sim-context";
 import { StatusBadge } from "@/components/ui/status-badge";
-import { benchSchema } from "@/engine";
+import type { Bench } from "@/engine";
 import { faultsByDevice } from "./faults-by-device";
 import { LocalButtons } from "./local-buttons";
 
 /**
  * The bench canvas beside the log, read only: the bench editor's canvas over
- * its own store of the running bench, with devices that have active faults in
- * fault red. Clicking a card shows that device's local buttons.
+ * the bench the simulation runs (the live session sends it on load and after
+ * every parameter change), with devices that have active faults in fault red.
+ * Clicking a card shows that device's local buttons.
  */
-export function LiveCanvas({ document }: { document: unknown }) {
-  const [store] = useState(() => {
-    const parsed = benchSchema.safeParse(document);
-    return parsed.success ? createEditorStore(parsed.data) : null;
-  });
-  // The worker reports a bench that does not parse; the canvas just stays away.
-  if (store === null) return null;
+export function LiveCanvas() {
+  const document = useSimState((s) => s.benchDocument);
+  // Nothing to draw until the session has loaded a bench (or when it refused it).
+  if (document === null) return null;
+  return <LiveCanvasFor document={document} />;
+}
+
+function LiveCanvasFor({ document }: { document: Bench }) {
+  const [store] = useState(() => createEditorStore(document));
+  // A parameter change or a reset sends the bench again: follow it without losing the selection.
+  useEffect(() => {
+    if (store.getState().bench !== document)
+      store.setState({ bench: document, savedBench: document, past: [], future: [] });
+  }, [store, document]);
   return (
     <EditorStoreProvider store={store}>
       <ReactFlowProvider>

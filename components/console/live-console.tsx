@@ -158,7 +158,7 @@ function ConsoleWorkbench({
             collapsed={collapsed.bench === true}
             onToggle={() => toggle("bench")}
           >
-            <LiveCanvas key={benchId} document={document} />
+            <LiveCanvas key={benchId} />
           </DockPanel>
           <DockPanel
             title="Charts"

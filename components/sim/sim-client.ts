@@ -1,4 +1,4 @@
-import { parseSimCommand, parseSimMessage, type SimCommand } from "./sim-protocol";
+import { checkSimMessage, type SimCommand } from "./sim-protocol";
 import type { SimStore } from "./sim-store";
 
 /** The part of a Worker the client uses, so tests can hand in a fake. */
@@ -9,30 +9,24 @@ export interface SimPort {
 }
 
 /**
- * The page side of the worker: validates commands before they leave and
- * messages when they arrive, and folds every message into the store.
+ * The page side of the worker: posts typed commands and folds every message
+ * into the store. Commands are validated once, by the worker, which treats
+ * whatever arrives as untrusted and answers a bad one with a command-error
+ * naming the field (the store shows it like any other refusal); the page
+ * builds its commands from typed code, so checking them here too only cost
+ * time. Messages get the cheap envelope check (see `checkSimMessage`).
  */
 export class SimClient {
   constructor(
     private readonly port: SimPort,
     private readonly store: SimStore,
   ) {
-    port.onmessage = (event) => store.getState().apply(parseSimMessage(event.data));
+    port.onmessage = (event) => store.getState().apply(checkSimMessage(event.data));
   }
 
-  /** Sends a command; a malformed one is refused here with the field named in the store's error. */
+  /** Sends a command; the worker answers a malformed one with a command-error naming the field. */
   send(command: SimCommand): void {
-    const parsed = parseSimCommand(command);
-    if (!parsed.ok) {
-      this.store.getState().apply({
-        type: "command-error",
-        command: command.type,
-        field: parsed.field,
-        message: parsed.message,
-      });
-      return;
-    }
-    this.port.postMessage(parsed.value);
+    this.port.postMessage(command);
   }
 
   dispose(): void {

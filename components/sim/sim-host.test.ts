@@ -29,7 +29,7 @@ function harness(options: { maxRowsPerBatch?: number; clockStepMs?: number } = {
     store,
     messages,
     send,
-    /** Moves the wall clock and ticks, as the worker's 50 ms interval does. */
+    /** Moves the wall clock and ticks, as the worker's interval does. */
     tick(ms = 50, times = 1) {
       for (let i = 0; i < times; i++) {
         wallMs += ms;
@@ -123,7 +123,7 @@ describe("SimHost driven like the worker", () => {
     expect(gateway.objects.find((o) => o.number === 1)!.value).toBe("On");
     expect(gateway.transition).not.toBeNull();
     expect((h.store.getState().devices.unit!.state as { power: boolean }).power).toBe(true);
-    expect(h.store.getState().rooms.unit!.length).toBeGreaterThan(1);
+    expect(h.store.getState().charts.roomSamples("unit").length).toBeGreaterThan(1);
   });
 
   it("raises the two-primaries fault when the wall controller is made primary too", () => {
@@ -215,6 +215,15 @@ describe("SimHost driven like the worker", () => {
 });
 
 describe("SimHost input commands", () => {
+  it("keeps the bench the worker runs in the store, parameter changes included (what the live canvas draws)", () => {
+    const h = harness();
+    const gatewayOf = () =>
+      h.store.getState().benchDocument?.devices.find((d) => d.id === "gateway");
+    expect(gatewayOf()?.parameters).not.toMatchObject({ setpointMaxC: 26 });
+    h.send({ type: "set-parameter", deviceId: "gateway", key: "setpointMaxC", value: 26 });
+    expect(gatewayOf()?.parameters).toMatchObject({ setpointMaxC: 26 });
+  });
+
   it("applies a simulation input and names the input's own field when it is refused", () => {
     const h = harness();
     h.send({ type: "input", input: { kind: "press", device: "rocker", button: "channel-1" } });

@@ -42,4 +42,5 @@ export {
   type SimMessage,
   parseSimCommand,
   parseSimMessage,
+  checkSimMessage,
 } from "@/engine";

@@ -1,12 +1,11 @@
 import { createStore, type StoreApi } from "zustand/vanilla";
+import { ChartSamples } from "./chart-samples";
 import { LogRing } from "./log-ring";
+import type { Bench } from "@/engine";
 import type {
   ActiveFault,
-  AddressRateSample,
   BenchSummary,
-  BusLoadSample,
   DeviceSnapshot,
-  RoomSample,
   SceneDryRunResult,
   SimClock,
   SimMessage,
@@ -14,10 +13,7 @@ import type {
 
 /** Rows the log keeps; older ones scroll away. */
 export const LOG_CAPACITY = 100_000;
-/** Room samples kept per indoor unit. */
-export const ROOM_SAMPLES_KEPT = 1_000;
-/** Virtual seconds of bus load and address rates kept for the charts. */
-export const SECONDS_KEPT = 300;
+export { ROOM_SAMPLES_KEPT, SECONDS_KEPT } from "./chart-samples";
 
 /** A device as the inspector shows it, with change counters that drive the highlight. */
 export interface DeviceView extends DeviceSnapshot {
@@ -44,6 +40,8 @@ export interface RecordedDraft {
 export interface SimState {
   readonly status: "idle" | "ready" | "failed";
   readonly bench: BenchSummary | null;
+  /** The bench document the worker runs (parameter changes applied); what the live canvas draws. */
+  readonly benchDocument: Bench | null;
   readonly loadErrors: readonly { message: string; path?: string }[];
   readonly clock: SimClock;
   /** Mutated in place; watch `logVersion`. */
@@ -55,9 +53,10 @@ export interface SimState {
   readonly batches: number;
   readonly devices: Readonly<Record<string, DeviceView>>;
   readonly faults: readonly ActiveFault[];
-  readonly rooms: Readonly<Record<string, readonly RoomSample[]>>;
-  readonly busLoad: readonly BusLoadSample[];
-  readonly rates: readonly AddressRateSample[];
+  /** Chart samples in rings, mutated in place; watch `chartVersion`. */
+  readonly charts: ChartSamples;
+  /** Bumped once per batch that added chart samples: what the charts redraw on. */
+  readonly chartVersion: number;
   readonly recording: boolean;
   readonly recordedDraft: RecordedDraft | null;
   readonly sceneResult: SceneDryRunResult | null;
@@ -73,10 +72,11 @@ export interface SimActions {
 
 export type SimStore = StoreApi<SimState & SimActions>;
 
-function initialState(log: LogRing): SimState {
+function initialState(log: LogRing, charts: ChartSamples): SimState {
   return {
     status: "idle",
     bench: null,
+    benchDocument: null,
     loadErrors: [],
     clock: { nowUs: 0, running: false, speed: 1 },
     log,
@@ -86,9 +86,8 @@ function initialState(log: LogRing): SimState {
     batches: 0,
     devices: {},
     faults: [],
-    rooms: {},
-    busLoad: [],
-    rates: [],
+    charts,
+    chartVersion: 0,
     recording: false,
     recordedDraft: null,
     sceneResult: null,
@@ -104,9 +103,10 @@ function initialState(log: LogRing): SimState {
  */
 export function createSimStore(options: { logCapacity?: number } = {}): SimStore {
   const log = new LogRing(options.logCapacity ?? LOG_CAPACITY);
+  const charts = new ChartSamples();
   let errorId = 0;
   return createStore<SimState & SimActions>()((set, get) => ({
-    ...initialState(log),
+    ...initialState(log, charts),
     clearRecordedDraft: () => set({ recordedDraft: null }),
     clearError: () => set({ lastError: null }),
     apply(message) {
@@ -115,15 +115,18 @@ export function createSimStore(options: { logCapacity?: number } = {}): SimStore
         case "loaded":
           if (message.fresh) {
             log.clear();
+            charts.reset(message.bench.lines.length);
             set({
-              ...initialState(log),
+              ...initialState(log, charts),
               status: "ready",
               bench: message.bench,
+              benchDocument: message.document,
               clock: message.clock,
               logVersion: state.logVersion + 1,
+              chartVersion: state.chartVersion + 1,
             });
           } else {
-            set({ bench: message.bench, clock: message.clock });
+            set({ bench: message.bench, benchDocument: message.document, clock: message.clock });
           }
           return;
         case "load-failed":
@@ -189,25 +192,10 @@ function foldBatch(
     next.devices = devices;
   }
   if (batch.faults !== undefined) next.faults = batch.faults;
-  if (batch.rooms.length > 0) {
-    const rooms: Record<string, readonly RoomSample[]> = { ...state.rooms };
-    for (const sample of batch.rooms) {
-      const list = [...(rooms[sample.unitId] ?? []), sample];
-      rooms[sample.unitId] =
-        list.length > ROOM_SAMPLES_KEPT ? list.slice(list.length - ROOM_SAMPLES_KEPT) : list;
-    }
-    next.rooms = rooms;
-  }
-  if (batch.busLoad.length > 0) {
-    const lines = Math.max(1, state.bench?.lines.length ?? 1);
-    next.busLoad = keepLast([...state.busLoad, ...batch.busLoad], SECONDS_KEPT * lines);
-  }
-  if (batch.rates.length > 0) next.rates = keepLast([...state.rates, ...batch.rates], SECONDS_KEPT);
+  // Appended in place: copying the kept samples on every batch cost main-thread time at Max speed.
+  if (state.charts.add(batch.rooms, batch.busLoad, batch.rates))
+    next.chartVersion = state.chartVersion + 1;
   return next;
-}
-
-function keepLast<T>(list: T[], count: number): T[] {
-  return list.length > count ? list.slice(list.length - count) : list;
 }
 
 function mergeDevice(previous: DeviceView | undefined, snapshot: DeviceSnapshot): DeviceView {

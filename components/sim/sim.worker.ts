@@ -8,7 +8,11 @@ import type { SimMessage } from "./sim-protocol";
  * clock and a 50 ms tick.
  */
 
-/** Batches go out this often, ms of wall time. */
+/**
+ * Batches go out this often, ms of wall time. An input does not wait for it: the session
+ * answers an input with a batch at once, and its 15 ms tick budget bounds how long a command
+ * waits behind a running tick.
+ */
 const TICK_MS = 50;
 
 const scope = globalThis as unknown as {

@@ -14,7 +14,7 @@
 import { loadavg } from "node:os";
 import { performance } from "node:perf_hooks";
 import { LiveSession as SimHost } from "../../engine";
-import { parseSimMessage, type SimMessage } from "../../engine";
+import { checkSimMessage, type SimMessage } from "../../engine";
 import { createSimStore } from "../../components/sim/sim-store";
 import { trainingRoomBench } from "../harness/training-room-bench";
 import { emptyLogFilter, FilteredLog } from "../../components/console/log-filter";
@@ -68,7 +68,7 @@ function absorb(batches: readonly SimMessage[]): { timing: Timing; rows: number;
   let shown = 0;
   const timing = timed(() => {
     for (const message of batches) {
-      store.getState().apply(parseSimMessage(structuredClone(message)));
+      store.getState().apply(checkSimMessage(structuredClone(message)));
       shown = view.update(store.getState().log);
     }
   });
@@ -111,7 +111,7 @@ console.log(
   `worker side: simulate + describe + batch   ${String(produceCpu).padStart(17)}   ${String(produceWall).padStart(18)}`,
 );
 console.log(
-  `page side: clone + validate + store + log  ${String(absorbCpu).padStart(17)}   ${String(absorbWall).padStart(18)}`,
+  `page side: clone + check + store + log     ${String(absorbCpu).padStart(17)}   ${String(absorbWall).padStart(18)}`,
 );
 console.log("");
 console.log(

@@ -1,11 +1,15 @@
 import { z } from "zod";
+import { benchSchema } from "../../bench";
 import { simInputSchema, type SimInput } from "../sim-input";
 
 /**
  * The message protocol between the live console page and the simulation
- * worker. Both sides validate what they receive with these schemas, so a bad
- * message fails loudly with the field it got wrong instead of corrupting the
- * page state. Everything here is plain JSON (structured-clone safe).
+ * worker. Commands are validated once, where they arrive (the session's
+ * `handle`: the worker treats every message as untrusted-shaped), so a bad one
+ * comes back as a command-error naming its field. Messages to the page are
+ * built by the session's own typed code; the page checks only their envelope
+ * (`checkSimMessage`), and tests check them against the full schemas here.
+ * Everything here is plain JSON (structured-clone safe).
  *
  * Times are virtual microseconds (`…Us`) unless named otherwise.
  */
@@ -329,6 +333,11 @@ export const simMessageSchema = z.discriminatedUnion("type", [
   z.object({
     type: z.literal("loaded"),
     bench: benchSummarySchema,
+    /**
+     * The bench document the session runs, with every parameter change applied,
+     * so the page draws exactly what is simulated instead of parsing its own copy.
+     */
+    document: benchSchema,
     clock: clockSchema,
     /** True for a new run (clear the log); false when only the bench changed (a parameter). */
     fresh: z.boolean(),
@@ -418,7 +427,28 @@ export function parseSimCommand(
   };
 }
 
-/** Parses a worker message; a bad one is a bug in the worker, so it throws with the field. */
+const SIM_MESSAGE_TYPES: ReadonlySet<string> = new Set(
+  simMessageSchema.options.map((option) => option.shape.type.value),
+);
+
+/**
+ * The page's check of a worker message: only the envelope (an object whose
+ * `type` is one of the protocol's), then the message is trusted as typed.
+ * The worker runs our own engine code, whose types the compiler checks, and
+ * structured clone keeps them; the full schema (`parseSimMessage`) costs
+ * main-thread time on every batch at Max speed for no protection, so it is
+ * used by tests that check the session's output instead. A message of
+ * another kind is a bug in the worker, so it throws.
+ */
+export function checkSimMessage(raw: unknown): SimMessage {
+  const type =
+    typeof raw === "object" && raw !== null ? (raw as { type?: unknown }).type : undefined;
+  if (typeof type !== "string" || !SIM_MESSAGE_TYPES.has(type))
+    throw new Error(`simulation worker sent a message of unknown type ${JSON.stringify(type)}`);
+  return raw as SimMessage;
+}
+
+/** Parses a worker message against the full schema (tests); a bad one is a bug in the worker, so it throws with the field. */
 export function parseSimMessage(raw: unknown): SimMessage {
   const parsed = simMessageSchema.safeParse(raw);
   if (parsed.success) return parsed.data;

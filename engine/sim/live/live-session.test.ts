@@ -54,4 +54,49 @@ describe("LiveSession in a Node process", () => {
     // Only the indoor unit offers a room sample; the session names no device type itself.
     expect(new Set(rooms.map((r) => r.unitId))).toEqual(new Set(["unit"]));
   });
+
+  it("sends the bench it runs on load and again after a parameter change, so the page draws no second copy", () => {
+    const node = nodeSession();
+    node.session.handle({ type: "load", bench: trainingRoomBench });
+    const first = node.messages[0];
+    expect(first?.type === "loaded" && first.document.devices.map((d) => d.id)).toEqual(
+      (trainingRoomBench.devices ?? []).map((d) => d.id),
+    );
+    node.session.handle({
+      type: "input",
+      input: { kind: "set-parameter", device: "gateway", parameter: "setpointMaxC", value: 26 },
+    });
+    const reloaded = node.messages.filter((m) => m.type === "loaded").at(-1);
+    expect(reloaded).toMatchObject({ type: "loaded", fresh: false });
+    const gateway =
+      reloaded?.type === "loaded"
+        ? reloaded.document.devices.find((d) => d.id === "gateway")
+        : undefined;
+    expect(gateway?.parameters).toMatchObject({ setpointMaxC: 26 });
+  });
+
+  it("answers an input at once at Max speed: the command and the status back, without waiting for a tick", () => {
+    const node = nodeSession();
+    node.session.handle({ type: "load", bench: trainingRoomBench });
+    node.session.handle({ type: "play", speed: "max" });
+    const before = node.messages.length;
+    node.session.handle({
+      type: "input",
+      input: { kind: "write", groupAddress: "1/0/1", value: true },
+    });
+    const rows = node.messages.slice(before).flatMap((m) => (m.type === "batch" ? m.rows : []));
+    // The light actuator switches on 1/0/1 and reports on 1/0/2 (training-room bench).
+    expect(rows.map((r) => r.destination)).toEqual(expect.arrayContaining(["1/0/1", "1/0/2"]));
+  });
+
+  it("keeps the pace at a paced speed: an input sends what changed now and runs no virtual time", () => {
+    const node = nodeSession();
+    node.session.handle({ type: "load", bench: trainingRoomBench });
+    node.session.handle({ type: "play", speed: 10 });
+    const nowUs = node.session.nowUs;
+    const before = node.messages.length;
+    node.session.handle({ type: "press", deviceId: "rocker", buttonId: "channel-1" });
+    expect(node.session.nowUs).toBe(nowUs);
+    expect(node.messages.slice(before).map((m) => m.type)).toEqual(["batch"]);
+  });
 });
