@@ -39,9 +39,4 @@ export function benchOffersFor(who: Who, bench: Bench): BenchOffers {
   };
 }
 
-const practiceSuffix = " (practice copy)";
-
-/** A practice copy's name, kept within the 120 characters a bench name may have. */
-export function practiceCopyName(benchName: string): string {
-  return `${benchName.slice(0, 120 - practiceSuffix.length)}${practiceSuffix}`;
-}
+export { practiceCopyName } from "./practice-copy-name";

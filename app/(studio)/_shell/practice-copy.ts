@@ -1,4 +1,4 @@
-import { practiceCopyName } from "@/app/_lib/bench-offers";
+import { practiceCopyName } from "@/app/_lib/practice-copy-name";
 import { sendJson } from "./api-client";
 
 /**
