@@ -30,7 +30,7 @@ export type { RunPool } from "./run-scheduler";
  * The runner stops a scenario at the wall-time cap by itself; a worker that
  * still has not answered well after the cap (a runner stuck without reaching a
  * budget check) is terminated and the job ends capped, so no slot is held forever.
- * Each worker holds up to JOBS_PER_WORKER jobs, so it never waits on a busy
+ * Each worker holds up to RUN_JOBS_PER_WORKER jobs (default 2), so it never waits on a busy
  * event loop for its next one.
  *
  * RUN_EXECUTOR=inline|workers forces a mode; RUN_WORKERS sets the thread count
@@ -73,8 +73,12 @@ function inlineExecutor(): RunExecutor {
  * its message queue it starts that one at once, and the loop only has to catch
  * up on the bookkeeping. Two is enough to hide one turn and keeps the fair
  * scheduler's choices close to the moment a job really starts.
+ * RUN_JOBS_PER_WORKER sets it (1 to 4).
  */
-export const JOBS_PER_WORKER = 2;
+function jobsPerWorker(): number {
+  const configured = Number(process.env.RUN_JOBS_PER_WORKER);
+  return Number.isInteger(configured) && configured >= 1 ? Math.min(configured, 4) : 2;
+}
 
 interface Handed {
   readonly job: RunJob;
@@ -90,12 +94,13 @@ interface PoolWorker {
 
 class WorkerExecutor implements RunExecutor {
   private readonly workers: PoolWorker[] = [];
+  private readonly depth = jobsPerWorker();
   mode: "workers" | "inline" = "workers";
 
   constructor(private readonly size: number) {}
 
   get slots(): number {
-    return this.mode === "workers" ? this.size * JOBS_PER_WORKER : 1;
+    return this.mode === "workers" ? this.size * this.depth : 1;
   }
 
   execute(job: RunJob): Promise<RunJobOutcome> {
@@ -119,7 +124,7 @@ class WorkerExecutor implements RunExecutor {
     }
     let best: PoolWorker | undefined;
     for (const w of this.workers) {
-      if (w.handed.length < JOBS_PER_WORKER && (!best || w.handed.length < best.handed.length)) {
+      if (w.handed.length < this.depth && (!best || w.handed.length < best.handed.length)) {
         best = w;
       }
     }
