@@ -1,6 +1,13 @@
 import { sealData, unsealData } from "iron-session";
 import { z } from "zod";
 import { sessionCookieConfig, sessionSecret } from "./config";
+import {
+  cachedSeal,
+  forgetSeal,
+  rememberSeal,
+  sealClockSkewMs,
+  sealExpiration,
+} from "./session-cache";
 
 /**
  * The session cookie: iron-session's sealed (encrypted and authenticated)
@@ -36,6 +43,9 @@ export async function sealSession(payload: SessionPayload): Promise<string> {
  * give null: iron-session checks the MAC and its own expiry, and the sign-in
  * time is checked against the configured lifetime as well, so shortening
  * SESSION_TTL_SECONDS also ends older sessions.
+ *
+ * A value that opened before is taken from session-cache.ts instead of being
+ * decrypted again; both expiry checks still run on every call.
  */
 export async function unsealSession(
   value: string | undefined,
@@ -45,17 +55,30 @@ export async function unsealSession(
   const { ttlSeconds } = sessionCookieConfig();
   // Outside the try: a missing secret is a configuration error, not a bad cookie.
   const password = sessionSecret();
-  let data: unknown;
-  try {
-    data = await unsealData<unknown>(value, { password, ttl: ttlSeconds });
-  } catch {
-    return null;
+  let payload: SessionPayload;
+  const cached = cachedSeal<SessionPayload>(password, value);
+  if (cached) {
+    // iron's own expiry test, as unsealData would make it.
+    if (cached.sealExpiresAt !== null && cached.sealExpiresAt <= Date.now() - sealClockSkewMs) {
+      forgetSeal(password, value);
+      return null;
+    }
+    payload = cached.payload;
+  } else {
+    let data: unknown;
+    try {
+      data = await unsealData<unknown>(value, { password, ttl: ttlSeconds });
+    } catch {
+      return null;
+    }
+    const parsed = sessionPayloadSchema.safeParse(data);
+    if (!parsed.success) return null;
+    payload = Object.freeze(parsed.data);
+    rememberSeal(password, value, { payload, sealExpiresAt: sealExpiration(value) });
   }
-  const parsed = sessionPayloadSchema.safeParse(data);
-  if (!parsed.success) return null;
-  const ageMs = now - parsed.data.issuedAt;
+  const ageMs = now - payload.issuedAt;
   if (ageMs < 0 || ageMs > ttlSeconds * 1000) return null;
-  return parsed.data;
+  return payload;
 }
 
 /** The value of one cookie in a Cookie request header. */

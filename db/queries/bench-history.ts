@@ -1,6 +1,7 @@
-import { and, asc, desc, eq, isNull, or } from "drizzle-orm";
+import { and, asc, desc, eq, isNull, or, sql } from "drizzle-orm";
 import { type Db, getDb } from "../client";
 import { wrapDriverError } from "../db-error";
+import { preparedPer } from "../prepared";
 import { benches, benchRevisions, users } from "../schema";
 
 /**
@@ -64,6 +65,30 @@ export function findRevisionInWorkspace({
     .get();
 }
 
+// The bench list is read on every page and list request, so both forms are prepared once.
+const allVisibleBenches = preparedPer((db) =>
+  db
+    .select()
+    .from(benches)
+    .where(and(eq(benches.workspaceId, sql.placeholder("workspaceId")), isNull(benches.archivedAt)))
+    .orderBy(asc(benches.name))
+    .prepare(),
+);
+const sharedAndOwnBenches = preparedPer((db) =>
+  db
+    .select()
+    .from(benches)
+    .where(
+      and(
+        eq(benches.workspaceId, sql.placeholder("workspaceId")),
+        isNull(benches.archivedAt),
+        or(isNull(benches.privateOwnerId), eq(benches.privateOwnerId, sql.placeholder("userId"))),
+      ),
+    )
+    .orderBy(asc(benches.name))
+    .prepare(),
+);
+
 /**
  * Benches of a workspace that are not archived: shared ones, the user's own
  * private copies, and with `includeAllPrivate` everyone's (trainers reviewing).
@@ -79,20 +104,9 @@ export function listVisibleBenches({
   userId: string;
   includeAllPrivate: boolean;
 }) {
-  return db
-    .select()
-    .from(benches)
-    .where(
-      and(
-        eq(benches.workspaceId, workspaceId),
-        isNull(benches.archivedAt),
-        includeAllPrivate
-          ? undefined
-          : or(isNull(benches.privateOwnerId), eq(benches.privateOwnerId, userId)),
-      ),
-    )
-    .orderBy(asc(benches.name))
-    .all();
+  return includeAllPrivate
+    ? allVisibleBenches(db).all({ workspaceId })
+    : sharedAndOwnBenches(db).all({ workspaceId, userId });
 }
 
 /** Rename or re-describe a bench. */

@@ -1,6 +1,7 @@
-import { and, desc, eq, isNull, max, or } from "drizzle-orm";
+import { and, desc, eq, isNull, max, or, sql } from "drizzle-orm";
 import { type Db, getDb } from "../client";
 import { wrapDriverError } from "../db-error";
+import { preparedPer } from "../prepared";
 import { benches, benchRevisions } from "../schema";
 
 export type Bench = typeof benches.$inferSelect;
@@ -35,6 +36,29 @@ export function listBenches({
 }
 
 /** One bench, only if it belongs to the workspace. */
+// Loaded by every bench request (and for a copy's source), so prepared once.
+const benchInWorkspace = preparedPer((db) =>
+  db
+    .select()
+    .from(benches)
+    .where(
+      and(
+        eq(benches.id, sql.placeholder("benchId")),
+        eq(benches.workspaceId, sql.placeholder("workspaceId")),
+      ),
+    )
+    .prepare(),
+);
+const newestRevision = preparedPer((db) =>
+  db
+    .select()
+    .from(benchRevisions)
+    .where(eq(benchRevisions.benchId, sql.placeholder("benchId")))
+    .orderBy(desc(benchRevisions.number))
+    .limit(1)
+    .prepare(),
+);
+
 export function findBench({
   db = getDb(),
   workspaceId,
@@ -44,21 +68,11 @@ export function findBench({
   workspaceId: string;
   benchId: string;
 }) {
-  return db
-    .select()
-    .from(benches)
-    .where(and(eq(benches.id, benchId), eq(benches.workspaceId, workspaceId)))
-    .get();
+  return benchInWorkspace(db).get({ benchId, workspaceId });
 }
 
 export function latestRevision({ db = getDb(), benchId }: { db?: Db; benchId: string }) {
-  return db
-    .select()
-    .from(benchRevisions)
-    .where(eq(benchRevisions.benchId, benchId))
-    .orderBy(desc(benchRevisions.number))
-    .limit(1)
-    .get();
+  return newestRevision(db).get({ benchId });
 }
 
 /** Create a bench with its first revision, in one transaction. */

@@ -1,6 +1,7 @@
-import { and, asc, desc, eq, inArray } from "drizzle-orm";
+import { and, asc, desc, eq, inArray, sql } from "drizzle-orm";
 import { type Db, getDb } from "../client";
 import { wrapDriverError } from "../db-error";
+import { preparedPer } from "../prepared";
 import {
   benches,
   benchRevisions,
@@ -204,6 +205,18 @@ export function listAttempts({
 }
 
 /** Which of these benches are the private copy of some lab assignment. */
+// Asked for every bench list and bench read; one prepared statement takes the
+// ids as a JSON array (json_each) instead of a query built per list length.
+const labCopiesIn = preparedPer((db) =>
+  db
+    .select({ benchId: labAssignments.privateBenchId })
+    .from(labAssignments)
+    .where(
+      sql`${labAssignments.privateBenchId} in (select value from json_each(${sql.placeholder("benchIds")}))`,
+    )
+    .prepare(),
+);
+
 export function listLabCopyBenchIds({
   db = getDb(),
   benchIds,
@@ -212,10 +225,7 @@ export function listLabCopyBenchIds({
   benchIds: readonly string[];
 }): string[] {
   if (benchIds.length === 0) return [];
-  return db
-    .select({ benchId: labAssignments.privateBenchId })
-    .from(labAssignments)
-    .where(inArray(labAssignments.privateBenchId, [...benchIds]))
-    .all()
+  return labCopiesIn(db)
+    .all({ benchIds: JSON.stringify(benchIds) })
     .flatMap((row) => (row.benchId === null ? [] : [row.benchId]));
 }

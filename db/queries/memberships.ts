@@ -1,12 +1,27 @@
-import { and, asc, eq } from "drizzle-orm";
+import { and, asc, eq, sql } from "drizzle-orm";
 import { type Db, getDb } from "../client";
 import { wrapDriverError } from "../db-error";
+import { preparedPer } from "../prepared";
 import { memberships, type Role, users } from "../schema";
 
 export type Membership = typeof memberships.$inferSelect;
 export type NewMembership = typeof memberships.$inferInsert;
 
 /** The user's membership of one workspace, or undefined when they are not a member. */
+const membershipOf = preparedPer((db) =>
+  db
+    .select()
+    .from(memberships)
+    .where(
+      and(
+        eq(memberships.userId, sql.placeholder("userId")),
+        eq(memberships.workspaceId, sql.placeholder("workspaceId")),
+      ),
+    )
+    .prepare(),
+);
+
+/** Read on every request by the session check, so prepared once. */
 export function findMembership({
   db = getDb(),
   userId,
@@ -16,11 +31,7 @@ export function findMembership({
   userId: string;
   workspaceId: string;
 }) {
-  return db
-    .select()
-    .from(memberships)
-    .where(and(eq(memberships.userId, userId), eq(memberships.workspaceId, workspaceId)))
-    .get();
+  return membershipOf(db).get({ userId, workspaceId });
 }
 
 /** Members of a workspace with their user rows, by name. */

@@ -1,10 +1,21 @@
-import { and, asc, desc, eq, inArray, isNull, sql } from "drizzle-orm";
+import { and, asc, desc, eq, getTableColumns, inArray, isNull, sql } from "drizzle-orm";
 import { type Db, getDb } from "../client";
 import { wrapDriverError } from "../db-error";
+import { preparedPer } from "../prepared";
 import { benches, benchRevisions, runs, scenarios, suiteRuns, users } from "../schema";
 
 export type Run = typeof runs.$inferSelect;
 export type NewRun = typeof runs.$inferInsert;
+
+// A run as lists show it: everything but the two JSON documents (per-step
+// results with trace slices, the scenario that ran), which only a single run's
+// page needs and which made up most of the bytes a 50-run list read.
+const runColumns = getTableColumns(runs);
+const listedOnlyInFull = new Set(["results", "scenarioDocument"]);
+const runSummaryColumns = Object.fromEntries(
+  Object.entries(runColumns).filter(([name]) => !listedOnlyInFull.has(name)),
+) as Omit<typeof runColumns, "results" | "scenarioDocument">;
+export type RunSummary = Omit<Run, "results" | "scenarioDocument">;
 export type SuiteRun = typeof suiteRuns.$inferSelect;
 export type NewSuiteRun = typeof suiteRuns.$inferInsert;
 
@@ -12,6 +23,31 @@ export type NewSuiteRun = typeof suiteRuns.$inferInsert;
  * Run history of a workspace, newest first. Pass `startedBy` to restrict it to
  * one user's runs (apprentices see only their own).
  */
+// The run history is read on every runs page and list request, so both forms are prepared once.
+const workspaceRuns = preparedPer((db) =>
+  db
+    .select(runSummaryColumns)
+    .from(runs)
+    .where(eq(runs.workspaceId, sql.placeholder("workspaceId")))
+    .orderBy(desc(runs.createdAt))
+    .limit(sql.placeholder("limit"))
+    .prepare(),
+);
+const ownRuns = preparedPer((db) =>
+  db
+    .select(runSummaryColumns)
+    .from(runs)
+    .where(
+      and(
+        eq(runs.workspaceId, sql.placeholder("workspaceId")),
+        eq(runs.startedBy, sql.placeholder("startedBy")),
+      ),
+    )
+    .orderBy(desc(runs.createdAt))
+    .limit(sql.placeholder("limit"))
+    .prepare(),
+);
+
 export function listRuns({
   db = getDb(),
   workspaceId,
@@ -23,18 +59,9 @@ export function listRuns({
   startedBy?: string;
   limit?: number;
 }) {
-  return db
-    .select()
-    .from(runs)
-    .where(
-      and(
-        eq(runs.workspaceId, workspaceId),
-        startedBy === undefined ? undefined : eq(runs.startedBy, startedBy),
-      ),
-    )
-    .orderBy(desc(runs.createdAt))
-    .limit(limit)
-    .all();
+  return startedBy === undefined
+    ? workspaceRuns(db).all({ workspaceId, limit })
+    : ownRuns(db).all({ workspaceId, startedBy, limit });
 }
 
 export function findRun({

@@ -1,6 +1,7 @@
 import { eq, sql } from "drizzle-orm";
 import { type Db, getDb } from "../client";
 import { wrapDriverError } from "../db-error";
+import { preparedPer } from "../prepared";
 import { users } from "../schema";
 
 export type User = typeof users.$inferSelect;
@@ -19,8 +20,17 @@ export function findUserByEmail({ db = getDb(), email }: { db?: Db; email: strin
     .get();
 }
 
+const userById = preparedPer((db) =>
+  db
+    .select()
+    .from(users)
+    .where(eq(users.id, sql.placeholder("userId")))
+    .prepare(),
+);
+
+/** Read on every request by the session check, so prepared once. */
 export function findUserById({ db = getDb(), userId }: { db?: Db; userId: string }) {
-  return db.select().from(users).where(eq(users.id, userId)).get();
+  return userById(db).get({ userId });
 }
 
 export function createUser({ db = getDb(), values }: { db?: Db; values: NewUser }) {

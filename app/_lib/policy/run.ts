@@ -2,7 +2,14 @@ import type { Db } from "@/db/client";
 import { getDb } from "@/db/client";
 import { findRevisionInWorkspace } from "@/db/queries/bench-history";
 import { latestRevision } from "@/db/queries/benches";
-import { findRun, findSuiteRun, listRuns, type Run, type SuiteRun } from "@/db/queries/runs";
+import {
+  findRun,
+  findSuiteRun,
+  listRuns,
+  type Run,
+  type RunSummary,
+  type SuiteRun,
+} from "@/db/queries/runs";
 import { can as roleCan, canOn, scopeOf } from "../capabilities";
 import { AppError } from "../errors";
 import { benchCan, loadBench } from "./bench";
@@ -58,7 +65,7 @@ export function loadRunOrSuiteRun(
 }
 
 /** The runs the session may read, newest first: all of the workspace's, or their own. */
-export function listReadableRuns(who: Who, options: { limit?: number } = {}): Run[] {
+export function listReadableRuns(who: Who, options: { limit?: number } = {}): RunSummary[] {
   const scope = scopeOf(who.role, "runs.read");
   if (scope === "none") return [];
   return listRuns({

@@ -30,6 +30,8 @@ export type { RunPool } from "./run-scheduler";
  * The runner stops a scenario at the wall-time cap by itself; a worker that
  * still has not answered well after the cap (a runner stuck without reaching a
  * budget check) is terminated and the job ends capped, so no slot is held forever.
+ * Each worker holds up to RUN_JOBS_PER_WORKER jobs (default 2), so it never waits on a busy
+ * event loop for its next one.
  *
  * RUN_EXECUTOR=inline|workers forces a mode; RUN_WORKERS sets the thread count
  * (default: cores - 1, at least 1, at most 4).
@@ -63,64 +65,130 @@ function inlineExecutor(): RunExecutor {
   return { slots: 1, mode: "inline", execute: runInline, close: async () => {} };
 }
 
+/**
+ * Jobs handed to one worker at a time. A worker answers through the server's
+ * event loop; while that loop is busy answering requests, a finished worker
+ * used to sit idle until the loop got round to its message and sent the next
+ * job (about one job per loop turn under load). With a second job already in
+ * its message queue it starts that one at once, and the loop only has to catch
+ * up on the bookkeeping. Two is enough to hide one turn and keeps the fair
+ * scheduler's choices close to the moment a job really starts.
+ * RUN_JOBS_PER_WORKER sets it (1 to 4).
+ */
+function jobsPerWorker(): number {
+  const configured = Number(process.env.RUN_JOBS_PER_WORKER);
+  return Number.isInteger(configured) && configured >= 1 ? Math.min(configured, 4) : 2;
+}
+
+interface Handed {
+  readonly job: RunJob;
+  readonly resolve: (outcome: RunJobOutcome | Promise<RunJobOutcome>) => void;
+}
+
+interface PoolWorker {
+  readonly thread: Worker;
+  /** Jobs posted and not yet answered, in the order the worker runs them. */
+  readonly handed: Handed[];
+  watchdog?: ReturnType<typeof setTimeout>;
+}
+
 class WorkerExecutor implements RunExecutor {
-  private readonly idle: Worker[] = [];
-  private readonly busy = new Set<Worker>();
-  private workersStarted = 0;
+  private readonly workers: PoolWorker[] = [];
+  private readonly depth = jobsPerWorker();
   mode: "workers" | "inline" = "workers";
 
   constructor(private readonly size: number) {}
 
   get slots(): number {
-    return this.mode === "workers" ? this.size : 1;
+    return this.mode === "workers" ? this.size * this.depth : 1;
   }
 
   execute(job: RunJob): Promise<RunJobOutcome> {
     if (this.mode === "inline") return runInline(job);
-    const worker = this.idle.pop() ?? this.startWorker();
-    if (!worker) return runInline(job);
-    this.busy.add(worker);
+    const target = this.pickWorker();
+    if (!target) return runInline(job);
     return new Promise<RunJobOutcome>((resolve) => {
-      const settle = (outcome: RunJobOutcome | undefined, healthy: boolean) => {
-        clearTimeout(watchdog);
-        worker.off("message", onMessage);
-        worker.off("error", onError);
-        this.busy.delete(worker);
-        if (healthy) this.idle.push(worker);
-        else this.workersStarted -= 1;
-        // A crashed worker's job is retried inline; it never silently disappears.
-        resolve(outcome ?? runInline(job));
-      };
-      const onMessage = (outcome: RunJobOutcome) => settle(outcome, true);
-      const onError = (error: unknown) => {
-        this.fallBackToInline(error);
-        settle(undefined, false);
-      };
-      const watchdog = setTimeout(() => {
-        void worker.terminate();
-        const message = wallTimeCapMessage(job.caps);
-        settle({ runId: job.runId, kind: "capped", cap: "wall-time", message }, false);
-      }, job.caps.wallTimeMs + TERMINATE_GRACE_MS);
-      watchdog.unref();
-      worker.on("message", onMessage);
-      worker.on("error", onError);
-      worker.postMessage(job);
+      target.handed.push({ job, resolve });
+      if (target.handed.length === 1) this.arm(target);
+      target.thread.postMessage(job);
     });
   }
 
-  private startWorker(): Worker | undefined {
-    if (this.workersStarted >= this.size) return undefined;
-    let worker: Worker;
+  /** An idle worker, else a new one while under the size, else the least loaded with room. */
+  private pickWorker(): PoolWorker | undefined {
+    const idle = this.workers.find((w) => w.handed.length === 0);
+    if (idle) return idle;
+    if (this.workers.length < this.size) {
+      const started = this.startWorker();
+      if (started) return started;
+    }
+    let best: PoolWorker | undefined;
+    for (const w of this.workers) {
+      if (w.handed.length < this.depth && (!best || w.handed.length < best.handed.length)) {
+        best = w;
+      }
+    }
+    return best;
+  }
+
+  /**
+   * The watchdog follows the job at the head of a worker's queue: the runner
+   * stops a scenario at the wall-time cap by itself; a worker that still has
+   * not answered well after it is terminated and that job ends capped.
+   */
+  private arm(w: PoolWorker): void {
+    clearTimeout(w.watchdog);
+    const head = w.handed[0];
+    if (!head) return;
+    w.watchdog = setTimeout(() => {
+      this.retire(w);
+      void w.thread.terminate();
+      const [stuck, ...rest] = w.handed.splice(0);
+      const message = wallTimeCapMessage(stuck!.job.caps);
+      stuck!.resolve({ runId: stuck!.job.runId, kind: "capped", cap: "wall-time", message });
+      // Jobs queued behind it never started: they go to another worker.
+      for (const waiting of rest) waiting.resolve(this.execute(waiting.job));
+    }, head.job.caps.wallTimeMs + TERMINATE_GRACE_MS);
+    w.watchdog.unref();
+  }
+
+  private startWorker(): PoolWorker | undefined {
+    let thread: Worker;
     try {
-      worker = new Worker(new URL("./run-worker.ts", import.meta.url));
+      thread = new Worker(new URL("./run-worker.ts", import.meta.url));
     } catch (error) {
       this.fallBackToInline(error);
       return undefined;
     }
-    this.workersStarted += 1;
+    const w: PoolWorker = { thread, handed: [] };
+    thread.on("message", (outcome: RunJobOutcome) => {
+      // The worker answers in order; matched by run id all the same.
+      const at = w.handed.findIndex((h) => h.job.runId === outcome.runId);
+      const [answered] = w.handed.splice(at < 0 ? 0 : at, 1);
+      this.arm(w);
+      answered?.resolve(outcome);
+    });
+    thread.on("error", (error: unknown) => {
+      this.fallBackToInline(error);
+      this.retire(w);
+      // A crashed worker's jobs are retried inline; none silently disappears.
+      for (const lost of w.handed.splice(0)) lost.resolve(runInline(lost.job));
+    });
+    thread.on("exit", () => {
+      // Ended without an error event (or terminated above, with nothing left to answer).
+      this.retire(w);
+      for (const lost of w.handed.splice(0)) lost.resolve(runInline(lost.job));
+    });
     // Idle workers must not keep a script (tsx, tests) alive.
-    worker.unref();
-    return worker;
+    thread.unref();
+    this.workers.push(w);
+    return w;
+  }
+
+  private retire(w: PoolWorker): void {
+    clearTimeout(w.watchdog);
+    const at = this.workers.indexOf(w);
+    if (at >= 0) this.workers.splice(at, 1);
   }
 
   private fallBackToInline(error: unknown): void {
@@ -130,10 +198,13 @@ class WorkerExecutor implements RunExecutor {
   }
 
   async close(): Promise<void> {
-    const workers = [...this.idle, ...this.busy];
-    this.idle.length = 0;
-    this.busy.clear();
-    await Promise.all(workers.map((worker) => worker.terminate()));
+    const workers = this.workers.splice(0);
+    for (const w of workers) {
+      clearTimeout(w.watchdog);
+      // Closing abandons what is still queued (the process is stopping).
+      w.handed.length = 0;
+    }
+    await Promise.all(workers.map((w) => w.thread.terminate()));
   }
 }
 

@@ -1,6 +1,10 @@
-import type { Run } from "@/db/queries/runs";
+import type { Run, RunSummary } from "@/db/queries/runs";
 
-export function runJson(run: Run, options: { results?: boolean } = {}) {
+/** A run for the API; `results` (a single run's page) needs the full row. */
+export function runJson(
+  run: RunSummary & Partial<Pick<Run, "results">>,
+  options: { results?: boolean } = {},
+) {
   return {
     id: run.id,
     scenarioId: run.scenarioId,
