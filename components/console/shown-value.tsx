@@ -5,7 +5,8 @@ const EMPTY_TEXT = '""';
 
 /**
  * A formatted value as a person reads it: an empty text is the word "(empty)"
- * in muted type rather than a pair of quotes; a value not known yet is a dash;
+ * in italics rather than a pair of quotes (italics, not a lighter colour, since
+ * the value may sit on a highlighted background where grey fails contrast); a value not known yet is a dash;
  * no value at all ("", a read request) shows nothing.
  */
 export function ShownValue({
@@ -17,7 +18,7 @@ export function ShownValue({
 }) {
   if (value === null || value === undefined) return <span className={className}>–</span>;
   if (value === EMPTY_TEXT)
-    return <span className={cx("font-sans text-ink-soft italic", className)}>(empty)</span>;
+    return <span className={cx("font-sans italic", className)}>(empty)</span>;
   return <span className={className}>{value}</span>;
 }
 

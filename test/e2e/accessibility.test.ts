@@ -142,7 +142,22 @@ describe("accessibility (axe-core) in headless Chromium", () => {
         const canvas = page.getByRole("application", { name: "Bench canvas" });
         await canvas.locator("[data-testid^='device-card-']").first().waitFor();
         // The editor with a device selected: the inspector panels open beside the canvas.
-        await canvas.locator("[data-testid^='device-card-']").first().click();
+        // The canvas opens at a readable zoom, not fitted, so pick a card that is on screen.
+        const cards = canvas.locator("[data-testid^='device-card-']");
+        const onScreen = await cards.evaluateAll((elements) => {
+          const view = elements[0]?.closest(".react-flow")?.getBoundingClientRect();
+          return elements.findIndex((element) => {
+            const box = element.getBoundingClientRect();
+            return (
+              view !== undefined &&
+              box.left >= view.left &&
+              box.top >= view.top &&
+              box.left + 40 <= view.right &&
+              box.top + 40 <= view.bottom
+            );
+          });
+        });
+        await cards.nth(Math.max(0, onScreen)).click({ position: { x: 20, y: 12 } });
         await page.getByRole("region", { name: "Device", exact: true }).waitFor();
         await scan(page, `${role}: bench editor with a selection`);
       }
