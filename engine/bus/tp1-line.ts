@@ -1,5 +1,5 @@
 import type { Scheduler } from "../core/scheduler";
-import { toHex, type Trace, type TelegramTraceFields } from "../core/trace";
+import { toHex, type Trace, type TelegramTraceFields, type TraceEvent } from "../core/trace";
 import {
   ACK_CHARACTER_BIT_TIMES,
   ACK_GAP_BIT_TIMES,
@@ -61,6 +61,9 @@ const ACK_SLOT_US = bitTimesToUs(ACK_GAP_BIT_TIMES + ACK_CHARACTER_BIT_TIMES);
 const ACK_CHARACTER_US = bitTimesToUs(ACK_CHARACTER_BIT_TIMES);
 const BUSY_WAIT_US = bitTimesToUs(BUSY_RETRY_WAIT_BIT_TIMES);
 
+type TelegramEventKind = Extract<TraceEvent, { telegramId: number }>["kind"];
+type Mutable<T> = { -readonly [K in keyof T]: T[K] };
+
 const PRIORITY_CODE: Readonly<Record<Priority, number>> = {
   system: 0,
   normal: 1,
@@ -87,6 +90,8 @@ export interface Telegram {
    * when a repetition may follow, so a clean ACK costs nothing.
    */
   takenBy: unknown[] | undefined;
+  /** The payload as the trace writes it, formatted once for all of the telegram's events. */
+  payloadHex: string | undefined;
 }
 
 /** One station's sending side: a queue of telegrams sent one at a time, each with its repetitions. */
@@ -247,10 +252,10 @@ export class Tp1Line {
       readyAtUs: now,
       queuedAtUs: now,
       takenBy: undefined,
+      payloadHex: undefined,
     };
     sender.push(telegram);
-    if (this.trace.active)
-      this.trace.append({ kind: "telegram.queued", ...this.telegramFields(telegram, now) });
+    if (this.trace.active) this.trace.append(this.telegramEvent("telegram.queued", telegram, now));
     if (sender.contenderIndex < 0) {
       sender.contenderIndex = this.contenders.length;
       this.contenders.push(sender);
@@ -259,10 +264,19 @@ export class Tp1Line {
     return telegram;
   }
 
-  /** Trace fields of a telegram at a given time. */
-  telegramFields(telegram: Telegram, timeUs: number): TelegramTraceFields {
+  /**
+   * A telegram trace event with the fields every kind shares; the caller adds
+   * its kind's own fields. Built as one object (no spreads) because a full trace
+   * holds several of these per telegram.
+   */
+  private telegramEvent<K extends TelegramEventKind>(
+    kind: K,
+    telegram: Telegram,
+    timeUs: number,
+  ): Mutable<Extract<TraceEvent, { kind: K }>> {
     const frame = telegram.frame;
-    const fields: TelegramTraceFields = {
+    const event: Mutable<TelegramTraceFields> & { kind: K } = {
+      kind,
       timeUs,
       telegramId: telegram.id,
       line: this.id,
@@ -270,12 +284,11 @@ export class Tp1Line {
       destination: frame.destination,
       service: frame.service,
       priority: frame.priority,
-      payloadHex: toHex(frame.payload),
+      payloadHex: (telegram.payloadHex ??= toHex(frame.payload)),
       shortPayload: frame.shortPayload,
     };
-    return telegram.sender.deviceId === undefined
-      ? fields
-      : { ...fields, deviceId: telegram.sender.deviceId };
+    if (telegram.sender.deviceId !== undefined) event.deviceId = telegram.sender.deviceId;
+    return event as Mutable<Extract<TraceEvent, { kind: K }>>;
   }
 
   private requestSlot(readyAtUs: number): void {
@@ -319,15 +332,13 @@ export class Tp1Line {
     this.currentFrameEndUs = frameEndUs;
     this.scheduler.schedule(frameEndUs, this.frameEndTag);
     if (this.trace.active) {
-      this.trace.append({
-        kind: "telegram.sent",
-        ...this.telegramFields(winner, now),
-        endUs: frameEndUs,
-        attempt,
-        repeated: this.currentRepeated,
-        octets: winner.octets,
-        arbitrationLosers: losers,
-      });
+      const event = this.telegramEvent("telegram.sent", winner, now);
+      event.endUs = frameEndUs;
+      event.attempt = attempt;
+      event.repeated = this.currentRepeated;
+      event.octets = winner.octets;
+      event.arbitrationLosers = losers;
+      this.trace.append(event);
     }
   }
 
@@ -358,33 +369,30 @@ export class Tp1Line {
     const sender = telegram.sender;
     const attempt = telegram.transmissions - 1;
     if (ack === ACK_OCTET) {
-      if (this.trace.active)
-        this.trace.append({
-          kind: "telegram.acked",
-          ...this.telegramFields(telegram, now),
-          attempt,
-        });
+      if (this.trace.active) {
+        const event = this.telegramEvent("telegram.acked", telegram, now);
+        event.attempt = attempt;
+        this.trace.append(event);
+      }
       this.finish(sender, now);
     } else {
       const busy = ack === BUSY_OCTET || ack === 0x00;
       const reason = !answered ? "none" : busy ? "busy" : "nak";
       if (attempt < MAX_REPETITIONS) {
         telegram.readyAtUs = busy ? now + BUSY_WAIT_US : now;
-        if (this.trace.active)
-          this.trace.append({
-            kind: "telegram.repeated",
-            ...this.telegramFields(telegram, now),
-            attempt,
-            reason,
-          });
+        if (this.trace.active) {
+          const event = this.telegramEvent("telegram.repeated", telegram, now);
+          event.attempt = attempt;
+          event.reason = reason;
+          this.trace.append(event);
+        }
       } else {
-        if (this.trace.active)
-          this.trace.append({
-            kind: "telegram.lost",
-            ...this.telegramFields(telegram, now),
-            attempt,
-            reason,
-          });
+        if (this.trace.active) {
+          const event = this.telegramEvent("telegram.lost", telegram, now);
+          event.attempt = attempt;
+          event.reason = reason;
+          this.trace.append(event);
+        }
         this.finish(sender, now);
       }
     }

@@ -37,6 +37,43 @@ export interface DeviceRuntime extends ObjectOwner {
   lastTakenTelegramId: number;
 }
 
+/**
+ * What a device's transition may read: a class rather than an object of
+ * closures, since every run builds one per device and a restart builds another.
+ * Its methods are not bound: devices call them on the context, as
+ * `context.objectValue(n)` and `context.random()`.
+ */
+class RuntimeContext implements DeviceContext<unknown> {
+  readonly deviceId: string;
+  readonly individualAddress: number;
+  readonly parameters: unknown;
+  readonly links: readonly string[];
+
+  constructor(
+    private readonly device: DeviceRuntime,
+    private readonly scheduler: Scheduler,
+    private readonly rng: Rng,
+  ) {
+    this.deviceId = device.id;
+    // Unit-link-only devices have no address; they see the unprogrammed default 15.15.255.
+    this.individualAddress = device.loaded.individualAddress ?? 0xffff;
+    this.parameters = device.loaded.parameters;
+    this.links = device.loaded.unitLinks;
+  }
+
+  get nowUs(): number {
+    return this.scheduler.nowUs;
+  }
+
+  objectValue(object: number): unknown {
+    return this.device.objects.get(object)?.value;
+  }
+
+  random(): number {
+    return this.rng.next();
+  }
+}
+
 interface TimerEntry {
   readonly device: DeviceRuntime;
   readonly name: string;
@@ -152,20 +189,7 @@ export class DeviceRunner {
   }
 
   private makeContext(device: DeviceRuntime): DeviceContext<unknown> {
-    const scheduler = this.scheduler;
-    const rng = this.rng;
-    return {
-      get nowUs() {
-        return scheduler.nowUs;
-      },
-      deviceId: device.id,
-      // Unit-link-only devices have no address; they see the unprogrammed default 15.15.255.
-      individualAddress: device.loaded.individualAddress ?? 0xffff,
-      parameters: device.loaded.parameters,
-      links: device.loaded.unitLinks,
-      objectValue: (object: number) => device.objects.get(object)?.value,
-      random: () => rng.next(),
-    };
+    return new RuntimeContext(device, this.scheduler, this.rng);
   }
 
   private applyEffect(device: DeviceRuntime, effect: DeviceEffect): void {

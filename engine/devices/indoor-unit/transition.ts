@@ -11,7 +11,7 @@ import {
   type UnitStatus,
 } from "../hvac/unit-link-messages";
 import { UNIT_SETPOINT_RANGE_C, type IndoorUnitParameters } from "./parameters";
-import type { IndoorUnitState } from "./state";
+import type { IndoorUnitState, KnownController } from "./state";
 import { stepRoomTemperature } from "./thermal-model";
 
 type Context = DeviceContext<IndoorUnitParameters>;
@@ -87,11 +87,21 @@ function evaluateLinkFault(
   state: IndoorUnitState,
   context: Context,
 ): { state: IndoorUnitState; effects: DeviceEffect[]; transition?: string } {
-  const live = Object.entries(state.controllers).filter(
-    ([, known]) => context.nowUs - known.lastSeenUs <= CONTROLLER_TIMEOUT_US,
-  );
-  const controllers = Object.fromEntries(live);
-  const primaries = live.filter(([, known]) => known.role === "primary").length;
+  // Runs on every announcement, so it copies the controllers only when one has gone quiet.
+  const known = state.controllers;
+  const isLive = (id: string) => context.nowUs - known[id]!.lastSeenUs <= CONTROLLER_TIMEOUT_US;
+  let primaries = 0;
+  let anyGone = false;
+  for (const id in known) {
+    if (!isLive(id)) anyGone = true;
+    else if (known[id]!.role === "primary") primaries++;
+  }
+  let controllers = known;
+  if (anyGone) {
+    const live: Record<string, KnownController> = {};
+    for (const id in known) if (isLive(id)) live[id] = known[id]!;
+    controllers = live;
+  }
   let fault: HvacFaultId | null = null;
   if (primaries >= 2) fault = hvacFaults.twoPrimaries;
   else if (primaries === 0 && state.supervising) fault = hvacFaults.noPrimary;
