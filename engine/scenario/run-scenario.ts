@@ -5,7 +5,7 @@ import { getDpt, type DptCodec } from "../dpt";
 import { fromHex, telegramOccupancyUs, type GroupService } from "../frame";
 import { BenchLoadFailure, createSimulation, type Simulation } from "../sim";
 import { formatVirtualTime } from "../core/virtual-time";
-import { parseDuration } from "./duration";
+import { addressTable, checkedStepValue, durationUs, keptLabel } from "./step-cache";
 import {
   outcomeIsOk,
   scenarioOutcome,
@@ -114,13 +114,6 @@ export function stepLabel(step: Step): string {
   }
 }
 
-function durationUs(text: string): number {
-  const parsed = parseDuration(text);
-  // The schema has checked every duration; a bad one here is a bug.
-  if (!parsed.ok) throw new Error(`unchecked duration ${text}`);
-  return parsed.value;
-}
-
 function lowerBound(events: readonly TraceEvent[], timeUs: number): number {
   let lo = 0;
   let hi = events.length;
@@ -139,7 +132,6 @@ function capped(events: readonly TraceEvent[]): readonly TraceEvent[] {
 /** One scenario run: the simulation, the anchor and the helpers steps share. */
 class ScenarioRun {
   anchorUs: number;
-  private readonly addresses = new Map<string, AddressInfo>();
 
   constructor(
     readonly sim: Simulation,
@@ -153,8 +145,10 @@ class ScenarioRun {
     return this.sim.bench;
   }
 
+  /** An address a step names, resolved once per bench (see step-cache.ts). */
   address(text: string, field = "groupAddress"): AddressInfo {
-    const cached = this.addresses.get(text);
+    const addresses = addressTable<AddressInfo>(this.bench);
+    const cached = addresses.get(text);
     if (cached) return cached;
     const parsed = parseGroupAddress(text);
     if (!parsed.ok) throw new StepError(`${field}: ${parsed.error.message}`);
@@ -180,7 +174,7 @@ class ScenarioRun {
       codec,
       devices,
     };
-    this.addresses.set(text, info);
+    addresses.set(text, info);
     return info;
   }
 
@@ -319,16 +313,19 @@ function runAction(
   switch (step.kind) {
     case "write": {
       const address = run.address(step.groupAddress);
-      const value = address.codec.valueSchema.safeParse(step.value);
-      if (!value.success)
-        throw new StepError(
-          `value: ${JSON.stringify(step.value)} is not a ${address.codec.id} value`,
-        );
+      const value = checkedStepValue(step, address.codec, () => {
+        const checked = address.codec.valueSchema.safeParse(step.value);
+        if (!checked.success)
+          throw new StepError(
+            `value: ${JSON.stringify(step.value)} is not a ${address.codec.id} value`,
+          );
+        return checked.data;
+      });
       simFailure(
         sim.apply({
           kind: "write",
           groupAddress: address.raw,
-          value: value.data as JsonValue,
+          value: value as JsonValue,
           from: step.from,
           priority: step.priority,
         }),
@@ -368,7 +365,10 @@ function expectTelegramValue(
   step: Extract<Step, { kind: "expect-value" | "expect-response" }>,
 ): StepOutcome {
   const address = run.address(step.groupAddress);
-  const expected = step.value === undefined ? undefined : run.expectedValue(address, step.value);
+  const expected =
+    step.value === undefined
+      ? undefined
+      : checkedStepValue(step, address.codec, () => run.expectedValue(address, step.value));
   const tolerance = step.tolerance ?? 0;
   const services: readonly string[] =
     step.kind === "expect-response"
@@ -645,7 +645,7 @@ export function runScenario(
       settleMessage = `wall-clock budget of ${budgetMs} ms ran out while the bench settled (virtual time ${formatVirtualTime(sim.nowUs)})`;
     }
     scenario.steps.forEach((step, index) => {
-      const label = stepLabel(step);
+      const label = keptLabel(step, stepLabel);
       const startUs = sim.nowUs;
       if (stopped) {
         steps.push({

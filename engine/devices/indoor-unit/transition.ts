@@ -89,17 +89,18 @@ function evaluateLinkFault(
 ): { state: IndoorUnitState; effects: DeviceEffect[]; transition?: string } {
   // Runs on every announcement, so it copies the controllers only when one has gone quiet.
   const known = state.controllers;
-  const isLive = (id: string) => context.nowUs - known[id]!.lastSeenUs <= CONTROLLER_TIMEOUT_US;
+  const oldestLiveUs = context.nowUs - CONTROLLER_TIMEOUT_US;
   let primaries = 0;
   let anyGone = false;
   for (const id in known) {
-    if (!isLive(id)) anyGone = true;
-    else if (known[id]!.role === "primary") primaries++;
+    const controller = known[id]!;
+    if (controller.lastSeenUs < oldestLiveUs) anyGone = true;
+    else if (controller.role === "primary") primaries++;
   }
   let controllers = known;
   if (anyGone) {
     const live: Record<string, KnownController> = {};
-    for (const id in known) if (isLive(id)) live[id] = known[id]!;
+    for (const id in known) if (known[id]!.lastSeenUs >= oldestLiveUs) live[id] = known[id]!;
     controllers = live;
   }
   let fault: HvacFaultId | null = null;
