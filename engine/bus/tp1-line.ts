@@ -189,15 +189,17 @@ export class Tp1Line {
   private currentAck = NO_ACK_OCTET;
 
   // Transmission history for windowed statistics, as parallel columns in a ring.
+  // The columns start small and double up to the capacity (the ring wraps only
+  // then), so a short run, such as a scenario replay, does not pay for a long one.
   private readonly historyCapacity: number;
   private historyCount = 0;
   private historyNext = 0;
-  private readonly histOccupiedStart: Float64Array;
-  private readonly histOccupiedEnd: Float64Array;
-  private readonly histBusyUs: Float64Array;
-  private readonly histDestination: Int32Array;
-  private readonly histRepeated: Uint8Array;
-  private readonly histSender: (string | undefined)[];
+  private histOccupiedStart = new Float64Array(0);
+  private histOccupiedEnd = new Float64Array(0);
+  private histBusyUs = new Float64Array(0);
+  private histDestination = new Int32Array(0);
+  private histRepeated = new Uint8Array(0);
+  private histSender: (string | undefined)[] = [];
 
   /** Totals since the start of the run. */
   transmissionsTotal = 0;
@@ -218,12 +220,6 @@ export class Tp1Line {
     this.frameEndTag = scheduler.register(() => this.onFrameEnd());
     this.ackEndTag = scheduler.register(() => this.onAckEnd());
     this.historyCapacity = options.historyCapacity ?? 65_536;
-    this.histOccupiedStart = new Float64Array(this.historyCapacity);
-    this.histOccupiedEnd = new Float64Array(this.historyCapacity);
-    this.histBusyUs = new Float64Array(this.historyCapacity);
-    this.histDestination = new Int32Array(this.historyCapacity);
-    this.histRepeated = new Uint8Array(this.historyCapacity);
-    this.histSender = new Array<string | undefined>(this.historyCapacity).fill(undefined);
   }
 
   /** True while a frame or its acknowledgement slot is on the line. */
@@ -431,6 +427,7 @@ export class Tp1Line {
   ): void {
     const repeated = telegram.transmissions > 1;
     const i = this.historyNext;
+    if (i === this.histOccupiedStart.length) this.growHistory();
     this.histOccupiedStart[i] = occupiedStartUs;
     this.histOccupiedEnd[i] = occupiedEndUs;
     this.histBusyUs[i] = busyUs;
@@ -453,6 +450,21 @@ export class Tp1Line {
       const key = telegram.sender.countKey;
       this.telegramsBySender.set(key, (this.telegramsBySender.get(key) ?? 0) + 1);
     }
+  }
+
+  /** Doubles the history columns (at most to the capacity); called only before the ring first wraps. */
+  private growHistory(): void {
+    const size = Math.min(this.historyCapacity, Math.max(64, this.histOccupiedStart.length * 2));
+    const grown = <T extends Float64Array | Int32Array | Uint8Array>(column: T, next: T): T => {
+      next.set(column);
+      return next;
+    };
+    this.histOccupiedStart = grown(this.histOccupiedStart, new Float64Array(size));
+    this.histOccupiedEnd = grown(this.histOccupiedEnd, new Float64Array(size));
+    this.histBusyUs = grown(this.histBusyUs, new Float64Array(size));
+    this.histDestination = grown(this.histDestination, new Int32Array(size));
+    this.histRepeated = grown(this.histRepeated, new Uint8Array(size));
+    this.histSender.length = size;
   }
 
   /**

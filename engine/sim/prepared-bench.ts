@@ -6,7 +6,8 @@ import { getDpt, type DptCodec } from "../dpt";
 /**
  * Work that depends only on a loaded bench, done once and kept beside it, so
  * starting a run (a scenario replay, a console reset) does not repeat it: the
- * group-object specs of each device with their codecs resolved, and the
+ * group-object specs of each device with their codecs resolved, which objects
+ * listen to each group address, and the
  * benches a parameter change leads to (a parameter change re-checks the whole
  * bench, and a suite replays the same change many times).
  *
@@ -45,6 +46,31 @@ export function objectSpecs(device: LoadedDevice, reuse: boolean): readonly Obje
   }));
   if (reuse) specsByDevice.set(device, specs);
   return specs;
+}
+
+const addressLinksByDevice = new WeakMap<LoadedDevice, readonly AddressLink[]>();
+
+/** A group address a device listens to, with its objects linked to it (by number, in object order). */
+export interface AddressLink {
+  readonly groupAddress: number;
+  readonly objects: readonly number[];
+}
+
+/** Which of a device's objects listen to each of its group addresses (kept when `reuse` is true). */
+export function addressLinks(device: LoadedDevice, reuse: boolean): readonly AddressLink[] {
+  const kept = reuse ? addressLinksByDevice.get(device) : undefined;
+  if (kept !== undefined) return kept;
+  const byAddress = new Map<number, number[]>();
+  for (const spec of objectSpecs(device, reuse)) {
+    for (const raw of spec.groupAddresses) {
+      const list = byAddress.get(raw) ?? [];
+      list.push(spec.number);
+      byAddress.set(raw, list);
+    }
+  }
+  const links = [...byAddress].map(([groupAddress, objects]) => ({ groupAddress, objects }));
+  if (reuse) addressLinksByDevice.set(device, links);
+  return links;
 }
 
 /**

@@ -145,7 +145,7 @@ export class Simulation {
       bench.devices.map((d) => d.id),
     );
     const benchNow = () => this.loadedBench;
-    this.objects = new GroupObjectLayer(this.emitter, this.telegramIds, benchNow);
+    this.objects = new GroupObjectLayer(this.emitter, this.telegramIds, benchNow, this.reuse);
     this.runner = new DeviceRunner(
       this.scheduler,
       createRng(options.seed),
