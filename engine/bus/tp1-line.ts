@@ -64,6 +64,11 @@ const BUSY_WAIT_US = bitTimesToUs(BUSY_RETRY_WAIT_BIT_TIMES);
 type TelegramEventKind = Extract<TraceEvent, { telegramId: number }>["kind"];
 type Mutable<T> = { -readonly [K in keyof T]: T[K] };
 
+// Shared empty history columns: nothing is ever written to a zero-length array, and a line grows its own.
+const NO_FLOATS = new Float64Array(0);
+const NO_INTS = new Int32Array(0);
+const NO_BYTES = new Uint8Array(0);
+
 const PRIORITY_CODE: Readonly<Record<Priority, number>> = {
   system: 0,
   normal: 1,
@@ -111,6 +116,15 @@ export class Tp1Sender {
 
   get pending(): number {
     return this.queue.length - this.head;
+  }
+
+  /** Takes over `other`'s waiting telegrams (as the fork's copies), for a forked run. */
+  copyFrom(other: Tp1Sender, copyTelegram: (telegram: Telegram) => Telegram): void {
+    this.queue.length = 0;
+    for (let i = other.head; i < other.queue.length; i++)
+      this.queue.push(copyTelegram(other.queue[i]!));
+    this.head = 0;
+    this.contenderIndex = other.contenderIndex;
   }
 
   current(): Telegram | undefined {
@@ -194,11 +208,11 @@ export class Tp1Line {
   private readonly historyCapacity: number;
   private historyCount = 0;
   private historyNext = 0;
-  private histOccupiedStart = new Float64Array(0);
-  private histOccupiedEnd = new Float64Array(0);
-  private histBusyUs = new Float64Array(0);
-  private histDestination = new Int32Array(0);
-  private histRepeated = new Uint8Array(0);
+  private histOccupiedStart = NO_FLOATS;
+  private histOccupiedEnd = NO_FLOATS;
+  private histBusyUs = NO_FLOATS;
+  private histDestination = NO_INTS;
+  private histRepeated = NO_BYTES;
   private histSender: (string | undefined)[] = [];
 
   /** Totals since the start of the run. */
@@ -220,6 +234,47 @@ export class Tp1Line {
     this.frameEndTag = scheduler.register(() => this.onFrameEnd());
     this.ackEndTag = scheduler.register(() => this.onAckEnd());
     this.historyCapacity = options.historyCapacity ?? 65_536;
+  }
+
+  /**
+   * Takes over `other`'s state: the cycle in progress, its contenders (as the
+   * fork's senders, whose queues are already copied), statistics and history.
+   * For a forked run; `copyTelegram` gives the fork's copy of a telegram.
+   */
+  copyFrom(
+    other: Tp1Line,
+    sender: (original: Tp1Sender) => Tp1Sender,
+    copyTelegram: (telegram: Telegram) => Telegram,
+  ): void {
+    this.busy = other.busy;
+    this.idleSinceUs = other.idleSinceUs;
+    this.nextSlotUs = other.nextSlotUs;
+    this.contenders.length = 0;
+    for (const contender of other.contenders) this.contenders.push(sender(contender));
+    this.current = other.current === undefined ? undefined : copyTelegram(other.current);
+    this.currentRepeated = other.currentRepeated;
+    this.currentFrameEndUs = other.currentFrameEndUs;
+    this.currentAck = other.currentAck;
+    this.historyCount = other.historyCount;
+    this.historyNext = other.historyNext;
+    // A settled run often has sent nothing yet; its empty columns need no copies.
+    if (other.histOccupiedStart.length > 0) {
+      this.histOccupiedStart = other.histOccupiedStart.slice();
+      this.histOccupiedEnd = other.histOccupiedEnd.slice();
+      this.histBusyUs = other.histBusyUs.slice();
+      this.histDestination = other.histDestination.slice();
+      this.histRepeated = other.histRepeated.slice();
+      this.histSender = other.histSender.slice();
+    }
+    this.transmissionsTotal = other.transmissionsTotal;
+    this.telegramsTotal = other.telegramsTotal;
+    this.busyUsTotal = other.busyUsTotal;
+    this.occupiedUsTotal = other.occupiedUsTotal;
+    this.telegramsByGroupAddress.clear();
+    for (const [address, count] of other.telegramsByGroupAddress)
+      this.telegramsByGroupAddress.set(address, count);
+    this.telegramsBySender.clear();
+    for (const [key, count] of other.telegramsBySender) this.telegramsBySender.set(key, count);
   }
 
   /** True while a frame or its acknowledgement slot is on the line. */

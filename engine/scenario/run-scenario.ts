@@ -5,6 +5,7 @@ import { getDpt, type DptCodec } from "../dpt";
 import { fromHex, telegramOccupancyUs, type GroupService } from "../frame";
 import { BenchLoadFailure, createSimulation, type Simulation } from "../sim";
 import { formatVirtualTime } from "../core/virtual-time";
+import { forkSettledRun, keepSettledRun } from "./settled-runs";
 import { addressTable, checkedStepValue, durationUs, keptLabel } from "./step-cache";
 import {
   outcomeIsOk,
@@ -604,15 +605,17 @@ export function runScenario(
   const elapsedMs = () => (now ? now() - startMs : 0);
   const budgetMs = options.budgetMs ?? DEFAULT_SCENARIO_BUDGET_MS;
   const seed = options.seed ?? scenario.seed;
+  const reuse = options.reuse ?? true;
+  const settleUs = durationUs(scenario.settle);
+  // Runs of an already loaded bench start from a settled template when one is kept (settled-runs.ts).
+  const template = reuse && "deviceById" in bench ? (bench as LoadedBench) : undefined;
+  const settled = template && forkSettledRun(template, seed, settleUs);
 
   let sim: Simulation;
   try {
     // Bus load verdicts are computed from the trace, so the line's own statistics history stays small.
-    sim = createSimulation(bench, {
-      seed,
-      historyCapacity: LINE_HISTORY_CAPACITY,
-      reuse: options.reuse ?? true,
-    });
+    sim =
+      settled ?? createSimulation(bench, { seed, historyCapacity: LINE_HISTORY_CAPACITY, reuse });
   } catch (cause) {
     if (cause instanceof BenchLoadFailure)
       return benchError(scenario, seed, cause.message, options, elapsedMs());
@@ -637,8 +640,11 @@ export function runScenario(
   try {
     const run = new ScenarioRun(sim, checkBudget, now !== undefined);
     try {
-      run.advance(durationUs(scenario.settle));
-      run.anchorUs = sim.nowUs;
+      if (settled === undefined) {
+        run.advance(settleUs);
+        run.anchorUs = sim.nowUs;
+        if (template !== undefined) keepSettledRun(template, seed, settleUs, sim);
+      }
     } catch (cause) {
       if (!(cause instanceof BudgetExceeded)) throw cause;
       stopped = true;

@@ -93,7 +93,8 @@ interface TimerEntry {
  * - note: traced.
  */
 export class DeviceRunner {
-  private readonly timerTag: number;
+  /** Scheduler tag of device timers. */
+  readonly timerTag: number;
   private timerGeneration = 0;
 
   constructor(
@@ -134,6 +135,47 @@ export class DeviceRunner {
     };
     device.context = this.makeContext(device);
     return device;
+  }
+
+  /**
+   * A device of another run as it stands (state, stored values, timers), for a
+   * forked run. States and values are never changed in place, so they are
+   * shared; the containers are copied.
+   */
+  copy(
+    original: DeviceRuntime,
+    line: LineRuntime | undefined,
+    sender: Tp1Sender | undefined,
+  ): DeviceRuntime {
+    const objects = new Map<number, ObjectRuntime>();
+    for (const [number, object] of original.objects) objects.set(number, { ...object });
+    const device: DeviceRuntime = {
+      index: original.index,
+      id: original.id,
+      loaded: original.loaded,
+      type: original.type,
+      state: original.state,
+      objects,
+      context: undefined as unknown as DeviceContext<unknown>,
+      line,
+      sender,
+      busAnswer: original.busAnswer,
+      timers: new Map(original.timers),
+      lastTakenTelegramId: original.lastTakenTelegramId,
+    };
+    device.context = this.makeContext(device);
+    return device;
+  }
+
+  /** Continues `other`'s timer numbering, for a forked run. */
+  copyTimerGeneration(other: DeviceRunner): void {
+    this.timerGeneration = other.timerGeneration;
+  }
+
+  /** The fork's copy of a queued timer of another run, for `device` (the fork's device). */
+  copyTimer(entry: unknown, device: (original: DeviceRuntime) => DeviceRuntime): TimerEntry {
+    const timer = entry as TimerEntry;
+    return { ...timer, device: device(timer.device) };
   }
 
   /** The `start` event, then the read-on-init reads. */

@@ -144,6 +144,17 @@ export class GroupObjectLayer {
   /** Where delivered writes and responses go: the device runtime (set once, right after construction). */
   receiver: { transition(device: ObjectOwner, event: DeviceEvent): unknown } | undefined;
 
+  /** Takes over `other`'s counts, last group values and decode cache, for a forked run. */
+  copyFrom(other: GroupObjectLayer): void {
+    this.deliveries = other.deliveries;
+    this.groupValues.clear();
+    for (const [address, value] of other.groupValues) this.groupValues.set(address, value);
+    this.decodedTelegramId = other.decodedTelegramId;
+    this.decodedDpt = other.decodedDpt;
+    this.decodedValue = other.decodedValue;
+    this.decodedOk = other.decodedOk;
+  }
+
   /** Rebuilds every line's listener table from the devices' objects (start, parameter change). */
   rebuildListeners(lines: Iterable<LineRuntime>, devices: readonly ObjectOwner[]): void {
     for (const line of lines) line.listeners = new Map();
