@@ -303,7 +303,8 @@ function eventTouchesAddress(event: TraceEvent, address: number): boolean {
   }
 }
 
-function eventTouchesDevice(event: TraceEvent, deviceId: string): boolean {
+/** Whether an event is about a device: its telegrams, transitions, objects, timers, faults, link messages. */
+export function eventTouchesDevice(event: TraceEvent, deviceId: string): boolean {
   switch (event.kind) {
     case "link.delivered":
     case "link.dropped":

@@ -1,6 +1,6 @@
 import { formatGroupAddress, parseGroupAddress } from "../address";
 import type { Bench, BenchInput, LoadedBench } from "../bench";
-import type { TraceEvent } from "../core/trace";
+import { eventTouchesDevice, type TraceEvent } from "../core/trace";
 import { getDpt, type DptCodec } from "../dpt";
 import { fromHex, telegramOccupancyUs, type GroupService } from "../frame";
 import { BenchLoadFailure, createSimulation, type Simulation } from "../sim";
@@ -281,8 +281,15 @@ class ScenarioRun {
     return slice;
   }
 
+  /** Events about a device with fromUs <= timeUs <= toUs, at most TRACE_SLICE_LIMIT (no copy of the range first). */
   deviceSlice(deviceId: string, fromUs: number, toUs: number): readonly TraceEvent[] {
-    return capped(this.sim.traceStore.filter({ deviceId, fromUs, toUs: toUs + 1 }));
+    const events = this.sim.trace;
+    const slice: TraceEvent[] = [];
+    const end = lowerBound(events, toUs + 1);
+    for (let i = lowerBound(events, fromUs); i < end && slice.length < TRACE_SLICE_LIMIT; i++) {
+      if (eventTouchesDevice(events[i]!, deviceId)) slice.push(events[i]!);
+    }
+    return slice;
   }
 }
 
@@ -361,6 +368,51 @@ function runAction(
   return pass(capped(sim.trace.slice(before)));
 }
 
+/** Telegrams to one address in a window, scanned as the run advances, and the first that matches. */
+class TelegramWatch {
+  // By trace position, not by time: an event appended later may carry a time already scanned.
+  private cursor: number;
+  matchUs: number | undefined;
+  readonly seen: { timeUs: number; value: unknown; service: string }[] = [];
+
+  constructor(
+    private readonly run: ScenarioRun,
+    private readonly address: AddressInfo,
+    private readonly services: readonly string[],
+    private readonly expected: unknown,
+    private readonly tolerance: number,
+    fromUs: number,
+    private readonly toUs: number,
+  ) {
+    this.cursor = lowerBound(run.sim.trace, fromUs);
+  }
+
+  /** Reads the events appended since the last scan; true once a telegram matched. */
+  scan(): boolean {
+    const events = this.run.sim.trace;
+    for (; this.cursor < events.length; this.cursor++) {
+      const event = events[this.cursor]!;
+      if (event.timeUs > this.toUs) break;
+      if (
+        event.kind !== "telegram.sent" ||
+        event.attempt !== 0 ||
+        event.destination !== this.address.raw
+      )
+        continue;
+      const service = SERVICE_OF[event.service];
+      if (!this.services.includes(service)) continue;
+      const value = this.run.decode(this.address, event.payloadHex);
+      this.seen.push({ timeUs: event.timeUs, value, service });
+      if (
+        this.matchUs === undefined &&
+        (this.expected === undefined || valuesMatch(this.expected, value, this.tolerance))
+      )
+        this.matchUs = event.timeUs;
+    }
+    return this.matchUs !== undefined;
+  }
+}
+
 function expectTelegramValue(
   run: ScenarioRun,
   step: Extract<Step, { kind: "expect-value" | "expect-response" }>,
@@ -379,34 +431,9 @@ function expectTelegramValue(
         : [step.service];
   const fromUs = run.anchorUs;
   const toUs = fromUs + durationUs(step.within);
-  // Scan by trace position, not by time: an event appended later may carry a time already scanned.
-  let cursor = lowerBound(run.sim.trace, fromUs);
-  let matchUs: number | undefined;
-  const seen: { timeUs: number; value: unknown; service: string }[] = [];
-  const scan = () => {
-    const events = run.sim.trace;
-    for (; cursor < events.length; cursor++) {
-      const event = events[cursor]!;
-      if (event.timeUs > toUs) break;
-      if (
-        event.kind !== "telegram.sent" ||
-        event.attempt !== 0 ||
-        event.destination !== address.raw
-      )
-        continue;
-      const service = SERVICE_OF[event.service];
-      if (!services.includes(service)) continue;
-      const value = run.decode(address, event.payloadHex);
-      seen.push({ timeUs: event.timeUs, value, service });
-      if (
-        matchUs === undefined &&
-        (expected === undefined || valuesMatch(expected, value, tolerance))
-      )
-        matchUs = event.timeUs;
-    }
-    return matchUs !== undefined;
-  };
-  if (!scan()) run.advance(toUs, scan);
+  const watch = new TelegramWatch(run, address, services, expected, tolerance, fromUs, toUs);
+  if (!watch.scan()) run.advance(toUs, () => watch.scan());
+  const { matchUs, seen } = watch;
   const slice = run.addressSlice(address, fromUs, Math.min(toUs, run.sim.nowUs));
   const what =
     step.kind === "expect-response"
@@ -444,14 +471,13 @@ function expectState(run: ScenarioRun, step: Extract<Step, { kind: "expect-state
     );
   }
   const tolerance = step.tolerance ?? 0;
-  const read = () => valueAtPath(run.sim.deviceState(step.device), step.path);
-  const matches = () => {
-    const current = read();
-    return current.found && valuesMatch(step.value, current.value, tolerance);
-  };
   const fromUs = run.anchorUs;
-  if (step.within !== undefined) run.advance(fromUs + durationUs(step.within), matches);
-  const current = read();
+  if (step.within !== undefined)
+    run.advance(fromUs + durationUs(step.within), () => {
+      const current = valueAtPath(run.sim.deviceState(step.device), step.path);
+      return current.found && valuesMatch(step.value, current.value, tolerance);
+    });
+  const current = valueAtPath(run.sim.deviceState(step.device), step.path);
   const slice = run.deviceSlice(step.device, fromUs, run.sim.nowUs);
   const expected = `${step.device} ${step.path} = ${JSON.stringify(step.value)}${tolerance > 0 ? ` ± ${tolerance}` : ""}${step.within ? ` within ${step.within}` : ""}`;
   if (!current.found) return fail(expected, `${step.device} has no state at "${step.path}"`, slice);
@@ -533,9 +559,11 @@ function expectSilence(
   const address = step.groupAddress === undefined ? undefined : run.address(step.groupAddress);
   const fromUs = run.anchorUs;
   const toUs = fromUs + durationUs(step.for);
-  const offenders = () => run.telegrams(fromUs, Math.min(toUs, run.sim.nowUs), address?.raw);
-  run.advance(toUs, () => offenders().length > 0);
-  const found = offenders();
+  run.advance(
+    toUs,
+    () => run.telegrams(fromUs, Math.min(toUs, run.sim.nowUs), address?.raw).length > 0,
+  );
+  const found = run.telegrams(fromUs, Math.min(toUs, run.sim.nowUs), address?.raw);
   const slice = run.addressSlice(address, fromUs, Math.min(toUs, run.sim.nowUs));
   const target = address === undefined ? "any address" : describeAddress(address);
   if (found.length === 0) return pass(slice);

@@ -244,34 +244,44 @@ export class Simulation {
     this.runner.copyTimerGeneration(original.runner);
     // Telegrams are mutable (repetitions, who took them), so each gets one copy shared by its queue and its line.
     const telegrams = new Map<Telegram, Telegram>();
-    const device = (from: DeviceRuntime) => this.devices[from.index]!;
-    const copyTelegram = (telegram: Telegram): Telegram => {
-      let copy = telegrams.get(telegram);
-      if (copy === undefined) {
-        copy = {
-          ...telegram,
-          sender: this.sender(original, telegram.sender),
-          takenBy: telegram.takenBy?.map((taker) => device(taker as DeviceRuntime)),
-        };
-        telegrams.set(telegram, copy);
-      }
-      return copy;
-    };
-    this.testToolSender.copyFrom(original.testToolSender, copyTelegram);
+    this.testToolSender.copyFrom(original.testToolSender, (t) =>
+      this.copyTelegram(original, telegrams, t),
+    );
     this.devices.forEach((d, index) =>
-      d.sender?.copyFrom(original.devices[index]!.sender!, copyTelegram),
+      d.sender?.copyFrom(original.devices[index]!.sender!, (t) =>
+        this.copyTelegram(original, telegrams, t),
+      ),
     );
     for (const [id, line] of this.lines)
       line.line.copyFrom(
         original.lines.get(id)!.line,
         (sender) => this.sender(original, sender),
-        copyTelegram,
+        (t) => this.copyTelegram(original, telegrams, t),
       );
     this.scheduler.copyFrom(original.scheduler, (tag, payload) => {
-      if (tag === this.runner.timerTag) return this.runner.copyTimer(payload, device);
+      if (tag === this.runner.timerTag)
+        return this.runner.copyTimer(payload, (from) => this.devices[from.index]!);
       if (tag === this.unitLinks.tag) return this.unitLinks.copyMessage(payload);
       throw new Error(`Simulation.fork: no copy for a queued event with tag ${tag}`);
     });
+  }
+
+  /** This run's copy of a telegram of `original` (one per telegram, kept in `copies`). */
+  private copyTelegram(
+    original: Simulation,
+    copies: Map<Telegram, Telegram>,
+    telegram: Telegram,
+  ): Telegram {
+    let copy = copies.get(telegram);
+    if (copy === undefined) {
+      copy = {
+        ...telegram,
+        sender: this.sender(original, telegram.sender),
+        takenBy: telegram.takenBy?.map((taker) => this.devices[(taker as DeviceRuntime).index]!),
+      };
+      copies.set(telegram, copy);
+    }
+    return copy;
   }
 
   /** This run's sender matching a sender of `original`. */
