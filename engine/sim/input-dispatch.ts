@@ -7,7 +7,7 @@ import type { DataFrame, GroupService } from "../frame";
 import type { DeviceRunner, DeviceRuntime } from "./device-runtime";
 import { BUS_FAULTS, UNIT_LINK_BROKEN, type FaultRegistry } from "./fault-registry";
 import { DEFAULT_GROUP_PRIORITY, groupFrame, type GroupObjectLayer } from "./group-objects";
-import { reloadedBench } from "./prepared-bench";
+import { deviceButtons, reloadedBench } from "./prepared-bench";
 import type { SimError } from "./sim-error";
 import type { Receipt, SimInput } from "./sim-input";
 import type { TraceEmitter } from "./trace-emitter";
@@ -52,7 +52,7 @@ export class InputDispatch {
       case "press": {
         const device = this.rt.deviceById.get(input.device);
         if (device === undefined) return unknownDevice(input.device);
-        const buttons = device.type.buttons(device.loaded.parameters);
+        const buttons = deviceButtons(device.loaded, this.rt.reuse);
         if (!buttons.some((b) => b.id === input.button)) {
           return err({
             kind: "sim.button-unknown",
