@@ -35,7 +35,11 @@ export interface RunScenarioOptions {
   readonly budgetMs?: number;
   /** Where the scenario came from, copied into the result (file path). */
   readonly source?: string;
-  /** Reuse bench-only work across runs (see SimulationOptions.reuse); true by default. */
+  /**
+   * Reuse bench-only work across runs (see SimulationOptions.reuse), and start
+   * from a fork of a run of the same loaded bench that already settled
+   * (settled-runs.ts); true by default.
+   */
   readonly reuse?: boolean;
   /** Handed the run's whole trace when it ends (golden-trace tests, debugging). */
   readonly onTrace?: (trace: readonly TraceEvent[]) => void;
