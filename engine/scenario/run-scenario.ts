@@ -224,7 +224,17 @@ class ScenarioRun {
         : Math.max(10_000, Math.ceil(spanUs / 50));
     while (!(done?.() ?? false) && this.sim.nowUs < untilUs) {
       this.checkBudget();
-      this.sim.runUntil(Math.min(untilUs, this.sim.nowUs + sliceUs));
+      let endUs = Math.min(untilUs, this.sim.nowUs + sliceUs);
+      // A slice in which nothing is due changes nothing a condition reads, so the run
+      // goes straight to the end of the slice holding the next event (same stop time).
+      // With a wall-clock budget every slice stays, as each is a budget check.
+      const nextUs = this.sim.nextEventUs;
+      if (!this.budgeted && nextUs > endUs)
+        endUs = Math.min(
+          untilUs,
+          endUs + Math.ceil((Math.min(nextUs, untilUs) - endUs) / sliceUs) * sliceUs,
+        );
+      this.sim.runUntil(endUs);
     }
   }
 

@@ -297,6 +297,11 @@ export class Simulation {
     return this.scheduler.nowUs;
   }
 
+  /** Virtual time of the next scheduled event, µs; Infinity when nothing is scheduled. */
+  get nextEventUs(): number {
+    return this.scheduler.peekTimeUs();
+  }
+
   /** Runs every event due up to `timeUs` (absolute, µs) and leaves the clock there. */
   runUntil(timeUs: number): void {
     if (!Number.isSafeInteger(timeUs) || timeUs < this.scheduler.nowUs) {
