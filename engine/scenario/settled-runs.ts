@@ -12,6 +12,9 @@ import type { Simulation } from "../sim";
  */
 const settledByBench = new WeakMap<LoadedBench, Map<string, Simulation>>();
 
+/** Templates kept per bench; the oldest goes first. A suite usually needs one. */
+const MAX_TEMPLATES_PER_BENCH = 8;
+
 const key = (seed: number, settleUs: number) => `${seed}@${settleUs}`;
 
 /** A fresh run of `bench` already settled for `settleUs` with `seed`, if one was kept. */
@@ -35,5 +38,7 @@ export function keepSettledRun(
     kept = new Map();
     settledByBench.set(bench, kept);
   }
+  // A long-lived bench run with ever new seeds would otherwise collect a template per seed.
+  if (kept.size >= MAX_TEMPLATES_PER_BENCH) kept.delete(kept.keys().next().value!);
   kept.set(key(seed, settleUs), sim.fork());
 }
