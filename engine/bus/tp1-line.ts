@@ -1,5 +1,5 @@
 import type { Scheduler } from "../core/scheduler";
-import { toHex, type Trace, type TelegramTraceFields } from "../core/trace";
+import { toHex, type Trace, type TelegramTraceFields, type TraceEvent } from "../core/trace";
 import {
   ACK_CHARACTER_BIT_TIMES,
   ACK_GAP_BIT_TIMES,
@@ -61,6 +61,14 @@ const ACK_SLOT_US = bitTimesToUs(ACK_GAP_BIT_TIMES + ACK_CHARACTER_BIT_TIMES);
 const ACK_CHARACTER_US = bitTimesToUs(ACK_CHARACTER_BIT_TIMES);
 const BUSY_WAIT_US = bitTimesToUs(BUSY_RETRY_WAIT_BIT_TIMES);
 
+type TelegramEventKind = Extract<TraceEvent, { telegramId: number }>["kind"];
+type Mutable<T> = { -readonly [K in keyof T]: T[K] };
+
+// Shared empty history columns: nothing is ever written to a zero-length array, and a line grows its own.
+const NO_FLOATS = new Float64Array(0);
+const NO_INTS = new Int32Array(0);
+const NO_BYTES = new Uint8Array(0);
+
 const PRIORITY_CODE: Readonly<Record<Priority, number>> = {
   system: 0,
   normal: 1,
@@ -87,6 +95,8 @@ export interface Telegram {
    * when a repetition may follow, so a clean ACK costs nothing.
    */
   takenBy: unknown[] | undefined;
+  /** The payload as the trace writes it, formatted once for all of the telegram's events. */
+  payloadHex: string | undefined;
 }
 
 /** One station's sending side: a queue of telegrams sent one at a time, each with its repetitions. */
@@ -106,6 +116,15 @@ export class Tp1Sender {
 
   get pending(): number {
     return this.queue.length - this.head;
+  }
+
+  /** Takes over `other`'s waiting telegrams (as the fork's copies), for a forked run. */
+  copyFrom(other: Tp1Sender, copyTelegram: (telegram: Telegram) => Telegram): void {
+    this.queue.length = 0;
+    for (let i = other.head; i < other.queue.length; i++)
+      this.queue.push(copyTelegram(other.queue[i]!));
+    this.head = 0;
+    this.contenderIndex = other.contenderIndex;
   }
 
   current(): Telegram | undefined {
@@ -184,15 +203,17 @@ export class Tp1Line {
   private currentAck = NO_ACK_OCTET;
 
   // Transmission history for windowed statistics, as parallel columns in a ring.
+  // The columns start small and double up to the capacity (the ring wraps only
+  // then), so a short run, such as a scenario replay, does not pay for a long one.
   private readonly historyCapacity: number;
   private historyCount = 0;
   private historyNext = 0;
-  private readonly histOccupiedStart: Float64Array;
-  private readonly histOccupiedEnd: Float64Array;
-  private readonly histBusyUs: Float64Array;
-  private readonly histDestination: Int32Array;
-  private readonly histRepeated: Uint8Array;
-  private readonly histSender: (string | undefined)[];
+  private histOccupiedStart = NO_FLOATS;
+  private histOccupiedEnd = NO_FLOATS;
+  private histBusyUs = NO_FLOATS;
+  private histDestination = NO_INTS;
+  private histRepeated = NO_BYTES;
+  private histSender: (string | undefined)[] = [];
 
   /** Totals since the start of the run. */
   transmissionsTotal = 0;
@@ -213,12 +234,47 @@ export class Tp1Line {
     this.frameEndTag = scheduler.register(() => this.onFrameEnd());
     this.ackEndTag = scheduler.register(() => this.onAckEnd());
     this.historyCapacity = options.historyCapacity ?? 65_536;
-    this.histOccupiedStart = new Float64Array(this.historyCapacity);
-    this.histOccupiedEnd = new Float64Array(this.historyCapacity);
-    this.histBusyUs = new Float64Array(this.historyCapacity);
-    this.histDestination = new Int32Array(this.historyCapacity);
-    this.histRepeated = new Uint8Array(this.historyCapacity);
-    this.histSender = new Array<string | undefined>(this.historyCapacity).fill(undefined);
+  }
+
+  /**
+   * Takes over `other`'s state: the cycle in progress, its contenders (as the
+   * fork's senders, whose queues are already copied), statistics and history.
+   * For a forked run; `copyTelegram` gives the fork's copy of a telegram.
+   */
+  copyFrom(
+    other: Tp1Line,
+    sender: (original: Tp1Sender) => Tp1Sender,
+    copyTelegram: (telegram: Telegram) => Telegram,
+  ): void {
+    this.busy = other.busy;
+    this.idleSinceUs = other.idleSinceUs;
+    this.nextSlotUs = other.nextSlotUs;
+    this.contenders.length = 0;
+    for (const contender of other.contenders) this.contenders.push(sender(contender));
+    this.current = other.current === undefined ? undefined : copyTelegram(other.current);
+    this.currentRepeated = other.currentRepeated;
+    this.currentFrameEndUs = other.currentFrameEndUs;
+    this.currentAck = other.currentAck;
+    this.historyCount = other.historyCount;
+    this.historyNext = other.historyNext;
+    // A settled run often has sent nothing yet; its empty columns need no copies.
+    if (other.histOccupiedStart.length > 0) {
+      this.histOccupiedStart = other.histOccupiedStart.slice();
+      this.histOccupiedEnd = other.histOccupiedEnd.slice();
+      this.histBusyUs = other.histBusyUs.slice();
+      this.histDestination = other.histDestination.slice();
+      this.histRepeated = other.histRepeated.slice();
+      this.histSender = other.histSender.slice();
+    }
+    this.transmissionsTotal = other.transmissionsTotal;
+    this.telegramsTotal = other.telegramsTotal;
+    this.busyUsTotal = other.busyUsTotal;
+    this.occupiedUsTotal = other.occupiedUsTotal;
+    this.telegramsByGroupAddress.clear();
+    for (const [address, count] of other.telegramsByGroupAddress)
+      this.telegramsByGroupAddress.set(address, count);
+    this.telegramsBySender.clear();
+    for (const [key, count] of other.telegramsBySender) this.telegramsBySender.set(key, count);
   }
 
   /** True while a frame or its acknowledgement slot is on the line. */
@@ -247,10 +303,10 @@ export class Tp1Line {
       readyAtUs: now,
       queuedAtUs: now,
       takenBy: undefined,
+      payloadHex: undefined,
     };
     sender.push(telegram);
-    if (this.trace.active)
-      this.trace.append({ kind: "telegram.queued", ...this.telegramFields(telegram, now) });
+    if (this.trace.active) this.trace.append(this.telegramEvent("telegram.queued", telegram, now));
     if (sender.contenderIndex < 0) {
       sender.contenderIndex = this.contenders.length;
       this.contenders.push(sender);
@@ -259,10 +315,19 @@ export class Tp1Line {
     return telegram;
   }
 
-  /** Trace fields of a telegram at a given time. */
-  telegramFields(telegram: Telegram, timeUs: number): TelegramTraceFields {
+  /**
+   * A telegram trace event with the fields every kind shares; the caller adds
+   * its kind's own fields. Built as one object (no spreads) because a full trace
+   * holds several of these per telegram.
+   */
+  private telegramEvent<K extends TelegramEventKind>(
+    kind: K,
+    telegram: Telegram,
+    timeUs: number,
+  ): Mutable<Extract<TraceEvent, { kind: K }>> {
     const frame = telegram.frame;
-    const fields: TelegramTraceFields = {
+    const event: Mutable<TelegramTraceFields> & { kind: K } = {
+      kind,
       timeUs,
       telegramId: telegram.id,
       line: this.id,
@@ -270,12 +335,11 @@ export class Tp1Line {
       destination: frame.destination,
       service: frame.service,
       priority: frame.priority,
-      payloadHex: toHex(frame.payload),
+      payloadHex: (telegram.payloadHex ??= toHex(frame.payload)),
       shortPayload: frame.shortPayload,
     };
-    return telegram.sender.deviceId === undefined
-      ? fields
-      : { ...fields, deviceId: telegram.sender.deviceId };
+    if (telegram.sender.deviceId !== undefined) event.deviceId = telegram.sender.deviceId;
+    return event as Mutable<Extract<TraceEvent, { kind: K }>>;
   }
 
   private requestSlot(readyAtUs: number): void {
@@ -319,15 +383,13 @@ export class Tp1Line {
     this.currentFrameEndUs = frameEndUs;
     this.scheduler.schedule(frameEndUs, this.frameEndTag);
     if (this.trace.active) {
-      this.trace.append({
-        kind: "telegram.sent",
-        ...this.telegramFields(winner, now),
-        endUs: frameEndUs,
-        attempt,
-        repeated: this.currentRepeated,
-        octets: winner.octets,
-        arbitrationLosers: losers,
-      });
+      const event = this.telegramEvent("telegram.sent", winner, now);
+      event.endUs = frameEndUs;
+      event.attempt = attempt;
+      event.repeated = this.currentRepeated;
+      event.octets = winner.octets;
+      event.arbitrationLosers = losers;
+      this.trace.append(event);
     }
   }
 
@@ -358,33 +420,30 @@ export class Tp1Line {
     const sender = telegram.sender;
     const attempt = telegram.transmissions - 1;
     if (ack === ACK_OCTET) {
-      if (this.trace.active)
-        this.trace.append({
-          kind: "telegram.acked",
-          ...this.telegramFields(telegram, now),
-          attempt,
-        });
+      if (this.trace.active) {
+        const event = this.telegramEvent("telegram.acked", telegram, now);
+        event.attempt = attempt;
+        this.trace.append(event);
+      }
       this.finish(sender, now);
     } else {
       const busy = ack === BUSY_OCTET || ack === 0x00;
       const reason = !answered ? "none" : busy ? "busy" : "nak";
       if (attempt < MAX_REPETITIONS) {
         telegram.readyAtUs = busy ? now + BUSY_WAIT_US : now;
-        if (this.trace.active)
-          this.trace.append({
-            kind: "telegram.repeated",
-            ...this.telegramFields(telegram, now),
-            attempt,
-            reason,
-          });
+        if (this.trace.active) {
+          const event = this.telegramEvent("telegram.repeated", telegram, now);
+          event.attempt = attempt;
+          event.reason = reason;
+          this.trace.append(event);
+        }
       } else {
-        if (this.trace.active)
-          this.trace.append({
-            kind: "telegram.lost",
-            ...this.telegramFields(telegram, now),
-            attempt,
-            reason,
-          });
+        if (this.trace.active) {
+          const event = this.telegramEvent("telegram.lost", telegram, now);
+          event.attempt = attempt;
+          event.reason = reason;
+          this.trace.append(event);
+        }
         this.finish(sender, now);
       }
     }
@@ -423,6 +482,7 @@ export class Tp1Line {
   ): void {
     const repeated = telegram.transmissions > 1;
     const i = this.historyNext;
+    if (i === this.histOccupiedStart.length) this.growHistory();
     this.histOccupiedStart[i] = occupiedStartUs;
     this.histOccupiedEnd[i] = occupiedEndUs;
     this.histBusyUs[i] = busyUs;
@@ -445,6 +505,21 @@ export class Tp1Line {
       const key = telegram.sender.countKey;
       this.telegramsBySender.set(key, (this.telegramsBySender.get(key) ?? 0) + 1);
     }
+  }
+
+  /** Doubles the history columns (at most to the capacity); called only before the ring first wraps. */
+  private growHistory(): void {
+    const size = Math.min(this.historyCapacity, Math.max(64, this.histOccupiedStart.length * 2));
+    const grown = <T extends Float64Array | Int32Array | Uint8Array>(column: T, next: T): T => {
+      next.set(column);
+      return next;
+    };
+    this.histOccupiedStart = grown(this.histOccupiedStart, new Float64Array(size));
+    this.histOccupiedEnd = grown(this.histOccupiedEnd, new Float64Array(size));
+    this.histBusyUs = grown(this.histBusyUs, new Float64Array(size));
+    this.histDestination = grown(this.histDestination, new Int32Array(size));
+    this.histRepeated = grown(this.histRepeated, new Uint8Array(size));
+    this.histSender.length = size;
   }
 
   /**

@@ -33,4 +33,9 @@ export class SequentialIds {
   peek(): number {
     return this.nextId;
   }
+
+  /** Continues where `other` stands (a forked run). */
+  copyFrom(other: SequentialIds): void {
+    this.nextId = other.nextId;
+  }
 }

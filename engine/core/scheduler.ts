@@ -19,6 +19,11 @@
  */
 export type EventHandler = (arg: number, payload: unknown) => void;
 
+function fill<T extends Int32Array | Float64Array>(target: T, source: T): T {
+  target.set(source);
+  return target;
+}
+
 export class Scheduler {
   /** Virtual time now, integer microseconds. */
   nowUs = 0;
@@ -146,6 +151,32 @@ export class Scheduler {
       }
       this.nowUs = timeUs;
     }
+  }
+
+  /**
+   * Takes over `other`'s clock and queue exactly (same slots, same sequence
+   * numbers, so ties come out in the same order), for a forked run. Handlers
+   * are not copied: the fork registers its own in the same order, and
+   * `copyPayload` turns each queued payload into the fork's equivalent.
+   */
+  copyFrom(other: Scheduler, copyPayload: (tag: number, payload: unknown) => unknown): void {
+    if (other.handlers.length !== this.handlers.length)
+      throw new Error("Scheduler.copyFrom: the two schedulers have different handlers");
+    this.nowUs = other.nowUs;
+    // Typed arrays cost far more to allocate than to fill, so arrays of the same size are filled in place.
+    const same = this.heap.length === other.heap.length;
+    this.heap = same ? fill(this.heap, other.heap) : other.heap.slice();
+    this.slotTimeUs = same ? fill(this.slotTimeUs, other.slotTimeUs) : other.slotTimeUs.slice();
+    this.slotSeq = same ? fill(this.slotSeq, other.slotSeq) : other.slotSeq.slice();
+    this.slotTag = same ? fill(this.slotTag, other.slotTag) : other.slotTag.slice();
+    this.slotArg = same ? fill(this.slotArg, other.slotArg) : other.slotArg.slice();
+    this.freeSlots = same ? fill(this.freeSlots, other.freeSlots) : other.freeSlots.slice();
+    this.size = other.size;
+    this.slotPayload = other.slotPayload.map((payload, slot) =>
+      payload === undefined ? undefined : copyPayload(other.slotTag[slot]!, payload),
+    );
+    this.freeCount = other.freeCount;
+    this.seq = other.seq;
   }
 
   private before(a: number, b: number): boolean {

@@ -215,6 +215,14 @@ export class Trace {
     for (let i = 0; i < listeners.length; i++) listeners[i]!(event);
   }
 
+  /** Takes over `other`'s kept events (shared: events are never changed), for a forked run. */
+  copyFrom(other: Trace): void {
+    this.buffer.length = 0;
+    for (let i = 0; i < other.buffer.length; i++) this.buffer.push(other.buffer[i]!);
+    this.head = other.head;
+    this.total = other.total;
+  }
+
   /** Calls `listener` with every event appended from now on; returns the unsubscribe function. */
   subscribe(listener: TraceListener): () => void {
     this.listeners = [...this.listeners, listener];
@@ -295,7 +303,8 @@ function eventTouchesAddress(event: TraceEvent, address: number): boolean {
   }
 }
 
-function eventTouchesDevice(event: TraceEvent, deviceId: string): boolean {
+/** Whether an event is about a device: its telegrams, transitions, objects, timers, faults, link messages. */
+export function eventTouchesDevice(event: TraceEvent, deviceId: string): boolean {
   switch (event.kind) {
     case "link.delivered":
     case "link.dropped":

@@ -1,11 +1,12 @@
 import { formatGroupAddress, parseGroupAddress } from "../address";
 import type { Bench, BenchInput, LoadedBench } from "../bench";
-import type { TraceEvent } from "../core/trace";
+import { eventTouchesDevice, type TraceEvent } from "../core/trace";
 import { getDpt, type DptCodec } from "../dpt";
 import { fromHex, telegramOccupancyUs, type GroupService } from "../frame";
 import { BenchLoadFailure, createSimulation, type Simulation } from "../sim";
 import { formatVirtualTime } from "../core/virtual-time";
-import { parseDuration } from "./duration";
+import { forkSettledRun, keepSettledRun } from "./settled-runs";
+import { addressTable, checkedStepValue, durationUs, keptLabel } from "./step-cache";
 import {
   outcomeIsOk,
   scenarioOutcome,
@@ -34,7 +35,11 @@ export interface RunScenarioOptions {
   readonly budgetMs?: number;
   /** Where the scenario came from, copied into the result (file path). */
   readonly source?: string;
-  /** Reuse bench-only work across runs (see SimulationOptions.reuse); true by default. */
+  /**
+   * Reuse bench-only work across runs (see SimulationOptions.reuse), and start
+   * from a fork of a run of the same loaded bench that already settled
+   * (settled-runs.ts); true by default.
+   */
   readonly reuse?: boolean;
   /** Handed the run's whole trace when it ends (golden-trace tests, debugging). */
   readonly onTrace?: (trace: readonly TraceEvent[]) => void;
@@ -114,13 +119,6 @@ export function stepLabel(step: Step): string {
   }
 }
 
-function durationUs(text: string): number {
-  const parsed = parseDuration(text);
-  // The schema has checked every duration; a bad one here is a bug.
-  if (!parsed.ok) throw new Error(`unchecked duration ${text}`);
-  return parsed.value;
-}
-
 function lowerBound(events: readonly TraceEvent[], timeUs: number): number {
   let lo = 0;
   let hi = events.length;
@@ -139,7 +137,6 @@ function capped(events: readonly TraceEvent[]): readonly TraceEvent[] {
 /** One scenario run: the simulation, the anchor and the helpers steps share. */
 class ScenarioRun {
   anchorUs: number;
-  private readonly addresses = new Map<string, AddressInfo>();
 
   constructor(
     readonly sim: Simulation,
@@ -153,8 +150,10 @@ class ScenarioRun {
     return this.sim.bench;
   }
 
+  /** An address a step names, resolved once per bench (see step-cache.ts). */
   address(text: string, field = "groupAddress"): AddressInfo {
-    const cached = this.addresses.get(text);
+    const addresses = addressTable<AddressInfo>(this.bench);
+    const cached = addresses.get(text);
     if (cached) return cached;
     const parsed = parseGroupAddress(text);
     if (!parsed.ok) throw new StepError(`${field}: ${parsed.error.message}`);
@@ -180,7 +179,7 @@ class ScenarioRun {
       codec,
       devices,
     };
-    this.addresses.set(text, info);
+    addresses.set(text, info);
     return info;
   }
 
@@ -225,7 +224,17 @@ class ScenarioRun {
         : Math.max(10_000, Math.ceil(spanUs / 50));
     while (!(done?.() ?? false) && this.sim.nowUs < untilUs) {
       this.checkBudget();
-      this.sim.runUntil(Math.min(untilUs, this.sim.nowUs + sliceUs));
+      let endUs = Math.min(untilUs, this.sim.nowUs + sliceUs);
+      // A slice in which nothing is due changes nothing a condition reads, so the run
+      // goes straight to the end of the slice holding the next event (same stop time).
+      // With a wall-clock budget every slice stays, as each is a budget check.
+      const nextUs = this.sim.nextEventUs;
+      if (!this.budgeted && nextUs > endUs)
+        endUs = Math.min(
+          untilUs,
+          endUs + Math.ceil((Math.min(nextUs, untilUs) - endUs) / sliceUs) * sliceUs,
+        );
+      this.sim.runUntil(endUs);
     }
   }
 
@@ -286,8 +295,15 @@ class ScenarioRun {
     return slice;
   }
 
+  /** Events about a device with fromUs <= timeUs <= toUs, at most TRACE_SLICE_LIMIT (no copy of the range first). */
   deviceSlice(deviceId: string, fromUs: number, toUs: number): readonly TraceEvent[] {
-    return capped(this.sim.traceStore.filter({ deviceId, fromUs, toUs: toUs + 1 }));
+    const events = this.sim.trace;
+    const slice: TraceEvent[] = [];
+    const end = lowerBound(events, toUs + 1);
+    for (let i = lowerBound(events, fromUs); i < end && slice.length < TRACE_SLICE_LIMIT; i++) {
+      if (eventTouchesDevice(events[i]!, deviceId)) slice.push(events[i]!);
+    }
+    return slice;
   }
 }
 
@@ -319,16 +335,19 @@ function runAction(
   switch (step.kind) {
     case "write": {
       const address = run.address(step.groupAddress);
-      const value = address.codec.valueSchema.safeParse(step.value);
-      if (!value.success)
-        throw new StepError(
-          `value: ${JSON.stringify(step.value)} is not a ${address.codec.id} value`,
-        );
+      const value = checkedStepValue(step, address.codec, () => {
+        const checked = address.codec.valueSchema.safeParse(step.value);
+        if (!checked.success)
+          throw new StepError(
+            `value: ${JSON.stringify(step.value)} is not a ${address.codec.id} value`,
+          );
+        return checked.data;
+      });
       simFailure(
         sim.apply({
           kind: "write",
           groupAddress: address.raw,
-          value: value.data as JsonValue,
+          value: value as JsonValue,
           from: step.from,
           priority: step.priority,
         }),
@@ -363,12 +382,60 @@ function runAction(
   return pass(capped(sim.trace.slice(before)));
 }
 
+/** Telegrams to one address in a window, scanned as the run advances, and the first that matches. */
+class TelegramWatch {
+  // By trace position, not by time: an event appended later may carry a time already scanned.
+  private cursor: number;
+  matchUs: number | undefined;
+  readonly seen: { timeUs: number; value: unknown; service: string }[] = [];
+
+  constructor(
+    private readonly run: ScenarioRun,
+    private readonly address: AddressInfo,
+    private readonly services: readonly string[],
+    private readonly expected: unknown,
+    private readonly tolerance: number,
+    fromUs: number,
+    private readonly toUs: number,
+  ) {
+    this.cursor = lowerBound(run.sim.trace, fromUs);
+  }
+
+  /** Reads the events appended since the last scan; true once a telegram matched. */
+  scan(): boolean {
+    const events = this.run.sim.trace;
+    for (; this.cursor < events.length; this.cursor++) {
+      const event = events[this.cursor]!;
+      if (event.timeUs > this.toUs) break;
+      if (
+        event.kind !== "telegram.sent" ||
+        event.attempt !== 0 ||
+        event.destination !== this.address.raw
+      )
+        continue;
+      const service = SERVICE_OF[event.service];
+      if (!this.services.includes(service)) continue;
+      const value = this.run.decode(this.address, event.payloadHex);
+      this.seen.push({ timeUs: event.timeUs, value, service });
+      if (
+        this.matchUs === undefined &&
+        (this.expected === undefined || valuesMatch(this.expected, value, this.tolerance))
+      )
+        this.matchUs = event.timeUs;
+    }
+    return this.matchUs !== undefined;
+  }
+}
+
 function expectTelegramValue(
   run: ScenarioRun,
   step: Extract<Step, { kind: "expect-value" | "expect-response" }>,
 ): StepOutcome {
   const address = run.address(step.groupAddress);
-  const expected = step.value === undefined ? undefined : run.expectedValue(address, step.value);
+  const expected =
+    step.value === undefined
+      ? undefined
+      : checkedStepValue(step, address.codec, () => run.expectedValue(address, step.value));
   const tolerance = step.tolerance ?? 0;
   const services: readonly string[] =
     step.kind === "expect-response"
@@ -378,35 +445,12 @@ function expectTelegramValue(
         : [step.service];
   const fromUs = run.anchorUs;
   const toUs = fromUs + durationUs(step.within);
-  // Scan by trace position, not by time: an event appended later may carry a time already scanned.
-  let cursor = lowerBound(run.sim.trace, fromUs);
-  let matchUs: number | undefined;
-  const seen: { timeUs: number; value: unknown; service: string }[] = [];
-  const scan = () => {
-    const events = run.sim.trace;
-    for (; cursor < events.length; cursor++) {
-      const event = events[cursor]!;
-      if (event.timeUs > toUs) break;
-      if (
-        event.kind !== "telegram.sent" ||
-        event.attempt !== 0 ||
-        event.destination !== address.raw
-      )
-        continue;
-      const service = SERVICE_OF[event.service];
-      if (!services.includes(service)) continue;
-      const value = run.decode(address, event.payloadHex);
-      seen.push({ timeUs: event.timeUs, value, service });
-      if (
-        matchUs === undefined &&
-        (expected === undefined || valuesMatch(expected, value, tolerance))
-      )
-        matchUs = event.timeUs;
-    }
-    return matchUs !== undefined;
-  };
-  if (!scan()) run.advance(toUs, scan);
+  const watch = new TelegramWatch(run, address, services, expected, tolerance, fromUs, toUs);
+  if (!watch.scan()) run.advance(toUs, () => watch.scan());
+  const { matchUs, seen } = watch;
   const slice = run.addressSlice(address, fromUs, Math.min(toUs, run.sim.nowUs));
+  if (matchUs !== undefined) return pass(slice);
+  // Verdict text only for a failure: formatting values through their DPT is not free.
   const what =
     step.kind === "expect-response"
       ? "GroupValue_Response"
@@ -414,7 +458,6 @@ function expectTelegramValue(
         ? "write or response"
         : String(services[0]);
   const expectedText = `a ${what} to ${describeAddress(address)}${expected === undefined ? "" : ` carrying ${formatValue(expected, address.codec)}${tolerance > 0 ? ` ± ${tolerance}` : ""}`} within ${step.within}`;
-  if (matchUs !== undefined) return pass(slice);
   if (seen.length === 0) {
     const last = run.sim.groupValue(address.raw);
     return fail(
@@ -443,18 +486,17 @@ function expectState(run: ScenarioRun, step: Extract<Step, { kind: "expect-state
     );
   }
   const tolerance = step.tolerance ?? 0;
-  const read = () => valueAtPath(run.sim.deviceState(step.device), step.path);
-  const matches = () => {
-    const current = read();
-    return current.found && valuesMatch(step.value, current.value, tolerance);
-  };
   const fromUs = run.anchorUs;
-  if (step.within !== undefined) run.advance(fromUs + durationUs(step.within), matches);
-  const current = read();
+  if (step.within !== undefined)
+    run.advance(fromUs + durationUs(step.within), () => {
+      const current = valueAtPath(run.sim.deviceState(step.device), step.path);
+      return current.found && valuesMatch(step.value, current.value, tolerance);
+    });
+  const current = valueAtPath(run.sim.deviceState(step.device), step.path);
   const slice = run.deviceSlice(step.device, fromUs, run.sim.nowUs);
+  if (current.found && valuesMatch(step.value, current.value, tolerance)) return pass(slice);
   const expected = `${step.device} ${step.path} = ${JSON.stringify(step.value)}${tolerance > 0 ? ` ± ${tolerance}` : ""}${step.within ? ` within ${step.within}` : ""}`;
   if (!current.found) return fail(expected, `${step.device} has no state at "${step.path}"`, slice);
-  if (valuesMatch(step.value, current.value, tolerance)) return pass(slice);
   return fail(
     expected,
     `${step.path} is ${JSON.stringify(current.value)} at ${formatVirtualTime(run.sim.nowUs)}`,
@@ -477,6 +519,8 @@ function expectCount(run: ScenarioRun, step: Extract<Step, { kind: "expect-count
     );
   const min = step.count ?? step.min ?? 0;
   const max = step.count ?? step.max ?? Infinity;
+  const slice = run.addressSlice(address, fromUs, toUs);
+  if (counted.length >= min && counted.length <= max) return pass(slice);
   const bound =
     step.count !== undefined
       ? `exactly ${step.count}`
@@ -484,8 +528,6 @@ function expectCount(run: ScenarioRun, step: Extract<Step, { kind: "expect-count
         ? `at least ${min}`
         : `${min} to ${max}`;
   const expected = `${bound} ${service === "any" ? "" : `${service} `}telegram(s) to ${describeAddress(address)} within ${step.within}`;
-  const slice = run.addressSlice(address, fromUs, toUs);
-  if (counted.length >= min && counted.length <= max) return pass(slice);
   return fail(expected, `${counted.length} telegram(s)`, slice);
 }
 
@@ -532,9 +574,11 @@ function expectSilence(
   const address = step.groupAddress === undefined ? undefined : run.address(step.groupAddress);
   const fromUs = run.anchorUs;
   const toUs = fromUs + durationUs(step.for);
-  const offenders = () => run.telegrams(fromUs, Math.min(toUs, run.sim.nowUs), address?.raw);
-  run.advance(toUs, () => offenders().length > 0);
-  const found = offenders();
+  run.advance(
+    toUs,
+    () => run.telegrams(fromUs, Math.min(toUs, run.sim.nowUs), address?.raw).length > 0,
+  );
+  const found = run.telegrams(fromUs, Math.min(toUs, run.sim.nowUs), address?.raw);
   const slice = run.addressSlice(address, fromUs, Math.min(toUs, run.sim.nowUs));
   const target = address === undefined ? "any address" : describeAddress(address);
   if (found.length === 0) return pass(slice);
@@ -604,15 +648,17 @@ export function runScenario(
   const elapsedMs = () => (now ? now() - startMs : 0);
   const budgetMs = options.budgetMs ?? DEFAULT_SCENARIO_BUDGET_MS;
   const seed = options.seed ?? scenario.seed;
+  const reuse = options.reuse ?? true;
+  const settleUs = durationUs(scenario.settle);
+  // Runs of an already loaded bench start from a settled template when one is kept (settled-runs.ts).
+  const template = reuse && "deviceById" in bench ? (bench as LoadedBench) : undefined;
+  const settled = template && forkSettledRun(template, seed, settleUs);
 
   let sim: Simulation;
   try {
     // Bus load verdicts are computed from the trace, so the line's own statistics history stays small.
-    sim = createSimulation(bench, {
-      seed,
-      historyCapacity: LINE_HISTORY_CAPACITY,
-      reuse: options.reuse ?? true,
-    });
+    sim =
+      settled ?? createSimulation(bench, { seed, historyCapacity: LINE_HISTORY_CAPACITY, reuse });
   } catch (cause) {
     if (cause instanceof BenchLoadFailure)
       return benchError(scenario, seed, cause.message, options, elapsedMs());
@@ -637,15 +683,18 @@ export function runScenario(
   try {
     const run = new ScenarioRun(sim, checkBudget, now !== undefined);
     try {
-      run.advance(durationUs(scenario.settle));
-      run.anchorUs = sim.nowUs;
+      if (settled === undefined) {
+        run.advance(settleUs);
+        run.anchorUs = sim.nowUs;
+        if (template !== undefined) keepSettledRun(template, seed, settleUs, sim);
+      }
     } catch (cause) {
       if (!(cause instanceof BudgetExceeded)) throw cause;
       stopped = true;
       settleMessage = `wall-clock budget of ${budgetMs} ms ran out while the bench settled (virtual time ${formatVirtualTime(sim.nowUs)})`;
     }
     scenario.steps.forEach((step, index) => {
-      const label = stepLabel(step);
+      const label = keptLabel(step, stepLabel);
       const startUs = sim.nowUs;
       if (stopped) {
         steps.push({

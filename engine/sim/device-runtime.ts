@@ -37,6 +37,43 @@ export interface DeviceRuntime extends ObjectOwner {
   lastTakenTelegramId: number;
 }
 
+/**
+ * What a device's transition may read: a class rather than an object of
+ * closures, since every run builds one per device and a restart builds another.
+ * Its methods are not bound: devices call them on the context, as
+ * `context.objectValue(n)` and `context.random()`.
+ */
+class RuntimeContext implements DeviceContext<unknown> {
+  readonly deviceId: string;
+  readonly individualAddress: number;
+  readonly parameters: unknown;
+  readonly links: readonly string[];
+
+  constructor(
+    private readonly device: DeviceRuntime,
+    private readonly scheduler: Scheduler,
+    private readonly rng: Rng,
+  ) {
+    this.deviceId = device.id;
+    // Unit-link-only devices have no address; they see the unprogrammed default 15.15.255.
+    this.individualAddress = device.loaded.individualAddress ?? 0xffff;
+    this.parameters = device.loaded.parameters;
+    this.links = device.loaded.unitLinks;
+  }
+
+  get nowUs(): number {
+    return this.scheduler.nowUs;
+  }
+
+  objectValue(object: number): unknown {
+    return this.device.objects.get(object)?.value;
+  }
+
+  random(): number {
+    return this.rng.next();
+  }
+}
+
 interface TimerEntry {
   readonly device: DeviceRuntime;
   readonly name: string;
@@ -56,7 +93,8 @@ interface TimerEntry {
  * - note: traced.
  */
 export class DeviceRunner {
-  private readonly timerTag: number;
+  /** Scheduler tag of device timers. */
+  readonly timerTag: number;
   private timerGeneration = 0;
 
   constructor(
@@ -97,6 +135,47 @@ export class DeviceRunner {
     };
     device.context = this.makeContext(device);
     return device;
+  }
+
+  /**
+   * A device of another run as it stands (state, stored values, timers), for a
+   * forked run. States and values are never changed in place, so they are
+   * shared; the containers are copied.
+   */
+  copy(
+    original: DeviceRuntime,
+    line: LineRuntime | undefined,
+    sender: Tp1Sender | undefined,
+  ): DeviceRuntime {
+    const objects = new Map<number, ObjectRuntime>();
+    for (const [number, object] of original.objects) objects.set(number, { ...object });
+    const device: DeviceRuntime = {
+      index: original.index,
+      id: original.id,
+      loaded: original.loaded,
+      type: original.type,
+      state: original.state,
+      objects,
+      context: undefined as unknown as DeviceContext<unknown>,
+      line,
+      sender,
+      busAnswer: original.busAnswer,
+      timers: new Map(original.timers),
+      lastTakenTelegramId: original.lastTakenTelegramId,
+    };
+    device.context = this.makeContext(device);
+    return device;
+  }
+
+  /** Continues `other`'s timer numbering, for a forked run. */
+  copyTimerGeneration(other: DeviceRunner): void {
+    this.timerGeneration = other.timerGeneration;
+  }
+
+  /** The fork's copy of a queued timer of another run, for `device` (the fork's device). */
+  copyTimer(entry: unknown, device: (original: DeviceRuntime) => DeviceRuntime): TimerEntry {
+    const timer = entry as TimerEntry;
+    return { ...timer, device: device(timer.device) };
   }
 
   /** The `start` event, then the read-on-init reads. */
@@ -152,20 +231,7 @@ export class DeviceRunner {
   }
 
   private makeContext(device: DeviceRuntime): DeviceContext<unknown> {
-    const scheduler = this.scheduler;
-    const rng = this.rng;
-    return {
-      get nowUs() {
-        return scheduler.nowUs;
-      },
-      deviceId: device.id,
-      // Unit-link-only devices have no address; they see the unprogrammed default 15.15.255.
-      individualAddress: device.loaded.individualAddress ?? 0xffff,
-      parameters: device.loaded.parameters,
-      links: device.loaded.unitLinks,
-      objectValue: (object: number) => device.objects.get(object)?.value,
-      random: () => rng.next(),
-    };
+    return new RuntimeContext(device, this.scheduler, this.rng);
   }
 
   private applyEffect(device: DeviceRuntime, effect: DeviceEffect): void {

@@ -25,6 +25,14 @@ export class FaultRegistry {
     for (const id of deviceIds) this.byDevice.set(id, new Map());
   }
 
+  /** Takes over `other`'s active faults, for a forked run. */
+  copyFrom(other: FaultRegistry): void {
+    this.byDevice.clear();
+    for (const [id, faults] of other.byDevice) this.byDevice.set(id, new Map(faults));
+    this.brokenLinks.clear();
+    for (const link of other.brokenLinks) this.brokenLinks.add(link);
+  }
+
   /** Whether the target is a device of the bench. */
   isDevice(target: string): boolean {
     return this.byDevice.has(target);

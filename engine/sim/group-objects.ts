@@ -10,7 +10,7 @@ import {
   type Priority,
 } from "../frame";
 import { NO_ACK_OCTET, type Tp1Line, type Tp1Sender, type Telegram } from "../bus";
-import { objectSpecs } from "./prepared-bench";
+import { addressLinks, objectSpecs } from "./prepared-bench";
 import { BUS_FAULTS } from "./fault-registry";
 import type { TraceEmitter } from "./trace-emitter";
 
@@ -46,6 +46,8 @@ export interface ObjectRuntime {
 /** What the group-object layer needs of a running device. */
 export interface ObjectOwner {
   readonly id: string;
+  /** The device as loaded from the bench (replaced by a parameter change). */
+  readonly loaded: LoadedDevice;
   objects: Map<number, ObjectRuntime>;
   readonly line: LineRuntime | undefined;
   readonly sender: Tp1Sender | undefined;
@@ -135,28 +137,35 @@ export class GroupObjectLayer {
     private readonly emitter: TraceEmitter,
     private readonly telegramIds: SequentialIds,
     private readonly bench: () => LoadedBench,
+    /** Reuse bench-only work across runs (see SimulationOptions.reuse). */
+    private readonly reuse = true,
   ) {}
 
   /** Where delivered writes and responses go: the device runtime (set once, right after construction). */
   receiver: { transition(device: ObjectOwner, event: DeviceEvent): unknown } | undefined;
 
+  /** Takes over `other`'s counts, last group values and decode cache, for a forked run. */
+  copyFrom(other: GroupObjectLayer): void {
+    this.deliveries = other.deliveries;
+    this.groupValues.clear();
+    for (const [address, value] of other.groupValues) this.groupValues.set(address, value);
+    this.decodedTelegramId = other.decodedTelegramId;
+    this.decodedDpt = other.decodedDpt;
+    this.decodedValue = other.decodedValue;
+    this.decodedOk = other.decodedOk;
+  }
+
   /** Rebuilds every line's listener table from the devices' objects (start, parameter change). */
   rebuildListeners(lines: Iterable<LineRuntime>, devices: readonly ObjectOwner[]): void {
     for (const line of lines) line.listeners = new Map();
     for (const device of devices) {
-      if (device.line === undefined) continue;
-      const byAddress = new Map<number, ObjectRuntime[]>();
-      for (const object of device.objects.values()) {
-        for (const raw of object.groupAddresses) {
-          const list = byAddress.get(raw) ?? [];
-          list.push(object);
-          byAddress.set(raw, list);
-        }
-      }
-      for (const [raw, objects] of byAddress) {
-        const list = device.line.listeners.get(raw) ?? [];
-        list.push({ device, objects });
-        device.line.listeners.set(raw, list);
+      const line = device.line;
+      if (line === undefined) continue;
+      for (const link of addressLinks(device.loaded, this.reuse)) {
+        const objects = link.objects.map((number) => device.objects.get(number)!);
+        const list = line.listeners.get(link.groupAddress);
+        if (list === undefined) line.listeners.set(link.groupAddress, [{ device, objects }]);
+        else list.push({ device, objects });
       }
     }
   }

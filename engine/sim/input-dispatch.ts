@@ -7,7 +7,7 @@ import type { DataFrame, GroupService } from "../frame";
 import type { DeviceRunner, DeviceRuntime } from "./device-runtime";
 import { BUS_FAULTS, UNIT_LINK_BROKEN, type FaultRegistry } from "./fault-registry";
 import { DEFAULT_GROUP_PRIORITY, groupFrame, type GroupObjectLayer } from "./group-objects";
-import { reloadedBench } from "./prepared-bench";
+import { deviceButtons, reloadedBench } from "./prepared-bench";
 import type { SimError } from "./sim-error";
 import type { Receipt, SimInput } from "./sim-input";
 import type { TraceEmitter } from "./trace-emitter";
@@ -52,7 +52,7 @@ export class InputDispatch {
       case "press": {
         const device = this.rt.deviceById.get(input.device);
         if (device === undefined) return unknownDevice(input.device);
-        const buttons = device.type.buttons(device.loaded.parameters);
+        const buttons = deviceButtons(device.loaded, this.rt.reuse);
         if (!buttons.some((b) => b.id === input.button)) {
           return err({
             kind: "sim.button-unknown",
@@ -114,27 +114,30 @@ export class InputDispatch {
     atUs: number,
   ): Result<Receipt, SimError> {
     const deviceId = device.id;
-    const bench = this.rt.bench().bench;
-    const document: Bench = {
-      ...bench,
-      devices: bench.devices.map((d) => (d.id === deviceId ? { ...d, parameters } : d)),
-    };
-    // Drop links to objects the new parameters remove; the loader would otherwise refuse them.
-    const objects = new Set(
-      device.type
-        .groupObjects(device.type.parameters.safeParse(parameters).data ?? device.loaded.parameters)
-        .map((o) => o.number),
-    );
-    const pruned: Bench = {
-      ...document,
-      links: document.links.filter((l) => l.device !== deviceId || objects.has(l.object)),
-    };
     const current = this.rt.bench();
-    const loaded = reloadedBench(current, deviceId, parameters, this.rt.reuse, () =>
-      loadBench(pruned, {
+    const bench = current.bench;
+    // Only a change not made before from this bench builds and checks the new bench document.
+    const loaded = reloadedBench(current, deviceId, parameters, this.rt.reuse, () => {
+      const document: Bench = {
+        ...bench,
+        devices: bench.devices.map((d) => (d.id === deviceId ? { ...d, parameters } : d)),
+      };
+      // Drop links to objects the new parameters remove; the loader would otherwise refuse them.
+      const objects = new Set(
+        device.type
+          .groupObjects(
+            device.type.parameters.safeParse(parameters).data ?? device.loaded.parameters,
+          )
+          .map((o) => o.number),
+      );
+      const pruned: Bench = {
+        ...document,
+        links: document.links.filter((l) => l.device !== deviceId || objects.has(l.object)),
+      };
+      return loadBench(pruned, {
         deviceTypes: (id) => current.devices.find((d) => d.type.id === id)?.type ?? undefined,
-      }),
-    );
+      });
+    });
     if (!loaded.ok) return err(parametersRefused(loaded.error));
     this.rt.setBench(loaded.value);
     this.rt.emitter.userAction(

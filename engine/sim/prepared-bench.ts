@@ -1,14 +1,15 @@
 import type { BenchError, LoadedBench, LoadedDevice } from "../bench";
 import type { Result } from "../core/result";
-import type { GroupObjectFlags } from "../devices/device-type";
+import type { GroupObjectFlags, LocalButtonSpec } from "../devices/device-type";
 import { getDpt, type DptCodec } from "../dpt";
 
 /**
  * Work that depends only on a loaded bench, done once and kept beside it, so
  * starting a run (a scenario replay, a console reset) does not repeat it: the
- * group-object specs of each device with their codecs resolved, and the
- * benches a parameter change leads to (a parameter change re-checks the whole
- * bench, and a suite replays the same change many times).
+ * group-object specs of each device with their codecs resolved, its local
+ * buttons, which objects listen to each group address, and the benches a
+ * parameter change leads to (a parameter change re-checks the whole bench,
+ * and a suite replays the same change many times).
  *
  * Everything kept is immutable and derived deterministically from the bench,
  * so sharing it between runs cannot change what a run does. Loaded benches are
@@ -45,6 +46,42 @@ export function objectSpecs(device: LoadedDevice, reuse: boolean): readonly Obje
   }));
   if (reuse) specsByDevice.set(device, specs);
   return specs;
+}
+
+const buttonsByDevice = new WeakMap<LoadedDevice, readonly LocalButtonSpec[]>();
+
+/** A loaded device's local buttons, which depend only on its parameters (kept when `reuse` is true). */
+export function deviceButtons(device: LoadedDevice, reuse: boolean): readonly LocalButtonSpec[] {
+  const kept = reuse ? buttonsByDevice.get(device) : undefined;
+  if (kept !== undefined) return kept;
+  const buttons = device.type.buttons(device.parameters);
+  if (reuse) buttonsByDevice.set(device, buttons);
+  return buttons;
+}
+
+const addressLinksByDevice = new WeakMap<LoadedDevice, readonly AddressLink[]>();
+
+/** A group address a device listens to, with its objects linked to it (by number, in object order). */
+export interface AddressLink {
+  readonly groupAddress: number;
+  readonly objects: readonly number[];
+}
+
+/** Which of a device's objects listen to each of its group addresses (kept when `reuse` is true). */
+export function addressLinks(device: LoadedDevice, reuse: boolean): readonly AddressLink[] {
+  const kept = reuse ? addressLinksByDevice.get(device) : undefined;
+  if (kept !== undefined) return kept;
+  const byAddress = new Map<number, number[]>();
+  for (const spec of objectSpecs(device, reuse)) {
+    for (const raw of spec.groupAddresses) {
+      const list = byAddress.get(raw) ?? [];
+      list.push(spec.number);
+      byAddress.set(raw, list);
+    }
+  }
+  const links = [...byAddress].map(([groupAddress, objects]) => ({ groupAddress, objects }));
+  if (reuse) addressLinksByDevice.set(device, links);
+  return links;
 }
 
 /**

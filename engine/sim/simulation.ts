@@ -3,11 +3,11 @@ import { loadBench, type BenchError, type LoadedBench } from "../bench";
 import type { Bench, BenchInput } from "../bench/bench-schema";
 import { SequentialIds } from "../core/ids";
 import { ok, type Result } from "../core/result";
-import { createRng } from "../core/rng";
+import { createRng, type Rng } from "../core/rng";
 import { Scheduler } from "../core/scheduler";
 import { Trace, type TraceEvent, type TraceListener } from "../core/trace";
 import { ACK_OCTET, type Priority } from "../frame";
-import { Tp1Line, Tp1Sender, type BusStats } from "../bus";
+import { Tp1Line, Tp1Sender, type BusStats, type Telegram } from "../bus";
 import { DeviceRunner, type DeviceRuntime } from "./device-runtime";
 import { FaultRegistry } from "./fault-registry";
 import { GroupObjectLayer, type LineRuntime } from "./group-objects";
@@ -126,6 +126,8 @@ export class Simulation {
   private readonly unitLinks: UnitLinkMedium<DeviceRuntime>;
   private readonly telegramIds = new SequentialIds();
   private readonly reuse: boolean;
+  private readonly options: SimulationOptions;
+  private readonly rng: Rng;
 
   private loadedBench: LoadedBench;
   private readonly lines = new Map<string, LineRuntime>();
@@ -135,20 +137,27 @@ export class Simulation {
   private readonly testToolLine: LineRuntime;
   private readonly inputs: InputDispatch;
 
-  constructor(bench: LoadedBench, options: SimulationOptions) {
+  /**
+   * Starts a run of `bench`. With `original` (see `fork`) it starts from that
+   * run as it stands instead: nothing is started, everything is copied.
+   */
+  constructor(bench: LoadedBench, options: SimulationOptions, original?: Simulation) {
     this.loadedBench = bench;
+    this.options = options;
     this.reuse = options.reuse ?? true;
+    this.rng = createRng(options.seed, original?.rng.state());
     this.traceLog = new Trace({ capacity: options.traceCapacity });
     this.emitter = new TraceEmitter(this.traceLog, this.scheduler);
     this.faults = new FaultRegistry(
       this.emitter,
-      bench.devices.map((d) => d.id),
+      // A fork copies the fault table whole.
+      original === undefined ? bench.devices.map((d) => d.id) : [],
     );
     const benchNow = () => this.loadedBench;
-    this.objects = new GroupObjectLayer(this.emitter, this.telegramIds, benchNow);
+    this.objects = new GroupObjectLayer(this.emitter, this.telegramIds, benchNow, this.reuse);
     this.runner = new DeviceRunner(
       this.scheduler,
-      createRng(options.seed),
+      this.rng,
       this.emitter,
       this.faults,
       this.objects,
@@ -191,7 +200,10 @@ export class Simulation {
         line === undefined || loaded.individualAddress === undefined
           ? undefined
           : new Tp1Sender(loaded.individualAddress, loaded.id, loaded.id);
-      const device = this.runner.create(index, loaded, line, sender, ACK_OCTET);
+      const device =
+        original === undefined
+          ? this.runner.create(index, loaded, line, sender, ACK_OCTET)
+          : this.runner.copy(original.devices[index]!, line, sender);
       this.devices.push(device);
       this.deviceById.set(device.id, device);
     });
@@ -210,7 +222,72 @@ export class Simulation {
       queueFromTestTool: (frame) =>
         this.testToolLine.line.queue(this.testToolSender, frame, this.telegramIds.next()).id,
     });
-    for (const device of this.devices) this.runner.start(device);
+    if (original === undefined) for (const device of this.devices) this.runner.start(device);
+    else this.copyFrom(original);
+  }
+
+  /**
+   * A copy of this run as it stands, which then runs on its own: the same
+   * future for the same inputs, and this run is left untouched. Scenario
+   * replays start from a fork of a run that has already settled.
+   */
+  fork(): Simulation {
+    return new Simulation(this.loadedBench, this.options, this);
+  }
+
+  /** Takes over every part's state from `original` (a run of the same bench with the same options). */
+  private copyFrom(original: Simulation): void {
+    this.traceLog.copyFrom(original.traceLog);
+    this.faults.copyFrom(original.faults);
+    this.objects.copyFrom(original.objects);
+    this.telegramIds.copyFrom(original.telegramIds);
+    this.runner.copyTimerGeneration(original.runner);
+    // Telegrams are mutable (repetitions, who took them), so each gets one copy shared by its queue and its line.
+    const telegrams = new Map<Telegram, Telegram>();
+    this.testToolSender.copyFrom(original.testToolSender, (t) =>
+      this.copyTelegram(original, telegrams, t),
+    );
+    this.devices.forEach((d, index) =>
+      d.sender?.copyFrom(original.devices[index]!.sender!, (t) =>
+        this.copyTelegram(original, telegrams, t),
+      ),
+    );
+    for (const [id, line] of this.lines)
+      line.line.copyFrom(
+        original.lines.get(id)!.line,
+        (sender) => this.sender(original, sender),
+        (t) => this.copyTelegram(original, telegrams, t),
+      );
+    this.scheduler.copyFrom(original.scheduler, (tag, payload) => {
+      if (tag === this.runner.timerTag)
+        return this.runner.copyTimer(payload, (from) => this.devices[from.index]!);
+      if (tag === this.unitLinks.tag) return this.unitLinks.copyMessage(payload);
+      throw new Error(`Simulation.fork: no copy for a queued event with tag ${tag}`);
+    });
+  }
+
+  /** This run's copy of a telegram of `original` (one per telegram, kept in `copies`). */
+  private copyTelegram(
+    original: Simulation,
+    copies: Map<Telegram, Telegram>,
+    telegram: Telegram,
+  ): Telegram {
+    let copy = copies.get(telegram);
+    if (copy === undefined) {
+      copy = {
+        ...telegram,
+        sender: this.sender(original, telegram.sender),
+        takenBy: telegram.takenBy?.map((taker) => this.devices[(taker as DeviceRuntime).index]!),
+      };
+      copies.set(telegram, copy);
+    }
+    return copy;
+  }
+
+  /** This run's sender matching a sender of `original`. */
+  private sender(original: Simulation, sender: Tp1Sender): Tp1Sender {
+    if (sender === original.testToolSender) return this.testToolSender;
+    return this.deviceById.get(sender.deviceId!)!.sender!;
   }
 
   // ---------------------------------------------------------------- clock
@@ -218,6 +295,11 @@ export class Simulation {
   /** Virtual time now, integer µs since the start of the run. */
   get nowUs(): number {
     return this.scheduler.nowUs;
+  }
+
+  /** Virtual time of the next scheduled event, µs; Infinity when nothing is scheduled. */
+  get nextEventUs(): number {
+    return this.scheduler.peekTimeUs();
   }
 
   /** Runs every event due up to `timeUs` (absolute, µs) and leaves the clock there. */

@@ -27,7 +27,8 @@ interface LinkMessage<M extends LinkMember> {
  * real units they notice by silence (their own timeouts).
  */
 export class UnitLinkMedium<M extends LinkMember> {
-  private readonly tag: number;
+  /** Scheduler tag of messages in flight. */
+  readonly tag: number;
 
   constructor(
     private readonly scheduler: Scheduler,
@@ -43,6 +44,12 @@ export class UnitLinkMedium<M extends LinkMember> {
       throw new RangeError(`unitLinkDelayUs ${delayUs} is not a non-negative integer`);
     }
     this.tag = scheduler.register((_, payload) => this.deliver(payload as LinkMessage<M>));
+  }
+
+  /** The fork's copy of a message in flight in another run, to the fork's member of the same id. */
+  copyMessage(payload: unknown): LinkMessage<M> {
+    const message = payload as LinkMessage<M>;
+    return { ...message, to: this.member(message.to.id) };
   }
 
   /** Sends from a member to the other members of one of its links. */

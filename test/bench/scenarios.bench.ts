@@ -6,8 +6,11 @@
  * the runner always does, since verdicts carry trace slices). Benches are loaded
  * once, as the CLI does for a suite. One untimed pass warms the JIT first.
  *
- * Two paths run side by side, alternating pass by pass: "now" (bench-only work
- * reused across runs) and "old" (`reuse: false`, redone every run as before).
+ * Three paths run side by side, alternating pass by pass: "now" (bench-only
+ * work reused across runs), "no reuse" (`reuse: false`, redone every run) and
+ * "baseline": the engine at BASELINE_COMMIT (before the replay work of issue
+ * 14), extracted with git and given its own copy of the benches and scenarios.
+ * BENCH_BASELINE names another commit; "none" leaves the baseline out.
  *
  * Targets: >= 500 scenario replays per wall-clock second, 2,500 per CPU second.
  */
@@ -20,6 +23,10 @@ import { parseScenario } from "../../engine";
 import { runScenario } from "../../engine";
 import type { Scenario } from "../../engine";
 import { parseSuite } from "../../engine";
+import { importBaselineEngine } from "./baseline-engine";
+
+/** The engine before replays were made faster (issue 14), as merged to main. */
+const BASELINE_COMMIT = "f2e6bd2bfd5f9b73788e9617d73d346e0dba351c";
 
 const TARGET_PER_S = 500;
 /** The issue's goal: replays per CPU second once a run starts from the prepared bench. */
@@ -30,11 +37,19 @@ const root = resolve(dirname(fileURLToPath(import.meta.url)), "../..");
 const suitePath = resolve(root, "scenarios/demo.suite.json");
 const json = (path: string): unknown => JSON.parse(readFileSync(path, "utf8"));
 
-const suite = parseSuite(json(suitePath));
-if (!suite.ok) throw new Error(suite.error.message);
-const benches = new Map<string, LoadedBench>();
-const work: { file: string; scenario: Scenario; bench: LoadedBench }[] = suite.value.scenarios.map(
-  (relative) => {
+type Engine = typeof import("../../engine");
+interface Work {
+  file: string;
+  scenario: Scenario;
+  bench: LoadedBench;
+}
+
+/** The suite's scenarios, each with its bench loaded once, by one engine's loaders. */
+function loadWork({ parseSuite, parseScenario, loadBench }: Engine): Work[] {
+  const suite = parseSuite(json(suitePath));
+  if (!suite.ok) throw new Error(suite.error.message);
+  const benches = new Map<string, LoadedBench>();
+  return suite.value.scenarios.map((relative) => {
     const file = resolve(dirname(suitePath), relative);
     const parsed = parseScenario(json(file));
     if (!parsed.ok) throw new Error(`${file}: ${parsed.error.message}`);
@@ -48,15 +63,25 @@ const work: { file: string; scenario: Scenario; bench: LoadedBench }[] = suite.v
       benches.set(benchPath, bench);
     }
     return { file: relative, scenario: parsed.value, bench };
-  },
-);
+  });
+}
 
-/** One pass over every scenario; `reuse: false` is the old path (bench-only work redone every run). */
-function pass(reuse: boolean): { virtualUs: number; steps: number } {
+const engine: Engine = { parseSuite, parseScenario, loadBench, runScenario } as Engine;
+const work = loadWork(engine);
+const baselineCommit = process.env.BENCH_BASELINE ?? BASELINE_COMMIT;
+const baselineEngine =
+  baselineCommit === "none" ? null : await importBaselineEngine(root, baselineCommit);
+const baselineWork = baselineEngine === null ? null : loadWork(baselineEngine);
+
+type PathName = "baseline" | "old" | "now";
+
+/** One pass over every scenario on one path. */
+function pass(path: PathName): { virtualUs: number; steps: number } {
   let virtualUs = 0;
   let steps = 0;
-  for (const { file, scenario, bench } of work) {
-    const result = runScenario(scenario, bench, { reuse });
+  const run = path === "baseline" ? baselineEngine!.runScenario : runScenario;
+  for (const { file, scenario, bench } of path === "baseline" ? baselineWork! : work) {
+    const result = run(scenario, bench, { reuse: path !== "old" });
     if (!result.ok) throw new Error(`${file}: ${result.outcome}`);
     virtualUs += result.virtualTimeUs;
     steps += result.steps.length;
@@ -64,8 +89,8 @@ function pass(reuse: boolean): { virtualUs: number; steps: number } {
   return { virtualUs, steps };
 }
 
-pass(true); // warm-up, untimed
-pass(false);
+const pathNames: PathName[] = baselineEngine === null ? ["old", "now"] : ["baseline", "old", "now"];
+for (const name of pathNames) pass(name); // warm-up, untimed
 
 interface PathTotals {
   wallMs: number;
@@ -75,16 +100,13 @@ interface PathTotals {
   perPassMs: number[];
 }
 const totals = (): PathTotals => ({ wallMs: 0, cpuUs: 0, virtualUs: 0, steps: 0, perPassMs: [] });
-const paths = { old: totals(), now: totals() };
-// Passes alternate between the two paths, so load from other processes falls on both alike.
+const paths = { baseline: totals(), old: totals(), now: totals() };
+// Passes alternate between the paths, so load from other processes falls on all alike.
 for (let i = 0; i < PASSES; i++) {
-  for (const [name, reuse] of [
-    ["old", false],
-    ["now", true],
-  ] as const) {
+  for (const name of pathNames) {
     const t = performance.now();
     const c = process.cpuUsage();
-    const done = pass(reuse);
+    const done = pass(name);
     const cpu = process.cpuUsage(c);
     const path = paths[name];
     const ms = performance.now() - t;
@@ -109,23 +131,30 @@ row(
   `${now.perPassMs[Math.floor(PASSES / 2)]!.toFixed(1)} ms / ${now.perPassMs[PASSES - 1]!.toFixed(1)} ms`,
 );
 console.log("");
+const hasBaseline = baselineEngine !== null;
+const columns = [...(hasBaseline ? ["baseline"] : []), "no reuse", "now"];
 console.log(
-  `  ${"".padEnd(34)} ${"old path".padStart(10)} ${"now".padStart(10)} ${"speed-up".padStart(9)} ${"target".padStart(8)}`,
+  `  ${"".padEnd(34)} ${columns.map((c) => c.padStart(10)).join(" ")} ${"speed-up".padStart(9)} ${"target".padStart(8)}`,
 );
-const compare = (label: string, old: number, current: number, target: number) =>
+/** One figure per path; the speed-up is now over the baseline engine (else over the no-reuse path). */
+const compare = (label: string, figure: (path: PathTotals) => number, target: number) => {
+  const shown = [...(hasBaseline ? [paths.baseline] : []), paths.old, paths.now].map(figure);
+  const reference = shown[0]!;
+  const current = figure(paths.now);
   console.log(
-    `  ${label.padEnd(34)} ${old.toFixed(0).padStart(10)} ${current.toFixed(0).padStart(10)} ${(current / old).toFixed(2).padStart(8)}x ${String(target).padStart(8)}`,
+    `  ${label.padEnd(34)} ${shown.map((v) => v.toFixed(0).padStart(10)).join(" ")} ${(current / reference).toFixed(2).padStart(8)}x ${String(target).padStart(8)}`,
   );
-compare(
-  "replays per wall-clock second",
-  replays / (paths.old.wallMs / 1000),
-  replays / (now.wallMs / 1000),
-  TARGET_PER_S,
-);
+};
+compare("replays per wall-clock second", (p) => replays / (p.wallMs / 1000), TARGET_PER_S);
+compare("replays per CPU second", (p) => replays / (p.cpuUs / 1e6), TARGET_CPU_PER_S);
 const perCpuS = replays / (now.cpuUs / 1e6);
-compare("replays per CPU second", replays / (paths.old.cpuUs / 1e6), perCpuS, TARGET_CPU_PER_S);
+console.log(
+  hasBaseline
+    ? `\nbaseline: the engine at ${baselineCommit.slice(0, 12)}; no reuse: today's engine with reuse off.`
+    : "\n(no baseline engine: git could not extract it, or BENCH_BASELINE=none)",
+);
 console.log(
   perCpuS >= TARGET_CPU_PER_S
-    ? "\nCPU target met."
-    : "\nBelow the CPU target (the old path is measured in the same run, so the speed-up is the figure to compare).",
+    ? "CPU target met."
+    : "Below the CPU target (every path is measured in the same run, so the speed-up is the figure to compare).",
 );

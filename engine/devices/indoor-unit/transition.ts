@@ -17,7 +17,7 @@ import {
   type UnitStatus,
 } from "../hvac/unit-link-messages";
 import { FROST_BAND_K, unitSetpointC, type IndoorUnitParameters } from "./parameters";
-import type { IndoorUnitState } from "./state";
+import type { IndoorUnitState, KnownController } from "./state";
 import { stepRoomTemperature } from "./thermal-model";
 
 type Context = DeviceContext<IndoorUnitParameters>;
@@ -113,11 +113,22 @@ function evaluateLinkFault(
   state: IndoorUnitState,
   context: Context,
 ): { state: IndoorUnitState; effects: DeviceEffect[]; transition?: string } {
-  const live = Object.entries(state.controllers).filter(
-    ([, known]) => context.nowUs - known.lastSeenUs <= CONTROLLER_TIMEOUT_US,
-  );
-  const controllers = Object.fromEntries(live);
-  const primaries = live.filter(([, known]) => known.role === "primary").length;
+  // Runs on every announcement, so it copies the controllers only when one has gone quiet.
+  const known = state.controllers;
+  const oldestLiveUs = context.nowUs - CONTROLLER_TIMEOUT_US;
+  let primaries = 0;
+  let anyGone = false;
+  for (const id in known) {
+    const controller = known[id]!;
+    if (controller.lastSeenUs < oldestLiveUs) anyGone = true;
+    else if (controller.role === "primary") primaries++;
+  }
+  let controllers = known;
+  if (anyGone) {
+    const live: Record<string, KnownController> = {};
+    for (const id in known) if (known[id]!.lastSeenUs >= oldestLiveUs) live[id] = known[id]!;
+    controllers = live;
+  }
   let fault: HvacFaultId | null = null;
   if (primaries >= 2) fault = hvacFaults.twoPrimaries;
   else if (primaries === 0 && state.supervising) fault = hvacFaults.noPrimary;

@@ -69,10 +69,18 @@ function electAuthority(
   current: string | null,
   from: string,
 ): string | null {
-  const moving = (id: string) => (members[id]?.direction ?? "none") !== "none";
-  if (current !== null && moving(current)) return current;
-  if (moving(from)) return from;
-  return Object.keys(members).sort().find(moving) ?? null;
+  if (current !== null && isMoving(members, current)) return current;
+  if (isMoving(members, from)) return from;
+  return (
+    Object.keys(members)
+      .sort()
+      .find((id) => isMoving(members, id)) ?? null
+  );
+}
+
+/** Whether a member heats or cools (a plain function: this runs on every status report). */
+function isMoving(members: OutdoorUnitState["members"], id: string): boolean {
+  return (members[id]?.direction ?? "none") !== "none";
 }
 
 function onStatus(
