@@ -14,15 +14,14 @@
  *
  * Targets: >= 500 scenario replays per wall-clock second, 2,500 per CPU second.
  */
-import { readFileSync } from "node:fs";
 import { dirname, resolve } from "node:path";
 import { performance } from "node:perf_hooks";
 import { fileURLToPath } from "node:url";
-import { loadBench, type LoadedBench } from "../../engine";
+import { loadBench } from "../../engine";
 import { parseScenario } from "../../engine";
 import { runScenario } from "../../engine";
-import type { Scenario } from "../../engine";
 import { parseSuite } from "../../engine";
+import { loadShippedScenarios } from "../golden/golden-runs";
 import { importBaselineEngine } from "./baseline-engine";
 
 /** The engine before replays were made faster (issue 14), as merged to main. */
@@ -34,49 +33,22 @@ const TARGET_CPU_PER_S = 2_500;
 const PASSES = Number(process.env.BENCH_PASSES ?? 100);
 
 const root = resolve(dirname(fileURLToPath(import.meta.url)), "../..");
-const json = (path: string): unknown => JSON.parse(readFileSync(path, "utf8"));
 
 type Engine = typeof import("../../engine");
-interface Work {
-  file: string;
-  scenario: Scenario;
-  bench: LoadedBench;
-}
-
-/** The suite's scenarios under `contentRoot`, each with its bench loaded once, by one engine's loaders. */
-function loadWork({ parseSuite, parseScenario, loadBench }: Engine, contentRoot: string): Work[] {
-  const suitePath = resolve(contentRoot, "scenarios/demo.suite.json");
-  const suite = parseSuite(json(suitePath));
-  if (!suite.ok) throw new Error(suite.error.message);
-  const benches = new Map<string, LoadedBench>();
-  return suite.value.scenarios.map((relative) => {
-    const file = resolve(dirname(suitePath), relative);
-    const parsed = parseScenario(json(file));
-    if (!parsed.ok) throw new Error(`${file}: ${parsed.error.message}`);
-    const benchPath = resolve(dirname(file), parsed.value.bench.path!);
-    let bench = benches.get(benchPath);
-    if (bench === undefined) {
-      const loaded = loadBench(json(benchPath));
-      if (!loaded.ok)
-        throw new Error(`${benchPath}: ${loaded.error.map((e) => e.message).join("; ")}`);
-      bench = loaded.value;
-      benches.set(benchPath, bench);
-    }
-    return { file: relative, scenario: parsed.value, bench };
-  });
-}
+type Work = ReturnType<typeof loadShippedScenarios>[number];
 
 const engine: Engine = { parseSuite, parseScenario, loadBench, runScenario } as Engine;
-const work = loadWork(engine, root);
+const work = loadShippedScenarios(engine, root);
 const baselineCommit = process.env.BENCH_BASELINE ?? BASELINE_COMMIT;
 const baseline =
   baselineCommit === "none" ? null : await importBaselineEngine(root, baselineCommit);
 const baselineEngine = baseline?.engine ?? null;
-const baselineWork = baseline === null ? null : loadWork(baseline.engine, baseline.root);
+const baselineWork =
+  baseline === null ? null : loadShippedScenarios(baseline.engine, baseline.root);
 // The speed-up compares engines on the same work: the baseline commit's shipped
 // scenarios, which today's engine still loads. Today's own scenarios (more of
 // them, and HVAC models that do more per virtual second) get a line of their own.
-const sameWork = baseline === null ? work : loadWork(engine, baseline.root);
+const sameWork = baseline === null ? work : loadShippedScenarios(engine, baseline.root);
 
 type PathName = "baseline" | "old" | "now" | "today";
 
@@ -88,9 +60,9 @@ function pass(path: PathName): { virtualUs: number; steps: number } {
   let virtualUs = 0;
   let steps = 0;
   const run = path === "baseline" ? baselineEngine!.runScenario : runScenario;
-  for (const { file, scenario, bench } of workOf(path)) {
+  for (const { relative, scenario, bench } of workOf(path)) {
     const result = run(scenario, bench, { reuse: path !== "old" });
-    if (!result.ok) throw new Error(`${file}: ${result.outcome}`);
+    if (!result.ok) throw new Error(`${relative}: ${result.outcome}`);
     virtualUs += result.virtualTimeUs;
     steps += result.steps.length;
   }

@@ -42,20 +42,32 @@ const lines = (values: readonly unknown[]): string => values.map(stableJson).joi
 
 const json = (path: string): unknown => JSON.parse(readFileSync(path, "utf8"));
 
-/** Every scenario of the shipped demo suite with its loaded bench, in suite order. */
-export function shippedScenarios() {
-  const suitePath = resolve(ROOT, "scenarios/demo.suite.json");
-  const suite = parseSuite(json(suitePath));
+/** The loaders a shipped-scenario list needs: today's engine, or an earlier one a benchmark compares with. */
+export type ScenarioLoaders = Pick<
+  typeof import("../../engine"),
+  "parseSuite" | "parseScenario" | "loadBench"
+>;
+
+/**
+ * Every scenario of the shipped demo suite under `contentRoot` with its bench
+ * loaded once, in suite order, by the given engine's loaders.
+ */
+export function loadShippedScenarios(
+  engine: ScenarioLoaders = { parseSuite, parseScenario, loadBench },
+  contentRoot: string = ROOT,
+) {
+  const suitePath = resolve(contentRoot, "scenarios/demo.suite.json");
+  const suite = engine.parseSuite(json(suitePath));
   if (!suite.ok) throw new Error(suite.error.message);
   const benches = new Map<string, LoadedBench>();
   return suite.value.scenarios.map((relative) => {
     const file = resolve(dirname(suitePath), relative);
-    const parsed = parseScenario(json(file));
+    const parsed = engine.parseScenario(json(file));
     if (!parsed.ok) throw new Error(`${relative}: ${parsed.error.message}`);
     const benchPath = resolve(dirname(file), parsed.value.bench.path!);
     let bench = benches.get(benchPath);
     if (bench === undefined) {
-      const loaded = loadBench(json(benchPath));
+      const loaded = engine.loadBench(json(benchPath));
       if (!loaded.ok) throw new Error(`${benchPath}: ${loaded.error.map((e) => e.message)}`);
       bench = loaded.value;
       benches.set(benchPath, bench);
@@ -63,6 +75,9 @@ export function shippedScenarios() {
     return { relative, scenario: parsed.value, bench };
   });
 }
+
+/** Every scenario of the shipped demo suite with its loaded bench, in suite order. */
+export const shippedScenarios = () => loadShippedScenarios();
 
 /** The golden text of one scenario: its verdicts (wall time left out) on the first line, then every trace event. */
 function scenarioGolden(
