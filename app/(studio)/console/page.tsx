@@ -1,5 +1,6 @@
 import type { Metadata } from "next";
 import Link from "next/link";
+import type { ReactNode } from "react";
 import { benchOffersFor } from "@/app/_lib/bench-offers";
 import { requireCapability } from "@/app/_lib/dal";
 import { listReadableBenches } from "@/app/_lib/policy/bench";
@@ -9,6 +10,27 @@ import { StatusBadge } from "@/components/ui/status-badge";
 import { PracticeCopyButton } from "./practice-copy-button";
 
 export const metadata: Metadata = { title: "Live console" };
+
+/** One bench in either list: its name and description, and what may be done with it. */
+function BenchItem({
+  bench,
+  children,
+}: {
+  bench: { name: string; description: string };
+  children: ReactNode;
+}) {
+  return (
+    <li className="flex flex-wrap items-center justify-between gap-3 rounded-lg border border-paper-line bg-paper p-4">
+      <div className="min-w-0">
+        <div className="font-medium">{bench.name}</div>
+        {bench.description ? (
+          <div className="text-sm text-ink-soft">{bench.description}</div>
+        ) : null}
+      </div>
+      {children}
+    </li>
+  );
+}
 
 /**
  * Pick a bench to run live. Apprentices hold the live console only on their
@@ -40,16 +62,7 @@ export default async function ConsolePage() {
       ) : (
         <ul className="flex flex-col gap-2" aria-label="Benches">
           {benches.map((bench) => (
-            <li
-              key={bench.id}
-              className="flex flex-wrap items-center justify-between gap-3 rounded-lg border border-paper-line bg-paper p-4"
-            >
-              <div className="min-w-0">
-                <div className="font-medium">{bench.name}</div>
-                {bench.description ? (
-                  <div className="text-sm text-ink-soft">{bench.description}</div>
-                ) : null}
-              </div>
+            <BenchItem key={bench.id} bench={bench}>
               <div className="flex items-center gap-3">
                 {bench.privateOwnerId !== null ? (
                   <StatusBadge tone="neutral">
@@ -64,7 +77,7 @@ export default async function ConsolePage() {
                   Open live
                 </Link>
               </div>
-            </li>
+            </BenchItem>
           ))}
         </ul>
       )}
@@ -79,18 +92,9 @@ export default async function ConsolePage() {
           </p>
           <ul className="flex flex-col gap-2" aria-label="Shared benches to practise on">
             {copyable.map((bench) => (
-              <li
-                key={bench.id}
-                className="flex flex-wrap items-center justify-between gap-3 rounded-lg border border-paper-line bg-paper p-4"
-              >
-                <div className="min-w-0">
-                  <div className="font-medium">{bench.name}</div>
-                  {bench.description ? (
-                    <div className="text-sm text-ink-soft">{bench.description}</div>
-                  ) : null}
-                </div>
+              <BenchItem key={bench.id} bench={bench}>
                 <PracticeCopyButton bench={{ id: bench.id, name: bench.name }} />
-              </li>
+              </BenchItem>
             ))}
           </ul>
         </section>
