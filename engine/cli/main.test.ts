@@ -165,7 +165,7 @@ describe("scenarios CLI", () => {
     expect(stdout).toMatch(/^Running 3 of 3 scenario\(s\)/);
     // scenarios/ itself holds the suite file; its benches/ folder is not searched.
     const suiteSize = (
-      JSON.parse(readFileSync(join(root, "scenarios/demo.suite.json"), "utf8")) as {
+      JSON.parse(readFileSync(suite, "utf8")) as {
         scenarios: unknown[];
       }
     ).scenarios.length;

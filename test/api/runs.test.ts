@@ -1,5 +1,3 @@
-import { readFileSync } from "node:fs";
-import path from "node:path";
 import { and, eq } from "drizzle-orm";
 import fc from "fast-check";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
@@ -10,6 +8,7 @@ import { findUserByEmail } from "@/db/queries/users";
 import { findRun, listSuiteRunRuns } from "@/db/queries/runs";
 import { benches, scenarios, suites } from "@/db/schema";
 import { main as cliMain } from "@/engine/cli/main";
+import { shippedSuiteScenarioFiles } from "../harness/shipped-suite";
 import { GET as runEvents } from "@/app/api/runs/[runId]/events/route";
 import { POST as startRun } from "@/app/api/runs/route";
 import { startScenarioRun } from "@/app/_lib/runs/run-service";
@@ -314,11 +313,7 @@ describe("server runs and the CLI", () => {
       const match = /^\[\s*\d+\/\d+\] (PASS |XFAIL|FAIL |XPASS|ERROR) (.+?)  \(/.exec(line);
       if (match) cliWord.set(match[2]!, match[1]!.trim());
     }
-    const suiteSize = (
-      JSON.parse(readFileSync(path.join("scenarios", "demo.suite.json"), "utf8")) as {
-        scenarios: unknown[];
-      }
-    ).scenarios.length;
+    const suiteSize = shippedSuiteScenarioFiles().length;
     expect(cliWord.size).toBe(suiteSize);
 
     // The app path: the seeded suites of both demo workspaces through the API.

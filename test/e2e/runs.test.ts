@@ -1,6 +1,6 @@
-import { readFileSync } from "node:fs";
 import type { Browser, Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { shippedSuiteScenarioFiles } from "../harness/shipped-suite";
 import { launchChromium } from "./chromium";
 import { demoPassword, signIn } from "./support/sign-in";
 
@@ -46,10 +46,9 @@ describe("server runs in headless Chromium", () => {
       })),
     );
     // The Fernhill workspace's suite is the shipped suite's Fernhill part.
-    const shippedSuite = JSON.parse(readFileSync("scenarios/demo.suite.json", "utf8")) as {
-      scenarios: string[];
-    };
-    const fernhill = shippedSuite.scenarios.filter((file) => file.startsWith("fernhill/")).length;
+    const fernhill = shippedSuiteScenarioFiles().filter((file) =>
+      file.startsWith("fernhill/"),
+    ).length;
     expect(outcomes).toHaveLength(fernhill);
     const failing = outcomes.filter((o) => o.outcome !== "passed");
     expect(failing).toEqual([

@@ -1,4 +1,4 @@
-import { mkdtempSync, readFileSync, rmSync } from "node:fs";
+import { mkdtempSync, rmSync } from "node:fs";
 import { tmpdir } from "node:os";
 import path from "node:path";
 import { and, eq } from "drizzle-orm";
@@ -10,9 +10,10 @@ import { listRunHistory, listSuiteRuns } from "@/db/queries/runs";
 import { labAssignments, labs, runs } from "@/db/schema";
 import { findUserByEmail } from "@/db/queries/users";
 import { findWorkspaceBySlug } from "@/db/queries/workspaces";
-import { demoContentRoot, demoSuiteFile, seedDemoWorld } from "@/db/seed";
+import { seedDemoWorld } from "@/db/seed";
 import { runScenario } from "@/engine";
 import { parseScenarioText } from "@/engine";
+import { shippedSuiteScenarioFiles } from "@/test/harness/shipped-suite";
 import { parseStoredResult, verdictOf } from "../runs/stored-result";
 import { practiceCopyName } from "../practice-copy-name";
 import { demoLab, demoSuiteReplays, seedDemoHistory } from "./seed-demo-history";
@@ -101,10 +102,9 @@ describe("the demo history seed on a fresh database", () => {
     const fernhill = findWorkspaceBySlug({ db, slug: "fernhill" })!;
     const history = listRunHistory({ db, workspaceId: fernhill.id });
     // The shipped suite's Fernhill part, replayed once per seed, plus the apprentice's attempt.
-    const suite = JSON.parse(readFileSync(path.join(demoContentRoot(), demoSuiteFile), "utf8")) as {
-      scenarios: string[];
-    };
-    const fernhillScenarios = suite.scenarios.filter((file) => file.startsWith("fernhill/")).length;
+    const fernhillScenarios = shippedSuiteScenarioFiles().filter((file) =>
+      file.startsWith("fernhill/"),
+    ).length;
     expect(history.length).toBe(fernhillScenarios * demoSuiteReplays.seeds.length + 1);
     expect(new Set(history.map((row) => row.verdict))).toEqual(new Set(["pass", "fail"]));
     const suiteRuns = listSuiteRuns({ db, workspaceId: fernhill.id });
