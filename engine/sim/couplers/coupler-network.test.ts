@@ -161,23 +161,21 @@ describe("couplers between lines", () => {
       [0, 1_000_000],
       [7, 1_000_001],
     ] as const)
-      sim
-        .line("l11")
-        .queue(
-          tool,
-          {
-            ...groupFrame(
-              0x11fa,
-              raw.value,
-              "GroupValue_Write",
-              new Uint8Array([0, hopCount]),
-              16,
-              "low",
-            ),
-            hopCount,
-          },
-          id,
-        );
+      sim.line("l11").queue(
+        tool,
+        {
+          ...groupFrame(
+            0x11fa,
+            raw.value,
+            "GroupValue_Write",
+            new Uint8Array([0, hopCount]),
+            16,
+            "low",
+          ),
+          hopCount,
+        },
+        id,
+      );
     sim.runFor(2_000_000);
     const drops = kinds(sim.trace, "coupler.drop") as Extract<
       TraceEvent,
