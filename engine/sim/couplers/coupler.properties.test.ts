@@ -223,23 +223,21 @@ describe("coupler properties", () => {
             hopOf.set(id, probe.hopCount);
             rootOf.set(id, id);
             const sender = new Tp1Sender(0x0ffa, undefined, `probe${i}`);
-            sim
-              .line(lineId(probe.line))
-              .queue(
-                sender,
-                {
-                  ...groupFrame(
-                    0x0ffa,
-                    raw.value,
-                    "GroupValue_Write",
-                    new Uint8Array([0, i]),
-                    16,
-                    "low",
-                  ),
-                  hopCount: probe.hopCount,
-                },
-                id,
-              );
+            sim.line(lineId(probe.line)).queue(
+              sender,
+              {
+                ...groupFrame(
+                  0x0ffa,
+                  raw.value,
+                  "GroupValue_Write",
+                  new Uint8Array([0, i]),
+                  16,
+                  "low",
+                ),
+                hopCount: probe.hopCount,
+              },
+              id,
+            );
           });
           sim.runFor(5_000_000);
           const linesOf = new Map<number, string[]>();
