@@ -4,7 +4,6 @@ import type { SequentialIds } from "../../core/ids";
 import type { Trace } from "../../core/trace";
 import { benchCouplers, loadedAddressUses } from "../../topology/bench-topology";
 import { isWithin } from "../../topology/line-address";
-import { ACK_OCTET } from "../../frame";
 import { NO_ACK_OCTET } from "../../bus";
 import type { LineRuntime, ObjectOwner } from "../group-objects";
 import { CouplerPort, emptyCouplerCounts, type CouplerCounts } from "./coupler-port";
