@@ -25,6 +25,11 @@ const LINES = ["0.0", "1.0", "1.1", "1.2", "2.0", "2.1", "2.2"] as const;
 type Line = (typeof LINES)[number];
 const ADDRESSES = ["1/0/1", "1/0/2", "2/0/1", "14/0/1"] as const;
 
+/** Raw individual address of device `n` on a line ("1.2" -> 0x12nn). */
+const individualOn = (line: string, n: number) => {
+  const [area, number] = line.split(".").map(Number) as [number, number];
+  return (area << 12) | (number << 8) | n;
+};
 const lineId = (line: string) => `line-${line.replace(".", "-")}`;
 const upper = (line: Line): Line | undefined =>
   line === "0.0" ? undefined : line.endsWith(".0") ? "0.0" : (`${line[0]}.0` as Line);
@@ -200,6 +205,8 @@ describe("coupler properties", () => {
             line: fc.constantFrom(...LINES),
             hopCount: fc.integer({ min: 0, max: 7 }),
             address: fc.constantFrom(...ADDRESSES),
+            // Individually addressed to a device number on a random line, routed by address.
+            to: fc.option(fc.constantFrom(...LINES), { nil: undefined }),
           }),
           { minLength: 1, maxLength: 6 },
         ),
@@ -228,12 +235,13 @@ describe("coupler properties", () => {
               {
                 ...groupFrame(
                   0x0ffa,
-                  raw.value,
+                  probe.to === undefined ? raw.value : individualOn(probe.to, 200 + i),
                   "GroupValue_Write",
                   new Uint8Array([0, i]),
                   16,
                   "low",
                 ),
+                addressType: probe.to === undefined ? "group" : "individual",
                 hopCount: probe.hopCount,
               },
               id,
