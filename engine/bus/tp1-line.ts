@@ -156,6 +156,8 @@ export interface Tp1LineHost {
    * `NO_ACK_OCTET` when nobody is addressed.
    */
   receiveFrame(telegram: Telegram, repeated: boolean): number;
+  /** Called when a telegram is given up after its last repetition (couplers trace their drop). */
+  telegramLost?(telegram: Telegram): void;
 }
 
 /** Load and counts on one line over a window of virtual time. */
@@ -289,10 +291,8 @@ export class Tp1Line {
     return count;
   }
 
-  /** Queues a group telegram; it goes out when the line and arbitration allow. */
+  /** Queues a telegram; it goes out when the line and arbitration allow. */
   queue(sender: Tp1Sender, frame: DataFrame, id: number): Telegram {
-    if (frame.addressType !== "group")
-      throw new Error("Tp1Line.queue: only group telegrams are modelled so far");
     const now = this.scheduler.nowUs;
     const telegram: Telegram = {
       id,
@@ -339,6 +339,7 @@ export class Tp1Line {
       shortPayload: frame.shortPayload,
     };
     if (telegram.sender.deviceId !== undefined) event.deviceId = telegram.sender.deviceId;
+    if (frame.addressType === "individual") event.individual = true;
     return event as Mutable<Extract<TraceEvent, { kind: K }>>;
   }
 
@@ -444,6 +445,7 @@ export class Tp1Line {
           event.reason = reason;
           this.trace.append(event);
         }
+        this.host.telegramLost?.(telegram);
         this.finish(sender, now);
       }
     }

@@ -34,6 +34,8 @@ export interface TelegramTraceFields {
   readonly shortPayload: boolean;
   /** Device id of the sender; absent when the test tool sent it. */
   readonly deviceId?: string;
+  /** Set on an individually addressed telegram: `destination` is then an individual address. */
+  readonly individual?: true;
 }
 
 export type TraceEvent =
@@ -126,6 +128,62 @@ export type TraceEvent =
       readonly from: string;
       readonly deviceId: string;
       readonly message: unknown;
+    }
+  /**
+   * A coupler took a telegram heard on `fromLine` (and acknowledged it) and
+   * queued it for `toLine` as `forwardedTelegramId`, with `hopCount` the
+   * decreased routing counter it carries there.
+   */
+  | {
+      readonly kind: "coupler.forward";
+      readonly timeUs: number;
+      /** Device id of the coupler. */
+      readonly coupler: string;
+      /** The telegram as heard on `fromLine`. */
+      readonly telegramId: number;
+      /** The same telegram as the coupler sends it on `toLine`. */
+      readonly forwardedTelegramId: number;
+      readonly fromLine: string;
+      readonly toLine: string;
+      /** Raw destination address. */
+      readonly destination: number;
+      /** Set when the telegram is individually addressed (`destination` is an individual address). */
+      readonly individual?: true;
+      readonly hopCount: number;
+    }
+  /** A forwarded telegram waits in the coupler's buffer: `toLine` is busy or `queued` telegrams are ahead of it. */
+  | {
+      readonly kind: "coupler.hold";
+      readonly timeUs: number;
+      readonly coupler: string;
+      readonly telegramId: number;
+      readonly forwardedTelegramId: number;
+      readonly fromLine: string;
+      readonly toLine: string;
+      readonly destination: number;
+      readonly individual?: true;
+      /** Telegrams ahead of it in the buffer for `toLine`. */
+      readonly queued: number;
+    }
+  /**
+   * A coupler did not pass a telegram on: not in its filter table ("filter"),
+   * group or individual telegrams blocked by its setting ("blocked"), routing
+   * counter used up ("hop-count"), its buffer full ("queue-full": it answered
+   * BUSY, so the sender repeats), or nobody acknowledged it on `toLine` after
+   * the last repetition ("not-acknowledged").
+   */
+  | {
+      readonly kind: "coupler.drop";
+      readonly timeUs: number;
+      readonly coupler: string;
+      readonly telegramId: number;
+      /** Set for "not-acknowledged": the telegram as it was sent on `toLine`. */
+      readonly forwardedTelegramId?: number;
+      readonly fromLine: string;
+      readonly toLine: string;
+      readonly destination: number;
+      readonly individual?: true;
+      readonly reason: "filter" | "blocked" | "hop-count" | "queue-full" | "not-acknowledged";
     }
   /** Something a person (or a scenario step) did from outside. */
   | {
@@ -298,6 +356,10 @@ function eventTouchesAddress(event: TraceEvent, address: number): boolean {
     case "object.changed":
     case "user.action":
       return event.groupAddress === address;
+    case "coupler.forward":
+    case "coupler.hold":
+    case "coupler.drop":
+      return event.destination === address;
     default:
       return false;
   }
@@ -309,6 +371,10 @@ export function eventTouchesDevice(event: TraceEvent, deviceId: string): boolean
     case "link.delivered":
     case "link.dropped":
       return event.deviceId === deviceId || event.from === deviceId;
+    case "coupler.forward":
+    case "coupler.hold":
+    case "coupler.drop":
+      return event.coupler === deviceId;
     default:
       return "deviceId" in event && event.deviceId === deviceId;
   }

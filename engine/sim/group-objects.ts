@@ -67,6 +67,10 @@ export interface LineRuntime {
   line: Tp1Line;
   /** Group address -> devices with objects linked to it, in bench order. */
   listeners: Map<number, Listener[]>;
+  /** Coupler sides on this line (engine/sim/couplers); they hear every frame. Absent when none. */
+  couplers?: readonly { receive(telegram: Telegram, repeated: boolean): number }[];
+  /** Who answers an individually addressed frame on this line (engine/sim/couplers); absent: nobody. */
+  receiveIndividual?: (telegram: Telegram, repeated: boolean) => number;
 }
 
 const EMPTY_PAYLOAD: Uint8Array = new Uint8Array(0);
@@ -247,13 +251,18 @@ export class GroupObjectLayer {
   /** End of a frame on a line: acknowledge, take, store, hand to devices. Returns the wired-AND acknowledgement. */
   receiveFrame(line: LineRuntime, telegram: Telegram, repeated: boolean): number {
     const frame = telegram.frame;
+    if (frame.addressType !== "group")
+      return line.receiveIndividual?.(telegram, repeated) ?? NO_ACK_OCTET;
     const destination = frame.destination;
     const service = frame.service;
     if (telegram.transmissions === 1 && service !== "GroupValue_Read")
       this.recordGroupValue(destination, frame.payload);
-    const listeners = line.listeners.get(destination);
-    if (listeners === undefined) return NO_ACK_OCTET;
     let answer = NO_ACK_OCTET;
+    const couplers = line.couplers;
+    if (couplers !== undefined)
+      for (let i = 0; i < couplers.length; i++) answer &= couplers[i]!.receive(telegram, repeated);
+    const listeners = line.listeners.get(destination);
+    if (listeners === undefined) return answer;
     const senderDeviceId = telegram.sender.deviceId;
     for (let i = 0; i < listeners.length; i++) {
       const { device, objects } = listeners[i]!;
