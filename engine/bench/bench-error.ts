@@ -25,7 +25,8 @@ export interface BenchError {
     | "bench.link-address-unknown"
     | "bench.link-duplicate"
     | "bench.address-size-mismatch"
-    | "bench.unit-link-member-unknown";
+    | "bench.unit-link-member-unknown"
+    | "bench.room-unknown";
   readonly path: string;
   readonly message: string;
   readonly deviceId?: string;

@@ -12,6 +12,7 @@ import { DeviceRunner, type DeviceRuntime } from "./device-runtime";
 import { FaultRegistry } from "./fault-registry";
 import { GroupObjectLayer, type LineRuntime } from "./group-objects";
 import { InputDispatch } from "./input-dispatch";
+import { RoomClimate } from "./room-climate";
 import type { SimError } from "./sim-error";
 import type { Receipt, SimInput } from "./sim-input";
 import { TraceEmitter, type FaultSource } from "./trace-emitter";
@@ -128,6 +129,7 @@ export class Simulation {
   private readonly reuse: boolean;
   private readonly options: SimulationOptions;
   private readonly rng: Rng;
+  private readonly climate = new RoomClimate(this.scheduler);
 
   private loadedBench: LoadedBench;
   private readonly lines = new Map<string, LineRuntime>();
@@ -163,7 +165,9 @@ export class Simulation {
       this.objects,
       () => this.unitLinks,
       this.reuse,
+      this.climate,
     );
+    if (original === undefined) for (const room of bench.rooms) this.climate.define(room.id, room.spec);
     this.objects.receiver = this.runner;
     this.unitLinks = new UnitLinkMedium<DeviceRuntime>(
       this.scheduler,
@@ -239,6 +243,7 @@ export class Simulation {
   private copyFrom(original: Simulation): void {
     this.traceLog.copyFrom(original.traceLog);
     this.faults.copyFrom(original.faults);
+    this.climate.copyFrom(original.climate);
     this.objects.copyFrom(original.objects);
     this.telegramIds.copyFrom(original.telegramIds);
     this.runner.copyTimerGeneration(original.runner);
@@ -373,6 +378,11 @@ export class Simulation {
   /** Stored value of a device's group object (undefined before it has one). */
   objectValue(deviceId: string, object: number): unknown {
     return this.deviceById.get(deviceId)?.objects.get(object)?.value;
+  }
+
+  /** Air temperature now of a room (a bench room id, or "device:<id>" for a device's own room), °C. */
+  roomTemperatureC(roomId: string): number {
+    return this.climate.temperatureC(roomId);
   }
 
   /** Active faults of a device, or of a unit link, by id. */

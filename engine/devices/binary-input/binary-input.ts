@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { startupDelaySchema } from "../startup-delay";
 import { flags, type DeviceEvent, type DeviceType, type TransitionResult } from "../device-type";
 
 /**
@@ -12,6 +13,8 @@ export const binaryInputParametersSchema = z.object({
   invert: z.boolean().default(false),
   /** Contact state at the start of the run; true = open. */
   initiallyOpen: z.boolean().default(false),
+  /** Delay after bus power returns before the contact state is sent, s. */
+  startupDelayS: startupDelaySchema,
 });
 export type BinaryInputParameters = z.infer<typeof binaryInputParametersSchema>;
 
@@ -62,6 +65,7 @@ export const binaryInputType: DeviceType<BinaryInputParameters, BinaryInputState
   description: "Contact input, usually a window contact (DPT 1.019); sends on every change.",
   medium: "knx",
   parameters: binaryInputParametersSchema,
+  startupDelayS: (p) => p.startupDelayS,
   groupObjects: (p) => [
     {
       number: BINARY_INPUT_OBJECT,

@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { startupDelaySchema } from "../startup-delay";
 import {
   flags,
   type DeviceContext,
@@ -14,6 +15,8 @@ export const presenceDetectorParametersSchema = z.object({
   holdTimeS: z.number().min(1, "holdTimeS must be at least 1 s").max(86_400).default(300),
   /** A KNX input (DPT 1.018) through which another detector's movement retriggers this one. */
   externalTrigger: z.boolean().default(false),
+  /** Delay after bus power returns before occupancy is sent, s. */
+  startupDelayS: startupDelaySchema,
 });
 export type PresenceDetectorParameters = z.infer<typeof presenceDetectorParametersSchema>;
 
@@ -103,6 +106,7 @@ export const presenceDetectorType: DeviceType<PresenceDetectorParameters, Presen
   description: "Occupancy (DPT 1.018) with a hold time that each movement restarts.",
   medium: "knx",
   parameters: presenceDetectorParametersSchema,
+  startupDelayS: (p) => p.startupDelayS,
   groupObjects: (p) => {
     const objects: GroupObjectSpec[] = [
       {

@@ -1,4 +1,5 @@
 import { DPT9_INVALID } from "../../dpt/dpt9";
+import { DEFAULT_ROOM_HEAT_CAPACITY_J_PER_K } from "../../room";
 import {
   flags,
   type DeviceContext,
@@ -23,8 +24,6 @@ import {
 } from "./parameters";
 
 export interface RoomTemperatureSensorState {
-  /** The modelled room temperature (room-model source), °C. */
-  readonly modelC: number;
   /** A value set from outside (input "temperature"); overrides the source until set to null. */
   readonly overrideC: number | null;
   readonly lastSampleUs: number;
@@ -62,9 +61,12 @@ export function profileValueC(p: RoomTemperatureSensorParameters, tS: number): n
 
 function measuredC(state: RoomTemperatureSensorState, context: Context): number {
   const p = context.parameters;
+  // The room it hangs in, shared with every unit and device there (engine/room).
   const trueC =
     state.overrideC ??
-    (p.source === "profile" ? profileValueC(p, context.nowUs / US_PER_S) : state.modelC);
+    (p.source === "profile"
+      ? profileValueC(p, context.nowUs / US_PER_S)
+      : (context.roomTemperatureC() ?? p.initialC));
   return trueC + p.offsetK;
 }
 
@@ -89,10 +91,7 @@ function senderEffects(step: SenderStep, context: Context): DeviceEffect[] {
 
 function sample(state: RoomTemperatureSensorState, context: Context): Result {
   const p = context.parameters;
-  const dtS = (context.nowUs - state.lastSampleUs) / US_PER_S;
-  // Newton's law of cooling, exact step (any heat-transfer handbook).
-  const modelC = p.outdoorC + (state.modelC - p.outdoorC) * Math.exp(-dtS / p.timeConstantS);
-  const next = { ...state, modelC, lastSampleUs: context.nowUs };
+  const next = { ...state, lastSampleUs: context.nowUs };
   if (next.open) return { state: next, effects: [] };
   const valueC = measuredC(next, context);
   const step = sampleRoomTemperature(next.sender, valueC, context.nowUs, p.sending);
@@ -183,8 +182,9 @@ function roomTemperatureSensorTransition(
 }
 
 /**
- * KNX room temperature sensor (DPT 9.001): measures every `sampleS` a modelled
- * room (Newton's law of cooling toward `outdoorC`) or a profile over time, and
+ * KNX room temperature sensor (DPT 9.001): measures every `sampleS` the room it
+ * is in (the bench's room, shared with the units there; else a room of its own
+ * cooling toward `outdoorC`) or a profile over time, and
  * sends on change, cyclically, or both. Input "temperature" overrides the value.
  */
 export const roomTemperatureSensorType: DeviceType<
@@ -207,12 +207,22 @@ export const roomTemperatureSensorType: DeviceType<
     },
   ],
   buttons: () => [],
-  initialState: (p) => ({
-    modelC: p.initialC,
+  initialState: () => ({
     overrideC: null,
     lastSampleUs: 0,
     sender: initialSenderState,
     open: false,
   }),
   transition: roomTemperatureSensorTransition,
+  // A bench without rooms: the sensor's room is its own (Newton's law of cooling toward outdoorC, τ = timeConstantS).
+  privateRoom: (p) =>
+    p.source === "room-model"
+      ? {
+          initialC: p.initialC,
+          outdoorC: p.outdoorC,
+          heatCapacityJPerK: DEFAULT_ROOM_HEAT_CAPACITY_J_PER_K,
+          envelopeUaWPerK: DEFAULT_ROOM_HEAT_CAPACITY_J_PER_K / p.timeConstantS,
+        }
+      : undefined,
+  startupDelayS: (p) => p.startupDelayS,
 };
