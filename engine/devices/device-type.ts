@@ -47,6 +47,13 @@ export interface LocalButtonSpec {
   readonly label: string;
 }
 
+/**
+ * Name of the timer event a device with a start-up delay receives once the
+ * runtime has sent its statuses after bus power returned (so a device that
+ * paces its own sends, such as on-change room temperature, counts that send).
+ */
+export const STARTUP_DONE_TIMER = "runtime.startup";
+
 /** Descriptive fault identifiers of our own, e.g. "link.two-primaries". */
 export type FaultId = string;
 

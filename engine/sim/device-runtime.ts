@@ -1,12 +1,13 @@
 import type { LoadedDevice } from "../bench";
 import type { Rng } from "../core/rng";
 import type { Scheduler } from "../core/scheduler";
-import type {
-  AnyDeviceType,
-  DeviceContext,
-  DeviceEffect,
-  DeviceEvent,
-  TransitionResult,
+import {
+  STARTUP_DONE_TIMER,
+  type AnyDeviceType,
+  type DeviceContext,
+  type DeviceEffect,
+  type DeviceEvent,
+  type TransitionResult,
 } from "../devices/device-type";
 import { NO_ACK_OCTET, type Tp1Sender } from "../bus";
 import type { FaultRegistry } from "./fault-registry";
@@ -21,8 +22,8 @@ import type { RoomClimate } from "./room-climate";
 import type { TraceEmitter } from "./trace-emitter";
 import type { UnitLinkMedium } from "./unit-link-medium";
 
-/** Name of the runtime's own timer that ends a device's start-up delay (not handed to the device). */
-export const STARTUP_TIMER = "runtime.startup";
+/** The runtime's own timer that ends a device's start-up delay; the device then gets it as a timer event. */
+const STARTUP_TIMER = STARTUP_DONE_TIMER;
 
 /**
  * Spread of start-up sends by device number, µs per number: the low octet of
@@ -51,6 +52,8 @@ export interface DeviceRuntime extends ObjectOwner {
   lastTakenTelegramId: number;
   /** The room the device reads and drives (a bench room or its own); undefined: none. */
   roomId: string | undefined;
+  /** During a start-up delay: the objects the device has sent since power returned (not sent again). */
+  sentDuringStartup: Set<number> | undefined;
 }
 
 /**
@@ -161,6 +164,7 @@ export class DeviceRunner {
       timers: new Map(),
       lastTakenTelegramId: -1,
       roomId: undefined,
+      sentDuringStartup: undefined,
     };
     device.roomId = this.placeInRoom(device);
     device.context = this.makeContext(device);
@@ -207,6 +211,8 @@ export class DeviceRunner {
       timers: new Map(original.timers),
       lastTakenTelegramId: original.lastTakenTelegramId,
       roomId: original.roomId,
+      sentDuringStartup:
+        original.sentDuringStartup === undefined ? undefined : new Set(original.sentDuringStartup),
     };
     device.context = this.makeContext(device);
     return device;
@@ -230,10 +236,6 @@ export class DeviceRunner {
    */
   start(device: DeviceRuntime): void {
     this.transition(device, { kind: "start" });
-    if (device.type.startupDelayS === undefined) {
-      this.readOnInit(device);
-      return;
-    }
     this.powerReturn(device);
   }
 
@@ -241,16 +243,19 @@ export class DeviceRunner {
    * Bus power has returned to a device (its first start, or a cleared
    * "bus.silent"): after its start-up delay and its stagger it sends each
    * status or output object with the transmit flag once, with the value it
-   * holds, then reads its read-on-init objects. A device that reports nothing
+   * holds (unless the device sent it itself since power returned), then reads
+   * its read-on-init objects. A device that reports nothing
    * at start-up (no `startupDelayS`) only reads.
    */
   powerReturn(device: DeviceRuntime): void {
     const delayS = device.type.startupDelayS?.(device.loaded.parameters);
-    if (delayS === undefined) {
+    // Off a line (a device bench) there is no bus whose power returns, and nowhere to send.
+    if (delayS === undefined || device.line === undefined) {
       this.readOnInit(device);
       return;
     }
     const staggerUs = ((device.loaded.individualAddress ?? 0) & 0xff) * STARTUP_STAGGER_US_PER_DEVICE;
+    device.sentDuringStartup = new Set();
     const generation = ++this.timerGeneration;
     device.timers.set(STARTUP_TIMER, generation);
     const entry: TimerEntry = { device, name: STARTUP_TIMER, generation, data: undefined };
@@ -266,14 +271,18 @@ export class DeviceRunner {
   private startupDone(device: DeviceRuntime): void {
     // Still cut off: the sequence runs again when "bus.silent" is cleared.
     if (device.busAnswer === NO_ACK_OCTET) return;
+    const alreadySent = device.sentDuringStartup;
+    device.sentDuringStartup = undefined;
     this.emitter.deviceNote(device.id, "start-up: statuses sent, read-on-init objects read");
     for (const object of device.objects.values()) {
       const flags = object.flags;
       if (!flags.communication || !flags.transmit || object.value === undefined) continue;
+      if (alreadySent?.has(object.number)) continue; // sent once already since power returned
       const role = device.loaded.objects.find((o) => o.number === object.number)?.spec.role;
       if (role === "status" || role === "output")
         this.objects.send(device, object, object.value, "write");
     }
+    this.transition(device, { kind: "timer", name: STARTUP_TIMER });
     this.readOnInit(device);
   }
 
@@ -295,6 +304,7 @@ export class DeviceRunner {
     device.context = this.makeContext(device);
     device.state = device.type.initialState(loaded.parameters);
     device.timers.clear();
+    device.sentDuringStartup = undefined;
     device.lastTakenTelegramId = -1;
     this.faults.clearRaisedByDevice(device.id);
     this.climate.release(device.id);
@@ -336,6 +346,7 @@ export class DeviceRunner {
   private applyEffect(device: DeviceRuntime, effect: DeviceEffect): void {
     switch (effect.kind) {
       case "group.send":
+        device.sentDuringStartup?.add(effect.object);
         this.objects.send(
           device,
           this.objectOf(device, effect.object, effect.kind),

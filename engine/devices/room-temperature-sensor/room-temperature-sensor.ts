@@ -1,6 +1,7 @@
 import { DPT9_INVALID } from "../../dpt/dpt9";
 import { DEFAULT_ROOM_HEAT_CAPACITY_J_PER_K } from "../../room";
 import {
+  STARTUP_DONE_TIMER,
   flags,
   type DeviceContext,
   type DeviceEffect,
@@ -134,6 +135,20 @@ function roomTemperatureSensorTransition(
         return { ...sampled, effects: [...sampled.effects, sampleTimer] };
       }
       if (state.open) return { state, effects: [] };
+      if (event.name === STARTUP_DONE_TIMER) {
+        // The start-up send was a send: the minimum interval and the cycle count from it.
+        const sentC = context.objectValue(ROOM_TEMPERATURE_OBJECT);
+        if (typeof sentC !== "number") return { state, effects: [] };
+        return {
+          state: {
+            ...state,
+            sender: { ...state.sender, lastSentC: sentC, lastSentUs: context.nowUs },
+          },
+          effects: sendsCyclically(p.sending)
+            ? [{ kind: "timer.set", name: CYCLE_TIMER, delayUs: cycleUs(p.sending) }]
+            : [],
+        };
+      }
       const step =
         event.name === SEND_TIMER
           ? sendDueRoomTemperature(state.sender, context.nowUs, p.sending)
