@@ -102,8 +102,9 @@ describe("indoor unit controller roles", () => {
     const cleared = announce("wc", "secondary");
     expect(cleared.transition).toBe("link.fault-cleared");
     expect(harness.faults.get("unit")?.size).toBe(0);
+    // Applied: power on in auto with the room (20 °C) below the band around 21 °C starts heating.
     expect(say("wc", { kind: "unit.command", power: true }).transition).toBe(
-      "unit.command-applied",
+      "compressor.heating",
     );
     expect(state().power).toBe(true);
   });

@@ -292,7 +292,11 @@ function applyCommand(
   return {
     state: reported.state,
     effects: [...notes, ...controlled.effects, ...reported.effects],
-    transition: refusal?.transition ?? "unit.command-applied",
+    transition:
+      refusal?.transition ??
+      (controlled.state.output !== state.output
+        ? compressorTransitionName(controlled.state.output)
+        : "unit.command-applied"),
   };
 }
 
@@ -342,6 +346,11 @@ function fanHoldAt(state: IndoorUnitState, heating: boolean, context: Context): 
   return hold;
 }
 
+/** Names the compressor starting (per output) or stopping, for the trace. */
+function compressorTransitionName(output: IndoorUnitState["output"]): string {
+  return output === "none" ? "compressor.off" : `compressor.${output}`;
+}
+
 /**
  * The unit's control loop, every `modelStepS`: read the room (its own sensor),
  * update running hours, frost protection, auto direction, fan holds, then the
@@ -375,7 +384,7 @@ function stepModel(state: IndoorUnitState, context: Context): Result {
   ];
   const autoSwitched = next.mode === "auto" && next.power && next.autoDirection !== before;
   const compressorTransition = compressorChanged
-    ? { transition: next.output === "none" ? "compressor.off" : `compressor.${next.output}` }
+    ? { transition: compressorTransitionName(next.output) }
     : {};
   if (
     !autoSwitched &&
