@@ -254,7 +254,8 @@ export class DeviceRunner {
       this.readOnInit(device);
       return;
     }
-    const staggerUs = ((device.loaded.individualAddress ?? 0) & 0xff) * STARTUP_STAGGER_US_PER_DEVICE;
+    const staggerUs =
+      ((device.loaded.individualAddress ?? 0) & 0xff) * STARTUP_STAGGER_US_PER_DEVICE;
     device.sentDuringStartup = new Set();
     const generation = ++this.timerGeneration;
     device.timers.set(STARTUP_TIMER, generation);

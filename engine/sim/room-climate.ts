@@ -96,7 +96,8 @@ export class RoomClimate {
 
   /** Removes a device's drive from every room (a restart). */
   release(deviceId: string): void {
-    for (const [id, room] of this.rooms) if (room.drives.has(deviceId)) this.drive(id, deviceId, NO_DRIVE);
+    for (const [id, room] of this.rooms)
+      if (room.drives.has(deviceId)) this.drive(id, deviceId, NO_DRIVE);
   }
 
   /** Takes over `other`'s rooms as they stand, for a forked run. */

@@ -51,7 +51,13 @@ function labBench(secondUnit = false): BenchInput {
     ],
     devices: [
       gateway("gw", "1.1.20", 2),
-      { id: "iu", type: "indoor-unit", name: "Unit", room: "lab", parameters: { capacityW: CAPACITY_W } },
+      {
+        id: "iu",
+        type: "indoor-unit",
+        name: "Unit",
+        room: "lab",
+        parameters: { capacityW: CAPACITY_W },
+      },
       {
         id: "rts",
         type: "room-temperature-sensor",
@@ -70,7 +76,13 @@ function labBench(secondUnit = false): BenchInput {
     links: [
       { device: "rts", object: 0, groupAddress: "3/0/1" },
       { device: "gw", object: O.externalRoomTemperature, groupAddress: "3/0/1" },
-      ...(secondUnit ? [["gw", 2], ["gw2", 4]] : [["gw", 2]]).flatMap(([device, main]) => [
+      ...(secondUnit
+        ? [
+            ["gw", 2],
+            ["gw2", 4],
+          ]
+        : [["gw", 2]]
+      ).flatMap(([device, main]) => [
         { device: String(device), object: O.power, groupAddress: `${main}/0/0` },
         { device: String(device), object: O.setpoint, groupAddress: `${main}/0/1` },
         { device: String(device), object: O.mode, groupAddress: `${main}/0/2` },
@@ -137,7 +149,8 @@ describe("one room per room", () => {
     expect(low).toBeGreaterThanOrEqual(22.5 - lag);
     expect(high).toBeLessThanOrEqual(23.5 + lag);
     const cycles = sim.trace.filter(
-      (e) => e.kind === "device.transition" && e.deviceId === "iu" && e.transition === "compressor.off",
+      (e) =>
+        e.kind === "device.transition" && e.deviceId === "iu" && e.transition === "compressor.off",
     ).length;
     expect(cycles).toBeGreaterThan(1);
   });
@@ -152,7 +165,9 @@ describe("one room per room", () => {
     one.runFor(10 * MIN);
     two.runFor(10 * MIN);
     // Lumped room: two units double the supply conductance, so the room rises faster.
-    expect(two.roomTemperatureC("lab") - 19).toBeGreaterThan(1.5 * (one.roomTemperatureC("lab") - 19));
+    expect(two.roomTemperatureC("lab") - 19).toBeGreaterThan(
+      1.5 * (one.roomTemperatureC("lab") - 19),
+    );
     expect(unit(two, "iu").roomC).toBeCloseTo(unit(two, "iu2").roomC, 6);
     // The idle second unit of `one` reads the room the first one heats.
     expect(unit(one, "iu2").roomC).toBeGreaterThan(19.5);
@@ -169,11 +184,12 @@ describe("one room per room", () => {
 
   it("a bench without rooms gives each unit and sensor a room of its own, as before", () => {
     const bench = labBench();
-    const { rooms: _rooms, ...rest } = bench;
-    const sim = createSimulation(
-      { ...rest, devices: rest.devices!.map(({ room: _room, ...d }) => d) },
-      { seed: 1 },
-    );
+    const withoutRooms: BenchInput = {
+      ...bench,
+      rooms: undefined,
+      devices: bench.devices!.map((d) => ({ ...d, room: undefined })),
+    };
+    const sim = createSimulation(withoutRooms, { seed: 1 });
     sim.runFor(600 * S);
     // The unit's room: its own parameters (20 °C, outdoor 10 °C); the sensor's: its own (21 °C, outdoor 21 °C).
     expect(sim.roomTemperatureC("device:iu")).toBeCloseTo(unit(sim).roomC, 1);

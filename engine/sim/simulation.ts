@@ -167,7 +167,8 @@ export class Simulation {
       this.reuse,
       this.climate,
     );
-    if (original === undefined) for (const room of bench.rooms) this.climate.define(room.id, room.spec);
+    if (original === undefined)
+      for (const room of bench.rooms) this.climate.define(room.id, room.spec);
     this.objects.receiver = this.runner;
     this.unitLinks = new UnitLinkMedium<DeviceRuntime>(
       this.scheduler,

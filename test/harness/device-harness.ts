@@ -59,16 +59,21 @@ export class DeviceHarness {
     rooms: readonly DeviceBenchRoom[] = [],
   ) {
     for (const member of members) this.faults.set(member.id, new Set());
-    this.bench = new DeviceBench(members, links, (device, effect) => {
-      if (effect.kind === "group.send")
-        this.sent.push({
-          timeUs: this.bench.nowUs,
-          device,
-          object: effect.object,
-          service: effect.service,
-          value: effect.value,
-        });
-    }, rooms);
+    this.bench = new DeviceBench(
+      members,
+      links,
+      (device, effect) => {
+        if (effect.kind === "group.send")
+          this.sent.push({
+            timeUs: this.bench.nowUs,
+            device,
+            object: effect.object,
+            service: effect.service,
+            value: effect.value,
+          });
+      },
+      rooms,
+    );
     this.bench.trace.subscribe((event) => {
       switch (event.kind) {
         case "device.transition":

@@ -103,9 +103,7 @@ describe("indoor unit controller roles", () => {
     expect(cleared.transition).toBe("link.fault-cleared");
     expect(harness.faults.get("unit")?.size).toBe(0);
     // Applied: power on in auto with the room (20 °C) below the band around 21 °C starts heating.
-    expect(say("wc", { kind: "unit.command", power: true }).transition).toBe(
-      "compressor.heating",
-    );
+    expect(say("wc", { kind: "unit.command", power: true }).transition).toBe("compressor.heating");
     expect(state().power).toBe(true);
   });
 

@@ -111,7 +111,10 @@ function resolveAutoDirection(state: IndoorUnitState, context: Context): IndoorU
  * otherwise a running unit cycles in the band around its setpoint on the
  * temperature it controls on (external or own); a held fan delivers nothing.
  */
-function control(state: IndoorUnitState, context: Context): { state: IndoorUnitState; effects: DeviceEffect[] } {
+function control(
+  state: IndoorUnitState,
+  context: Context,
+): { state: IndoorUnitState; effects: DeviceEffect[] } {
   const direction = state.frostActive
     ? "heating"
     : state.power
