@@ -1,8 +1,11 @@
+import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import type { BenchInput } from "../bench/bench-schema";
 import { gatewayObjects as O } from "../devices/hvac-gateway/objects";
 import type { IndoorUnitState } from "../devices/indoor-unit";
 import {
+  COOLING_RATING_ROOM_C,
+  COOLING_SUPPLY_C,
   DEFAULT_ROOM_HEAT_CAPACITY_J_PER_K,
   DEFAULT_ROOM_UA_W_PER_K,
   HEATING_RATING_ROOM_C,
@@ -195,5 +198,48 @@ describe("one room per room", () => {
     expect(sim.roomTemperatureC("device:iu")).toBeCloseTo(unit(sim).roomC, 1);
     expect(sim.roomTemperatureC("device:iu")).toBeLessThan(20);
     expect(sim.objectValue("rts", 0)).toBe(21);
+  });
+
+  it("whatever two units are told, the room stays between the cooling supply and the heating supply and never jumps", () => {
+    // Lumped room (engine/room/lumped-room.ts): T moves monotonically toward T_eq, a weighted mean
+    // of the outdoor and supply temperatures, at |dT/dt| = |T − T_eq|·(UA + ΣG)/C at most.
+    const gMax =
+      2 *
+      Math.max(
+        CAPACITY_W / (HEATING_SUPPLY_C - HEATING_RATING_ROOM_C),
+        CAPACITY_W / (COOLING_RATING_ROOM_C - COOLING_SUPPLY_C),
+      );
+    const span = HEATING_SUPPLY_C - COOLING_SUPPLY_C;
+    const maxKPerS = (span * (gMax + DEFAULT_ROOM_UA_W_PER_K)) / DEFAULT_ROOM_HEAT_CAPACITY_J_PER_K;
+    const command = fc.record({
+      afterS: fc.integer({ min: 1, max: 900 }),
+      main: fc.constantFrom(2, 4),
+      setpointC: fc.integer({ min: 16, max: 30 }),
+      // DPT 20.105: 0 auto, 1 heat, 3 cool, 9 fan only, 14 dehumidification.
+      mode: fc.constantFrom(0, 1, 3, 9, 14),
+      power: fc.boolean(),
+    });
+    fc.assert(
+      fc.property(fc.array(command, { minLength: 1, maxLength: 8 }), (commands) => {
+        const sim = createSimulation(labBench(true), { seed: 1 });
+        sim.runFor(5 * S);
+        let lastC = sim.roomTemperatureC("lab");
+        for (const c of commands) {
+          sim.sendGroupWrite(`${c.main}/0/2`, c.mode);
+          sim.sendGroupWrite(`${c.main}/0/1`, c.setpointC);
+          sim.sendGroupWrite(`${c.main}/0/0`, c.power);
+          for (let t = 0; t < c.afterS; t += 30) {
+            const stepS = Math.min(30, c.afterS - t);
+            sim.runFor(stepS * S);
+            const nowC = sim.roomTemperatureC("lab");
+            expect(nowC).toBeGreaterThanOrEqual(Math.min(COOLING_SUPPLY_C, OUTDOOR_C, 19));
+            expect(nowC).toBeLessThanOrEqual(HEATING_SUPPLY_C);
+            expect(Math.abs(nowC - lastC)).toBeLessThanOrEqual(maxKPerS * stepS + 1e-9);
+            lastC = nowC;
+          }
+        }
+      }),
+      { numRuns: 25 },
+    );
   });
 });
