@@ -34,6 +34,7 @@ type JsonValue = Extract<SimInput, { kind: "write" }>["value"];
  * - GroupObjectLayer (group-objects.ts): flags, sending, listening, values.
  * - UnitLinkMedium (unit-link-medium.ts): messages between unit-link members.
  * - FaultRegistry (fault-registry.ts): active faults and who raised them.
+ * - RoomClimate (room-climate.ts): each room once, read by every device in it.
  * - TraceEmitter (trace-emitter.ts): every event the runtime records.
  *
  * Each bench line is its own medium; couplers are not modelled yet, so a
@@ -42,7 +43,9 @@ type JsonValue = Extract<SimInput, { kind: "write" }>["value"];
  *
  * Faults the runtime itself interprets on a device (`BUS_FAULTS`): "bus.busy"
  * and "bus.nak" make the device answer BUSY / NAK and not take the frame;
- * "bus.silent" disconnects it (no acknowledgement, no reception, nothing sent).
+ * "bus.silent" disconnects it (no acknowledgement, no reception, nothing sent);
+ * clearing it is bus power returning: the device runs its start-up sequence
+ * (device-runtime.ts `powerReturn`).
  * On a unit link, "link.broken" stops its messages. Every fault injected into a
  * device is also handed to the device as a `fault.inject` event.
  *
@@ -99,8 +102,9 @@ export function tryCreateSimulation(
 
 /**
  * Starts a simulation of a bench (a loaded bench, or a document that must load:
- * a bad one throws `BenchLoadFailure`). Devices get their `start` event and
- * read-on-init reads are queued at virtual time 0.
+ * a bad one throws `BenchLoadFailure`). Devices get their `start` event at
+ * virtual time 0; statuses and read-on-init reads follow after each device's
+ * start-up delay (at once for types without one).
  */
 export function createSimulation(
   bench: LoadedBench | Bench | BenchInput,
