@@ -11,6 +11,9 @@ import {
   HEATING_RATING_ROOM_C,
   HEATING_SUPPLY_C,
 } from "../room";
+import { OPEN_WINDOW_W_PER_K } from "../devices/binary-input/binary-input";
+import { OCCUPANT_SENSIBLE_W } from "../devices/presence-detector/presence-detector";
+import { temperatureAfterC, roomBalance } from "../room";
 import { createSimulation, type Simulation } from "./simulation";
 
 const S = 1_000_000;
@@ -241,5 +244,66 @@ describe("one room per room", () => {
       }),
       { numRuns: 25 },
     );
+  });
+
+  it("an open window and an occupied room act on the room's heat balance", () => {
+    // A room with only a window contact (DPT 1.019) and a presence detector in it.
+    const sim = createSimulation(
+      {
+        format: 1,
+        name: "Window and presence",
+        lines: [{ id: "main", address: "1.1", name: "Line" }],
+        testToolAddress: "1.1.250",
+        rooms: [{ id: "r", name: "Room", initialC: 20, outdoorC: 0 }],
+        devices: [
+          {
+            id: "win",
+            type: "binary-input",
+            name: "Window",
+            individualAddress: "1.1.30",
+            room: "r",
+          },
+          {
+            id: "pd",
+            type: "presence-detector",
+            name: "Presence",
+            individualAddress: "1.1.32",
+            room: "r",
+            parameters: { holdTimeS: 86_400 },
+          },
+        ],
+      },
+      { seed: 1 },
+    );
+    const spec = {
+      heatCapacityJPerK: DEFAULT_ROOM_HEAT_CAPACITY_J_PER_K,
+      envelopeUaWPerK: DEFAULT_ROOM_UA_W_PER_K,
+      outdoorC: 0,
+    };
+    sim.setInput("win", "contact", true);
+    sim.setInput("pd", "movement", true);
+    sim.runFor(3600 * S);
+    // Lumped room (engine/room/lumped-room.ts): window ventilation toward outdoors plus one occupant.
+    const expected = temperatureAfterC(
+      20,
+      3600,
+      spec,
+      roomBalance(spec, [
+        { conductanceWPerK: OPEN_WINDOW_W_PER_K, towardC: 0, watts: 0 },
+        { conductanceWPerK: 0, towardC: 0, watts: OCCUPANT_SENSIBLE_W },
+      ]),
+    );
+    expect(sim.roomTemperatureC("r")).toBeCloseTo(expected, 6);
+    // Closed and empty again, only the envelope acts.
+    sim.setInput("win", "contact", false);
+    expect(sim.roomTemperatureC("r")).toBeCloseTo(expected, 9);
+    sim.runFor(1800 * S);
+    const closedC = temperatureAfterC(
+      expected,
+      1800,
+      spec,
+      roomBalance(spec, [{ conductanceWPerK: 0, towardC: 0, watts: OCCUPANT_SENSIBLE_W }]),
+    );
+    expect(sim.roomTemperatureC("r")).toBeCloseTo(closedC, 6);
   });
 });

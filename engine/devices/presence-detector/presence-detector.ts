@@ -30,6 +30,21 @@ export interface PresenceDetectorState {
 export const presenceObjects = { occupancy: 0, trigger: 1 } as const;
 
 const HOLD_TIMER = "presence.hold";
+
+/**
+ * Heat the occupancy it sees adds to its room, W: one seated adult gives off
+ * about 70-80 W of sensible heat (from memory of handbook tables); a detector
+ * cannot count people, so it stands for one. Ignored when it is in no room.
+ */
+export const OCCUPANT_SENSIBLE_W = 75;
+
+const occupantHeat = (occupied: boolean) =>
+  ({
+    kind: "room.drive",
+    conductanceWPerK: 0,
+    towardC: 0,
+    watts: occupied ? OCCUPANT_SENSIBLE_W : 0,
+  }) as const;
 const US_PER_S = 1_000_000;
 
 type Result = TransitionResult<PresenceDetectorState>;
@@ -51,6 +66,7 @@ function movement(
     effects: [
       { kind: "group.send", object: presenceObjects.occupancy, service: "write", value: true },
       hold,
+      occupantHeat(true),
     ],
     transition: "presence.detected",
   };
@@ -87,6 +103,7 @@ function presenceDetectorTransition(
         state: { ...state, occupied: false },
         effects: [
           { kind: "group.send", object: presenceObjects.occupancy, service: "write", value: false },
+          occupantHeat(false),
         ],
         transition: "presence.ended",
       };
