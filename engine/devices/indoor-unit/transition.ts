@@ -469,7 +469,12 @@ export function indoorUnitTransition(
   switch (event.kind) {
     case "start": {
       const roomC = context.roomTemperatureC() ?? state.roomC;
-      const controlled = control({ ...state, roomC, lastStepUs: context.nowUs }, context);
+      // Auto starts in the direction the room it actually reads needs (a bench room's own start temperature).
+      const autoDirection = roomC < state.setpointC ? "heating" : "cooling";
+      const controlled = control(
+        { ...state, roomC, autoDirection, lastStepUs: context.nowUs },
+        context,
+      );
       const reported = report(controlled.state, context);
       return {
         state: reported.state,
