@@ -71,6 +71,36 @@ describe("indoor unit thermal model", () => {
     expect(names.filter((n) => n === "compressor.heating").length).toBeGreaterThan(1);
   });
 
+  it("in a shared room, auto starts in the direction that room needs, whatever its own-room parameters say", () => {
+    // Auto mode heats below and cools above the setpoint (common practice, no published source).
+    const harness = new DeviceHarness(
+      [
+        {
+          id: "unit",
+          type: indoorUnitType,
+          room: "warm",
+          parameters: {
+            initialRoomC: 18,
+            initialPower: true,
+            initialMode: "auto",
+            initialSetpointC: 21,
+          },
+        },
+      ],
+      [],
+      [
+        {
+          id: "warm",
+          spec: { initialC: 28, outdoorC: 30, heatCapacityJPerK: 600_000, envelopeUaWPerK: 50 },
+        },
+      ],
+    );
+    harness.start();
+    const state = harness.state<IndoorUnitState>("unit");
+    expect(state.roomC).toBe(28);
+    expect(state.output).toBe("cooling");
+  });
+
   it("in fan mode drifts like an idle room", () => {
     const { harness, state, say, announce } = unitAlone({
       initialRoomC: 25,
