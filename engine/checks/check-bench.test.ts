@@ -263,6 +263,13 @@ describe("checkBench", () => {
       expect(rulesOf(rooms("a"), "room.external-sensor-elsewhere")).toEqual([]);
       expect(rulesOf(rooms(undefined, false), "room.external-sensor-elsewhere")).toEqual([]);
     });
+    it("room.device-without-room warns about a sensor left out of the declared rooms only", () => {
+      expect(rulesOf(rooms(undefined), "room.device-without-room")).toEqual([
+        expect.objectContaining({ severity: "warning", location: { device: "rts" } }),
+      ]);
+      expect(rulesOf(rooms("a"), "room.device-without-room")).toEqual([]);
+      expect(rulesOf(rooms(undefined, false), "room.device-without-room")).toEqual([]);
+    });
   });
 
   describe("gateway.external-temperature-on-secondary", () => {

@@ -30,7 +30,7 @@ import { lineExpectedLoadRule } from "./line-load";
 import { objectStatusOnCommandAddressRule, objectStatusUnlinkedRule } from "./object-rules";
 import { panelPresetOutOfRangeRule } from "./panel-rules";
 import { addressSeveralReadRespondersRule, objectReadOnInitUnansweredRule } from "./read-rules";
-import { gatewayExternalSensorElsewhereRule } from "./room-rules";
+import { deviceWithoutRoomRule, gatewayExternalSensorElsewhereRule } from "./room-rules";
 
 /**
  * Every rule, in the order the documentation lists them. Rules look at what a
@@ -58,6 +58,7 @@ export const benchCheckRules: readonly BenchCheckRule[] = [
   controllerSeveralUnitsRule,
   gatewayExternalTemperatureOnSecondaryRule,
   gatewayExternalSensorElsewhereRule,
+  deviceWithoutRoomRule,
   gatewayMultiSplitWithoutOutdoorUnitRule,
   gatewaySingleSplitOnOutdoorUnitRule,
   outdoorUnitLeaderNotMemberRule,

@@ -65,3 +65,32 @@ export const gatewayExternalSensorElsewhereRule: BenchCheckRule = {
     return findings;
   },
 };
+
+/** Device types that read a room's temperature, and so model one of their own when given none. */
+const ROOM_READERS = new Set(["indoor-unit", "room-temperature-sensor"]);
+
+/**
+ * On a bench that declares rooms, a unit or room sensor left out of every room
+ * models a room of its own, which nothing else reads or heats: what it reports
+ * drifts away from the room it was meant to be in.
+ */
+export const deviceWithoutRoomRule: BenchCheckRule = {
+  id: "room.device-without-room",
+  severity: "warning",
+  title: "A unit or room sensor is in none of the bench's rooms",
+  check(view) {
+    if ((view.bench.rooms ?? []).length === 0) return [];
+    const findings: CheckFinding[] = [];
+    for (const [id, entry] of view.devices) {
+      if (!ROOM_READERS.has(entry.device.type) || entry.device.room !== undefined) continue;
+      if (entry.parameters.source === "profile") continue; // a sensor playing a profile reads no room
+      findings.push({
+        rule: this.id,
+        severity: this.severity,
+        message: `${entry.device.name} (${id}) is in none of the bench's rooms, so it models a room of its own that no other device reads or heats`,
+        location: { device: id },
+      });
+    }
+    return findings;
+  },
+};
