@@ -400,7 +400,12 @@ export { simSpeedSchema } from "./sim/live/live-protocol";
 /** What the console needs to know about a bench to draw its controls: addresses with names and DPTs, devices with their objects and local buttons, unit links, and control-panel tiles. */
 export { summarizeBench } from "./sim";
 /** Devices on the engine's real runtime without a KNX line (transitions, effects, timers, unit links, faults), for device tests. */
-export { DeviceBench, type DeviceBenchLink, type DeviceBenchMember } from "./sim/device-bench";
+export {
+  DeviceBench,
+  type DeviceBenchLink,
+  type DeviceBenchMember,
+  type DeviceBenchRoom,
+} from "./sim/device-bench";
 
 /** Decodes one datagram into a frame; never throws, whatever the octets. */
 export { decodeKnxNetIpFrame } from "./knxnetip";

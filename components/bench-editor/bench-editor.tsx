@@ -15,7 +15,7 @@ import { AddressTable } from "./address-table";
 import { CheckList } from "./check-list";
 import { DeviceShelf } from "./device-shelf";
 import { checkImportText, type ImportCheck, type ImportIssue } from "./import-file";
-import { renameDevice, setIndividualAddress } from "./model/devices";
+import { renameDevice, setDeviceRoom, setIndividualAddress } from "./model/devices";
 import { summarizeChanges } from "./model/summarize-changes";
 import { ObjectList } from "./object-list";
 import { ParameterPanel } from "./parameter-panel";
@@ -557,6 +557,31 @@ function DevicePanel({ deviceId, readOnly }: { deviceId: string; readOnly: boole
         ) : (
           <p className="text-xs text-ink-soft">Sits on a unit link only: no individual address.</p>
         )}
+        {(bench.rooms ?? []).length > 0 ? (
+          <label className="flex flex-col gap-1 text-xs text-ink-soft">
+            Room
+            <select
+              value={device.room ?? ""}
+              disabled={readOnly}
+              onChange={(e) =>
+                storeApi
+                  .getState()
+                  .apply(
+                    (b) => setDeviceRoom(b, device.id, e.target.value || undefined),
+                    e.target.value ? `Room ${e.target.value}` : "No room",
+                  )
+              }
+              className="rounded border border-paper-line bg-paper px-2 py-1 text-sm text-ink"
+            >
+              <option value="">none (a room of its own)</option>
+              {(bench.rooms ?? []).map((room) => (
+                <option key={room.id} value={room.id}>
+                  {room.name}
+                </option>
+              ))}
+            </select>
+          </label>
+        ) : null}
         <p className="text-xs text-ink-soft">
           Id <Mono>{device.id}</Mono> · type <Mono>{device.type}</Mono>
         </p>

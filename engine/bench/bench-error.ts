@@ -29,7 +29,8 @@ export interface BenchError {
     /** A coupler's individual address is not a.l.0 (line coupler) or a.0.0 (area coupler). */
     | "bench.coupler-address"
     /** A line a coupler joins (its own line or the line above) is not on the bench. */
-    | "bench.coupler-line-missing";
+    | "bench.coupler-line-missing"
+    | "bench.room-unknown";
   readonly path: string;
   readonly message: string;
   readonly deviceId?: string;

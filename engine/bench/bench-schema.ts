@@ -73,6 +73,25 @@ export const benchDeviceSchema = z.object({
   /** Flag overrides keyed by object number as text ("0", "1", ...). */
   objectFlags: z.record(z.string(), objectFlagsOverrideSchema).optional(),
   position: positionSchema.optional(),
+  /** Room id (from `rooms`) the device reads and acts on; absent: a room of its own, if it needs one. */
+  room: entityIdSchema.optional(),
+});
+
+/**
+ * A room of the building, modelled once (engine/room): every device naming it
+ * reads the same temperature. Thermal fields left out take engine/room's defaults.
+ */
+export const benchRoomSchema = z.object({
+  id: entityIdSchema,
+  name: z.string().min(1),
+  /** Room temperature at the start of a run, °C. */
+  initialC: z.number().min(-30).max(50).optional(),
+  /** Outdoor temperature the envelope loses heat to, °C. */
+  outdoorC: z.number().min(-40).max(50).optional(),
+  /** Effective heat capacity of air, furnishings and inner surfaces, kJ/K. */
+  heatCapacityKJPerK: z.number().min(10).max(100_000).optional(),
+  /** Envelope heat loss to outdoors, W/K. */
+  envelopeUaWPerK: z.number().min(1).max(10_000).optional(),
 });
 
 export const benchLinkSchema = z.object({
@@ -101,6 +120,8 @@ export const benchSchema = z.object({
   /** The first link of an object in this array is its sending address; all its links are listened to. */
   links: z.array(benchLinkSchema).default([]),
   unitLinks: z.array(benchUnitLinkSchema).default([]),
+  /** Rooms devices sit in; optional, and a bench without rooms gives each unit and sensor its own. */
+  rooms: z.array(benchRoomSchema).optional(),
 });
 
 export type Position = z.infer<typeof positionSchema>;
@@ -110,6 +131,7 @@ export type BenchGroupAddress = z.infer<typeof benchGroupAddressSchema>;
 export type BenchDevice = z.infer<typeof benchDeviceSchema>;
 export type BenchLink = z.infer<typeof benchLinkSchema>;
 export type BenchUnitLink = z.infer<typeof benchUnitLinkSchema>;
+export type BenchRoom = z.infer<typeof benchRoomSchema>;
 export type ObjectFlagsOverride = z.infer<typeof objectFlagsOverrideSchema>;
 /** A bench document as validated JSON (addresses still text). */
 export type Bench = z.infer<typeof benchSchema>;

@@ -36,6 +36,45 @@ describe("loadBench", () => {
     expect(loaded.groupAddresses.get(0x0803)?.sizeBits).toBe(8);
   });
 
+  it("loads rooms with engine/room's defaults for what they leave out, and the devices placed in them", () => {
+    const base = bench();
+    const result = loadBench({
+      ...base,
+      rooms: [{ id: "hall", name: "Hall", initialC: 18, envelopeUaWPerK: 80 }],
+      devices: base.devices!.map((d) => ({ ...d, room: "hall" })),
+    });
+    if (!result.ok) throw new Error(JSON.stringify(result.error));
+    expect(result.value.rooms).toEqual([
+      {
+        id: "hall",
+        name: "Hall",
+        spec: { initialC: 18, outdoorC: 10, heatCapacityJPerK: 600_000, envelopeUaWPerK: 80 },
+      },
+    ]);
+    expect(result.value.deviceById.get("pb-hall")!.room).toBe("hall");
+  });
+
+  it("a bench without rooms loads as before, with none", () => {
+    const result = loadBench(bench());
+    expect(result.ok && result.value.rooms).toEqual([]);
+  });
+
+  it("names a device's unknown room and a room id used twice", () => {
+    const base = bench();
+    const errors = errorsOf({
+      ...base,
+      rooms: [
+        { id: "hall", name: "Hall" },
+        { id: "hall", name: "Hall again" },
+      ],
+      devices: base.devices!.map((d, i) => (i === 0 ? { ...d, room: "attic" } : d)),
+    });
+    expect(errors.map((e) => [e.kind, e.path])).toEqual([
+      ["bench.duplicate-id", "rooms[1].id"],
+      ["bench.room-unknown", "devices[0].room"],
+    ]);
+  });
+
   it("names an unknown device type", () => {
     const errors = errorsOf(
       bench({

@@ -7,7 +7,13 @@ import type { AnyDeviceType, GroupObjectFlags, GroupObjectSpec } from "../device
 import { dptSizeBits } from "../dpt";
 import type { BenchError } from "./bench-error";
 import { migrateBench } from "./bench-migrations";
-import { benchSchema, type Bench, type BenchUnitLink } from "./bench-schema";
+import {
+  DEFAULT_OUTDOOR_C,
+  DEFAULT_ROOM_HEAT_CAPACITY_J_PER_K,
+  DEFAULT_ROOM_UA_W_PER_K,
+  type RoomSpec,
+} from "../room";
+import { benchSchema, type Bench, type BenchRoom, type BenchUnitLink } from "./bench-schema";
 import { COUPLER_TYPE_ID } from "../devices/coupler/coupler";
 import { checkCouplerLines } from "./coupler-lines";
 
@@ -36,6 +42,15 @@ export interface LoadedDevice {
   readonly objects: readonly LoadedObject[];
   /** Ids of the unit links this device is a member of. */
   readonly unitLinks: readonly string[];
+  /** Id of the bench room the device is in; absent: none declared for it. */
+  readonly room?: string;
+}
+
+/** A bench room with its defaults filled in. */
+export interface LoadedRoom {
+  readonly id: string;
+  readonly name: string;
+  readonly spec: RoomSpec;
 }
 
 export interface LoadedGroupAddress {
@@ -65,6 +80,8 @@ export interface LoadedBench {
   readonly devices: readonly LoadedDevice[];
   readonly deviceById: ReadonlyMap<string, LoadedDevice>;
   readonly unitLinks: readonly BenchUnitLink[];
+  /** The bench's rooms (empty when it declares none). */
+  readonly rooms: readonly LoadedRoom[];
 }
 
 export interface LoadBenchOptions {
@@ -213,6 +230,20 @@ function resolveBench(
     );
   });
 
+  // Rooms.
+  const rooms: LoadedRoom[] = [];
+  const roomIds = new Set<string>();
+  (bench.rooms ?? []).forEach((room, i) => {
+    if (roomIds.has(room.id))
+      errors.push({
+        kind: "bench.duplicate-id",
+        path: `rooms[${i}].id`,
+        message: `room id "${room.id}" is used twice`,
+      });
+    roomIds.add(room.id);
+    rooms.push({ id: room.id, name: room.name, spec: roomSpecOf(room) });
+  });
+
   // Links grouped by device and object, in bench order (first = sending address).
   const linksOf = new Map<string, Map<number, { raw: number; index: number }[]>>();
   const deviceIds = new Set(bench.devices.map((d) => d.id));
@@ -273,6 +304,13 @@ function resolveBench(
         deviceId: device.id,
       });
     seenDeviceIds.add(device.id);
+    if (device.room !== undefined && !roomIds.has(device.room))
+      errors.push({
+        kind: "bench.room-unknown",
+        path: `${path}.room`,
+        message: `device "${device.id}": no room "${device.room}" in rooms`,
+        deviceId: device.id,
+      });
     const type = lookupType(device.type);
     if (type === undefined) {
       errors.push({
@@ -406,6 +444,7 @@ function resolveBench(
       parameters: parameters.data,
       objects,
       unitLinks: unitLinksOf.get(device.id) ?? [],
+      ...(device.room === undefined ? {} : { room: device.room }),
     });
   });
 
@@ -453,7 +492,21 @@ function resolveBench(
     devices,
     deviceById,
     unitLinks: bench.unitLinks,
+    rooms,
   });
+}
+
+/** A bench room's physics, engine/room's defaults where the bench says nothing. */
+function roomSpecOf(room: BenchRoom): RoomSpec {
+  return {
+    initialC: room.initialC ?? 20,
+    outdoorC: room.outdoorC ?? DEFAULT_OUTDOOR_C,
+    heatCapacityJPerK:
+      room.heatCapacityKJPerK === undefined
+        ? DEFAULT_ROOM_HEAT_CAPACITY_J_PER_K
+        : room.heatCapacityKJPerK * 1000,
+    envelopeUaWPerK: room.envelopeUaWPerK ?? DEFAULT_ROOM_UA_W_PER_K,
+  };
 }
 
 // Links may spell an address differently from the list ("1/257" vs "1/1/1"): fall back to the raw value.

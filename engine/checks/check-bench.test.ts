@@ -203,6 +203,75 @@ describe("checkBench", () => {
     });
   });
 
+  describe("room.external-sensor-elsewhere", () => {
+    // A gateway on external room temperature (3/0/1) for unit iu in room "a", the sensor in `sensorRoom`.
+    const rooms = (sensorRoom: string | undefined, declared = true) =>
+      bench({
+        ...(declared
+          ? {
+              rooms: [
+                { id: "a", name: "Room A" },
+                { id: "b", name: "Room B" },
+              ],
+            }
+          : {}),
+        groupAddresses: [{ address: "3/0/1", name: "Room temperature", dpt: "9.001" }],
+        devices: [
+          {
+            id: "gw",
+            type: "hvac-gateway",
+            name: "Gateway",
+            individualAddress: "1.1.20",
+            parameters: { roomTemperatureSource: "external" },
+          },
+          {
+            id: "iu",
+            type: "indoor-unit",
+            name: "Unit",
+            ...(declared ? { room: "a" } : {}),
+            parameters: {},
+          },
+          {
+            id: "rts",
+            type: "room-temperature-sensor",
+            name: "Sensor",
+            individualAddress: "1.1.31",
+            ...(sensorRoom === undefined ? {} : { room: sensorRoom }),
+            parameters: {},
+          },
+        ],
+        links: [
+          { device: "rts", object: 0, groupAddress: "3/0/1" },
+          { device: "gw", object: 13, groupAddress: "3/0/1" },
+        ],
+        unitLinks: [{ id: "wiring", members: ["gw", "iu"] }],
+      });
+    it("warns: the unit heats room A while it reads a sensor in room B, or in no room", () => {
+      // Common practice, no published source: a unit controls on a sensor in the room it conditions.
+      expect(rulesOf(rooms("b"), "room.external-sensor-elsewhere")).toEqual([
+        expect.objectContaining({
+          severity: "warning",
+          message: expect.stringContaining(
+            "iu (room Room A) on the room temperature from rts (room Room B)",
+          ),
+          location: { device: "gw", object: 13 },
+        }),
+      ]);
+      expect(rulesOf(rooms(undefined), "room.external-sensor-elsewhere")).toHaveLength(1);
+    });
+    it("passes: sensor and unit in one room, or a bench that declares no rooms", () => {
+      expect(rulesOf(rooms("a"), "room.external-sensor-elsewhere")).toEqual([]);
+      expect(rulesOf(rooms(undefined, false), "room.external-sensor-elsewhere")).toEqual([]);
+    });
+    it("room.device-without-room warns about a sensor left out of the declared rooms only", () => {
+      expect(rulesOf(rooms(undefined), "room.device-without-room")).toEqual([
+        expect.objectContaining({ severity: "warning", location: { device: "rts" } }),
+      ]);
+      expect(rulesOf(rooms("a"), "room.device-without-room")).toEqual([]);
+      expect(rulesOf(rooms(undefined, false), "room.device-without-room")).toEqual([]);
+    });
+  });
+
   describe("gateway.external-temperature-on-secondary", () => {
     const gateway = (role: string) =>
       bench({

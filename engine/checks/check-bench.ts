@@ -36,6 +36,7 @@ import {
 import { objectStatusOnCommandAddressRule, objectStatusUnlinkedRule } from "./object-rules";
 import { panelPresetOutOfRangeRule } from "./panel-rules";
 import { addressSeveralReadRespondersRule, objectReadOnInitUnansweredRule } from "./read-rules";
+import { deviceWithoutRoomRule, gatewayExternalSensorElsewhereRule } from "./room-rules";
 
 /**
  * Every rule, in the order the documentation lists them. Rules look at what a
@@ -62,6 +63,8 @@ export const benchCheckRules: readonly BenchCheckRule[] = [
   controllerNoUnitRule,
   controllerSeveralUnitsRule,
   gatewayExternalTemperatureOnSecondaryRule,
+  gatewayExternalSensorElsewhereRule,
+  deviceWithoutRoomRule,
   gatewayMultiSplitWithoutOutdoorUnitRule,
   gatewaySingleSplitOnOutdoorUnitRule,
   outdoorUnitLeaderNotMemberRule,

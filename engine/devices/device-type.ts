@@ -1,4 +1,5 @@
 import type { z } from "zod";
+import type { RoomDrive, RoomSpec } from "../room";
 
 /**
  * The device-type interface every simulated device implements.
@@ -45,6 +46,13 @@ export interface LocalButtonSpec {
   readonly id: string;
   readonly label: string;
 }
+
+/**
+ * Name of the timer event a device with a start-up delay receives once the
+ * runtime has sent its statuses after bus power returned (so a device that
+ * paces its own sends, such as on-change room temperature, counts that send).
+ */
+export const STARTUP_DONE_TIMER = "runtime.startup";
 
 /** Descriptive fault identifiers of our own, e.g. "link.two-primaries". */
 export type FaultId = string;
@@ -115,7 +123,12 @@ export type DeviceEffect =
   | { readonly kind: "fault.raise"; readonly fault: FaultId; readonly text: string }
   | { readonly kind: "fault.clear"; readonly fault: FaultId }
   /** A line for the trace explaining why something happened. */
-  | { readonly kind: "note"; readonly text: string };
+  | { readonly kind: "note"; readonly text: string }
+  /**
+   * This device's share of its room's heat balance from now on (replaces its
+   * previous one; engine/room/lumped-room.ts). Ignored for a device in no room.
+   */
+  | ({ readonly kind: "room.drive" } & RoomDrive);
 
 /** What a device knows about its surroundings when it transitions. */
 export interface DeviceContext<P> {
@@ -131,6 +144,14 @@ export interface DeviceContext<P> {
   readonly objectValue: (object: number) => unknown;
   /** Seeded random number in [0, 1) from the run's generator. */
   readonly random: () => number;
+  /**
+   * Air temperature now of the room the device is in (the bench's room, else
+   * its own room from `privateRoom`), °C; undefined when it is in no room.
+   * Every device in one room reads the same value.
+   */
+  readonly roomTemperatureC: () => number | undefined;
+  /** Outdoor temperature of the device's room, °C; undefined when it is in no room. */
+  readonly roomOutdoorC: () => number | undefined;
 }
 
 /** The next state, the effects to apply, and the name of the transition for the trace. */
@@ -159,6 +180,18 @@ export interface DeviceType<P, S> {
   initialState(parameters: P): S;
   /** Pure: same arguments, same result. */
   transition(state: S, event: DeviceEvent, context: DeviceContext<P>): TransitionResult<S>;
+  /**
+   * The room the device models on its own when the bench puts it in no room
+   * (a bench without rooms): built from its parameters, as before rooms were
+   * shared. Absent (or undefined) for devices that need no room.
+   */
+  privateRoom?(parameters: P): RoomSpec | undefined;
+  /**
+   * Seconds the device waits after bus power returns (and at first start)
+   * before it sends its status objects and reads its read-on-init objects.
+   * Absent: it sends no statuses at start-up and reads at once.
+   */
+  startupDelayS?(parameters: P): number;
   /**
    * What the live console charts of this device, read at whole virtual seconds;
    * undefined (or absent) when the device has nothing to chart. Lets a host

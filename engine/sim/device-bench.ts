@@ -13,6 +13,8 @@ import { dptSizeBits } from "../dpt";
 import { ACK_OCTET } from "../frame";
 import { DeviceRunner, type DeviceRuntime } from "./device-runtime";
 import { FaultRegistry } from "./fault-registry";
+import { RoomClimate } from "./room-climate";
+import type { RoomSpec } from "../room";
 import { GroupObjectLayer } from "./group-objects";
 import { TraceEmitter } from "./trace-emitter";
 import { UNIT_LINK_DELAY_US, UnitLinkMedium } from "./unit-link-medium";
@@ -22,6 +24,14 @@ export interface DeviceBenchMember {
   readonly id: string;
   readonly type: AnyDeviceType;
   readonly parameters?: unknown;
+  /** A room of the device bench's `rooms`; absent: the device's own room, if it needs one. */
+  readonly room?: string;
+}
+
+/** A room shared by device-bench members. */
+export interface DeviceBenchRoom {
+  readonly id: string;
+  readonly spec: RoomSpec;
 }
 
 /** A unit link between device-bench members; ids of non-members are ignored. */
@@ -42,12 +52,16 @@ export class DeviceBench {
   readonly trace = new Trace();
   private readonly runner: DeviceRunner;
   private readonly devices = new Map<string, DeviceRuntime>();
+  /** The rooms of the bench: shared ones and each member's own. */
+  readonly climate = new RoomClimate(this.scheduler);
 
   constructor(
     members: readonly DeviceBenchMember[],
     links: readonly DeviceBenchLink[],
     observeEffect?: (deviceId: string, effect: DeviceEffect) => void,
+    rooms: readonly DeviceBenchRoom[] = [],
   ) {
+    for (const room of rooms) this.climate.define(room.id, room.spec);
     const ids = new Set(members.map((m) => m.id));
     const unitLinks = links.map((l) => ({
       id: l.id,
@@ -77,6 +91,7 @@ export class DeviceBench {
       objects,
       () => medium,
       false,
+      this.climate,
       observeEffect && ((device, effect) => observeEffect(device.id, effect)),
     );
     objects.receiver = this.runner;
@@ -86,6 +101,7 @@ export class DeviceBench {
         member.type,
         member.type.parameters.parse(member.parameters ?? {}),
         links,
+        member.room,
       );
       this.devices.set(
         member.id,
@@ -158,6 +174,7 @@ function loadedDevice(
   type: AnyDeviceType,
   parameters: unknown,
   links: readonly DeviceBenchLink[],
+  room: string | undefined,
 ): LoadedDevice {
   return {
     id,
@@ -175,5 +192,6 @@ function loadedDevice(
       groupAddresses: [],
     })),
     unitLinks: links.filter((l) => l.members.includes(id)).map((l) => l.id),
+    ...(room === undefined ? {} : { room }),
   };
 }

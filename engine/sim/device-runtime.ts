@@ -1,14 +1,15 @@
 import type { LoadedDevice } from "../bench";
 import type { Rng } from "../core/rng";
 import type { Scheduler } from "../core/scheduler";
-import type {
-  AnyDeviceType,
-  DeviceContext,
-  DeviceEffect,
-  DeviceEvent,
-  TransitionResult,
+import {
+  STARTUP_DONE_TIMER,
+  type AnyDeviceType,
+  type DeviceContext,
+  type DeviceEffect,
+  type DeviceEvent,
+  type TransitionResult,
 } from "../devices/device-type";
-import type { Tp1Sender } from "../bus";
+import { NO_ACK_OCTET, type Tp1Sender } from "../bus";
 import type { FaultRegistry } from "./fault-registry";
 import {
   buildObjects,
@@ -17,8 +18,22 @@ import {
   type ObjectOwner,
   type ObjectRuntime,
 } from "./group-objects";
+import type { RoomClimate } from "./room-climate";
 import type { TraceEmitter } from "./trace-emitter";
 import type { UnitLinkMedium } from "./unit-link-medium";
+
+/** The runtime's own timer that ends a device's start-up delay; the device then gets it as a timer event. */
+const STARTUP_TIMER = STARTUP_DONE_TIMER;
+
+/**
+ * Spread of start-up sends by device number, µs per number: the low octet of
+ * the individual address times 50 ms, about two short telegrams' time on the
+ * line (Basic course: ~20 ms each), so the devices of a line start one after
+ * another instead of all at once after a bus power return (up to 12.75 s for
+ * device 255). Deriving the spread from the address is common practice, no
+ * published source.
+ */
+export const STARTUP_STAGGER_US_PER_DEVICE = 50_000;
 
 /** A running device: its state machine, objects, timers and bus connection. */
 export interface DeviceRuntime extends ObjectOwner {
@@ -35,6 +50,10 @@ export interface DeviceRuntime extends ObjectOwner {
   /** Timer name -> generation of the live timer. */
   readonly timers: Map<string, number>;
   lastTakenTelegramId: number;
+  /** The room the device reads and drives (a bench room or its own); undefined: none. */
+  roomId: string | undefined;
+  /** During a start-up delay: the objects the device has sent since power returned (not sent again). */
+  sentDuringStartup: Set<number> | undefined;
 }
 
 /**
@@ -53,6 +72,7 @@ class RuntimeContext implements DeviceContext<unknown> {
     private readonly device: DeviceRuntime,
     private readonly scheduler: Scheduler,
     private readonly rng: Rng,
+    private readonly climate: RoomClimate,
   ) {
     this.deviceId = device.id;
     // Unit-link-only devices have no address; they see the unprogrammed default 15.15.255.
@@ -71,6 +91,16 @@ class RuntimeContext implements DeviceContext<unknown> {
 
   random(): number {
     return this.rng.next();
+  }
+
+  roomTemperatureC(): number | undefined {
+    const room = this.device.roomId;
+    return room === undefined ? undefined : this.climate.temperatureC(room);
+  }
+
+  roomOutdoorC(): number | undefined {
+    const room = this.device.roomId;
+    return room === undefined ? undefined : this.climate.outdoorC(room);
   }
 }
 
@@ -105,6 +135,7 @@ export class DeviceRunner {
     private readonly objects: GroupObjectLayer,
     private readonly links: () => UnitLinkMedium<DeviceRuntime>,
     private readonly reuse: boolean,
+    private readonly climate: RoomClimate,
     /** Sees every effect before it is applied (test support); absent in a simulation. */
     private readonly observeEffect?: (device: DeviceRuntime, effect: DeviceEffect) => void,
   ) {
@@ -132,9 +163,26 @@ export class DeviceRunner {
       busAnswer,
       timers: new Map(),
       lastTakenTelegramId: -1,
+      roomId: undefined,
+      sentDuringStartup: undefined,
     };
+    device.roomId = this.placeInRoom(device);
     device.context = this.makeContext(device);
     return device;
+  }
+
+  /**
+   * The room a device reads: the bench room it names, else a room of its own
+   * built from its parameters (kept when it already exists: a download does not
+   * change the air temperature), else none.
+   */
+  private placeInRoom(device: DeviceRuntime): string | undefined {
+    if (device.loaded.room !== undefined) return device.loaded.room;
+    const own = device.type.privateRoom?.(device.loaded.parameters);
+    if (own === undefined) return undefined;
+    const id = `device:${device.id}`;
+    this.climate.define(id, own);
+    return id;
   }
 
   /**
@@ -162,6 +210,9 @@ export class DeviceRunner {
       busAnswer: original.busAnswer,
       timers: new Map(original.timers),
       lastTakenTelegramId: original.lastTakenTelegramId,
+      roomId: original.roomId,
+      sentDuringStartup:
+        original.sentDuringStartup === undefined ? undefined : new Set(original.sentDuringStartup),
     };
     device.context = this.makeContext(device);
     return device;
@@ -178,9 +229,65 @@ export class DeviceRunner {
     return { ...timer, device: device(timer.device) };
   }
 
-  /** The `start` event, then the read-on-init reads. */
+  /**
+   * The `start` event, then the device's start-up sequence: at once for a type
+   * without a start-up delay (read-on-init reads only), else after its delay
+   * plus its place in the line's stagger (see `powerReturn`).
+   */
   start(device: DeviceRuntime): void {
     this.transition(device, { kind: "start" });
+    this.powerReturn(device);
+  }
+
+  /**
+   * Bus power has returned to a device (its first start, or a cleared
+   * "bus.silent"): after its start-up delay and its stagger it sends each
+   * status or output object with the transmit flag once, with the value it
+   * holds (unless the device sent it itself since power returned), then reads
+   * its read-on-init objects. A device that reports nothing
+   * at start-up (no `startupDelayS`) only reads.
+   */
+  powerReturn(device: DeviceRuntime): void {
+    const delayS = device.type.startupDelayS?.(device.loaded.parameters);
+    // Off a line (a device bench) there is no bus whose power returns, and nowhere to send.
+    if (delayS === undefined || device.line === undefined) {
+      this.readOnInit(device);
+      return;
+    }
+    const staggerUs =
+      ((device.loaded.individualAddress ?? 0) & 0xff) * STARTUP_STAGGER_US_PER_DEVICE;
+    device.sentDuringStartup = new Set();
+    const generation = ++this.timerGeneration;
+    device.timers.set(STARTUP_TIMER, generation);
+    const entry: TimerEntry = { device, name: STARTUP_TIMER, generation, data: undefined };
+    this.scheduler.schedule(
+      this.scheduler.nowUs + Math.round(delayS * 1_000_000) + staggerUs,
+      this.timerTag,
+      0,
+      entry,
+    );
+  }
+
+  /** The end of the start-up delay: statuses once, then read-on-init reads. */
+  private startupDone(device: DeviceRuntime): void {
+    // Still cut off: the sequence runs again when "bus.silent" is cleared.
+    if (device.busAnswer === NO_ACK_OCTET) return;
+    const alreadySent = device.sentDuringStartup;
+    device.sentDuringStartup = undefined;
+    this.emitter.deviceNote(device.id, "start-up: statuses sent, read-on-init objects read");
+    for (const object of device.objects.values()) {
+      const flags = object.flags;
+      if (!flags.communication || !flags.transmit || object.value === undefined) continue;
+      if (alreadySent?.has(object.number)) continue; // sent once already since power returned
+      const role = device.loaded.objects.find((o) => o.number === object.number)?.spec.role;
+      if (role === "status" || role === "output")
+        this.objects.send(device, object, object.value, "write");
+    }
+    this.transition(device, { kind: "timer", name: STARTUP_TIMER });
+    this.readOnInit(device);
+  }
+
+  private readOnInit(device: DeviceRuntime): void {
     for (const object of device.objects.values()) {
       if (object.flags.readOnInit && object.flags.communication)
         this.objects.queueRead(device, object);
@@ -198,8 +305,11 @@ export class DeviceRunner {
     device.context = this.makeContext(device);
     device.state = device.type.initialState(loaded.parameters);
     device.timers.clear();
+    device.sentDuringStartup = undefined;
     device.lastTakenTelegramId = -1;
     this.faults.clearRaisedByDevice(device.id);
+    this.climate.release(device.id);
+    device.roomId = this.placeInRoom(device);
   }
 
   /**
@@ -231,12 +341,13 @@ export class DeviceRunner {
   }
 
   private makeContext(device: DeviceRuntime): DeviceContext<unknown> {
-    return new RuntimeContext(device, this.scheduler, this.rng);
+    return new RuntimeContext(device, this.scheduler, this.rng, this.climate);
   }
 
   private applyEffect(device: DeviceRuntime, effect: DeviceEffect): void {
     switch (effect.kind) {
       case "group.send":
+        device.sentDuringStartup?.add(effect.object);
         this.objects.send(
           device,
           this.objectOf(device, effect.object, effect.kind),
@@ -285,6 +396,9 @@ export class DeviceRunner {
       case "note":
         this.emitter.deviceNote(device.id, effect.text);
         return;
+      case "room.drive":
+        if (device.roomId !== undefined) this.climate.drive(device.roomId, device.id, effect);
+        return;
     }
   }
 
@@ -301,6 +415,10 @@ export class DeviceRunner {
     const device = entry.device;
     if (device.timers.get(entry.name) !== entry.generation) return; // replaced, cancelled or restarted
     device.timers.delete(entry.name);
+    if (entry.name === STARTUP_TIMER) {
+      this.startupDone(device);
+      return;
+    }
     this.emitter.timerFired(device.id, entry.name);
     this.transition(
       device,

@@ -171,6 +171,8 @@ export class InputDispatch {
         device,
         active ? { kind: "fault.inject", fault } : { kind: "fault.clear", fault },
       );
+      // Bus power is back: the device runs its start-up sequence as at first start.
+      if (!active && fault === BUS_FAULTS.silent) this.rt.runner.powerReturn(device);
       return ok(undefined);
     }
     if (this.rt.bench().unitLinks.some((l) => l.id === target)) {

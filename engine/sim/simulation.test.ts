@@ -24,13 +24,17 @@ function sent(events: readonly TraceEvent[]) {
   );
 }
 
-/** A push-button toggling a switch actuator, with the actuator's status fed back to the rocker. */
-function lightBench() {
+/**
+ * A push-button toggling a switch actuator, with the actuator's status fed back to the rocker.
+ * The actuator's start-up status (after bus power returns) comes after these tests' window;
+ * start-up has tests of its own ("start-up after bus power returns").
+ */
+function lightBench(startupDelayS = 600) {
   return benchBuilder()
     .groupAddress("1/0/1", "1.001", "Hall light")
     .groupAddress("1/0/2", "1.001", "Hall light status")
     .device("pb", "push-button", "1.1.1")
-    .device("act", "switch-actuator", "1.1.2")
+    .device("act", "switch-actuator", "1.1.2", { startupDelayS })
     .link("pb", 0, "1/0/1", "1/0/2")
     .link("act", 0, "1/0/1")
     .link("act", 1, "1/0/2")
@@ -166,7 +170,7 @@ describe("TP1 timing", () => {
 
   it("repeats after NAK and counts the telegram once in the statistics", () => {
     const h = SimHarness.create(lightBench());
-    h.injectFault("act", BUS_FAULTS.nak).write("1/0/1", true).settle();
+    h.injectFault("act", BUS_FAULTS.nak).write("1/0/1", true).runUntil("1s");
     expect(
       h.events({ kinds: ["telegram.repeated"] }).map((e) => "reason" in e && e.reason),
     ).toEqual(["nak", "nak", "nak"]);
@@ -393,7 +397,7 @@ describe("unit links, faults and parameters", () => {
 describe("bus statistics", () => {
   it("counts a telegram's 193 bit times as load, per address and per sender", () => {
     const h = SimHarness.create(lightBench());
-    h.write("1/0/1", true).settle().runUntil("1s");
+    h.write("1/0/1", true).runUntil("1s");
     const stats = h.sim.busStats(1_000_000);
     // Two acknowledged short telegrams (the write and the status), 193 bit times each (Basic course).
     expect(stats.occupiedUs).toBe(2 * bitTimesToUs(193));

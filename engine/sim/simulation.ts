@@ -12,6 +12,7 @@ import { DeviceRunner, type DeviceRuntime } from "./device-runtime";
 import { FaultRegistry } from "./fault-registry";
 import { GroupObjectLayer, type LineRuntime } from "./group-objects";
 import { InputDispatch } from "./input-dispatch";
+import { RoomClimate } from "./room-climate";
 import type { SimError } from "./sim-error";
 import type { Receipt, SimInput } from "./sim-input";
 import { TraceEmitter, type FaultSource } from "./trace-emitter";
@@ -34,6 +35,7 @@ type JsonValue = Extract<SimInput, { kind: "write" }>["value"];
  * - GroupObjectLayer (group-objects.ts): flags, sending, listening, values.
  * - UnitLinkMedium (unit-link-medium.ts): messages between unit-link members.
  * - FaultRegistry (fault-registry.ts): active faults and who raised them.
+ * - RoomClimate (room-climate.ts): each room once, read by every device in it.
  * - TraceEmitter (trace-emitter.ts): every event the runtime records.
  *
  * Each bench line is its own medium. Couplers (devices of type "coupler")
@@ -44,7 +46,9 @@ type JsonValue = Extract<SimInput, { kind: "write" }>["value"];
  *
  * Faults the runtime itself interprets on a device (`BUS_FAULTS`): "bus.busy"
  * and "bus.nak" make the device answer BUSY / NAK and not take the frame;
- * "bus.silent" disconnects it (no acknowledgement, no reception, nothing sent).
+ * "bus.silent" disconnects it (no acknowledgement, no reception, nothing sent);
+ * clearing it is bus power returning: the device runs its start-up sequence
+ * (device-runtime.ts `powerReturn`).
  * On a unit link, "link.broken" stops its messages. Every fault injected into a
  * device is also handed to the device as a `fault.inject` event.
  *
@@ -101,8 +105,9 @@ export function tryCreateSimulation(
 
 /**
  * Starts a simulation of a bench (a loaded bench, or a document that must load:
- * a bad one throws `BenchLoadFailure`). Devices get their `start` event and
- * read-on-init reads are queued at virtual time 0.
+ * a bad one throws `BenchLoadFailure`). Devices get their `start` event at
+ * virtual time 0; statuses and read-on-init reads follow after each device's
+ * start-up delay (at once for types without one).
  */
 export function createSimulation(
   bench: LoadedBench | Bench | BenchInput,
@@ -131,6 +136,7 @@ export class Simulation {
   private readonly reuse: boolean;
   private readonly options: SimulationOptions;
   private readonly rng: Rng;
+  private readonly climate = new RoomClimate(this.scheduler);
 
   private loadedBench: LoadedBench;
   private readonly lines = new Map<string, LineRuntime>();
@@ -167,7 +173,10 @@ export class Simulation {
       this.objects,
       () => this.unitLinks,
       this.reuse,
+      this.climate,
     );
+    if (original === undefined)
+      for (const room of bench.rooms) this.climate.define(room.id, room.spec);
     this.objects.receiver = this.runner;
     this.unitLinks = new UnitLinkMedium<DeviceRuntime>(
       this.scheduler,
@@ -258,6 +267,7 @@ export class Simulation {
   private copyFrom(original: Simulation): void {
     this.traceLog.copyFrom(original.traceLog);
     this.faults.copyFrom(original.faults);
+    this.climate.copyFrom(original.climate);
     this.objects.copyFrom(original.objects);
     this.telegramIds.copyFrom(original.telegramIds);
     this.runner.copyTimerGeneration(original.runner);
@@ -399,6 +409,11 @@ export class Simulation {
   /** Stored value of a device's group object (undefined before it has one). */
   objectValue(deviceId: string, object: number): unknown {
     return this.deviceById.get(deviceId)?.objects.get(object)?.value;
+  }
+
+  /** Air temperature now of a room (a bench room id, or "device:<id>" for a device's own room), °C. */
+  roomTemperatureC(roomId: string): number {
+    return this.climate.temperatureC(roomId);
   }
 
   /** Active faults of a device, or of a unit link, by id. */

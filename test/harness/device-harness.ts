@@ -1,5 +1,6 @@
 import {
   DeviceBench,
+  type DeviceBenchRoom,
   UNIT_LINK_DELAY_US,
   type AnyDeviceType,
   type DeviceEvent,
@@ -18,6 +19,8 @@ export interface HarnessMember {
   readonly type: AnyDeviceType;
   /** Raw parameters, parsed with the type's schema (so `{}` gives the defaults). */
   readonly parameters?: unknown;
+  /** A room of the harness's `rooms` the device sits in; absent: its own room, if it needs one. */
+  readonly room?: string;
 }
 
 export interface HarnessLink {
@@ -50,18 +53,27 @@ export class DeviceHarness {
   readonly faults = new Map<string, Set<string>>();
   private readonly bench: DeviceBench;
 
-  constructor(members: readonly HarnessMember[], links: readonly HarnessLink[] = []) {
+  constructor(
+    members: readonly HarnessMember[],
+    links: readonly HarnessLink[] = [],
+    rooms: readonly DeviceBenchRoom[] = [],
+  ) {
     for (const member of members) this.faults.set(member.id, new Set());
-    this.bench = new DeviceBench(members, links, (device, effect) => {
-      if (effect.kind === "group.send")
-        this.sent.push({
-          timeUs: this.bench.nowUs,
-          device,
-          object: effect.object,
-          service: effect.service,
-          value: effect.value,
-        });
-    });
+    this.bench = new DeviceBench(
+      members,
+      links,
+      (device, effect) => {
+        if (effect.kind === "group.send")
+          this.sent.push({
+            timeUs: this.bench.nowUs,
+            device,
+            object: effect.object,
+            service: effect.service,
+            value: effect.value,
+          });
+      },
+      rooms,
+    );
     this.bench.trace.subscribe((event) => {
       switch (event.kind) {
         case "device.transition":
@@ -133,6 +145,11 @@ export class DeviceHarness {
 
   state<S>(device: string): S {
     return this.bench.state(device) as S;
+  }
+
+  /** Air temperature now of a harness room, or of a device's own room ("device:<id>"), °C. */
+  roomC(roomId: string): number {
+    return this.bench.climate.temperatureC(roomId);
   }
 
   objectValue(device: string, object: number): unknown {

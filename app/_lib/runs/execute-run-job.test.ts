@@ -55,7 +55,7 @@ describe("server caps on one scenario run", () => {
     expect(outcome).toMatchObject({ kind: "capped", cap: "virtual-time" });
     if (outcome.kind !== "capped") return;
     expect(outcome.message).toMatch(/virtual-time cap/);
-    expect(outcome.message).toMatch(/can reach 8.7 min of virtual time.*at most 1 min/);
+    expect(outcome.message).toMatch(/can reach 8.8 min of virtual time.*at most 1 min/);
     expect(outcome.message).toMatch(/RUN_VIRTUAL_TIME_CAP_MINUTES/);
   });
 

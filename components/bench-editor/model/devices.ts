@@ -137,6 +137,24 @@ export function setIndividualAddress(bench: Bench, id: string, text: string): Ed
   );
 }
 
+/**
+ * Puts a device in one of the bench's rooms (it then reads and acts on that
+ * room), or, with undefined, in none (it models a room of its own, if it needs one).
+ */
+export function setDeviceRoom(bench: Bench, id: string, room: string | undefined): EditResult {
+  const device = findDevice(bench, id);
+  if (!device.ok) return device;
+  if (room !== undefined && !(bench.rooms ?? []).some((r) => r.id === room))
+    return refuse("edit.room-unknown", `no room "${room}" on this bench`, "room");
+  return ok(
+    updateDevice(bench, id, (d) => {
+      const next: BenchDevice = { ...d, room };
+      if (room === undefined) delete next.room;
+      return next;
+    }),
+  );
+}
+
 export interface SetParametersOutcome {
   readonly bench: Bench;
   /** Links dropped because their object vanished or changed size. */

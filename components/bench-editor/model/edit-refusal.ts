@@ -22,7 +22,8 @@ export interface EditRefusal {
     | "edit.link-unknown"
     | "edit.parameters-invalid"
     | "edit.name-empty"
-    | "edit.unit-link-invalid";
+    | "edit.unit-link-invalid"
+    | "edit.room-unknown";
   readonly message: string;
   /** Field at fault, e.g. "parameters.fanLevels", "individualAddress", "address". */
   readonly field?: string;

@@ -17,6 +17,7 @@ export {
   removeDevices,
   renameDevice,
   setIndividualAddress,
+  setDeviceRoom,
   setObjectFlags,
   setParameters,
   type AddDeviceInput,

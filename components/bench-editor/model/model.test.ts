@@ -18,6 +18,7 @@ import {
   sendingLinks,
   setGroupAddressDpt,
   setIndividualAddress,
+  setDeviceRoom,
   setObjectFlags,
   setParameters,
   setSendingAddress,
@@ -234,6 +235,18 @@ describe("devices", () => {
     expect(refusal(setIndividualAddress(bench, "pb-hall", "16.1.1")).field).toBe(
       "individualAddress",
     );
+  });
+
+  it("puts a device in one of the bench's rooms and out again, refusing a room the bench lacks", () => {
+    const withRooms: Bench = { ...testBench(), rooms: [{ id: "hall", name: "Hall" }] };
+    const inHall = value(setDeviceRoom(withRooms, "pb-hall", "hall"));
+    expect(inHall.devices[0]!.room).toBe("hall");
+    expect(loadBench(inHall).ok).toBe(true);
+    expect("room" in value(setDeviceRoom(inHall, "pb-hall", undefined)).devices[0]!).toBe(false);
+    expect(refusal(setDeviceRoom(withRooms, "pb-hall", "attic"))).toMatchObject({
+      kind: "edit.room-unknown",
+      field: "room",
+    });
   });
 
   it("removes a device with its links and its unit link", () => {

@@ -20,6 +20,8 @@ function context(
     links: [],
     objectValue: (object) => values[object],
     random: () => 0.5,
+    roomTemperatureC: () => undefined,
+    roomOutdoorC: () => undefined,
   };
 }
 

@@ -21,6 +21,7 @@ export const hvacGatewayType: DeviceType<HvacGatewayParameters, HvacGatewayState
   parameters: hvacGatewayParametersSchema,
   groupObjects: gatewayGroupObjects,
   buttons: () => [],
+  startupDelayS: (p) => p.startupDelayS,
   initialState: () => ({
     announcedRole: null,
     unit: null,

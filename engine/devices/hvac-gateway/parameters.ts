@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { startupDelaySchema } from "../startup-delay";
 import { hvacModeSchema } from "../hvac/hvac-mode";
 import { roomTemperatureSendingSchema } from "../hvac/room-temperature-sending";
 import { controllerRoleSchema, fanLevelSchema } from "../hvac/unit-link-messages";
@@ -31,6 +32,8 @@ export const hvacGatewayParametersSchema = z
   .object({
     /** The gateway's role among the controllers on the unit link; exactly one primary per indoor unit. */
     role: controllerRoleSchema.default("primary"),
+    /** Delay after bus power returns before statuses are sent and read-on-init objects read, s. */
+    startupDelayS: startupDelaySchema,
     /** Multi-split adds the mode-authority status object. */
     systemType: z.enum(["single-split", "multi-split"]).default("single-split"),
     /** Full: mode objects on DPT 20.105. Simplified: heat/cool objects on DPT 1.100 (0 cooling, 1 heating). */

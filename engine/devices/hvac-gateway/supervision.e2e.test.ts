@@ -125,8 +125,10 @@ describe("fault objects on return", () => {
     const faultWrites = sim.trace.filter(
       (e) => e.kind === "telegram.queued" && e.deviceId === "gw" && e.destination === 6406,
     );
-    // DPT spec §3.1 (1.005): 01 alarm when lost, 00 when it returns; nothing else.
+    // DPT spec §3.1 (1.005): 01 alarm when lost, 00 when it returns; nothing else but the
+    // start-up status (00, no fault) sent once after the start-up delay.
     expect(faultWrites.map((e) => (e.kind === "telegram.queued" ? e.payloadHex : ""))).toEqual([
+      "00",
       "01",
       "00",
     ]);

@@ -1,5 +1,11 @@
 import { DPT9_INVALID, isDptInvalid } from "../../dpt/dpt9";
-import type { DeviceContext, DeviceEffect, DeviceEvent, TransitionResult } from "../device-type";
+import {
+  STARTUP_DONE_TIMER,
+  type DeviceContext,
+  type DeviceEffect,
+  type DeviceEvent,
+  type TransitionResult,
+} from "../device-type";
 import {
   linkFaultEffects,
   periodicAnnounceEffects,
@@ -785,6 +791,18 @@ function onTimer(state: HvacGatewayState, name: string, context: Context): Resul
       ? onWindow({ ...state, windowOpening: false }, true, context)
       : { state, effects: [] };
   if (name === EXTERNAL_WATCH_TIMER) return onExternalLost(state, context);
+  if (name === STARTUP_DONE_TIMER) {
+    // The start-up status included the room temperature: the minimum interval counts from it.
+    const roomC = context.objectValue(O.roomTemperature);
+    if (typeof roomC !== "number") return { state, effects: [] };
+    return {
+      state: {
+        ...state,
+        roomSender: { ...state.roomSender, lastSentC: roomC, lastSentUs: context.nowUs },
+      },
+      effects: [],
+    };
+  }
   const sending = context.parameters.roomTemperatureSending;
   if (name === ROOM_SEND_TIMER) {
     const step = sendDueRoomTemperature(state.roomSender, context.nowUs, sending);

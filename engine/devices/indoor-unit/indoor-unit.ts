@@ -1,3 +1,4 @@
+import { DEFAULT_ROOM_HEAT_CAPACITY_J_PER_K } from "../../room";
 import type { DeviceType } from "../device-type";
 import { indoorUnitParametersSchema, type IndoorUnitParameters } from "./parameters";
 import type { IndoorUnitState } from "./state";
@@ -13,7 +14,7 @@ export const indoorUnitType: DeviceType<IndoorUnitParameters, IndoorUnitState> =
   id: "indoor-unit",
   label: "Indoor unit",
   description:
-    "Air-conditioning indoor unit on a unit link, with a first-order room model; not on KNX.",
+    "Air-conditioning indoor unit on a unit link, heating or cooling its room; not on KNX.",
   medium: "unit-link",
   parameters: indoorUnitParametersSchema,
   groupObjects: () => [],
@@ -26,6 +27,8 @@ export const indoorUnitType: DeviceType<IndoorUnitParameters, IndoorUnitState> =
     louvrePercent: 0,
     setpointC: parameters.initialSetpointC,
     roomC: parameters.initialRoomC,
+    output: "none",
+    compressorOn: false,
     externalRoomC: null,
     sensorOpen: false,
     localLocked: false,
@@ -43,6 +46,13 @@ export const indoorUnitType: DeviceType<IndoorUnitParameters, IndoorUnitState> =
     reportedRoomC: null,
   }),
   transition: indoorUnitTransition,
+  // A bench without rooms: the unit's room is its own, from its parameters (as before rooms were shared).
+  privateRoom: (p) => ({
+    initialC: p.initialRoomC,
+    outdoorC: p.outdoorC,
+    heatCapacityJPerK: DEFAULT_ROOM_HEAT_CAPACITY_J_PER_K,
+    envelopeUaWPerK: DEFAULT_ROOM_HEAT_CAPACITY_J_PER_K / p.timeConstantS,
+  }),
   // The console's room chart: the room the unit conditions and what it aims for.
   roomSample: (state) =>
     typeof state.roomC === "number" && typeof state.setpointC === "number"

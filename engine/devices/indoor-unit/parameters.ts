@@ -1,24 +1,41 @@
 import { z } from "zod";
 import { hvacModeSchema } from "../hvac/hvac-mode";
 import { fanLevelSchema } from "../hvac/unit-link-messages";
+import { DEFAULT_CYCLE_BAND_K } from "../../room";
 
-/** Parameters of an indoor unit and the room it conditions. Temperatures °C, times seconds. */
+/**
+ * Parameters of an indoor unit. Temperatures °C, times seconds. The unit heats
+ * or cools the room the bench puts it in (engine/room); `initialRoomC`,
+ * `outdoorC` and `timeConstantS` describe a room of its own and count only when
+ * the bench puts it in no room.
+ */
 export const indoorUnitParametersSchema = z.object({
-  /** Room temperature at the start of the run. */
+  /** Own room only: room temperature at the start of the run. */
   initialRoomC: z.number().min(-30).max(50).default(20),
-  /** Outdoor temperature the room drifts toward while the unit is off or only moves air. */
+  /** Own room only: outdoor temperature the room loses heat to. */
   outdoorC: z.number().min(-40).max(50).default(10),
-  /** Time constant τ of the room's first-order cooling toward outdoor (Newton's law of cooling). */
+  /**
+   * Own room only: time constant τ = C/UA of the room cooling toward outdoor,
+   * with C = DEFAULT_ROOM_HEAT_CAPACITY_J_PER_K; the default matches the default
+   * room (600 kJ/K over 50 W/K).
+   */
   timeConstantS: z
     .number()
     .positive("timeConstantS must be above 0 s")
     .max(1_000_000)
-    .default(3600),
-  /** Fastest change heating or cooling can drive the room, kelvin per minute. */
-  rateKPerMin: z.number().positive("rateKPerMin must be above 0 K/min").max(10).default(0.2),
-  /** Period of the thermal model step, virtual seconds. */
+    .default(12_000),
+  /**
+   * Nominal heating and cooling output, W, at the rating room temperatures
+   * (engine/room/room-constants.ts); the output falls as the room approaches the
+   * supply air temperature. 2.5 kW is a usual small wall unit (common practice,
+   * no published source).
+   */
+  capacityW: z.number().min(500).max(20_000).default(2500),
+  /** Band the compressor holds the room in around the setpoint, K (DEFAULT_CYCLE_BAND_K). */
+  cycleBandK: z.number().min(0.2).max(4).default(DEFAULT_CYCLE_BAND_K),
+  /** Period at which the unit reads its room and decides, virtual seconds (its control loop). */
   modelStepS: z.number().min(1).max(600).default(10),
-  /** Auto mode switches between heating and cooling this far either side of the setpoint, kelvin. */
+  /** Auto mode changes direction this far beyond the cycling band's edge, kelvin. */
   autoHysteresisK: z.number().min(0).max(5).default(0.5),
   initialPower: z.boolean().default(false),
   initialMode: hvacModeSchema.default("auto"),

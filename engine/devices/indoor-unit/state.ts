@@ -18,8 +18,12 @@ export interface IndoorUnitState {
   readonly fanLevel: number;
   readonly louvrePercent: number;
   readonly setpointC: number;
-  /** The physical room temperature the thermal model advances, °C. */
+  /** The room temperature the unit's own (return-air) sensor read last, °C. */
   readonly roomC: number;
+  /** What the unit delivers to its room now: the compressor runs (and the fan is not held). */
+  readonly output: "heating" | "cooling" | "dry" | "none";
+  /** The compressor (or valve) is on, cycling inside the band around the setpoint. */
+  readonly compressorOn: boolean;
   /** Room temperature from the primary gateway's KNX sensor, when one is supplied. */
   readonly externalRoomC: number | null;
   readonly sensorOpen: boolean;

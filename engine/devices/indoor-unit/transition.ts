@@ -18,7 +18,7 @@ import {
 } from "../hvac/unit-link-messages";
 import { FROST_BAND_K, unitSetpointC, type IndoorUnitParameters } from "./parameters";
 import type { IndoorUnitState, KnownController } from "./state";
-import { stepRoomTemperature } from "./thermal-model";
+import { compressorRuns, unitDrive } from "./unit-output";
 
 type Context = DeviceContext<IndoorUnitParameters>;
 type Result = TransitionResult<IndoorUnitState>;
@@ -31,6 +31,11 @@ const US_PER_S = 1_000_000;
 export function controlTemperatureC(state: IndoorUnitState): number | null {
   if (state.externalRoomC !== null) return state.externalRoomC;
   return state.sensorOpen ? null : state.roomC;
+}
+
+/** Outdoor temperature of the unit's room (its own room's when the bench names none), °C. */
+function outdoorOf(context: Context): number {
+  return context.roomOutdoorC() ?? context.parameters.outdoorC;
 }
 
 /** Common practice, no published source: the filter is due after the configured fan running time. */
@@ -62,7 +67,7 @@ function statusMessage(
     roomC: quantize(controlTemperatureC(state)),
     faults,
     modeAuthority: state.system?.authority === context.deviceId,
-    outdoorC: context.parameters.outdoorC,
+    outdoorC: outdoorOf(context),
     localLocked: state.localLocked,
     filterAlarm: filterDue(state, context),
     frostProtection: state.frostActive,
@@ -85,12 +90,61 @@ function report(
   };
 }
 
-function resolveAutoDirection(state: IndoorUnitState, hysteresisK: number): IndoorUnitState {
+/**
+ * Auto mode's direction: it turns only beyond the cycling band's edge plus the
+ * auto hysteresis, so the overshoot of a compressor stopping at the band's
+ * edge never turns a heating unit into a cooling one.
+ */
+function resolveAutoDirection(state: IndoorUnitState, context: Context): IndoorUnitState {
   const controlC = controlTemperatureC(state);
   if (controlC === null) return state;
-  if (controlC < state.setpointC - hysteresisK) return { ...state, autoDirection: "heating" };
-  if (controlC > state.setpointC + hysteresisK) return { ...state, autoDirection: "cooling" };
+  const p = context.parameters;
+  const reachK = p.cycleBandK / 2 + p.autoHysteresisK;
+  if (controlC < state.setpointC - reachK) return { ...state, autoDirection: "heating" };
+  if (controlC > state.setpointC + reachK) return { ...state, autoDirection: "cooling" };
   return state;
+}
+
+/**
+ * The compressor decision for the state as it stands, and the room drive that
+ * goes with it when the output changes: frost protection heats at full output;
+ * otherwise a running unit cycles in the band around its setpoint on the
+ * temperature it controls on (external or own); a held fan delivers nothing.
+ */
+function control(
+  state: IndoorUnitState,
+  context: Context,
+): { state: IndoorUnitState; effects: DeviceEffect[] } {
+  const direction = state.frostActive
+    ? "heating"
+    : state.power
+      ? directionOfMode(state.mode, state.autoDirection)
+      : "none";
+  const controlC = controlTemperatureC(state);
+  let compressorOn = false;
+  if (state.frostActive) compressorOn = true;
+  else if (direction !== "none" && controlC !== null)
+    compressorOn = compressorRuns(
+      state.compressorOn,
+      direction,
+      controlC,
+      state.setpointC,
+      context.parameters.cycleBandK,
+    );
+  const output: IndoorUnitState["output"] =
+    !compressorOn || direction === "none" || state.fanHeld !== null
+      ? "none"
+      : direction === "heating"
+        ? "heating"
+        : !state.frostActive && state.mode === "dry"
+          ? "dry"
+          : "cooling";
+  const next = { ...state, compressorOn, output };
+  if (output === state.output) return { state: next, effects: [] };
+  return {
+    state: next,
+    effects: [{ kind: "room.drive", ...unitDrive(output, context.parameters.capacityW) }],
+  };
 }
 
 /** The direction the outdoor unit imposes on this member: none while it holds authority or nobody does. */
@@ -233,14 +287,19 @@ function applyCommand(
       });
     }
   }
-  next = resolveAutoDirection(next, context.parameters.autoHysteresisK);
+  next = resolveAutoDirection(next, context);
+  const controlled = control(next, context);
   const refusal = refusals[0];
-  const reported = report(next, context, refusal);
+  const reported = report(controlled.state, context, refusal);
   const notes: DeviceEffect[] = refusals.map((r) => ({ kind: "note", text: r.text }));
   return {
     state: reported.state,
-    effects: [...notes, ...reported.effects],
-    transition: refusal?.transition ?? "unit.command-applied",
+    effects: [...notes, ...controlled.effects, ...reported.effects],
+    transition:
+      refusal?.transition ??
+      (controlled.state.output !== state.output
+        ? compressorTransitionName(controlled.state.output)
+        : "unit.command-applied"),
   };
 }
 
@@ -279,7 +338,7 @@ function fanHoldAt(state: IndoorUnitState, heating: boolean, context: Context): 
     hold.fanHeld === null &&
     hold.nextDefrostUs !== null &&
     now >= hold.nextDefrostUs &&
-    p.outdoorC < p.defrostBelowOutdoorC
+    outdoorOf(context) < p.defrostBelowOutdoorC
   )
     hold = {
       ...hold,
@@ -290,47 +349,46 @@ function fanHoldAt(state: IndoorUnitState, heating: boolean, context: Context): 
   return hold;
 }
 
+/** Names the compressor starting (per output) or stopping, for the trace. */
+function compressorTransitionName(output: IndoorUnitState["output"]): string {
+  return output === "none" ? "compressor.off" : `compressor.${output}`;
+}
+
+/**
+ * The unit's control loop, every `modelStepS`: read the room (its own sensor),
+ * update running hours, frost protection, auto direction, fan holds, then the
+ * compressor decision and its room drive, and report changes.
+ */
 function stepModel(state: IndoorUnitState, context: Context): Result {
   const parameters = context.parameters;
-  const frost = state.frostActive;
-  const asked = frost
-    ? "heating"
-    : state.power
-      ? directionOfMode(state.mode, state.autoDirection)
-      : "none";
-  // While the fan is held off no heat reaches the room.
-  const direction = state.fanHeld !== null ? "none" : asked;
-  const roomC = stepRoomTemperature(
-    state.roomC,
-    (context.nowUs - state.lastStepUs) / US_PER_S,
-    {
-      direction,
-      // Aims past the band's top so the band, not the approach, ends the heating.
-      setpointC: frost ? parameters.frostProtectionC + FROST_BAND_K + 1 : state.setpointC,
-      rateFactor: !frost && state.mode === "dry" ? 0.5 : 1,
-    },
-    {
-      outdoorC: parameters.outdoorC,
-      timeConstantS: parameters.timeConstantS,
-      rateKPerMin: parameters.rateKPerMin,
-    },
-  );
-  const before = state.autoDirection;
+  const roomC = context.roomTemperatureC() ?? state.roomC;
   const ranS = state.power ? (context.nowUs - state.lastStepUs) / US_PER_S : 0;
+  const before = state.autoDirection;
   const stepped = resolveAutoDirection(
     { ...state, roomC, lastStepUs: context.nowUs, filterRunS: state.filterRunS + ranS },
-    parameters.autoHysteresisK,
+    context,
   );
   const frostActive = frostActiveAfter(stepped, context);
   const frostChanged = frostActive !== state.frostActive;
+  const asked = frostActive
+    ? "heating"
+    : state.power
+      ? directionOfMode(state.mode, stepped.autoDirection)
+      : "none";
   const hold = fanHoldAt(state, asked === "heating", context);
   const holdChanged = hold.fanHeld !== state.fanHeld;
-  const next = { ...stepped, frostActive, ...hold };
+  const controlled = control({ ...stepped, frostActive, ...hold }, context);
+  const next = controlled.state;
+  const compressorChanged = next.output !== state.output;
   const filterChanged = filterDue(next, context) !== filterDue(state, context);
   const effects: DeviceEffect[] = [
     { kind: "timer.set", name: MODEL_TIMER, delayUs: Math.round(parameters.modelStepS * US_PER_S) },
+    ...controlled.effects,
   ];
   const autoSwitched = next.mode === "auto" && next.power && next.autoDirection !== before;
+  const compressorTransition = compressorChanged
+    ? { transition: compressorTransitionName(next.output) }
+    : {};
   if (
     !autoSwitched &&
     !filterChanged &&
@@ -338,7 +396,7 @@ function stepModel(state: IndoorUnitState, context: Context): Result {
     !holdChanged &&
     quantize(controlTemperatureC(next)) === next.reportedRoomC
   )
-    return { state: next, effects };
+    return { state: next, effects, ...compressorTransition };
   const reported = report(next, context);
   return {
     state: reported.state,
@@ -353,7 +411,7 @@ function stepModel(state: IndoorUnitState, context: Context): Result {
           ? { transition: frostActive ? "frost.protection-on" : "frost.protection-off" }
           : filterChanged
             ? { transition: "filter.alarm" }
-            : {}),
+            : compressorTransition),
   };
 }
 
@@ -410,7 +468,14 @@ export function indoorUnitTransition(
 ): Result {
   switch (event.kind) {
     case "start": {
-      const reported = report({ ...state, lastStepUs: context.nowUs }, context);
+      const roomC = context.roomTemperatureC() ?? state.roomC;
+      // Auto starts in the direction the room it actually reads needs (a bench room's own start temperature).
+      const autoDirection = roomC < state.setpointC ? "heating" : "cooling";
+      const controlled = control(
+        { ...state, roomC, autoDirection, lastStepUs: context.nowUs },
+        context,
+      );
+      const reported = report(controlled.state, context);
       return {
         state: reported.state,
         effects: [
@@ -420,6 +485,7 @@ export function indoorUnitTransition(
             delayUs: Math.round(context.parameters.modelStepS * US_PER_S),
           },
           { kind: "timer.set", name: SUPERVISION_TIMER, delayUs: LINK_SUPERVISION_GRACE_US },
+          ...controlled.effects,
           ...reported.effects,
         ],
         transition: "unit.started",

@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { startupDelaySchema } from "../startup-delay";
 import {
   flags,
   type DeviceContext,
@@ -14,6 +15,8 @@ export const presenceDetectorParametersSchema = z.object({
   holdTimeS: z.number().min(1, "holdTimeS must be at least 1 s").max(86_400).default(300),
   /** A KNX input (DPT 1.018) through which another detector's movement retriggers this one. */
   externalTrigger: z.boolean().default(false),
+  /** Delay after bus power returns before occupancy is sent, s. */
+  startupDelayS: startupDelaySchema,
 });
 export type PresenceDetectorParameters = z.infer<typeof presenceDetectorParametersSchema>;
 
@@ -27,6 +30,21 @@ export interface PresenceDetectorState {
 export const presenceObjects = { occupancy: 0, trigger: 1 } as const;
 
 const HOLD_TIMER = "presence.hold";
+
+/**
+ * Heat the occupancy it sees adds to its room, W: one seated adult gives off
+ * about 70-80 W of sensible heat (from memory of handbook tables); a detector
+ * cannot count people, so it stands for one. Ignored when it is in no room.
+ */
+export const OCCUPANT_SENSIBLE_W = 75;
+
+const occupantHeat = (occupied: boolean) =>
+  ({
+    kind: "room.drive",
+    conductanceWPerK: 0,
+    towardC: 0,
+    watts: occupied ? OCCUPANT_SENSIBLE_W : 0,
+  }) as const;
 const US_PER_S = 1_000_000;
 
 type Result = TransitionResult<PresenceDetectorState>;
@@ -48,6 +66,7 @@ function movement(
     effects: [
       { kind: "group.send", object: presenceObjects.occupancy, service: "write", value: true },
       hold,
+      occupantHeat(true),
     ],
     transition: "presence.detected",
   };
@@ -84,6 +103,7 @@ function presenceDetectorTransition(
         state: { ...state, occupied: false },
         effects: [
           { kind: "group.send", object: presenceObjects.occupancy, service: "write", value: false },
+          occupantHeat(false),
         ],
         transition: "presence.ended",
       };
@@ -103,6 +123,7 @@ export const presenceDetectorType: DeviceType<PresenceDetectorParameters, Presen
   description: "Occupancy (DPT 1.018) with a hold time that each movement restarts.",
   medium: "knx",
   parameters: presenceDetectorParametersSchema,
+  startupDelayS: (p) => p.startupDelayS,
   groupObjects: (p) => {
     const objects: GroupObjectSpec[] = [
       {

@@ -18,6 +18,8 @@ function context(
     links: [],
     objectValue: (object) => values[object],
     random: () => 0.5,
+    roomTemperatureC: () => undefined,
+    roomOutdoorC: () => undefined,
   };
 }
 

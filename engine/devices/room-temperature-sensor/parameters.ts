@@ -1,5 +1,6 @@
 import { z } from "zod";
 import { roomTemperatureSendingSchema } from "../hvac/room-temperature-sending";
+import { startupDelaySchema } from "../startup-delay";
 
 /** One point of a temperature profile: at `atS` seconds into the run (or into each repeat) the room is `valueC`. */
 export const profilePointSchema = z.object({
@@ -11,11 +12,13 @@ export const profilePointSchema = z.object({
 export const roomTemperatureSensorParametersSchema = z
   .object({
     sending: roomTemperatureSendingSchema.prefault({ mode: "on-change-and-cyclic" }),
-    /** Where the measured value comes from: a first-order room model, or a profile over time. */
+    /** Where the measured value comes from: the room it is in, or a profile over time. */
     source: z.enum(["room-model", "profile"]).default("room-model"),
+    /** Own room only (the bench puts the sensor in no room): its temperature at the start. */
     initialC: z.number().min(-30).max(60).default(21),
-    /** Outdoor temperature the modelled room drifts toward (Newton's law of cooling). */
+    /** Own room only: outdoor temperature the room drifts toward (Newton's law of cooling). */
     outdoorC: z.number().min(-40).max(50).default(21),
+    startupDelayS: startupDelaySchema,
     timeConstantS: z.number().positive("timeConstantS must be above 0 s").default(7200),
     /** Points in time order, linearly interpolated; held flat after the last. */
     profile: z.array(profilePointSchema).max(1000).default([]),

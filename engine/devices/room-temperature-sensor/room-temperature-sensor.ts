@@ -1,5 +1,7 @@
 import { DPT9_INVALID } from "../../dpt/dpt9";
+import { DEFAULT_ROOM_HEAT_CAPACITY_J_PER_K } from "../../room";
 import {
+  STARTUP_DONE_TIMER,
   flags,
   type DeviceContext,
   type DeviceEffect,
@@ -23,8 +25,6 @@ import {
 } from "./parameters";
 
 export interface RoomTemperatureSensorState {
-  /** The modelled room temperature (room-model source), °C. */
-  readonly modelC: number;
   /** A value set from outside (input "temperature"); overrides the source until set to null. */
   readonly overrideC: number | null;
   readonly lastSampleUs: number;
@@ -62,9 +62,12 @@ export function profileValueC(p: RoomTemperatureSensorParameters, tS: number): n
 
 function measuredC(state: RoomTemperatureSensorState, context: Context): number {
   const p = context.parameters;
+  // The room it hangs in, shared with every unit and device there (engine/room).
   const trueC =
     state.overrideC ??
-    (p.source === "profile" ? profileValueC(p, context.nowUs / US_PER_S) : state.modelC);
+    (p.source === "profile"
+      ? profileValueC(p, context.nowUs / US_PER_S)
+      : (context.roomTemperatureC() ?? p.initialC));
   return trueC + p.offsetK;
 }
 
@@ -89,10 +92,7 @@ function senderEffects(step: SenderStep, context: Context): DeviceEffect[] {
 
 function sample(state: RoomTemperatureSensorState, context: Context): Result {
   const p = context.parameters;
-  const dtS = (context.nowUs - state.lastSampleUs) / US_PER_S;
-  // Newton's law of cooling, exact step (any heat-transfer handbook).
-  const modelC = p.outdoorC + (state.modelC - p.outdoorC) * Math.exp(-dtS / p.timeConstantS);
-  const next = { ...state, modelC, lastSampleUs: context.nowUs };
+  const next = { ...state, lastSampleUs: context.nowUs };
   if (next.open) return { state: next, effects: [] };
   const valueC = measuredC(next, context);
   const step = sampleRoomTemperature(next.sender, valueC, context.nowUs, p.sending);
@@ -135,6 +135,20 @@ function roomTemperatureSensorTransition(
         return { ...sampled, effects: [...sampled.effects, sampleTimer] };
       }
       if (state.open) return { state, effects: [] };
+      if (event.name === STARTUP_DONE_TIMER) {
+        // The start-up send was a send: the minimum interval and the cycle count from it.
+        const sentC = context.objectValue(ROOM_TEMPERATURE_OBJECT);
+        if (typeof sentC !== "number") return { state, effects: [] };
+        return {
+          state: {
+            ...state,
+            sender: { ...state.sender, lastSentC: sentC, lastSentUs: context.nowUs },
+          },
+          effects: sendsCyclically(p.sending)
+            ? [{ kind: "timer.set", name: CYCLE_TIMER, delayUs: cycleUs(p.sending) }]
+            : [],
+        };
+      }
       const step =
         event.name === SEND_TIMER
           ? sendDueRoomTemperature(state.sender, context.nowUs, p.sending)
@@ -183,8 +197,9 @@ function roomTemperatureSensorTransition(
 }
 
 /**
- * KNX room temperature sensor (DPT 9.001): measures every `sampleS` a modelled
- * room (Newton's law of cooling toward `outdoorC`) or a profile over time, and
+ * KNX room temperature sensor (DPT 9.001): measures every `sampleS` the room it
+ * is in (the bench's room, shared with the units there; else a room of its own
+ * cooling toward `outdoorC`) or a profile over time, and
  * sends on change, cyclically, or both. Input "temperature" overrides the value.
  */
 export const roomTemperatureSensorType: DeviceType<
@@ -207,12 +222,22 @@ export const roomTemperatureSensorType: DeviceType<
     },
   ],
   buttons: () => [],
-  initialState: (p) => ({
-    modelC: p.initialC,
+  initialState: () => ({
     overrideC: null,
     lastSampleUs: 0,
     sender: initialSenderState,
     open: false,
   }),
   transition: roomTemperatureSensorTransition,
+  // A bench without rooms: the sensor's room is its own (Newton's law of cooling toward outdoorC, τ = timeConstantS).
+  privateRoom: (p) =>
+    p.source === "room-model"
+      ? {
+          initialC: p.initialC,
+          outdoorC: p.outdoorC,
+          heatCapacityJPerK: DEFAULT_ROOM_HEAT_CAPACITY_J_PER_K,
+          envelopeUaWPerK: DEFAULT_ROOM_HEAT_CAPACITY_J_PER_K / p.timeConstantS,
+        }
+      : undefined,
+  startupDelayS: (p) => p.startupDelayS,
 };

@@ -15,6 +15,8 @@ function context(parameters: SwitchActuatorParameters): DeviceContext<SwitchActu
     links: [],
     objectValue: () => undefined,
     random: () => 0,
+    roomTemperatureC: () => undefined,
+    roomOutdoorC: () => undefined,
   };
 }
 

@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { startupDelaySchema } from "../startup-delay";
 import {
   flags,
   type DeviceEffect,
@@ -23,6 +24,8 @@ export const switchActuatorParametersSchema = z.object({
   channels: z.number().int().min(1).max(8).default(1),
   statusObjects: z.boolean().default(true),
   staircaseS: z.number().int().min(0).max(86_400).default(0),
+  /** Delay after bus power returns before the status objects are sent, s. */
+  startupDelayS: startupDelaySchema,
 });
 
 export type SwitchActuatorParameters = z.infer<typeof switchActuatorParametersSchema>;
@@ -85,6 +88,7 @@ export const switchActuatorType: DeviceType<SwitchActuatorParameters, SwitchActu
     "Relay outputs switched by 1-bit writes, with optional status feedback and a staircase timer.",
   medium: "knx",
   parameters: switchActuatorParametersSchema,
+  startupDelayS: (p) => p.startupDelayS,
 
   groupObjects(parameters): readonly GroupObjectSpec[] {
     const objects: GroupObjectSpec[] = [];

@@ -1,0 +1,127 @@
+import {
+  NO_DRIVE,
+  roomBalance,
+  temperatureAfterC,
+  type RoomBalance,
+  type RoomDrive,
+  type RoomSpec,
+} from "../room";
+
+/** One room of a run: its physics, the drives acting on it, and its temperature at the last change. */
+interface RoomRuntime {
+  spec: RoomSpec;
+  /** Device id -> that device's share of the heat balance. */
+  readonly drives: Map<string, RoomDrive>;
+  balance: RoomBalance;
+  /** Temperature at `anchorUs`, °C. */
+  anchorC: number;
+  anchorUs: number;
+}
+
+/**
+ * The rooms of a run, each modelled once (engine/room/lumped-room.ts): every
+ * device in a room reads the same temperature and adds its own drive. A room
+ * holds no timer; its temperature is computed in closed form from the last
+ * change when someone reads it, so a room nobody reads costs nothing. Reading
+ * never moves the anchor, so whether or when anybody reads cannot change a run.
+ */
+export class RoomClimate {
+  private readonly rooms = new Map<string, RoomRuntime>();
+
+  constructor(private readonly clock: { readonly nowUs: number }) {}
+
+  /** Adds a room (or gives an existing one new physics, keeping its temperature now). */
+  define(roomId: string, spec: RoomSpec): void {
+    const room = this.rooms.get(roomId);
+    if (room === undefined) {
+      this.rooms.set(roomId, {
+        spec,
+        drives: new Map(),
+        balance: roomBalance(spec, []),
+        anchorC: spec.initialC,
+        anchorUs: this.clock.nowUs,
+      });
+      return;
+    }
+    this.advance(room);
+    room.spec = spec;
+    room.balance = roomBalance(spec, room.drives.values());
+  }
+
+  has(roomId: string): boolean {
+    return this.rooms.has(roomId);
+  }
+
+  /** The room's temperature now, °C. */
+  temperatureC(roomId: string): number {
+    const room = this.room(roomId);
+    return temperatureAfterC(
+      room.anchorC,
+      (this.clock.nowUs - room.anchorUs) / 1_000_000,
+      room.spec,
+      room.balance,
+    );
+  }
+
+  /** The room's outdoor temperature, °C. */
+  outdoorC(roomId: string): number {
+    return this.room(roomId).spec.outdoorC;
+  }
+
+  /** The room's physics and current drives, for tests and charts. */
+  describe(roomId: string): {
+    readonly spec: RoomSpec;
+    readonly balance: RoomBalance;
+    readonly drives: ReadonlyMap<string, RoomDrive>;
+  } {
+    const room = this.room(roomId);
+    return { spec: room.spec, balance: room.balance, drives: room.drives };
+  }
+
+  /** Sets a device's share of its room's heat balance from now on (NO_DRIVE or zeros remove it). */
+  drive(roomId: string, deviceId: string, drive: RoomDrive): void {
+    const room = this.room(roomId);
+    const before = room.drives.get(deviceId) ?? NO_DRIVE;
+    if (
+      before.conductanceWPerK === drive.conductanceWPerK &&
+      before.towardC === drive.towardC &&
+      before.watts === drive.watts
+    )
+      return;
+    this.advance(room);
+    if (drive.conductanceWPerK === 0 && drive.watts === 0) room.drives.delete(deviceId);
+    else room.drives.set(deviceId, drive);
+    room.balance = roomBalance(room.spec, room.drives.values());
+  }
+
+  /** Removes a device's drive from every room (a restart). */
+  release(deviceId: string): void {
+    for (const [id, room] of this.rooms)
+      if (room.drives.has(deviceId)) this.drive(id, deviceId, NO_DRIVE);
+  }
+
+  /** Takes over `other`'s rooms as they stand, for a forked run. */
+  copyFrom(other: RoomClimate): void {
+    this.rooms.clear();
+    for (const [id, room] of other.rooms)
+      this.rooms.set(id, { ...room, drives: new Map(room.drives) });
+  }
+
+  /** Moves the anchor to now (only before the balance changes). */
+  private advance(room: RoomRuntime): void {
+    const nowUs = this.clock.nowUs;
+    room.anchorC = temperatureAfterC(
+      room.anchorC,
+      (nowUs - room.anchorUs) / 1_000_000,
+      room.spec,
+      room.balance,
+    );
+    room.anchorUs = nowUs;
+  }
+
+  private room(roomId: string): RoomRuntime {
+    const room = this.rooms.get(roomId);
+    if (room === undefined) throw new Error(`no room "${roomId}" in this run`);
+    return room;
+  }
+}
