@@ -97,7 +97,10 @@ export class HostedLiveSession {
     this.onEnded = init.onEnded;
     this.startedAtMs = init.clock.epochMs();
     this.lastActivityMs = this.startedAtMs;
-    this.line = new LiveSessionLine(() => this.live);
+    this.line = new LiveSessionLine(
+      () => this.live,
+      () => this.scheduleWake(),
+    );
     this.live = new LiveSession({
       post: (message) => this.post(message),
       now: () => this.clock.nowMs(),
@@ -282,6 +285,11 @@ export class HostedLiveSession {
     endpoint.disconnect(channelId);
     this.sendViewIfChanged(this.clock.epochMs());
     return true;
+  }
+
+  /** The running simulation: benchmarks read its trace and line statistics. */
+  get simulation() {
+    return this.live.simulation;
   }
 
   // ---------------------------------------------------------------- ending
