@@ -143,6 +143,9 @@ export class HostedLiveSession {
     this.commandErrors = errors;
     try {
       this.live.handle(command);
+      // A reset starts the new run paused, as in the browser; a server session runs at real time.
+      if ((command as { type?: unknown }).type === "reset")
+        this.live.handle({ type: "play", speed: 1 });
     } finally {
       this.commandErrors = undefined;
     }
