@@ -643,6 +643,16 @@ describe("tunnelling server: properties", () => {
       ok: fc.boolean(),
     }),
     fc.record({ kind: fc.constant("time" as const), us: fc.integer({ min: 0, max: 3 * S }) }),
+    fc.record({ kind: fc.constant("line-state" as const), available: fc.boolean() }),
+    // An individually addressed frame to a tunnel, a device or nobody, with any octets after the addresses.
+    fc.record({
+      kind: fc.constant("individual" as const),
+      from,
+      channel: fc.integer({ min: 1, max: 4 }),
+      seq: fc.nat(3),
+      destination: fc.constantFrom(TUNNEL_A, TUNNEL_B, 0x1102, 0),
+      tpdu: fc.uint8Array({ minLength: 1, maxLength: 16 }),
+    }),
   );
 
   it("never throws, keeps the tunnels within the pool and only sends frames that decode", () => {
@@ -656,6 +666,26 @@ describe("tunnelling server: properties", () => {
           else if (e.kind === "raw") effects = h.receive(e.from, e.bytes);
           else if (e.kind === "connect") effects = h.receive(e.from, connectRequest());
           else if (e.kind === "request") effects = h.receive(e.from, request(e.channel, e.seq));
+          else if (e.kind === "line-state")
+            effects = h.apply({ kind: "line.state", nowUs: t, available: e.available });
+          else if (e.kind === "individual")
+            effects = h.receive(e.from, {
+              service: "TUNNELLING_REQUEST",
+              channelId: e.channel,
+              sequenceCounter: e.seq,
+              cemi: Uint8Array.of(
+                0x11,
+                0x00,
+                0xbc,
+                0x60,
+                0x00,
+                0x00,
+                e.destination >> 8,
+                e.destination & 0xff,
+                e.tpdu.length - 1,
+                ...e.tpdu,
+              ),
+            });
           else if (e.kind === "line")
             effects = h.apply({
               kind: "line.frame",
