@@ -427,6 +427,29 @@ describe("tunnelling server: frames on the line to the clients", () => {
     expect(refused.frame.cemi[2]! & 0x01).toBe(1);
   });
 
+  it("indicates an individually addressed frame on the line only to the tunnel it is addressed to", () => {
+    const h = harness();
+    const a = h.connect(CLIENT_A);
+    h.connect(CLIENT_B);
+    const toTunnelA: DataFrame = {
+      ...write2102,
+      source: 0x1114,
+      destination: TUNNEL_A,
+      addressType: "individual",
+    };
+    const toDevice: DataFrame = { ...toTunnelA, destination: 0x1102 };
+    expect(sent(h.apply({ kind: "line.frame", nowUs: 0, frame: toDevice }))).toEqual([]);
+    const delivered = sent(h.apply({ kind: "line.frame", nowUs: 0, frame: toTunnelA }));
+    expect(delivered.map((d) => [d.to.port, d.frame.service])).toEqual([
+      [CLIENT_A.port, "TUNNELLING_REQUEST"],
+    ]);
+    expect(cemiOf(delivered[0]!.frame)).toMatchObject({
+      channelId: a,
+      messageCode: "L_Data.ind",
+      frame: { addressType: "individual", destination: TUNNEL_A },
+    });
+  });
+
   it("keeps one request outstanding per tunnel; the next follows the acknowledgement with the next counter", () => {
     const h = harness();
     const a = h.connect(CLIENT_A);
