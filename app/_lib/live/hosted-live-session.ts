@@ -127,7 +127,8 @@ export class HostedLiveSession {
 
   /** Adds a viewer: it gets the full current state at once, then everything as it happens. */
   watch(viewer: Viewer): () => void {
-    for (const message of this.live.snapshot()) viewer.send({ event: "message", data: message });
+    for (const message of this.live.currentState())
+      viewer.send({ event: "message", data: message });
     viewer.send({ event: "session", data: this.view(viewer.who) });
     this.viewers.add(viewer);
     this.touch();
