@@ -47,7 +47,11 @@ let knxPorts = { first: 0, last: 0 };
 beforeAll(() => {
   world = createWorld();
 });
-afterAll(() => destroyWorld(world));
+afterAll(async () => {
+  await registry.shutdown();
+  installLiveSessions(undefined);
+  destroyWorld(world);
+});
 
 function freshRegistry() {
   fake = fakeLiveSessionClock();
