@@ -9,4 +9,6 @@ export async function register(): Promise<void> {
   if (process.env.NEXT_PHASE === "phase-production-build") return;
   const { endInterruptedRuns } = await import("./app/_lib/runs/end-interrupted-runs");
   endInterruptedRuns();
+  const { endLiveSessionsOnExit } = await import("./app/_lib/live/end-live-sessions-on-exit");
+  endLiveSessionsOnExit();
 }

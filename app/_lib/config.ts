@@ -23,6 +23,12 @@ import path from "node:path";
  * | RUN_LIMIT_PER_WORKSPACE | the same, for everyone in one workspace together       | 12                                                 |
  * | RUN_WALL_TIME_CAP_SECONDS | wall-clock seconds one scenario may run on the server | 20                                                |
  * | RUN_VIRTUAL_TIME_CAP_MINUTES | virtual minutes one scenario may cover at worst   | 360 (6 h)                                          |
+ * | LIVE_SESSION_IDLE_MINUTES | a server-hosted live session with no viewer, command or tunnel for this long stops | 30 |
+ * | LIVE_SESSION_LIMIT_PER_MEMBER | server-hosted live sessions one member may run at once | 2                           |
+ * | LIVE_SESSION_LIMIT_PER_WORKSPACE | the same, for everyone in one workspace together | 10                           |
+ * | KNXNET_HOST             | IPv4 address published sessions' KNXnet/IP endpoints bind to (KNXnet/IP has no authentication) | 127.0.0.1 |
+ * | KNXNET_PORTS            | UDP port range for endpoints, "first-last" (the first free one is taken), or "0" for any free port | 3671-3680 |
+ * | KNXNET_TUNNELS          | tunnels one published session accepts at once          | 4                                                  |
  * | TRUSTED_PROXY           | comma-separated IP addresses of the reverse proxies in front of Benchline; only then are X-Forwarded-For/-Host/-Proto believed | none: those headers are ignored |
  *
  * The demo serves a production build on http://localhost:3000 for one person
@@ -218,4 +224,69 @@ export function trustedProxies(): readonly string[] {
     }
   }
   return addresses;
+}
+
+/** Limits and idle time of server-hosted live sessions (app/_lib/live/). */
+export interface LiveSessionLimits {
+  readonly perMember: number;
+  readonly perWorkspace: number;
+  /** Wall milliseconds without a viewer, a command or a tunnel after which a session stops. */
+  readonly idleMs: number;
+}
+
+/**
+ * A session runs its bench at real time whether anyone watches or not (outside
+ * software may be connected), so each one costs the server a little all the
+ * time: a member may keep two (say, a bench and its practice copy), a workspace
+ * a class's worth, and a forgotten one stops after half an hour.
+ */
+export function liveSessionLimits(): LiveSessionLimits {
+  return {
+    perMember: wholeNumberFromEnv("LIVE_SESSION_LIMIT_PER_MEMBER", 2, 1, 100),
+    perWorkspace: wholeNumberFromEnv("LIVE_SESSION_LIMIT_PER_WORKSPACE", 10, 1, 1000),
+    idleMs: wholeNumberFromEnv("LIVE_SESSION_IDLE_MINUTES", 30, 1, 24 * 60) * 60_000,
+  };
+}
+
+/** Where published sessions answer KNXnet/IP. */
+export interface KnxNetIpSettings {
+  /** IPv4 address to bind; 127.0.0.1 unless KNXNET_HOST names another. */
+  readonly host: string;
+  /** True when `host` is on the loopback network: only this machine can reach it. */
+  readonly loopback: boolean;
+  /** Inclusive port range tried in order; { 0, 0 } asks the system for any free port. */
+  readonly ports: { readonly first: number; readonly last: number };
+  readonly tunnels: number;
+}
+
+/**
+ * KNXnet/IP has no authentication: whoever reaches the port can write to the
+ * bench. So endpoints bind to the loopback address unless KNXNET_HOST says
+ * otherwise, and the console warns when it does.
+ */
+export function knxNetIpSettings(): KnxNetIpSettings {
+  const host = process.env.KNXNET_HOST?.trim() || "127.0.0.1";
+  if (isIP(host) !== 4) {
+    throw new ConfigError(
+      `KNXNET_HOST "${host}" is not an IPv4 address; KNXnet/IP runs over IPv4, e.g. KNXNET_HOST=127.0.0.1.`,
+    );
+  }
+  const text = process.env.KNXNET_PORTS?.trim() || "3671-3680";
+  const match = /^(\d{1,5})(?:-(\d{1,5}))?$/.exec(text);
+  const first = Number(match?.[1]);
+  const last = Number(match?.[2] ?? match?.[1]);
+  const valid =
+    match !== null &&
+    ((first === 0 && last === 0) || (first >= 1 && last <= 65535 && first <= last));
+  if (!valid) {
+    throw new ConfigError(
+      `KNXNET_PORTS must be a UDP port range like "3671-3680" (or "0" for any free port), not "${text}".`,
+    );
+  }
+  return {
+    host,
+    loopback: host.startsWith("127."),
+    ports: { first, last },
+    tunnels: wholeNumberFromEnv("KNXNET_TUNNELS", 4, 1, 64),
+  };
 }

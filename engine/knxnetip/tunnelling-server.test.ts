@@ -368,6 +368,88 @@ describe("tunnelling server: frames on the line to the clients", () => {
     expect(h.state.connections.get(b)?.telegramsOut).toBe(2);
   });
 
+  it("delivers an individually addressed frame to another tunnel's address as L_Data.ind and confirms it", () => {
+    const h = harness();
+    const a = h.connect(CLIENT_A);
+    const b = h.connect(CLIENT_B);
+    // cEMI L_Data.req (knx-reference.md, cEMI layout): no additional info, Ctrl1 0xBC (standard,
+    // not repeated, low priority), Ctrl2 0x60 (individual address, hop count 6), source 0.0.0,
+    // destination 1.1.242, length 1, TPCI/APCI 0x03 0x00: an A_DeviceDescriptor_Read (from memory).
+    const cemi = Uint8Array.of(0x11, 0x00, 0xbc, 0x60, 0x00, 0x00, 0x11, 0xf2, 0x01, 0x03, 0x00);
+    const effects = h.receive(CLIENT_A, {
+      service: "TUNNELLING_REQUEST",
+      channelId: a,
+      sequenceCounter: 0,
+      cemi,
+    });
+    expect(effects.some((e) => e.kind === "line.put")).toBe(false);
+    const frames = sent(effects);
+    expect(frames.map((f) => [f.to.port, f.frame.service])).toEqual([
+      [CLIENT_A.port, "TUNNELLING_ACK"],
+      [CLIENT_B.port, "TUNNELLING_REQUEST"],
+      [CLIENT_A.port, "TUNNELLING_REQUEST"],
+    ]);
+    const toB = frames[1]!.frame;
+    const toA = frames[2]!.frame;
+    if (toB.service !== "TUNNELLING_REQUEST" || toA.service !== "TUNNELLING_REQUEST")
+      throw new Error("no tunnelling requests");
+    expect(toB.channelId).toBe(b);
+    // L_Data.ind 0x29 and L_Data.con 0x2E, from the sending tunnel's address 1.1.241.
+    expect([...toB.cemi]).toEqual([
+      0x29, 0x00, 0xbc, 0x60, 0x11, 0xf1, 0x11, 0xf2, 0x01, 0x03, 0x00,
+    ]);
+    expect([...toA.cemi]).toEqual([
+      0x2e, 0x00, 0xbc, 0x60, 0x11, 0xf1, 0x11, 0xf2, 0x01, 0x03, 0x00,
+    ]);
+    expect(h.state.connections.get(a)).toMatchObject({ telegramsIn: 1 });
+    expect(h.state.connections.get(b)).toMatchObject({ telegramsOut: 1 });
+
+    // To an address no tunnel has (a bench device): the line does not carry it, so L_Data.con
+    // comes back with the confirm bit set.
+    h.receive(CLIENT_B, {
+      service: "TUNNELLING_ACK",
+      channelId: b,
+      sequenceCounter: toB.sequenceCounter,
+      status: STATUS.E_NO_ERROR,
+    });
+    const toDevice = cemi.slice();
+    toDevice[7] = 0x02; // 1.1.2
+    const [, refused] = sent(
+      h.receive(CLIENT_B, {
+        service: "TUNNELLING_REQUEST",
+        channelId: b,
+        sequenceCounter: 0,
+        cemi: toDevice,
+      }),
+    );
+    if (refused?.frame.service !== "TUNNELLING_REQUEST") throw new Error("no confirmation");
+    expect(refused.frame.cemi[0]).toBe(0x2e);
+    expect(refused.frame.cemi[2]! & 0x01).toBe(1);
+  });
+
+  it("indicates an individually addressed frame on the line only to the tunnel it is addressed to", () => {
+    const h = harness();
+    const a = h.connect(CLIENT_A);
+    h.connect(CLIENT_B);
+    const toTunnelA: DataFrame = {
+      ...write2102,
+      source: 0x1114,
+      destination: TUNNEL_A,
+      addressType: "individual",
+    };
+    const toDevice: DataFrame = { ...toTunnelA, destination: 0x1102 };
+    expect(sent(h.apply({ kind: "line.frame", nowUs: 0, frame: toDevice }))).toEqual([]);
+    const delivered = sent(h.apply({ kind: "line.frame", nowUs: 0, frame: toTunnelA }));
+    expect(delivered.map((d) => [d.to.port, d.frame.service])).toEqual([
+      [CLIENT_A.port, "TUNNELLING_REQUEST"],
+    ]);
+    expect(cemiOf(delivered[0]!.frame)).toMatchObject({
+      channelId: a,
+      messageCode: "L_Data.ind",
+      frame: { addressType: "individual", destination: TUNNEL_A },
+    });
+  });
+
   it("keeps one request outstanding per tunnel; the next follows the acknowledgement with the next counter", () => {
     const h = harness();
     const a = h.connect(CLIENT_A);
@@ -443,6 +525,68 @@ describe("tunnelling server: heartbeat and disconnect", () => {
     // The channel is gone: the next heartbeat gets E_CONNECTION_ID (knx-reference.md 0x21).
     expect(sent(h.receive(CLIENT_A, heartbeat))[0]!.frame).toMatchObject({
       status: STATUS.E_CONNECTION_ID,
+    });
+  });
+
+  // Status values: knx-reference.md (KNXnet/IP spec); which response carries them: the Core
+  // spec's connection-state response (Core §7.8.4, KNX Standard 03_08_02 / ISO 22510), from memory.
+  it("answers a heartbeat with E_DATA_CONNECTION while a request to the client waits on its repetition", () => {
+    const h = harness();
+    const a = h.connect(CLIENT_A);
+    const heartbeat: KnxNetIpFrame = {
+      service: "CONNECTIONSTATE_REQUEST",
+      channelId: a,
+      controlEndpoint: ROUTE_BACK_HPAI,
+    };
+    const fromDevice: DataFrame = { ...write2102, source: 0x1114, destination: 0x1102 };
+    h.apply({ kind: "line.frame", nowUs: 0, frame: fromDevice });
+    // Outstanding but not yet overdue: the data connection is fine.
+    expect(sent(h.at(S / 2).receive(CLIENT_A, heartbeat))[0]!.frame).toMatchObject({
+      status: STATUS.E_NO_ERROR,
+    });
+    h.at(S).tick(); // unacknowledged for 1 s: sent once more
+    expect(sent(h.at(S + S / 2).receive(CLIENT_A, heartbeat))[0]!.frame).toEqual({
+      service: "CONNECTIONSTATE_RESPONSE",
+      channelId: a,
+      status: STATUS.E_DATA_CONNECTION, // 0x26
+    });
+    // The client acknowledges the repetition: the data connection is healthy again.
+    h.receive(CLIENT_A, {
+      service: "TUNNELLING_ACK",
+      channelId: a,
+      sequenceCounter: 0,
+      status: STATUS.E_NO_ERROR,
+    });
+    expect(sent(h.receive(CLIENT_A, heartbeat))[0]!.frame).toMatchObject({
+      status: STATUS.E_NO_ERROR,
+    });
+  });
+
+  it("answers a heartbeat with E_KNX_CONNECTION while the KNX side is down, and confirms frames negatively then", () => {
+    const h = harness();
+    const a = h.connect(CLIENT_A);
+    const heartbeat: KnxNetIpFrame = {
+      service: "CONNECTIONSTATE_REQUEST",
+      channelId: a,
+      controlEndpoint: ROUTE_BACK_HPAI,
+    };
+    h.apply({ kind: "line.state", nowUs: 0, available: false });
+    expect(sent(h.receive(CLIENT_A, heartbeat))[0]!.frame).toEqual({
+      service: "CONNECTIONSTATE_RESPONSE",
+      channelId: a,
+      status: STATUS.E_KNX_CONNECTION, // 0x27
+    });
+    const effects = h.receive(CLIENT_A, request(a, 0));
+    expect(effects.some((e) => e.kind === "line.put")).toBe(false);
+    const [ack, confirmation] = sent(effects);
+    expect(ack!.frame).toMatchObject({ service: "TUNNELLING_ACK", status: STATUS.E_NO_ERROR });
+    expect(cemiOf(confirmation!.frame)).toMatchObject({
+      messageCode: "L_Data.con",
+      confirmError: true,
+    });
+    h.apply({ kind: "line.state", nowUs: 0, available: true });
+    expect(sent(h.receive(CLIENT_A, heartbeat))[0]!.frame).toMatchObject({
+      status: STATUS.E_NO_ERROR,
     });
   });
 
@@ -522,6 +666,16 @@ describe("tunnelling server: properties", () => {
       ok: fc.boolean(),
     }),
     fc.record({ kind: fc.constant("time" as const), us: fc.integer({ min: 0, max: 3 * S }) }),
+    fc.record({ kind: fc.constant("line-state" as const), available: fc.boolean() }),
+    // An individually addressed frame to a tunnel, a device or nobody, with any octets after the addresses.
+    fc.record({
+      kind: fc.constant("individual" as const),
+      from,
+      channel: fc.integer({ min: 1, max: 4 }),
+      seq: fc.nat(3),
+      destination: fc.constantFrom(TUNNEL_A, TUNNEL_B, 0x1102, 0),
+      tpdu: fc.uint8Array({ minLength: 1, maxLength: 16 }),
+    }),
   );
 
   it("never throws, keeps the tunnels within the pool and only sends frames that decode", () => {
@@ -535,6 +689,26 @@ describe("tunnelling server: properties", () => {
           else if (e.kind === "raw") effects = h.receive(e.from, e.bytes);
           else if (e.kind === "connect") effects = h.receive(e.from, connectRequest());
           else if (e.kind === "request") effects = h.receive(e.from, request(e.channel, e.seq));
+          else if (e.kind === "line-state")
+            effects = h.apply({ kind: "line.state", nowUs: t, available: e.available });
+          else if (e.kind === "individual")
+            effects = h.receive(e.from, {
+              service: "TUNNELLING_REQUEST",
+              channelId: e.channel,
+              sequenceCounter: e.seq,
+              cemi: Uint8Array.of(
+                0x11,
+                0x00,
+                0xbc,
+                0x60,
+                0x00,
+                0x00,
+                e.destination >> 8,
+                e.destination & 0xff,
+                e.tpdu.length - 1,
+                ...e.tpdu,
+              ),
+            });
           else if (e.kind === "line")
             effects = h.apply({
               kind: "line.frame",

@@ -24,7 +24,12 @@ import { descriptionDibs, type TunnellingServerConfig, type UdpAddress } from ".
  *   E_NO_MORE_CONNECTIONS; an HPAI over TCP with E_HOST_PROTOCOL_TYPE.
  * - CONNECTIONSTATE requests are the heartbeat: E_NO_ERROR for a live channel,
  *   E_CONNECTION_ID otherwise. A channel silent for `connectionAliveTimeoutUs`
- *   (120 s) is closed with a DISCONNECT_REQUEST to the client.
+ *   (120 s) is closed with a DISCONNECT_REQUEST to the client. Two more answers
+ *   the Core spec gives a connection-state response (Core §7.8.4; from memory):
+ *   E_KNX_CONNECTION (0x27) while the server's KNX side is down (the host says
+ *   so with a `line.state` event), and E_DATA_CONNECTION (0x26) while the data
+ *   connection to the client is failing: a tunnelling request to it went
+ *   unacknowledged and is waiting on its one repetition.
  * - DISCONNECT from the client is answered and closes the tunnel; the server
  *   closes with a DISCONNECT_REQUEST (heartbeat lost, acknowledgement lost,
  *   operator, shutdown) and forgets the channel at once.
@@ -40,6 +45,9 @@ import { descriptionDibs, type TunnellingServerConfig, type UdpAddress } from ".
  *   frame was not acknowledged on the line. Every frame on the line goes to
  *   each tunnel as L_Data.ind, except to the tunnel that sent it (that one gets
  *   the L_Data.con).
+ * - An individually addressed L_Data.req to another tunnel's address goes to
+ *   that tunnel as L_Data.ind (see `toOtherTunnel`); one to any other address
+ *   is confirmed negatively, since the line model carries group frames only.
  *
  * Hostile input: a datagram that does not decode, a service a server does not
  * take, an unknown channel, or one sent from another IP address than the one
@@ -98,6 +106,8 @@ export interface TunnellingServerState {
   readonly puts: ReadonlyMap<number, { readonly channelId: number; readonly frame: DataFrame }>;
   readonly buckets: ReadonlyMap<string, { readonly tokens: number; readonly atUs: number }>;
   readonly counters: TunnellingServerCounters;
+  /** False while the KNX side (the simulated line) is unavailable; true from the start. */
+  readonly lineAvailable: boolean;
 }
 
 export type CloseReason = "client" | "heartbeat" | "ack-timeout" | "operator" | "shutdown";
@@ -126,6 +136,8 @@ export type TunnellingServerEvent =
       readonly requestId: number;
       readonly acknowledged: boolean;
     }
+  /** The KNX side went down or came back (E_KNX_CONNECTION; frames are then confirmed negatively). */
+  | { readonly kind: "line.state"; readonly nowUs: number; readonly available: boolean }
   /** Time passed: heartbeat and acknowledgement timeouts. */
   | { readonly kind: "tick"; readonly nowUs: number }
   /** The operator closes a tunnel. */
@@ -184,6 +196,7 @@ export function initialTunnellingServerState(): TunnellingServerState {
     puts: new Map(),
     buckets: new Map(),
     counters: ZERO_COUNTERS,
+    lineAvailable: true,
   };
 }
 
@@ -222,6 +235,9 @@ export function tunnellingServerTransition(
     case "tick":
       run.tick();
       break;
+    case "line.state":
+      run.lineAvailable = event.available;
+      break;
     case "disconnect": {
       const connection = run.connections.get(event.channelId);
       if (connection !== undefined) run.close(connection, "operator");
@@ -242,6 +258,7 @@ class Transition {
   private counters: TunnellingServerCounters;
   private nextChannelId: number;
   private nextRequestId: number;
+  lineAvailable: boolean;
   private readonly effects: TunnellingServerEffect[] = [];
 
   constructor(
@@ -255,6 +272,7 @@ class Transition {
     this.counters = state.counters;
     this.nextChannelId = state.nextChannelId;
     this.nextRequestId = state.nextRequestId;
+    this.lineAvailable = state.lineAvailable;
   }
 
   result(): TunnellingServerResult {
@@ -266,6 +284,7 @@ class Transition {
         puts: this.puts,
         buckets: this.buckets,
         counters: this.counters,
+        lineAvailable: this.lineAvailable,
       },
       effects: this.effects,
     };
@@ -312,7 +331,7 @@ class Transition {
         this.send(this.replyTo(frame.controlEndpoint, from), {
           service: "CONNECTIONSTATE_RESPONSE",
           channelId: frame.channelId,
-          status: connection === undefined ? STATUS.E_CONNECTION_ID : STATUS.E_NO_ERROR,
+          status: this.connectionStatus(connection),
         });
         return;
       }
@@ -422,6 +441,7 @@ class Transition {
       this.drop(from, "unsupported", `cEMI message code ${cemi[0]} is not L_Data.req`);
       return;
     }
+    if (this.toOtherTunnel(current, cemi)) return;
     const decoded = decodeCemi(cemi);
     if (!decoded.ok) {
       // Taken, but not a frame the line models (individual or extended): confirm negatively.
@@ -435,7 +455,7 @@ class Transition {
       source: current.individualAddress,
       repeated: false,
     };
-    if (current.pendingPuts >= this.config.maxPendingPerTunnel) {
+    if (!this.lineAvailable || current.pendingPuts >= this.config.maxPendingPerTunnel) {
       this.count("putsRefused");
       this.enqueue(
         current.channelId,
@@ -488,12 +508,53 @@ class Transition {
     );
   }
 
+  /**
+   * An individually addressed L_Data.req to another tunnel's individual address
+   * is delivered by that address: the interface owns it, so the frame goes to
+   * that tunnel as L_Data.ind, from the sending tunnel's address, and the sender
+   * gets a positive L_Data.con (from memory: an interface with several tunnel
+   * addresses answers for each of them, KNXnet/IP Tunnelling 03_08_04). Its
+   * octets after the addresses (TPCI, APCI, data) travel as they came: device
+   * management between two clients needs no model of its own here. False when
+   * the frame is not such a frame (group, or for another address).
+   */
+  private toOtherTunnel(sender: TunnelConnection, cemi: Uint8Array): boolean {
+    const header = standardHeader(cemi);
+    if (header === undefined || header.group) return false;
+    const target = [...this.connections.values()].find(
+      (c) => c.individualAddress === header.destination && c.channelId !== sender.channelId,
+    );
+    if (target === undefined) return false;
+    const withSource = (code: number) => {
+      const copy = cemi.slice();
+      copy[0] = code;
+      copy[header.at] = (copy[header.at] as number) & 0xfe; // confirm bit clear
+      copy[header.at + 2] = sender.individualAddress >> 8;
+      copy[header.at + 3] = sender.individualAddress & 0xff;
+      return copy;
+    };
+    this.connections.set(sender.channelId, { ...sender, telegramsIn: sender.telegramsIn + 1 });
+    if (this.enqueue(target.channelId, withSource(CEMI_MESSAGE_CODES["L_Data.ind"]))) {
+      const current = this.connections.get(target.channelId)!;
+      this.connections.set(target.channelId, {
+        ...current,
+        telegramsOut: current.telegramsOut + 1,
+      });
+    }
+    this.enqueue(sender.channelId, withSource(CEMI_MESSAGE_CODES["L_Data.con"]));
+    return true;
+  }
+
   // ---------------------------------------------------------------- the line
 
   lineFrame(frame: DataFrame): void {
     let cemi: Uint8Array | undefined;
     for (const connection of [...this.connections.values()]) {
       if (connection.individualAddress === frame.source) continue;
+      // A link-layer tunnel hears group frames and the individual frames addressed to it,
+      // not other stations' point-to-point traffic (from memory: KNXnet/IP Tunnelling 03_08_04).
+      if (frame.addressType === "individual" && frame.destination !== connection.individualAddress)
+        continue;
       cemi ??= encodeCemi({ messageCode: "L_Data.ind", frame });
       if (this.enqueue(connection.channelId, cemi)) {
         const current = this.connections.get(connection.channelId)!;
@@ -549,6 +610,14 @@ class Transition {
   }
 
   // ---------------------------------------------------------------- helpers
+
+  /** The status of a connection-state response (see the module comment). */
+  private connectionStatus(connection: TunnelConnection | undefined): number {
+    if (connection === undefined) return STATUS.E_CONNECTION_ID;
+    if (!this.lineAvailable) return STATUS.E_KNX_CONNECTION;
+    if (connection.outstanding?.attempt === 2) return STATUS.E_DATA_CONNECTION;
+    return STATUS.E_NO_ERROR;
+  }
 
   /** Closes a tunnel from the server side: DISCONNECT_REQUEST to the client's control endpoint. */
   close(connection: TunnelConnection, reason: CloseReason): void {
@@ -663,4 +732,25 @@ function negativeConfirmation(cemi: Uint8Array): Uint8Array | undefined {
   confirmation[0] = CEMI_MESSAGE_CODES["L_Data.con"];
   confirmation[at] = (confirmation[at] as number) | 0x01;
   return confirmation;
+}
+
+/**
+ * Where the control fields of a cEMI L_Data frame start, its destination and
+ * address type, when its octets hold a whole standard frame (the length octet
+ * matches); undefined otherwise.
+ */
+function standardHeader(
+  cemi: Uint8Array,
+): { readonly at: number; readonly destination: number; readonly group: boolean } | undefined {
+  if (cemi.length < 2) return undefined;
+  const at = 2 + (cemi[1] as number);
+  if (cemi.length < at + 9) return undefined;
+  const length = cemi[at + 6] as number;
+  if (length > 15 || cemi.length !== at + 8 + length) return undefined;
+  if (((cemi[at] as number) & 0xd0) !== 0x90) return undefined;
+  return {
+    at,
+    destination: ((cemi[at + 4] as number) << 8) | (cemi[at + 5] as number),
+    group: ((cemi[at + 1] as number) & 0x80) !== 0,
+  };
 }

@@ -1,4 +1,4 @@
-import { formatGroupAddress, parseGroupAddress } from "../address";
+import { formatGroupAddress, parseGroupAddress, parseIndividualAddress } from "../address";
 import { formatLineAddress } from "../topology/line-address";
 import { benchCouplers } from "../topology/bench-topology";
 import type { Bench, BenchInput, LoadedBench } from "../bench";
@@ -104,7 +104,7 @@ export function stepLabel(step: Step): string {
     case "clear-fault":
       return `${step.kind} ${step.fault} on ${step.device}`;
     case "expect-value":
-      return `expect-value ${step.groupAddress} = ${value(step.value)} within ${step.within}`;
+      return `expect-value ${step.groupAddress} = ${value(step.value)}${step.source ? ` from ${step.source}` : ""} within ${step.within}`;
     case "expect-response":
       return `expect-response ${step.groupAddress}${step.value === undefined ? "" : ` = ${value(step.value)}`} within ${step.within}`;
     case "expect-state":
@@ -112,7 +112,7 @@ export function stepLabel(step: Step): string {
     case "expect-count": {
       const bound =
         step.count !== undefined ? `${step.count}` : `${step.min ?? 0}..${step.max ?? "∞"}`;
-      return `expect-count ${step.groupAddress} ${bound}${step.line === undefined ? "" : ` on line ${step.line}`} within ${step.within}`;
+      return `expect-count ${step.groupAddress} ${bound}${step.source ? ` from ${step.source}` : ""}${step.line === undefined ? "" : ` on line ${step.line}`} within ${step.within}`;
     }
     case "expect-bus-load":
       return `expect-bus-load below ${step.belowPercent} %${step.line === undefined ? "" : ` on line ${step.line}`} over ${step.over}`;
@@ -427,10 +427,10 @@ class TelegramWatch {
     private readonly tolerance: number,
     fromUs: number,
     private readonly toUs: number,
-    private readonly onLine?: (event: {
-      readonly line: string;
-      readonly deviceId?: string;
-    }) => boolean,
+    private readonly onLine:
+      ((event: { readonly line: string; readonly deviceId?: string }) => boolean) | undefined,
+    /** Raw individual address the sender must have; undefined for any sender. */
+    private readonly source: number | undefined,
   ) {
     this.cursor = lowerBound(run.sim.trace, fromUs);
   }
@@ -445,7 +445,8 @@ class TelegramWatch {
         event.kind !== "telegram.sent" ||
         event.attempt !== 0 ||
         event.destination !== this.address.raw ||
-        (this.onLine !== undefined && !this.onLine(event))
+        (this.onLine !== undefined && !this.onLine(event)) ||
+        (this.source !== undefined && event.source !== this.source)
       )
         continue;
       const service = SERVICE_OF[event.service];
@@ -480,6 +481,7 @@ function expectTelegramValue(
         : [step.service];
   const fromUs = run.anchorUs;
   const toUs = fromUs + durationUs(step.within);
+  const source = step.kind === "expect-value" ? sourceOf(step) : undefined;
   const watch = new TelegramWatch(
     run,
     address,
@@ -489,6 +491,7 @@ function expectTelegramValue(
     fromUs,
     toUs,
     run.lineMatcher(step.line),
+    source,
   );
   if (!watch.scan()) run.advance(toUs, () => watch.scan());
   const { matchUs, seen } = watch;
@@ -501,12 +504,13 @@ function expectTelegramValue(
       : services.length === 2
         ? "write or response"
         : String(services[0]);
-  const expectedText = `a ${what} to ${describeAddress(address)}${expected === undefined ? "" : ` carrying ${formatValue(expected, address.codec)}${tolerance > 0 ? ` ± ${tolerance}` : ""}`} within ${step.within}`;
+  const sender = step.kind === "expect-value" && step.source ? ` from ${step.source}` : "";
+  const expectedText = `a ${what}${sender} to ${describeAddress(address)}${expected === undefined ? "" : ` carrying ${formatValue(expected, address.codec)}${tolerance > 0 ? ` ± ${tolerance}` : ""}`} within ${step.within}`;
   if (seen.length === 0) {
     const last = run.sim.groupValue(address.raw);
     return fail(
       expectedText,
-      `no ${what} to ${address.text} in the window${last === undefined ? "" : `; the last value seen on it is ${formatValue(last, address.codec)}`}`,
+      `no ${what}${sender} to ${address.text} in the window${last === undefined ? "" : `; the last value seen on it is ${formatValue(last, address.codec)}`}`,
       slice,
     );
   }
@@ -521,6 +525,13 @@ function expectTelegramValue(
     `${address.text} carried ${values.join(", ")}${seen.length > 3 ? ` and ${seen.length - 3} more` : ""}`,
     slice,
   );
+}
+
+/** The raw sender address an expectation filters on (the schema has checked its text). */
+function sourceOf(step: { readonly source?: string | undefined }): number | undefined {
+  if (step.source === undefined) return undefined;
+  const parsed = parseIndividualAddress(step.source);
+  return parsed.ok ? parsed.value : undefined;
 }
 
 function expectState(run: ScenarioRun, step: Extract<Step, { kind: "expect-state" }>): StepOutcome {
@@ -554,12 +565,14 @@ function expectCount(run: ScenarioRun, step: Extract<Step, { kind: "expect-count
   const toUs = fromUs + durationUs(step.within);
   run.advance(toUs);
   const service = step.service ?? "any";
+  const source = sourceOf(step);
   const counted = run
     .telegrams(fromUs, toUs, address.raw, run.lineMatcher(step.line))
     .filter(
       (event) =>
         event.kind === "telegram.sent" &&
-        (service === "any" || SERVICE_OF[event.service] === service),
+        (service === "any" || SERVICE_OF[event.service] === service) &&
+        (source === undefined || event.source === source),
     );
   const min = step.count ?? step.min ?? 0;
   const max = step.count ?? step.max ?? Infinity;
@@ -571,7 +584,7 @@ function expectCount(run: ScenarioRun, step: Extract<Step, { kind: "expect-count
       : max === Infinity
         ? `at least ${min}`
         : `${min} to ${max}`;
-  const expected = `${bound} ${service === "any" ? "" : `${service} `}telegram(s) to ${describeAddress(address)}${step.line === undefined ? "" : ` on line ${step.line}`} within ${step.within}`;
+  const expected = `${bound} ${service === "any" ? "" : `${service} `}telegram(s)${step.source ? ` from ${step.source}` : ""} to ${describeAddress(address)}${step.line === undefined ? "" : ` on line ${step.line}`} within ${step.within}`;
   return fail(expected, `${counted.length} telegram(s)`, slice);
 }
 

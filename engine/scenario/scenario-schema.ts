@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { individualAddressTextSchema } from "../address/address-schemas";
 import { parseDuration } from "./duration";
 import {
   deviceIdSchema,
@@ -48,6 +49,12 @@ const lineSchema = z
   .string()
   .regex(/^\d{1,2}\.\d{1,2}$/, 'expected a line address "area.line", like "1.2"')
   .optional();
+/**
+ * Only telegrams whose sender has this individual address ("1.1.241"): a
+ * device's, the test tool's, or a KNXnet/IP tunnel's as the console lists it,
+ * so QA can assert what a connected client sent. It need not be a bench device.
+ */
+const sourceFilterSchema = individualAddressTextSchema.optional();
 
 // Action steps are simulation inputs (engine/sim/sim-input.ts) plus a label; in a
 // document the group address is always text.
@@ -92,6 +99,7 @@ export const expectValueStepSchema = z
     tolerance: toleranceSchema.optional(),
     within: durationTextSchema,
     service: serviceFilterSchema.optional(),
+    source: sourceFilterSchema,
   })
   .strict();
 
@@ -134,6 +142,7 @@ export const expectCountStepSchema = z
     min: z.number().int().nonnegative().optional(),
     max: z.number().int().nonnegative().optional(),
     service: serviceFilterSchema.optional(),
+    source: sourceFilterSchema,
   })
   .strict()
   .superRefine((step, ctx) => {

@@ -2,11 +2,13 @@ import { readdirSync, statSync } from "node:fs";
 import path from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { can, capabilities, capabilityTable } from "@/app/_lib/capabilities";
+import { liveSessions } from "@/app/_lib/live/live-session-registry";
 import { roles, type Role } from "@/db/schema";
 import { bodyIdCases, prepareBodyIdCases, secretNames } from "./support/body-ids";
 import {
   type GuardedRoute,
   guardedRoutes,
+  ownerDecidedRoutes,
   pathOf,
   publicRoutes,
   sessionOnlyRoutes,
@@ -41,12 +43,16 @@ beforeAll(async () => {
   world = createWorld();
   await prepareBodyIdCases(world);
 });
-afterAll(() => destroyWorld(world));
+afterAll(async () => {
+  // The matrix starts live sessions on the server; they run until stopped.
+  await liveSessions().shutdown();
+  destroyWorld(world);
+});
 
 describe("the route list covers every route handler", () => {
   it("lists every exported method of every route.ts (so none escapes the matrix)", async () => {
     const known = new Set(
-      [...guardedRoutes, ...publicRoutes, ...sessionOnlyRoutes].map(
+      [...guardedRoutes, ...publicRoutes, ...sessionOnlyRoutes, ...ownerDecidedRoutes].map(
         (r) => `${r.method} ${r.route}`,
       ),
     );

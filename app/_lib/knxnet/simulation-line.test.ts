@@ -101,22 +101,34 @@ describe("pacedSimulationLine", () => {
     paced.stop();
   });
 
-  it("confirms negatively when nobody acknowledges (after the repetitions) and at once for a frame the line does not model", () => {
+  it("confirms negatively when nobody acknowledges, after the repetitions", () => {
     const sim = createSimulation(lightBench(), { seed: 1, traceCapacity: 100 });
     const fake = fakeClock();
     const paced = pacedSimulationLine(sim, { clock: fake.clock });
     const done: boolean[] = [];
     paced.start();
-    paced.line.put({ ...write(0x1105), addressType: "individual" }, (a) => done.push(a));
-    expect(done).toEqual([false]);
     paced.line.put(write(0x0809), (a) => done.push(a)); // 1/0/9: no listener
     fake.advance(50);
-    expect(done).toEqual([false]); // still repeating
+    expect(done).toEqual([]); // still repeating
     fake.advance(200);
-    expect(done).toEqual([false, false]);
+    expect(done).toEqual([false]);
     expect(
       sim.trace.filter((e) => e.kind === "telegram.sent" && e.destination === 0x0809),
     ).toHaveLength(4);
+    paced.stop();
+  });
+  it("puts individually addressed frames on the line: the addressed device acknowledges, an absent one does not", () => {
+    const sim = createSimulation(lightBench(), { seed: 1, traceCapacity: 100 });
+    const fake = fakeClock();
+    const paced = pacedSimulationLine(sim, { clock: fake.clock });
+    const toDevice: boolean[] = [];
+    const toNobody: boolean[] = [];
+    paced.start();
+    paced.line.put({ ...write(0x1102), addressType: "individual" }, (a) => toDevice.push(a)); // 1.1.2, the actuator
+    paced.line.put({ ...write(0x1105), addressType: "individual" }, (a) => toNobody.push(a)); // 1.1.5, nobody
+    fake.advance(500);
+    expect(toDevice).toEqual([true]);
+    expect(toNobody).toEqual([false]);
     paced.stop();
   });
 });

@@ -44,11 +44,45 @@ export function pacedSimulationLine(
   sim: Simulation,
   options: PacedSimulationLineOptions = {},
 ): PacedSimulationLine {
+  // The pacer and the line refer to each other: the line catches the pacer up before a put,
+  // the pacer delivers what the line buffered after every advance (never before start()).
+  const pacer = new RealTimePacer(sim, { ...options, onAdvance: () => core.deliver() });
+  const core = simulationLine(sim, { lineId: options.lineId, catchUp: () => pacer.catchUp() });
+  return {
+    line: core.line,
+    start: () => pacer.start(),
+    stop() {
+      pacer.stop();
+      core.stop();
+    },
+  };
+}
+
+/**
+ * `LineAccess` over a simulation that someone else advances (a pacer, or a
+ * live session's own tick): `catchUp` runs it to the present before a frame is
+ * queued, and the owner calls `deliver` after every advance.
+ */
+export interface SimulationLine {
+  readonly line: LineAccess;
+  /** Hands buffered frames and confirmations whose time has come to their listeners. */
+  deliver(): void;
+  /** Virtual time of the next buffered item, or undefined when nothing waits. */
+  nextDueUs(): number | undefined;
+  /** Unsubscribes from the simulation's trace; later puts are confirmed negatively. */
+  stop(): void;
+}
+
+export function simulationLine(
+  sim: Simulation,
+  options: { readonly lineId?: string | undefined; readonly catchUp: () => void },
+): SimulationLine {
   const tp1: Tp1Line = sim.line(options.lineId);
   const listeners = new Set<(frame: DataFrame) => void>();
   const callbacks = new Map<number, (acknowledged: boolean) => void>();
   const senders = new Map<number, Tp1Sender>();
   const pending: Pending[] = [];
+  let stopped = false;
   // The simulation numbers its telegrams from 0 up and uses -1 as "none"; ours count down from -2.
   let nextTelegramId = -2;
 
@@ -79,16 +113,13 @@ export function pacedSimulationLine(
     }
   }
 
-  const pacer = new RealTimePacer(sim, { ...options, onAdvance: deliver });
-
   const line: LineAccess = {
     put(frame, onDone) {
-      // Today's line model carries group telegrams only.
-      if (frame.addressType !== "group") {
+      if (stopped) {
         onDone(false);
         return;
       }
-      pacer.catchUp(); // queue at the present virtual time, not the last tick's
+      options.catchUp(); // queue at the present virtual time, not the last tick's
       let sender = senders.get(frame.source);
       if (sender === undefined) {
         sender = new Tp1Sender(
@@ -110,10 +141,13 @@ export function pacedSimulationLine(
 
   return {
     line,
-    start: () => pacer.start(),
+    deliver,
+    nextDueUs: () => pending[0]?.atUs,
     stop() {
-      pacer.stop();
+      stopped = true;
       unsubscribe();
+      pending.length = 0;
+      callbacks.clear();
     },
   };
 }
@@ -124,7 +158,8 @@ function frameOf(event: Extract<TraceEvent, { kind: "telegram.sent" }>): DataFra
     repeated: false,
     source: event.source,
     destination: event.destination,
-    addressType: "group", // the line model carries group telegrams only
+    // Lines that carry individually addressed telegrams mark them in the trace.
+    addressType: (event as { readonly individual?: true }).individual ? "individual" : "group",
     hopCount: DEFAULT_HOP_COUNT, // not in the trace; devices send 6
     service: event.service,
     payload: fromHex(event.payloadHex) ?? new Uint8Array(0),

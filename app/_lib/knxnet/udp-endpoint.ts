@@ -54,6 +54,8 @@ export interface KnxNetIpEndpoint {
   counters(): TunnellingServerCounters;
   /** Closes one tunnel from the server side (DISCONNECT_REQUEST to its client). */
   disconnect(channelId: number): void;
+  /** Closes every tunnel the way `close` does, but keeps answering (the simulation behind it restarted). */
+  disconnectAll(): void;
   /** Ends every tunnel with a DISCONNECT_REQUEST, then closes the socket. */
   close(): Promise<void>;
 }
@@ -159,6 +161,9 @@ export async function startKnxNetIpEndpoint(
     counters: () => state.counters,
     disconnect(channelId) {
       if (!closed) dispatch({ kind: "disconnect", nowUs: nowUs(), channelId });
+    },
+    disconnectAll() {
+      if (!closed) dispatch({ kind: "shutdown", nowUs: nowUs() });
     },
     async close() {
       if (closed) return;

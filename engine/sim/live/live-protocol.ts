@@ -213,6 +213,11 @@ export const logRowSchema = z.object({
   ack: z.union([ackSchema, z.literal("")]),
   /** Whole TP1 frame with its check octet, "BC 11 FA 08 01 E1 00 81 3A"; "" for a fault row. */
   rawHex: z.string(),
+  /**
+   * The individual address of the KNXnet/IP tunnel the telegram came in over ("1.1.241"),
+   * so the console can mark telegrams from outside software; absent otherwise.
+   */
+  tunnel: z.string().optional(),
 });
 export type LogRow = z.infer<typeof logRowSchema>;
 

@@ -37,6 +37,14 @@ export interface LiveSessionOptions {
   readonly backlogCapacity?: number;
   /** Wall time one tick may spend running the simulation, ms. */
   readonly tickBudgetMs?: number;
+  /**
+   * Called with every new simulation the session starts (load, reset), before
+   * its first message: a host that attaches to the line (a KNXnet/IP endpoint)
+   * follows the session to the new run this way.
+   */
+  readonly onSimulation?: (sim: Simulation) => void;
+  /** Log rows `currentState` carries for a viewer who arrives late (the newest are kept). */
+  readonly recentRows?: number;
 }
 
 /**
@@ -52,6 +60,8 @@ export const DEFAULT_BACKLOG_CAPACITY = 100_000;
  * it also leaves the page's main thread more room at Max speed (30 % of the wall time, was 60 %).
  */
 export const DEFAULT_TICK_BUDGET_MS = 15;
+/** Rows a late viewer gets: about as many as the console's log shows without scrolling far. */
+export const DEFAULT_RECENT_ROWS = 500;
 
 const SECOND_US = 1_000_000;
 /** "max" runs at most this many virtual seconds per tick (a quiet bench would otherwise race through hours). */
@@ -90,6 +100,8 @@ export class LiveSession {
   private readonly maxRowsPerBatch: number;
   private readonly backlogCapacity: number;
   private readonly tickBudgetMs: number;
+  private readonly onSimulation: ((sim: Simulation) => void) | undefined;
+  private readonly recentCapacity: number;
 
   private document: unknown = undefined;
   private seed = 1;
@@ -102,6 +114,10 @@ export class LiveSession {
   private anchorUs = 0;
   private anchorWallMs = 0;
   private lastPostedClock = "";
+  /** Rows already posted, newest last, for `currentState` (at most `recentCapacity`). */
+  private recent: LogRow[] = [];
+  /** Individual addresses of KNXnet/IP tunnels: their telegrams are marked in the log. */
+  private tunnelSources: ReadonlySet<number> = new Set();
 
   private rowSeq = 0;
   private batchSeq = 0;
@@ -133,6 +149,63 @@ export class LiveSession {
     this.maxRowsPerBatch = options.maxRowsPerBatch ?? DEFAULT_MAX_ROWS_PER_BATCH;
     this.backlogCapacity = options.backlogCapacity ?? DEFAULT_BACKLOG_CAPACITY;
     this.tickBudgetMs = options.tickBudgetMs ?? DEFAULT_TICK_BUDGET_MS;
+    this.onSimulation = options.onSimulation;
+    this.recentCapacity = options.recentRows ?? DEFAULT_RECENT_ROWS;
+  }
+
+  /** The running simulation (undefined before a bench loaded); a host reads the line through it. */
+  get simulation(): Simulation | undefined {
+    return this.sim;
+  }
+
+  /**
+   * Runs the simulation up to the wall clock now without posting anything, so
+   * something queued from outside between ticks (a tunnel's frame) starts at
+   * the present virtual time. The next tick posts what happened.
+   */
+  advanceToNow(): void {
+    this.advance();
+  }
+
+  /** Marks telegrams sent from these individual addresses (KNXnet/IP tunnels) in the log's `tunnel` field. */
+  setTunnelSources(addresses: Iterable<number>): void {
+    this.tunnelSources = new Set(addresses);
+  }
+
+  /**
+   * The whole current state as messages for a viewer who arrives now (a
+   * server session's new watcher): the bench ("loaded", fresh), then one batch
+   * with every device, every active fault, the latest chart samples and the
+   * recent log rows already posted to others. Rows still waiting go out with
+   * the next tick's batch to everyone, so a late viewer sees each row once.
+   * Nothing of the session changes; empty before a bench is loaded.
+   */
+  currentState(): SimMessage[] {
+    const sim = this.sim;
+    const loaded = this.loaded;
+    if (sim === undefined || loaded === undefined) return [];
+    const clock = this.clock();
+    return [
+      {
+        type: "loaded",
+        bench: summarizeBench(loaded),
+        document: loaded.bench,
+        clock,
+        fresh: true,
+      },
+      {
+        type: "batch",
+        seq: this.batchSeq,
+        clock,
+        rows: this.recent.slice(-this.recentCapacity),
+        dropped: 0,
+        devices: loaded.devices.map((device) => this.snapshot(sim, device.id)),
+        faults: this.activeFaults(sim),
+        rooms: this.roomSamples(sim),
+        busLoad: [],
+        rates: [],
+      },
+    ];
   }
 
   /** Virtual time now, µs (0 before a bench is loaded). */
@@ -329,6 +402,7 @@ export class LiveSession {
     this.busLoad = [];
     this.rates = [];
     this.rowSeq = 0;
+    this.recent = [];
     if (this.recorder !== undefined) {
       this.recorder = undefined;
       this.post({ type: "recording", on: false, actions: [], settleUs: 0 });
@@ -351,6 +425,7 @@ export class LiveSession {
     const sim = new Simulation(loaded.value, { seed: this.seed, traceCapacity: 0 });
     this.sim = sim;
     this.unsubscribe = sim.subscribe((event) => this.onTrace(event));
+    this.onSimulation?.(sim);
     for (const device of loaded.value.devices) this.dirtyDevices.add(device.id);
     this.faultsDirty = true;
     this.anchor();
@@ -444,7 +519,11 @@ export class LiveSession {
 
   /** The latest chart sample of every device whose type offers one (`roomSample`); only the newest is kept per batch. */
   private sampleRooms(): void {
-    const sim = this.sim!;
+    const samples = this.roomSamples(this.sim!);
+    if (samples.length > 0) this.roomSample = samples;
+  }
+
+  private roomSamples(sim: Simulation): RoomSample[] {
     const samples: RoomSample[] = [];
     for (const device of this.loaded!.devices) {
       const sample = device.type.roomSample?.(sim.deviceState(device.id));
@@ -457,7 +536,7 @@ export class LiveSession {
         power: sample.power,
       });
     }
-    if (samples.length > 0) this.roomSample = samples;
+    return samples;
   }
 
   // ---------------------------------------------------------------- trace -> rows
@@ -466,7 +545,11 @@ export class LiveSession {
     this.recorder?.onEvent(event);
     switch (event.kind) {
       case "telegram.sent": {
-        this.awaiting.set(event.telegramId, this.telegramRow(event));
+        const row = this.telegramRow(event);
+        // A tunnel has no device id; the test tool has none either, but never a tunnel's address.
+        if (event.deviceId === undefined && this.tunnelSources.has(event.source))
+          row.tunnel = row.source;
+        this.awaiting.set(event.telegramId, row);
         return;
       }
       case "telegram.acked":
@@ -670,7 +753,20 @@ export class LiveSession {
     this.dropped = 0;
     this.busLoad = [];
     this.rates = [];
+    this.remember(rows);
     this.post(message);
+  }
+
+  private remember(rows: readonly LogRow[]): void {
+    if (this.recentCapacity === 0 || rows.length === 0) return;
+    if (rows.length >= this.recentCapacity) {
+      this.recent = rows.slice(rows.length - this.recentCapacity);
+      return;
+    }
+    this.recent.push(...rows);
+    // Trimmed in chunks, not per row: a copy per batch would cost more than the rows kept.
+    if (this.recent.length > this.recentCapacity * 2)
+      this.recent = this.recent.slice(this.recent.length - this.recentCapacity);
   }
 
   private snapshot(sim: Simulation, deviceId: string): DeviceSnapshot {

@@ -195,6 +195,18 @@ export const bodyIdCases: readonly BodyIdCase[] = [
     private: (w) => w.sandboxRevisionId,
   },
   {
+    schema: "app/api/live-sessions/schema.ts",
+    key: "benchId",
+    field: "benchId",
+    method: "POST",
+    route: "/api/live-sessions",
+    load: () => import("@/app/api/live-sessions/route"),
+    as: "engineer",
+    body: (_w, id) => ({ benchId: id }),
+    foreign: (w) => w.b.benchId,
+    private: (w) => w.sandboxBenchId,
+  },
+  {
     schema: "app/api/labs/schema.ts",
     key: "benchId",
     field: "benchId",

@@ -55,6 +55,25 @@ export const publicRoutes: readonly { method: string; route: string }[] = [
   { method: "GET", route: "/api/health" },
 ];
 
+/**
+ * Routes whose answer depends on who owns the row as well as on the role (a live
+ * session: its owner or an admin controls it), with their own role-by-owner
+ * matrix in the file named.
+ */
+export const ownerDecidedRoutes: readonly { method: string; route: string; testedIn: string }[] = [
+  ["GET", "/api/live-sessions/[sessionId]"],
+  ["DELETE", "/api/live-sessions/[sessionId]"],
+  ["GET", "/api/live-sessions/[sessionId]/events"],
+  ["POST", "/api/live-sessions/[sessionId]/commands"],
+  ["POST", "/api/live-sessions/[sessionId]/endpoint"],
+  ["DELETE", "/api/live-sessions/[sessionId]/endpoint"],
+  ["DELETE", "/api/live-sessions/[sessionId]/endpoint/clients/[channelId]"],
+].map(([method, route]) => ({
+  method: method!,
+  route: route!,
+  testedIn: "test/api/live-sessions.test.ts",
+}));
+
 /** Routes that need only a session, no capability (who am I, switching workspace). */
 export const sessionOnlyRoutes: readonly { method: string; route: string }[] = [
   { method: "GET", route: "/api/session" },
@@ -412,6 +431,24 @@ export const guardedRoutes: readonly GuardedRoute[] = [
     hidesFromOwnScope: true,
     params: (w) => ({ runId: w.a.runId }),
     body: (w) => ({ to: w.users.engineer.email, note: "Have a look" }),
+  },
+  // live sessions: starting and listing follow the table; the per-session routes decide by
+  // ownership too (owner or admin), so their matrix is in test/api/live-sessions.test.ts
+  {
+    method: "GET",
+    route: "/api/live-sessions",
+    load: () => import("@/app/api/live-sessions/route"),
+    capability: "console.use",
+    reach: "any",
+  },
+  {
+    // A shared bench: "own" scope (apprentices) may run only their own copies.
+    method: "POST",
+    route: "/api/live-sessions",
+    load: () => import("@/app/api/live-sessions/route"),
+    capability: "console.use",
+    reach: "workspace",
+    body: (w) => ({ benchId: w.a.benchId }),
   },
   // labs
   {
