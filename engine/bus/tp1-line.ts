@@ -64,11 +64,6 @@ const BUSY_WAIT_US = bitTimesToUs(BUSY_RETRY_WAIT_BIT_TIMES);
 type TelegramEventKind = Extract<TraceEvent, { telegramId: number }>["kind"];
 type Mutable<T> = { -readonly [K in keyof T]: T[K] };
 
-// Shared empty history columns: nothing is ever written to a zero-length array, and a line grows its own.
-const NO_FLOATS = new Float64Array(0);
-const NO_INTS = new Int32Array(0);
-const NO_BYTES = new Uint8Array(0);
-
 const PRIORITY_CODE: Readonly<Record<Priority, number>> = {
   system: 0,
   normal: 1,
@@ -203,16 +198,18 @@ export class Tp1Line {
   private currentAck = NO_ACK_OCTET;
 
   // Transmission history for windowed statistics, as parallel columns in a ring.
-  // The columns start small and double up to the capacity (the ring wraps only
+  // The columns start empty and double up to the capacity (the ring wraps only
   // then), so a short run, such as a scenario replay, does not pay for a long one.
+  // Plain arrays, not typed arrays: a fork of a settled run copies them, and a
+  // typed array costs far more to create.
   private readonly historyCapacity: number;
   private historyCount = 0;
   private historyNext = 0;
-  private histOccupiedStart = NO_FLOATS;
-  private histOccupiedEnd = NO_FLOATS;
-  private histBusyUs = NO_FLOATS;
-  private histDestination = NO_INTS;
-  private histRepeated = NO_BYTES;
+  private histOccupiedStart: number[] = [];
+  private histOccupiedEnd: number[] = [];
+  private histBusyUs: number[] = [];
+  private histDestination: number[] = [];
+  private histRepeated: boolean[] = [];
   private histSender: (string | undefined)[] = [];
 
   /** Totals since the start of the run. */
@@ -487,7 +484,7 @@ export class Tp1Line {
     this.histOccupiedEnd[i] = occupiedEndUs;
     this.histBusyUs[i] = busyUs;
     this.histDestination[i] = telegram.frame.destination;
-    this.histRepeated[i] = repeated ? 1 : 0;
+    this.histRepeated[i] = repeated;
     this.histSender[i] = telegram.sender.countKey;
     this.historyNext = i + 1 === this.historyCapacity ? 0 : i + 1;
     if (this.historyCount < this.historyCapacity) this.historyCount++;
@@ -510,16 +507,14 @@ export class Tp1Line {
   /** Doubles the history columns (at most to the capacity); called only before the ring first wraps. */
   private growHistory(): void {
     const size = Math.min(this.historyCapacity, Math.max(64, this.histOccupiedStart.length * 2));
-    const grown = <T extends Float64Array | Int32Array | Uint8Array>(column: T, next: T): T => {
-      next.set(column);
-      return next;
-    };
-    this.histOccupiedStart = grown(this.histOccupiedStart, new Float64Array(size));
-    this.histOccupiedEnd = grown(this.histOccupiedEnd, new Float64Array(size));
-    this.histBusyUs = grown(this.histBusyUs, new Float64Array(size));
-    this.histDestination = grown(this.histDestination, new Int32Array(size));
-    this.histRepeated = grown(this.histRepeated, new Uint8Array(size));
-    this.histSender.length = size;
+    for (let i = this.histOccupiedStart.length; i < size; i++) {
+      this.histOccupiedStart.push(0);
+      this.histOccupiedEnd.push(0);
+      this.histBusyUs.push(0);
+      this.histDestination.push(0);
+      this.histRepeated.push(false);
+      this.histSender.push(undefined);
+    }
   }
 
   /**
@@ -551,7 +546,7 @@ export class Tp1Line {
       // A transmission counts where its frame starts: after the 50 idle bit times.
       if (start + IDLE_US >= fromUs) {
         transmissions++;
-        if (this.histRepeated[index] === 0) {
+        if (!this.histRepeated[index]) {
           telegrams++;
           const destination = this.histDestination[index]!;
           byGroupAddress.set(destination, (byGroupAddress.get(destination) ?? 0) + 1);

@@ -9,9 +9,11 @@ import type {
   TransitionResult,
 } from "../devices/device-type";
 import type { Tp1Sender } from "../bus";
+import { DeviceTimers } from "./device-timers";
 import type { FaultRegistry } from "./fault-registry";
 import {
   buildObjects,
+  copyObject,
   type GroupObjectLayer,
   type LineRuntime,
   type ObjectOwner,
@@ -33,7 +35,7 @@ export interface DeviceRuntime extends ObjectOwner {
   readonly sender: Tp1Sender | undefined;
   busAnswer: number;
   /** Timer name -> generation of the live timer. */
-  readonly timers: Map<string, number>;
+  readonly timers: DeviceTimers;
   lastTakenTelegramId: number;
 }
 
@@ -130,7 +132,7 @@ export class DeviceRunner {
       line,
       sender,
       busAnswer,
-      timers: new Map(),
+      timers: new DeviceTimers(),
       lastTakenTelegramId: -1,
     };
     device.context = this.makeContext(device);
@@ -148,7 +150,7 @@ export class DeviceRunner {
     sender: Tp1Sender | undefined,
   ): DeviceRuntime {
     const objects = new Map<number, ObjectRuntime>();
-    for (const [number, object] of original.objects) objects.set(number, { ...object });
+    for (const [number, object] of original.objects) objects.set(number, copyObject(object));
     const device: DeviceRuntime = {
       index: original.index,
       id: original.id,
@@ -160,7 +162,7 @@ export class DeviceRunner {
       line,
       sender,
       busAnswer: original.busAnswer,
-      timers: new Map(original.timers),
+      timers: original.timers.copy(),
       lastTakenTelegramId: original.lastTakenTelegramId,
     };
     device.context = this.makeContext(device);

@@ -88,6 +88,23 @@ export function buildObjects(loaded: LoadedDevice, reuse: boolean): Map<number, 
   return objects;
 }
 
+/**
+ * Another run's object as it stands, for a forked run. Written out field by
+ * field: an object spread costs several times as much, and a fork copies
+ * every object of every device.
+ */
+export function copyObject(object: ObjectRuntime): ObjectRuntime {
+  return {
+    number: object.number,
+    dpt: object.dpt,
+    codec: object.codec,
+    sizeBits: object.sizeBits,
+    flags: object.flags,
+    groupAddresses: object.groupAddresses,
+    value: object.value,
+  };
+}
+
 /** A group data frame as the runtime sends it (standard hop count, not repeated). */
 export function groupFrame(
   source: number,

@@ -116,8 +116,7 @@ function isLoadedBench(value: unknown): value is LoadedBench {
 }
 
 export class Simulation {
-  // Starts small and grows: a replay usually holds a few dozen pending events, and a fresh run should cost little.
-  private readonly scheduler = new Scheduler(64);
+  private readonly scheduler: Scheduler;
   private readonly traceLog: Trace;
   private readonly emitter: TraceEmitter;
   private readonly faults: FaultRegistry;
@@ -142,6 +141,9 @@ export class Simulation {
    * run as it stands instead: nothing is started, everything is copied.
    */
   constructor(bench: LoadedBench, options: SimulationOptions, original?: Simulation) {
+    // Starts small and grows: a replay usually holds a few dozen pending events, and a
+    // fresh run should cost little; a fork takes over its original's queue whole.
+    this.scheduler = new Scheduler(original === undefined ? 64 : 0);
     this.loadedBench = bench;
     this.options = options;
     this.reuse = options.reuse ?? true;

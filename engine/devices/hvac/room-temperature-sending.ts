@@ -84,10 +84,15 @@ export function sampleRoomTemperature(
   config: RoomTemperatureSending,
 ): SenderStep {
   const value = quantize(valueC);
-  const next = { ...state, currentC: value };
+  // Most readings change nothing here; an unchanged state is kept rather than copied.
+  const next = state.currentC === value ? state : { ...state, currentC: value };
   if (!sendsOnChange(config)) return { state: next, sendC: null, timerDelayUs: null };
   if (!changedEnough(state, value, config))
-    return { state: { ...next, pending: false }, sendC: null, timerDelayUs: null };
+    return {
+      state: next.pending ? { ...next, pending: false } : next,
+      sendC: null,
+      timerDelayUs: null,
+    };
   const minIntervalUs = Math.round(config.minIntervalS * US_PER_S);
   if (state.lastSentUs === null || nowUs - state.lastSentUs >= minIntervalUs)
     return sendNow(state, value, nowUs);

@@ -80,7 +80,8 @@ function report(
 ): { state: IndoorUnitState; effects: DeviceEffect[] } {
   const message = statusMessage(state, context, refusal);
   return {
-    state: { ...state, reportedRoomC: message.roomC },
+    state:
+      state.reportedRoomC === message.roomC ? state : { ...state, reportedRoomC: message.roomC },
     effects: context.links.map((link) => ({ kind: "link.send", link, message })),
   };
 }
@@ -88,8 +89,11 @@ function report(
 function resolveAutoDirection(state: IndoorUnitState, hysteresisK: number): IndoorUnitState {
   const controlC = controlTemperatureC(state);
   if (controlC === null) return state;
-  if (controlC < state.setpointC - hysteresisK) return { ...state, autoDirection: "heating" };
-  if (controlC > state.setpointC + hysteresisK) return { ...state, autoDirection: "cooling" };
+  // States are copied field by field, so an unchanged direction keeps the state as it is.
+  if (controlC < state.setpointC - hysteresisK && state.autoDirection !== "heating")
+    return { ...state, autoDirection: "heating" };
+  if (controlC > state.setpointC + hysteresisK && state.autoDirection !== "cooling")
+    return { ...state, autoDirection: "cooling" };
   return state;
 }
 
@@ -112,9 +116,11 @@ function modeAllowed(state: IndoorUnitState, mode: HvacMode, context: Context): 
 function evaluateLinkFault(
   state: IndoorUnitState,
   context: Context,
+  /** The controllers as just heard (an announcement); the state's own by default. */
+  known: IndoorUnitState["controllers"] = state.controllers,
 ): { state: IndoorUnitState; effects: DeviceEffect[]; transition?: string } {
-  // Runs on every announcement, so it copies the controllers only when one has gone quiet.
-  const known = state.controllers;
+  // Runs on every announcement, so it copies the controllers only when one has gone quiet,
+  // and the state only when its controllers changed.
   const oldestLiveUs = context.nowUs - CONTROLLER_TIMEOUT_US;
   let primaries = 0;
   let anyGone = false;
@@ -132,7 +138,7 @@ function evaluateLinkFault(
   let fault: HvacFaultId | null = null;
   if (primaries >= 2) fault = hvacFaults.twoPrimaries;
   else if (primaries === 0 && state.supervising) fault = hvacFaults.noPrimary;
-  const next = { ...state, controllers };
+  const next = controllers === state.controllers ? state : { ...state, controllers };
   if (fault === state.linkFault) return { state: next, effects: [] };
   const effects: DeviceEffect[] = [];
   if (state.linkFault !== null) effects.push({ kind: "fault.clear", fault: state.linkFault });
@@ -317,15 +323,16 @@ function stepModel(state: IndoorUnitState, context: Context): Result {
   );
   const before = state.autoDirection;
   const ranS = state.power ? (context.nowUs - state.lastStepUs) / US_PER_S : 0;
+  const hold = fanHoldAt(state, asked === "heating", context);
+  const holdChanged = hold.fanHeld !== state.fanHeld;
+  // One copy of the state per step (the hold reads the state before it): copies cost per field.
   const stepped = resolveAutoDirection(
-    { ...state, roomC, lastStepUs: context.nowUs, filterRunS: state.filterRunS + ranS },
+    { ...state, roomC, lastStepUs: context.nowUs, filterRunS: state.filterRunS + ranS, ...hold },
     parameters.autoHysteresisK,
   );
   const frostActive = frostActiveAfter(stepped, context);
   const frostChanged = frostActive !== state.frostActive;
-  const hold = fanHoldAt(state, asked === "heating", context);
-  const holdChanged = hold.fanHeld !== state.fanHeld;
-  const next = { ...stepped, frostActive, ...hold };
+  const next = frostChanged ? { ...stepped, frostActive } : stepped;
   const filterChanged = filterDue(next, context) !== filterDue(state, context);
   const effects: DeviceEffect[] = [
     { kind: "timer.set", name: MODEL_TIMER, delayUs: Math.round(parameters.modelStepS * US_PER_S) },
@@ -366,7 +373,7 @@ function receive(state: IndoorUnitState, from: string, raw: unknown, context: Co
         ...state.controllers,
         [from]: { role: message.role, controller: message.controller, lastSeenUs: context.nowUs },
       };
-      return evaluateLinkFault({ ...state, controllers }, context);
+      return evaluateLinkFault(state, context, controllers);
     }
     case "unit.command":
       return applyCommand(state, message, from, context);
@@ -428,7 +435,10 @@ export function indoorUnitTransition(
     case "timer":
       if (event.name === MODEL_TIMER) return stepModel(state, context);
       if (event.name === SUPERVISION_TIMER) {
-        const evaluated = evaluateLinkFault({ ...state, supervising: true }, context);
+        const evaluated = evaluateLinkFault(
+          state.supervising ? state : { ...state, supervising: true },
+          context,
+        );
         const alive: UnitAlive = { kind: "unit.alive" };
         return {
           ...evaluated,
