@@ -13,7 +13,6 @@ import { DeviceTimers } from "./device-timers";
 import type { FaultRegistry } from "./fault-registry";
 import {
   buildObjects,
-  copyObject,
   type GroupObjectLayer,
   type LineRuntime,
   type ObjectOwner,
@@ -29,7 +28,8 @@ export interface DeviceRuntime extends ObjectOwner {
   loaded: LoadedDevice;
   readonly type: AnyDeviceType;
   state: unknown;
-  objects: Map<number, ObjectRuntime>;
+  objects: ReadonlyMap<number, ObjectRuntime>;
+  values: unknown[];
   context: DeviceContext<unknown>;
   readonly line: LineRuntime | undefined;
   readonly sender: Tp1Sender | undefined;
@@ -68,7 +68,8 @@ class RuntimeContext implements DeviceContext<unknown> {
   }
 
   objectValue(object: number): unknown {
-    return this.device.objects.get(object)?.value;
+    const spec = this.device.objects.get(object);
+    return spec === undefined ? undefined : this.device.values[spec.slot];
   }
 
   random(): number {
@@ -121,13 +122,15 @@ export class DeviceRunner {
     sender: Tp1Sender | undefined,
     busAnswer: number,
   ): DeviceRuntime {
+    const { objects, values } = buildObjects(loaded, this.reuse);
     const device: DeviceRuntime = {
       index,
       id: loaded.id,
       loaded,
       type: loaded.type,
       state: loaded.type.initialState(loaded.parameters),
-      objects: buildObjects(loaded, this.reuse),
+      objects,
+      values,
       context: undefined as unknown as DeviceContext<unknown>,
       line,
       sender,
@@ -142,22 +145,21 @@ export class DeviceRunner {
   /**
    * A device of another run as it stands (state, stored values, timers), for a
    * forked run. States and values are never changed in place, so they are
-   * shared; the containers are copied.
+   * shared, and so are the object specs; the containers are copied.
    */
   copy(
     original: DeviceRuntime,
     line: LineRuntime | undefined,
     sender: Tp1Sender | undefined,
   ): DeviceRuntime {
-    const objects = new Map<number, ObjectRuntime>();
-    for (const [number, object] of original.objects) objects.set(number, copyObject(object));
     const device: DeviceRuntime = {
       index: original.index,
       id: original.id,
       loaded: original.loaded,
       type: original.type,
       state: original.state,
-      objects,
+      objects: original.objects,
+      values: original.values.slice(),
       context: undefined as unknown as DeviceContext<unknown>,
       line,
       sender,
@@ -196,7 +198,9 @@ export class DeviceRunner {
    */
   reset(device: DeviceRuntime, loaded: LoadedDevice): void {
     device.loaded = loaded;
-    device.objects = buildObjects(loaded, this.reuse);
+    const { objects, values } = buildObjects(loaded, this.reuse);
+    device.objects = objects;
+    device.values = values;
     device.context = this.makeContext(device);
     device.state = device.type.initialState(loaded.parameters);
     device.timers.clear();

@@ -209,7 +209,7 @@ export class Simulation {
       this.devices.push(device);
       this.deviceById.set(device.id, device);
     });
-    this.objects.rebuildListeners(this.lines.values(), this.devices);
+    this.objects.rebuildListeners(this.lines.values(), bench, this.devices);
     this.inputs = new InputDispatch({
       clock: this.scheduler,
       emitter: this.emitter,
@@ -220,7 +220,8 @@ export class Simulation {
       reuse: this.reuse,
       bench: benchNow,
       setBench: (next) => (this.loadedBench = next),
-      rebuildListeners: () => this.objects.rebuildListeners(this.lines.values(), this.devices),
+      rebuildListeners: () =>
+        this.objects.rebuildListeners(this.lines.values(), this.loadedBench, this.devices),
       queueFromTestTool: (frame) =>
         this.testToolLine.line.queue(this.testToolSender, frame, this.telegramIds.next()).id,
     });
@@ -374,7 +375,9 @@ export class Simulation {
 
   /** Stored value of a device's group object (undefined before it has one). */
   objectValue(deviceId: string, object: number): unknown {
-    return this.deviceById.get(deviceId)?.objects.get(object)?.value;
+    const device = this.deviceById.get(deviceId);
+    const spec = device?.objects.get(object);
+    return spec === undefined ? undefined : device!.values[spec.slot];
   }
 
   /** Active faults of a device, or of a unit link, by id. */
