@@ -1,7 +1,7 @@
 import type { LoadedBench, LoadedDevice } from "../bench";
 import type { SequentialIds } from "../core/ids";
-import type { DeviceEvent, GroupObjectFlags } from "../devices/device-type";
-import { getDpt, type DptCodec } from "../dpt";
+import type { DeviceEvent } from "../devices/device-type";
+import { getDpt } from "../dpt";
 import {
   ACK_OCTET,
   DEFAULT_HOP_COUNT,
