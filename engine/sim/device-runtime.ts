@@ -179,7 +179,12 @@ export class DeviceRunner {
   /** The fork's copy of a queued timer of another run, for `device` (the fork's device). */
   copyTimer(entry: unknown, device: (original: DeviceRuntime) => DeviceRuntime): TimerEntry {
     const timer = entry as TimerEntry;
-    return { ...timer, device: device(timer.device) };
+    return {
+      device: device(timer.device),
+      name: timer.name,
+      generation: timer.generation,
+      data: timer.data,
+    };
   }
 
   /** The `start` event, then the read-on-init reads. */

@@ -17,7 +17,7 @@ import {
   type UnitStatus,
 } from "../hvac/unit-link-messages";
 import { FROST_BAND_K, unitSetpointC, type IndoorUnitParameters } from "./parameters";
-import type { IndoorUnitState, KnownController } from "./state";
+import { rebuiltIndoorUnitState, type IndoorUnitState, type KnownController } from "./state";
 import { stepRoomTemperature } from "./thermal-model";
 
 type Context = DeviceContext<IndoorUnitParameters>;
@@ -400,7 +400,11 @@ function receive(state: IndoorUnitState, from: string, raw: unknown, context: Co
         state.system?.authority !== message.authority;
       if (!changed) return { state: next, effects: [] };
       const reported = report(next, context);
-      return { ...reported, transition: "system.state-changed" };
+      return {
+        state: reported.state,
+        effects: reported.effects,
+        transition: "system.state-changed",
+      };
     }
     case "unit.status":
     case "unit.alive":
@@ -415,6 +419,16 @@ export function indoorUnitTransition(
   event: DeviceEvent,
   context: Context,
 ): Result {
+  const result = unitTransition(state, event, context);
+  if (result.state === state) return result;
+  // One shape for every new state keeps the model's spreads fast (see rebuiltIndoorUnitState).
+  const rebuilt = rebuiltIndoorUnitState(result.state);
+  return result.transition === undefined
+    ? { state: rebuilt, effects: result.effects }
+    : { state: rebuilt, effects: result.effects, transition: result.transition };
+}
+
+function unitTransition(state: IndoorUnitState, event: DeviceEvent, context: Context): Result {
   switch (event.kind) {
     case "start": {
       const reported = report({ ...state, lastStepUs: context.nowUs }, context);
