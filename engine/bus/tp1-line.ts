@@ -198,10 +198,10 @@ export class Tp1Line {
   private currentAck = NO_ACK_OCTET;
 
   // Transmission history for windowed statistics, as parallel columns in a ring.
-  // The columns start empty and double up to the capacity (the ring wraps only
-  // then), so a short run, such as a scenario replay, does not pay for a long one.
-  // Plain arrays, not typed arrays: a fork of a settled run copies them, and a
-  // typed array costs far more to create.
+  // The columns grow one entry per transmission up to the capacity (the ring
+  // wraps only then), so a short run, such as a scenario replay, does not pay for
+  // a long one. Plain arrays, not typed arrays: a fork of a settled run copies
+  // them, and a typed array costs far more to create.
   private readonly historyCapacity: number;
   private historyCount = 0;
   private historyNext = 0;
@@ -255,7 +255,7 @@ export class Tp1Line {
     this.historyCount = other.historyCount;
     this.historyNext = other.historyNext;
     // A settled run often has sent nothing yet; its empty columns need no copies.
-    if (other.histOccupiedStart.length > 0) {
+    if (other.historyCount > 0) {
       this.histOccupiedStart = other.histOccupiedStart.slice();
       this.histOccupiedEnd = other.histOccupiedEnd.slice();
       this.histBusyUs = other.histBusyUs.slice();
@@ -479,7 +479,7 @@ export class Tp1Line {
   ): void {
     const repeated = telegram.transmissions > 1;
     const i = this.historyNext;
-    if (i === this.histOccupiedStart.length) this.growHistory();
+    // Before the ring first wraps, `i` is the columns' length: the writes append.
     this.histOccupiedStart[i] = occupiedStartUs;
     this.histOccupiedEnd[i] = occupiedEndUs;
     this.histBusyUs[i] = busyUs;
@@ -501,19 +501,6 @@ export class Tp1Line {
       );
       const key = telegram.sender.countKey;
       this.telegramsBySender.set(key, (this.telegramsBySender.get(key) ?? 0) + 1);
-    }
-  }
-
-  /** Doubles the history columns (at most to the capacity); called only before the ring first wraps. */
-  private growHistory(): void {
-    const size = Math.min(this.historyCapacity, Math.max(64, this.histOccupiedStart.length * 2));
-    for (let i = this.histOccupiedStart.length; i < size; i++) {
-      this.histOccupiedStart.push(0);
-      this.histOccupiedEnd.push(0);
-      this.histBusyUs.push(0);
-      this.histDestination.push(0);
-      this.histRepeated.push(false);
-      this.histSender.push(undefined);
     }
   }
 
