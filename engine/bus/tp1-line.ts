@@ -64,6 +64,17 @@ const BUSY_WAIT_US = bitTimesToUs(BUSY_RETRY_WAIT_BIT_TIMES);
 type TelegramEventKind = Extract<TraceEvent, { telegramId: number }>["kind"];
 type Mutable<T> = { -readonly [K in keyof T]: T[K] };
 
+/**
+ * An empty array that holds doubles from the start: history times pass the
+ * small-integer range after about 36 virtual minutes, and an array changing its
+ * kind then would leave the code that writes it handling two kinds at once.
+ */
+function noDoubles(): number[] {
+  const array = [0.5];
+  array.pop();
+  return array;
+}
+
 const PRIORITY_CODE: Readonly<Record<Priority, number>> = {
   system: 0,
   normal: 1,
@@ -205,8 +216,8 @@ export class Tp1Line {
   private readonly historyCapacity: number;
   private historyCount = 0;
   private historyNext = 0;
-  private histOccupiedStart: number[] = [];
-  private histOccupiedEnd: number[] = [];
+  private histOccupiedStart = noDoubles();
+  private histOccupiedEnd = noDoubles();
   private histBusyUs: number[] = [];
   private histDestination: number[] = [];
   private histRepeated: boolean[] = [];

@@ -29,6 +29,19 @@ function zeros(length: number): number[] {
   return array;
 }
 
+/**
+ * `length` zeros in an array that holds doubles from the start. Times pass the
+ * small-integer range after about 36 virtual minutes; an array that changed its
+ * kind then would leave the queue code handling two kinds of array at once
+ * (every new run starts small-integer again), which is slower for all runs.
+ */
+function doubles(length: number): number[] {
+  const array = [0.5];
+  array.pop();
+  for (let i = 0; i < length; i++) array.push(0);
+  return array;
+}
+
 export class Scheduler {
   /** Virtual time now, integer microseconds. */
   nowUs = 0;
@@ -53,7 +66,7 @@ export class Scheduler {
   constructor(initialCapacity = 256) {
     const capacity = Math.max(16, initialCapacity);
     this.heap = zeros(capacity);
-    this.slotTimeUs = zeros(capacity);
+    this.slotTimeUs = doubles(capacity);
     this.slotSeq = zeros(capacity);
     this.slotTag = zeros(capacity);
     this.slotArg = zeros(capacity);
