@@ -53,8 +53,12 @@ export interface IndoorUnitState {
  * and a state spread over and over (`{ ...state, x }` at every step) soon makes
  * every spread in the model take the slow generic path; a state rebuilt here
  * always has one shape, so the spreads stay fast. Must list every field.
+ * `reportedRoomC` may be given anew: reporting, which every path ends in, sets it.
  */
-export function rebuiltIndoorUnitState(s: IndoorUnitState): IndoorUnitState {
+export function rebuiltIndoorUnitState(
+  s: IndoorUnitState,
+  reportedRoomC: number | null = s.reportedRoomC,
+): IndoorUnitState {
   return {
     power: s.power,
     mode: s.mode,
@@ -77,6 +81,6 @@ export function rebuiltIndoorUnitState(s: IndoorUnitState): IndoorUnitState {
     supervising: s.supervising,
     system: s.system,
     lastStepUs: s.lastStepUs,
-    reportedRoomC: s.reportedRoomC,
+    reportedRoomC,
   };
 }

@@ -80,8 +80,9 @@ function report(
 ): { state: IndoorUnitState; effects: DeviceEffect[] } {
   const message = statusMessage(state, context, refusal);
   return {
+    // Rebuilt, not spread: states from every path end here (see rebuiltIndoorUnitState).
     state:
-      state.reportedRoomC === message.roomC ? state : { ...state, reportedRoomC: message.roomC },
+      state.reportedRoomC === message.roomC ? state : rebuiltIndoorUnitState(state, message.roomC),
     effects: context.links.map((link) => ({ kind: "link.send", link, message })),
   };
 }
