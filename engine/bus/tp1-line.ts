@@ -64,10 +64,16 @@ const BUSY_WAIT_US = bitTimesToUs(BUSY_RETRY_WAIT_BIT_TIMES);
 type TelegramEventKind = Extract<TraceEvent, { telegramId: number }>["kind"];
 type Mutable<T> = { -readonly [K in keyof T]: T[K] };
 
-// Shared empty history columns: nothing is ever written to a zero-length array, and a line grows its own.
-const NO_FLOATS = new Float64Array(0);
-const NO_INTS = new Int32Array(0);
-const NO_BYTES = new Uint8Array(0);
+/**
+ * An empty array that holds doubles from the start: history times pass the
+ * small-integer range after about 36 virtual minutes, and an array changing its
+ * kind then would leave the code that writes it handling two kinds at once.
+ */
+function noDoubles(): number[] {
+  const array = [0.5];
+  array.pop();
+  return array;
+}
 
 const PRIORITY_CODE: Readonly<Record<Priority, number>> = {
   system: 0,
@@ -205,16 +211,18 @@ export class Tp1Line {
   private currentAck = NO_ACK_OCTET;
 
   // Transmission history for windowed statistics, as parallel columns in a ring.
-  // The columns start small and double up to the capacity (the ring wraps only
-  // then), so a short run, such as a scenario replay, does not pay for a long one.
+  // The columns grow one entry per transmission up to the capacity (the ring
+  // wraps only then), so a short run, such as a scenario replay, does not pay for
+  // a long one. Plain arrays, not typed arrays: a fork of a settled run copies
+  // them, and a typed array costs far more to create.
   private readonly historyCapacity: number;
   private historyCount = 0;
   private historyNext = 0;
-  private histOccupiedStart = NO_FLOATS;
-  private histOccupiedEnd = NO_FLOATS;
-  private histBusyUs = NO_FLOATS;
-  private histDestination = NO_INTS;
-  private histRepeated = NO_BYTES;
+  private histOccupiedStart = noDoubles();
+  private histOccupiedEnd = noDoubles();
+  private histBusyUs: number[] = [];
+  private histDestination: number[] = [];
+  private histRepeated: boolean[] = [];
   private histSender: (string | undefined)[] = [];
 
   /** Totals since the start of the run. */
@@ -260,7 +268,7 @@ export class Tp1Line {
     this.historyCount = other.historyCount;
     this.historyNext = other.historyNext;
     // A settled run often has sent nothing yet; its empty columns need no copies.
-    if (other.histOccupiedStart.length > 0) {
+    if (other.historyCount > 0) {
       this.histOccupiedStart = other.histOccupiedStart.slice();
       this.histOccupiedEnd = other.histOccupiedEnd.slice();
       this.histBusyUs = other.histBusyUs.slice();
@@ -484,12 +492,12 @@ export class Tp1Line {
   ): void {
     const repeated = telegram.transmissions > 1;
     const i = this.historyNext;
-    if (i === this.histOccupiedStart.length) this.growHistory();
+    // Before the ring first wraps, `i` is the columns' length: the writes append.
     this.histOccupiedStart[i] = occupiedStartUs;
     this.histOccupiedEnd[i] = occupiedEndUs;
     this.histBusyUs[i] = busyUs;
     this.histDestination[i] = telegram.frame.destination;
-    this.histRepeated[i] = repeated ? 1 : 0;
+    this.histRepeated[i] = repeated;
     this.histSender[i] = telegram.sender.countKey;
     this.historyNext = i + 1 === this.historyCapacity ? 0 : i + 1;
     if (this.historyCount < this.historyCapacity) this.historyCount++;
@@ -507,21 +515,6 @@ export class Tp1Line {
       const key = telegram.sender.countKey;
       this.telegramsBySender.set(key, (this.telegramsBySender.get(key) ?? 0) + 1);
     }
-  }
-
-  /** Doubles the history columns (at most to the capacity); called only before the ring first wraps. */
-  private growHistory(): void {
-    const size = Math.min(this.historyCapacity, Math.max(64, this.histOccupiedStart.length * 2));
-    const grown = <T extends Float64Array | Int32Array | Uint8Array>(column: T, next: T): T => {
-      next.set(column);
-      return next;
-    };
-    this.histOccupiedStart = grown(this.histOccupiedStart, new Float64Array(size));
-    this.histOccupiedEnd = grown(this.histOccupiedEnd, new Float64Array(size));
-    this.histBusyUs = grown(this.histBusyUs, new Float64Array(size));
-    this.histDestination = grown(this.histDestination, new Int32Array(size));
-    this.histRepeated = grown(this.histRepeated, new Uint8Array(size));
-    this.histSender.length = size;
   }
 
   /**
@@ -553,7 +546,7 @@ export class Tp1Line {
       // A transmission counts where its frame starts: after the 50 idle bit times.
       if (start + IDLE_US >= fromUs) {
         transmissions++;
-        if (this.histRepeated[index] === 0) {
+        if (!this.histRepeated[index]) {
           telegrams++;
           const destination = this.histDestination[index]!;
           byGroupAddress.set(destination, (byGroupAddress.get(destination) ?? 0) + 1);

@@ -7,21 +7,39 @@
  * so events at the same microsecond come out in the order they were scheduled:
  * that stable order is what makes a run reproducible.
  *
- * The heap is kept in parallel typed arrays indexed by slot, with a free list of
+ * The heap is kept in parallel arrays indexed by slot, with a free list of
  * slots, so scheduling and taking an event allocate nothing once the arrays have
- * grown to the run's working size. An event is a small integer `tag` saying what
- * to do, an integer `arg` (usually an index into the caller's tables) and an
- * optional object `payload`. Cancellation is left to callers (generation
- * counters), which is cheaper than removing from the middle of a heap.
+ * grown to the run's working size. They are plain arrays of numbers rather than
+ * typed arrays: a typed array costs far more to create (every run, and every
+ * fork of a settled run, creates a scheduler) and no faster to read. An event
+ * is a small integer `tag` saying what to do, an integer `arg` (usually an
+ * index into the caller's tables) and an optional object `payload`.
+ * Cancellation is left to callers (generation counters), which is cheaper than
+ * removing from the middle of a heap.
  *
  * Owners of events (a line, the device runtime) `register` a handler and get
  * the tag to schedule with; `run` and `runOne` dispatch each event to it.
  */
 export type EventHandler = (arg: number, payload: unknown) => void;
 
-function fill<T extends Int32Array | Float64Array>(target: T, source: T): T {
-  target.set(source);
-  return target;
+/** `length` zeros, as a packed array (a hole-free array reads faster). */
+function zeros(length: number): number[] {
+  const array: number[] = [];
+  for (let i = 0; i < length; i++) array.push(0);
+  return array;
+}
+
+/**
+ * `length` zeros in an array that holds doubles from the start. Times pass the
+ * small-integer range after about 36 virtual minutes; an array that changed its
+ * kind then would leave the queue code handling two kinds of array at once
+ * (every new run starts small-integer again), which is slower for all runs.
+ */
+function doubles(length: number): number[] {
+  const array = [0.5];
+  array.pop();
+  for (let i = 0; i < length; i++) array.push(0);
+  return array;
 }
 
 export class Scheduler {
@@ -33,27 +51,27 @@ export class Scheduler {
   firedArg = 0;
   firedPayload: unknown = undefined;
 
-  private heap: Int32Array;
+  private heap: number[];
   private size = 0;
-  private slotTimeUs: Float64Array;
-  private slotSeq: Float64Array;
-  private slotTag: Int32Array;
-  private slotArg: Float64Array;
+  private slotTimeUs: number[];
+  private slotSeq: number[];
+  private slotTag: number[];
+  private slotArg: number[];
   private slotPayload: unknown[];
-  private freeSlots: Int32Array;
+  private freeSlots: number[];
   private freeCount: number;
   private seq = 0;
   private readonly handlers: EventHandler[] = [];
 
   constructor(initialCapacity = 256) {
     const capacity = Math.max(16, initialCapacity);
-    this.heap = new Int32Array(capacity);
-    this.slotTimeUs = new Float64Array(capacity);
-    this.slotSeq = new Float64Array(capacity);
-    this.slotTag = new Int32Array(capacity);
-    this.slotArg = new Float64Array(capacity);
+    this.heap = zeros(capacity);
+    this.slotTimeUs = doubles(capacity);
+    this.slotSeq = zeros(capacity);
+    this.slotTag = zeros(capacity);
+    this.slotArg = zeros(capacity);
     this.slotPayload = new Array<unknown>(capacity).fill(undefined);
-    this.freeSlots = new Int32Array(capacity);
+    this.freeSlots = zeros(capacity);
     for (let i = 0; i < capacity; i++) this.freeSlots[i] = capacity - 1 - i;
     this.freeCount = capacity;
   }
@@ -163,14 +181,12 @@ export class Scheduler {
     if (other.handlers.length !== this.handlers.length)
       throw new Error("Scheduler.copyFrom: the two schedulers have different handlers");
     this.nowUs = other.nowUs;
-    // Typed arrays cost far more to allocate than to fill, so arrays of the same size are filled in place.
-    const same = this.heap.length === other.heap.length;
-    this.heap = same ? fill(this.heap, other.heap) : other.heap.slice();
-    this.slotTimeUs = same ? fill(this.slotTimeUs, other.slotTimeUs) : other.slotTimeUs.slice();
-    this.slotSeq = same ? fill(this.slotSeq, other.slotSeq) : other.slotSeq.slice();
-    this.slotTag = same ? fill(this.slotTag, other.slotTag) : other.slotTag.slice();
-    this.slotArg = same ? fill(this.slotArg, other.slotArg) : other.slotArg.slice();
-    this.freeSlots = same ? fill(this.freeSlots, other.freeSlots) : other.freeSlots.slice();
+    this.heap = other.heap.slice();
+    this.slotTimeUs = other.slotTimeUs.slice();
+    this.slotSeq = other.slotSeq.slice();
+    this.slotTag = other.slotTag.slice();
+    this.slotArg = other.slotArg.slice();
+    this.freeSlots = other.freeSlots.slice();
     this.size = other.size;
     this.slotPayload = other.slotPayload.map((payload, slot) =>
       payload === undefined ? undefined : copyPayload(other.slotTag[slot]!, payload),
@@ -216,27 +232,18 @@ export class Scheduler {
   private grow(): void {
     const old = this.heap.length;
     const capacity = old * 2;
-    const heap = new Int32Array(capacity);
-    heap.set(this.heap);
-    this.heap = heap;
-    const time = new Float64Array(capacity);
-    time.set(this.slotTimeUs);
-    this.slotTimeUs = time;
-    const seq = new Float64Array(capacity);
-    seq.set(this.slotSeq);
-    this.slotSeq = seq;
-    const tag = new Int32Array(capacity);
-    tag.set(this.slotTag);
-    this.slotTag = tag;
-    const arg = new Float64Array(capacity);
-    arg.set(this.slotArg);
-    this.slotArg = arg;
-    for (let i = old; i < capacity; i++) this.slotPayload.push(undefined);
-    const free = new Int32Array(capacity);
+    for (let i = old; i < capacity; i++) {
+      this.heap.push(0);
+      this.slotTimeUs.push(0);
+      this.slotSeq.push(0);
+      this.slotTag.push(0);
+      this.slotArg.push(0);
+      this.slotPayload.push(undefined);
+      this.freeSlots.push(0);
+    }
     // Every old slot is in use when we grow, so the free list is exactly the new slots.
     let count = 0;
-    for (let i = capacity - 1; i >= old; i--) free[count++] = i;
-    this.freeSlots = free;
+    for (let i = capacity - 1; i >= old; i--) this.freeSlots[count++] = i;
     this.freeCount = count;
   }
 }

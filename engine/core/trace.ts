@@ -236,7 +236,7 @@ export interface TraceOptions {
 
 export class Trace {
   private readonly capacity: number;
-  private readonly buffer: TraceEvent[] = [];
+  private buffer: TraceEvent[] = [];
   /** Index of the oldest event in the ring once it has wrapped. */
   private head = 0;
   private listeners: TraceListener[] = [];
@@ -275,8 +275,7 @@ export class Trace {
 
   /** Takes over `other`'s kept events (shared: events are never changed), for a forked run. */
   copyFrom(other: Trace): void {
-    this.buffer.length = 0;
-    for (let i = 0; i < other.buffer.length; i++) this.buffer.push(other.buffer[i]!);
+    this.buffer = other.buffer.slice();
     this.head = other.head;
     this.total = other.total;
   }

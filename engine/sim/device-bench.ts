@@ -130,7 +130,7 @@ export class DeviceBench {
     const device = this.device(deviceId);
     if (event.kind === "group.write" || event.kind === "group.response") {
       const object = device.objects.get(event.object);
-      if (object !== undefined) object.value = event.value;
+      if (object !== undefined) device.values[object.slot] = event.value;
     }
     return this.runner.transition(device, event);
   }
@@ -159,7 +159,9 @@ export class DeviceBench {
   }
 
   objectValue(deviceId: string, object: number): unknown {
-    return this.device(deviceId).objects.get(object)?.value;
+    const device = this.device(deviceId);
+    const spec = device.objects.get(object);
+    return spec === undefined ? undefined : device.values[spec.slot];
   }
 
   private device(id: string): DeviceRuntime {

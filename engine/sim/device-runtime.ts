@@ -10,6 +10,7 @@ import {
   type TransitionResult,
 } from "../devices/device-type";
 import { NO_ACK_OCTET, type Tp1Sender } from "../bus";
+import { DeviceTimers } from "./device-timers";
 import type { FaultRegistry } from "./fault-registry";
 import {
   buildObjects,
@@ -42,13 +43,14 @@ export interface DeviceRuntime extends ObjectOwner {
   loaded: LoadedDevice;
   readonly type: AnyDeviceType;
   state: unknown;
-  objects: Map<number, ObjectRuntime>;
+  objects: ReadonlyMap<number, ObjectRuntime>;
+  values: unknown[];
   context: DeviceContext<unknown>;
   readonly line: LineRuntime | undefined;
   readonly sender: Tp1Sender | undefined;
   busAnswer: number;
   /** Timer name -> generation of the live timer. */
-  readonly timers: Map<string, number>;
+  readonly timers: DeviceTimers;
   lastTakenTelegramId: number;
   /** The room the device reads and drives (a bench room or its own); undefined: none. */
   roomId: string | undefined;
@@ -86,7 +88,8 @@ class RuntimeContext implements DeviceContext<unknown> {
   }
 
   objectValue(object: number): unknown {
-    return this.device.objects.get(object)?.value;
+    const spec = this.device.objects.get(object);
+    return spec === undefined ? undefined : this.device.values[spec.slot];
   }
 
   random(): number {
@@ -150,18 +153,20 @@ export class DeviceRunner {
     sender: Tp1Sender | undefined,
     busAnswer: number,
   ): DeviceRuntime {
+    const { objects, values } = buildObjects(loaded, this.reuse);
     const device: DeviceRuntime = {
       index,
       id: loaded.id,
       loaded,
       type: loaded.type,
       state: loaded.type.initialState(loaded.parameters),
-      objects: buildObjects(loaded, this.reuse),
+      objects,
+      values,
       context: undefined as unknown as DeviceContext<unknown>,
       line,
       sender,
       busAnswer,
-      timers: new Map(),
+      timers: new DeviceTimers(),
       lastTakenTelegramId: -1,
       roomId: undefined,
       sentDuringStartup: undefined,
@@ -188,27 +193,26 @@ export class DeviceRunner {
   /**
    * A device of another run as it stands (state, stored values, timers), for a
    * forked run. States and values are never changed in place, so they are
-   * shared; the containers are copied.
+   * shared, and so are the object specs; the containers are copied.
    */
   copy(
     original: DeviceRuntime,
     line: LineRuntime | undefined,
     sender: Tp1Sender | undefined,
   ): DeviceRuntime {
-    const objects = new Map<number, ObjectRuntime>();
-    for (const [number, object] of original.objects) objects.set(number, { ...object });
     const device: DeviceRuntime = {
       index: original.index,
       id: original.id,
       loaded: original.loaded,
       type: original.type,
       state: original.state,
-      objects,
+      objects: original.objects,
+      values: original.values.slice(),
       context: undefined as unknown as DeviceContext<unknown>,
       line,
       sender,
       busAnswer: original.busAnswer,
-      timers: new Map(original.timers),
+      timers: original.timers.copy(),
       lastTakenTelegramId: original.lastTakenTelegramId,
       roomId: original.roomId,
       sentDuringStartup:
@@ -226,7 +230,12 @@ export class DeviceRunner {
   /** The fork's copy of a queued timer of another run, for `device` (the fork's device). */
   copyTimer(entry: unknown, device: (original: DeviceRuntime) => DeviceRuntime): TimerEntry {
     const timer = entry as TimerEntry;
-    return { ...timer, device: device(timer.device) };
+    return {
+      device: device(timer.device),
+      name: timer.name,
+      generation: timer.generation,
+      data: timer.data,
+    };
   }
 
   /**
@@ -277,11 +286,11 @@ export class DeviceRunner {
     this.emitter.deviceNote(device.id, "start-up: statuses sent, read-on-init objects read");
     for (const object of device.objects.values()) {
       const flags = object.flags;
-      if (!flags.communication || !flags.transmit || object.value === undefined) continue;
+      const value = device.values[object.slot];
+      if (!flags.communication || !flags.transmit || value === undefined) continue;
       if (alreadySent?.has(object.number)) continue; // sent once already since power returned
       const role = device.loaded.objects.find((o) => o.number === object.number)?.spec.role;
-      if (role === "status" || role === "output")
-        this.objects.send(device, object, object.value, "write");
+      if (role === "status" || role === "output") this.objects.send(device, object, value, "write");
     }
     this.transition(device, { kind: "timer", name: STARTUP_TIMER });
     this.readOnInit(device);
@@ -301,7 +310,9 @@ export class DeviceRunner {
    */
   reset(device: DeviceRuntime, loaded: LoadedDevice): void {
     device.loaded = loaded;
-    device.objects = buildObjects(loaded, this.reuse);
+    const { objects, values } = buildObjects(loaded, this.reuse);
+    device.objects = objects;
+    device.values = values;
     device.context = this.makeContext(device);
     device.state = device.type.initialState(loaded.parameters);
     device.timers.clear();

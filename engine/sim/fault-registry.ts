@@ -15,6 +15,9 @@ export const UNIT_LINK_BROKEN = "link.broken";
  * connection says while a bus fault is on it.
  */
 export class FaultRegistry {
+  /** The bench's devices (fixed for a run): they count as devices before any fault. */
+  private deviceIds: ReadonlySet<string>;
+  /** Faults per device, created at a device's first fault: most devices never have one, and a fork copies only these. */
   private readonly byDevice = new Map<string, Map<string, FaultSource>>();
   private readonly brokenLinks = new Set<string>();
 
@@ -22,26 +25,29 @@ export class FaultRegistry {
     private readonly emitter: TraceEmitter,
     deviceIds: Iterable<string>,
   ) {
-    for (const id of deviceIds) this.byDevice.set(id, new Map());
+    this.deviceIds = new Set(deviceIds);
   }
 
   /** Takes over `other`'s active faults, for a forked run. */
   copyFrom(other: FaultRegistry): void {
+    // Never changed after construction, so shared.
+    this.deviceIds = other.deviceIds;
     this.byDevice.clear();
     for (const [id, faults] of other.byDevice) this.byDevice.set(id, new Map(faults));
     this.brokenLinks.clear();
     for (const link of other.brokenLinks) this.brokenLinks.add(link);
   }
 
-  /** Whether the target is a device of the bench. */
+  /** Whether the target is a device of the bench (or one a fault was raised on). */
   isDevice(target: string): boolean {
-    return this.byDevice.has(target);
+    return this.deviceIds.has(target) || this.byDevice.has(target);
   }
 
   /** Active faults of a device, or of a unit link, in the order they were raised. */
   active(target: string): readonly string[] {
     const faults = this.byDevice.get(target);
     if (faults !== undefined) return [...faults.keys()];
+    if (this.deviceIds.has(target)) return [];
     return this.brokenLinks.has(target) ? [UNIT_LINK_BROKEN] : [];
   }
 
@@ -49,6 +55,7 @@ export class FaultRegistry {
   raisedBy(target: string, fault: string): FaultSource | undefined {
     const faults = this.byDevice.get(target);
     if (faults !== undefined) return faults.get(fault);
+    if (this.deviceIds.has(target)) return undefined;
     return fault === UNIT_LINK_BROKEN && this.brokenLinks.has(target) ? "user" : undefined;
   }
 
@@ -63,14 +70,15 @@ export class FaultRegistry {
 
   /** Clears a fault on a device; false (and nothing traced) when it was not active. */
   clear(deviceId: string, fault: string, by: FaultSource): boolean {
-    if (!this.deviceFaults(deviceId).delete(fault)) return false;
+    if (this.byDevice.get(deviceId)?.delete(fault) !== true) return false;
     this.emitter.fault("fault.cleared", { deviceId }, fault, by);
     return true;
   }
 
   /** Clears every fault the device raised itself (a restart); injected ones stay. */
   clearRaisedByDevice(deviceId: string): void {
-    const faults = this.deviceFaults(deviceId);
+    const faults = this.byDevice.get(deviceId);
+    if (faults === undefined) return;
     for (const [fault, by] of [...faults]) if (by === "device") this.clear(deviceId, fault, by);
   }
 
@@ -95,7 +103,8 @@ export class FaultRegistry {
 
   /** The acknowledgement a device answers with while its bus faults are active: NO_ACK_OCTET when silent. */
   busAnswer(deviceId: string): number {
-    const faults = this.deviceFaults(deviceId);
+    const faults = this.byDevice.get(deviceId);
+    if (faults === undefined) return ACK_OCTET;
     return faults.has(BUS_FAULTS.silent)
       ? NO_ACK_OCTET
       : faults.has(BUS_FAULTS.busy)

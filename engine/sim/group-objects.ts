@@ -1,7 +1,7 @@
 import type { LoadedBench, LoadedDevice } from "../bench";
 import type { SequentialIds } from "../core/ids";
-import type { DeviceEvent, GroupObjectFlags } from "../devices/device-type";
-import { getDpt, type DptCodec } from "../dpt";
+import type { DeviceEvent } from "../devices/device-type";
+import { getDpt } from "../dpt";
 import {
   ACK_OCTET,
   DEFAULT_HOP_COUNT,
@@ -10,7 +10,13 @@ import {
   type Priority,
 } from "../frame";
 import { NO_ACK_OCTET, type Tp1Line, type Tp1Sender, type Telegram } from "../bus";
-import { addressLinks, objectSpecs } from "./prepared-bench";
+import {
+  listenerTables,
+  objectSpecs,
+  objectSpecsByNumber,
+  type AddressListener,
+  type ObjectSpec,
+} from "./prepared-bench";
 import { BUS_FAULTS } from "./fault-registry";
 import type { TraceEmitter } from "./trace-emitter";
 
@@ -32,23 +38,18 @@ import type { TraceEmitter } from "./trace-emitter";
 /** Priority of group telegrams unless asked otherwise (knx-reference.md: low is the default). */
 export const DEFAULT_GROUP_PRIORITY: Priority = "low";
 
-/** A group object of a running device: its fixed spec and its stored value. */
-export interface ObjectRuntime {
-  readonly number: number;
-  readonly dpt: string;
-  readonly codec: DptCodec<unknown>;
-  readonly sizeBits: number;
-  readonly flags: GroupObjectFlags;
-  readonly groupAddresses: readonly number[];
-  value: unknown;
-}
+/** A group object of a running device: its fixed spec; the run keeps its value in the device's `values[slot]`. */
+export type ObjectRuntime = ObjectSpec;
 
 /** What the group-object layer needs of a running device. */
 export interface ObjectOwner {
   readonly id: string;
   /** The device as loaded from the bench (replaced by a parameter change). */
   readonly loaded: LoadedDevice;
-  objects: Map<number, ObjectRuntime>;
+  /** The device's object specs by number, shared by every run of the bench. */
+  objects: ReadonlyMap<number, ObjectRuntime>;
+  /** Stored object values of this run, by object slot (undefined before a value). */
+  values: unknown[];
   readonly line: LineRuntime | undefined;
   readonly sender: Tp1Sender | undefined;
   /** Acknowledgement answered while a bus fault is active: ACK, BUSY, NAK, or NO_ACK_OCTET when silent. */
@@ -56,17 +57,12 @@ export interface ObjectOwner {
   lastTakenTelegramId: number;
 }
 
-interface Listener {
-  readonly device: ObjectOwner;
-  readonly objects: readonly ObjectRuntime[];
-}
-
 /** One bench line: its TP1 model and who listens to each group address on it. */
 export interface LineRuntime {
   readonly id: string;
   line: Tp1Line;
-  /** Group address -> devices with objects linked to it, in bench order. */
-  listeners: Map<number, Listener[]>;
+  /** Group address -> devices (by index) with objects linked to it, in bench order; shared by runs of the bench. */
+  listeners: ReadonlyMap<number, readonly AddressListener[]>;
   /** Coupler sides on this line (engine/sim/couplers); they hear every frame. Absent when none. */
   couplers?: readonly { receive(telegram: Telegram, repeated: boolean): number }[];
   /** Who answers an individually addressed frame on this line (engine/sim/couplers); absent: nobody. */
@@ -74,22 +70,16 @@ export interface LineRuntime {
 }
 
 const EMPTY_PAYLOAD: Uint8Array = new Uint8Array(0);
+const NO_LISTENERS: ReadonlyMap<number, readonly AddressListener[]> = new Map();
 
-/** A device's objects, fresh (no stored values). */
-export function buildObjects(loaded: LoadedDevice, reuse: boolean): Map<number, ObjectRuntime> {
-  const objects = new Map<number, ObjectRuntime>();
-  for (const spec of objectSpecs(loaded, reuse)) {
-    objects.set(spec.number, {
-      number: spec.number,
-      dpt: spec.dpt,
-      codec: spec.codec,
-      sizeBits: spec.sizeBits,
-      flags: spec.flags,
-      groupAddresses: spec.groupAddresses,
-      value: undefined,
-    });
-  }
-  return objects;
+/** A device's objects by number (shared specs) and a fresh array of values, all empty. */
+export function buildObjects(
+  loaded: LoadedDevice,
+  reuse: boolean,
+): { objects: ReadonlyMap<number, ObjectRuntime>; values: unknown[] } {
+  const values: unknown[] = [];
+  for (let i = 0; i < objectSpecs(loaded, reuse).length; i++) values.push(undefined);
+  return { objects: objectSpecsByNumber(loaded, reuse), values };
 }
 
 /** A group data frame as the runtime sends it (standard hop count, not repeated). */
@@ -145,6 +135,9 @@ export class GroupObjectLayer {
     private readonly reuse = true,
   ) {}
 
+  /** The run's devices in bench order, as the listener tables number them. */
+  private devices: readonly ObjectOwner[] = [];
+
   /** Where delivered writes and responses go: the device runtime (set once, right after construction). */
   receiver: { transition(device: ObjectOwner, event: DeviceEvent): unknown } | undefined;
 
@@ -159,19 +152,18 @@ export class GroupObjectLayer {
     this.decodedOk = other.decodedOk;
   }
 
-  /** Rebuilds every line's listener table from the devices' objects (start, parameter change). */
-  rebuildListeners(lines: Iterable<LineRuntime>, devices: readonly ObjectOwner[]): void {
-    for (const line of lines) line.listeners = new Map();
-    for (const device of devices) {
-      const line = device.line;
-      if (line === undefined) continue;
-      for (const link of addressLinks(device.loaded, this.reuse)) {
-        const objects = link.objects.map((number) => device.objects.get(number)!);
-        const list = line.listeners.get(link.groupAddress);
-        if (list === undefined) line.listeners.set(link.groupAddress, [{ device, objects }]);
-        else list.push({ device, objects });
-      }
-    }
+  /**
+   * Points every line at its listener table for `bench` (start, parameter
+   * change) and takes the run's devices, in bench order, to resolve them.
+   */
+  rebuildListeners(
+    lines: Iterable<LineRuntime>,
+    bench: LoadedBench,
+    devices: readonly ObjectOwner[],
+  ): void {
+    const tables = listenerTables(bench, this.reuse);
+    for (const line of lines) line.listeners = tables.get(line.id) ?? NO_LISTENERS;
+    this.devices = devices;
   }
 
   /** Stores a value in an object; traced when it changed. */
@@ -182,9 +174,9 @@ export class GroupObjectLayer {
     cause: "write" | "response" | "send" | "store",
     groupAddress: number | undefined,
   ): void {
-    const previous = object.value;
+    const previous = device.values[object.slot];
     if (sameValue(previous, value)) return;
-    object.value = value;
+    device.values[object.slot] = value;
     if (this.emitter.active)
       this.emitter.objectChanged(device.id, object.number, value, previous, cause, groupAddress);
   }
@@ -264,8 +256,11 @@ export class GroupObjectLayer {
     const listeners = line.listeners.get(destination);
     if (listeners === undefined) return answer;
     const senderDeviceId = telegram.sender.deviceId;
+    const devices = this.devices;
     for (let i = 0; i < listeners.length; i++) {
-      const { device, objects } = listeners[i]!;
+      const listener = listeners[i]!;
+      const device = devices[listener.deviceIndex]!;
+      const objects = listener.objects;
       if (device.id === senderDeviceId) continue;
       const busAnswer = device.busAnswer;
       if (busAnswer !== ACK_OCTET) {
@@ -287,7 +282,7 @@ export class GroupObjectLayer {
       // A repetition will follow. Frames from other senders may pass in between and
       // overwrite `lastTakenTelegramId`, so remember on the telegram who took this one.
       for (let i = 0; i < listeners.length; i++) {
-        const device = listeners[i]!.device;
+        const device = devices[listeners[i]!.deviceIndex]!;
         if (device.lastTakenTelegramId !== telegram.id) continue;
         const takenBy = (telegram.takenBy ??= []);
         if (!takenBy.includes(device)) takenBy.push(device);
@@ -308,10 +303,11 @@ export class GroupObjectLayer {
     if (service === "GroupValue_Read") {
       if (!flags.read) return;
       let payload: Uint8Array;
-      if (object.value === undefined)
+      const stored = device.values[object.slot];
+      if (stored === undefined)
         payload = new Uint8Array(object.sizeBits <= 6 ? 1 : Math.ceil(object.sizeBits / 8));
       else {
-        const encoded = object.codec.encode(object.value);
+        const encoded = object.codec.encode(stored);
         if (!encoded.ok)
           throw new Error(
             `device "${device.id}" object ${object.number} holds a value its DPT refuses: ${encoded.error.message}`,

@@ -7,7 +7,7 @@ import { getDpt, type DptCodec } from "../dpt";
  * Work that depends only on a loaded bench, done once and kept beside it, so
  * starting a run (a scenario replay, a console reset) does not repeat it: the
  * group-object specs of each device with their codecs resolved, its local
- * buttons, which objects listen to each group address, and the benches a
+ * buttons, which objects listen to each group address on each line, and the benches a
  * parameter change leads to (a parameter change re-checks the whole bench,
  * and a suite replays the same change many times).
  *
@@ -16,8 +16,13 @@ import { getDpt, type DptCodec } from "../dpt";
  * the keys of weak maps: nothing is kept once a bench is no longer used.
  */
 
-/** A group object's fixed part; the runtime adds the stored value per run. */
+/**
+ * A group object's fixed part, shared by every run of the bench; a run keeps
+ * the stored values beside it, in an array indexed by `slot`.
+ */
 export interface ObjectSpec {
+  /** Position among the device's objects: where a run keeps its stored value. */
+  readonly slot: number;
   readonly number: number;
   readonly dpt: string;
   readonly codec: DptCodec<unknown>;
@@ -36,7 +41,8 @@ const reloadsByBench = new WeakMap<
 export function objectSpecs(device: LoadedDevice, reuse: boolean): readonly ObjectSpec[] {
   const kept = reuse ? specsByDevice.get(device) : undefined;
   if (kept !== undefined) return kept;
-  const specs = device.objects.map((object) => ({
+  const specs = device.objects.map((object, slot) => ({
+    slot,
     number: object.number,
     dpt: object.dpt,
     codec: getDpt(object.dpt)!,
@@ -46,6 +52,21 @@ export function objectSpecs(device: LoadedDevice, reuse: boolean): readonly Obje
   }));
   if (reuse) specsByDevice.set(device, specs);
   return specs;
+}
+
+const specsByNumber = new WeakMap<LoadedDevice, ReadonlyMap<number, ObjectSpec>>();
+
+/** A loaded device's object specs by object number (kept when `reuse` is true). */
+export function objectSpecsByNumber(
+  device: LoadedDevice,
+  reuse: boolean,
+): ReadonlyMap<number, ObjectSpec> {
+  const kept = reuse ? specsByNumber.get(device) : undefined;
+  if (kept !== undefined) return kept;
+  const byNumber = new Map<number, ObjectSpec>();
+  for (const spec of objectSpecs(device, reuse)) byNumber.set(spec.number, spec);
+  if (reuse) specsByNumber.set(device, byNumber);
+  return byNumber;
 }
 
 const buttonsByDevice = new WeakMap<LoadedDevice, readonly LocalButtonSpec[]>();
@@ -82,6 +103,42 @@ export function addressLinks(device: LoadedDevice, reuse: boolean): readonly Add
   const links = [...byAddress].map(([groupAddress, objects]) => ({ groupAddress, objects }));
   if (reuse) addressLinksByDevice.set(device, links);
   return links;
+}
+
+/** A device with objects listening to a group address: its position in the bench and those objects. */
+export interface AddressListener {
+  readonly deviceIndex: number;
+  readonly objects: readonly ObjectSpec[];
+}
+
+/** Per line id: group address -> devices on that line with objects linked to it, in bench order. */
+export type ListenerTables = ReadonlyMap<string, ReadonlyMap<number, readonly AddressListener[]>>;
+
+const listenersByBench = new WeakMap<LoadedBench, ListenerTables>();
+
+/**
+ * Who listens to each group address on each line of a bench (kept when `reuse`
+ * is true). Devices are named by their position in `bench.devices`, which is
+ * also their position in a run, so every run of the bench shares the tables.
+ */
+export function listenerTables(bench: LoadedBench, reuse: boolean): ListenerTables {
+  const kept = reuse ? listenersByBench.get(bench) : undefined;
+  if (kept !== undefined) return kept;
+  const tables = new Map<string, Map<number, AddressListener[]>>();
+  for (const line of bench.lines) tables.set(line.id, new Map());
+  bench.devices.forEach((device, deviceIndex) => {
+    const table = device.line === undefined ? undefined : tables.get(device.line);
+    if (table === undefined) return;
+    const specs = objectSpecsByNumber(device, reuse);
+    for (const link of addressLinks(device, reuse)) {
+      const listener = { deviceIndex, objects: link.objects.map((number) => specs.get(number)!) };
+      const list = table.get(link.groupAddress);
+      if (list === undefined) table.set(link.groupAddress, [listener]);
+      else list.push(listener);
+    }
+  });
+  if (reuse) listenersByBench.set(bench, tables);
+  return tables;
 }
 
 /**

@@ -28,6 +28,8 @@ function afterwards(sim: Simulation): void {
   sim.runFor(20_000_000);
 }
 
+const minutesUs = (minutes: number) => minutes * 60_000_000;
+
 function text(sim: Simulation): string {
   return JSON.stringify(sim.trace);
 }
@@ -53,6 +55,23 @@ describe("Simulation.fork", () => {
     }
     // The inputs before the fork leave their own trace; the rest matches the straight run's length.
     expect(straight.trace.length).toBeGreaterThan(100);
+  });
+
+  it("carries a line history that has wrapped (a small ring) over to the fork", () => {
+    const bench = trainingCentre();
+    const original = createSimulation(bench, { seed: 3, historyCapacity: 8 });
+    afterwards(original);
+    const fork = original.fork();
+    for (const sim of [original, fork]) {
+      for (let i = 0; i < 5; i++) sim.sendGroupWrite("1/1/1", i % 2 === 0);
+      sim.runFor(2_000_000);
+    }
+    const stats = original.busStats(minutesUs(10));
+    // The ring keeps the last 8 transmissions and says the window reaches past them.
+    expect(stats.transmissions).toBeLessThanOrEqual(8);
+    expect(stats.truncated).toBe(true);
+    expect(fork.busStats(minutesUs(10))).toEqual(stats);
+    expect(fork.busStats(1_000_000)).toEqual(original.busStats(1_000_000));
   });
 
   it("leaves the run it was taken from untouched", () => {

@@ -124,8 +124,7 @@ function isLoadedBench(value: unknown): value is LoadedBench {
 }
 
 export class Simulation {
-  // Starts small and grows: a replay usually holds a few dozen pending events, and a fresh run should cost little.
-  private readonly scheduler = new Scheduler(64);
+  private readonly scheduler: Scheduler;
   private readonly traceLog: Trace;
   private readonly emitter: TraceEmitter;
   private readonly faults: FaultRegistry;
@@ -136,7 +135,7 @@ export class Simulation {
   private readonly reuse: boolean;
   private readonly options: SimulationOptions;
   private readonly rng: Rng;
-  private readonly climate = new RoomClimate(this.scheduler);
+  private readonly climate: RoomClimate;
 
   private loadedBench: LoadedBench;
   private readonly lines = new Map<string, LineRuntime>();
@@ -152,6 +151,10 @@ export class Simulation {
    * run as it stands instead: nothing is started, everything is copied.
    */
   constructor(bench: LoadedBench, options: SimulationOptions, original?: Simulation) {
+    // Starts small and grows: a replay usually holds a few dozen pending events, and a
+    // fresh run should cost little; a fork takes over its original's queue whole.
+    this.scheduler = new Scheduler(original === undefined ? 64 : 0);
+    this.climate = new RoomClimate(this.scheduler);
     this.loadedBench = bench;
     this.options = options;
     this.reuse = options.reuse ?? true;
@@ -223,7 +226,7 @@ export class Simulation {
       this.devices.push(device);
       this.deviceById.set(device.id, device);
     });
-    this.objects.rebuildListeners(this.lines.values(), this.devices);
+    this.objects.rebuildListeners(this.lines.values(), bench, this.devices);
     this.couplers = new CouplerNetwork(
       bench,
       this.lines,
@@ -244,7 +247,7 @@ export class Simulation {
       bench: benchNow,
       setBench: (next) => (this.loadedBench = next),
       rebuildListeners: () => {
-        this.objects.rebuildListeners(this.lines.values(), this.devices);
+        this.objects.rebuildListeners(this.lines.values(), this.loadedBench, this.devices);
         this.couplers.refresh(this.loadedBench);
       },
       queueFromTestTool: (frame) =>
@@ -408,7 +411,9 @@ export class Simulation {
 
   /** Stored value of a device's group object (undefined before it has one). */
   objectValue(deviceId: string, object: number): unknown {
-    return this.deviceById.get(deviceId)?.objects.get(object)?.value;
+    const device = this.deviceById.get(deviceId);
+    const spec = device?.objects.get(object);
+    return spec === undefined ? undefined : device!.values[spec.slot];
   }
 
   /** Air temperature now of a room (a bench room id, or "device:<id>" for a device's own room), °C. */

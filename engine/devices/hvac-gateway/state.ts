@@ -44,3 +44,32 @@ export interface HvacGatewayState {
   /** Faults the gateway itself detects (supervision), reported beside the unit's on the fault objects. */
   readonly gatewayFaults: readonly string[];
 }
+
+/**
+ * The same state, rebuilt field by field. The transition passes every new state
+ * through here once: V8 gives each object spread's result a shape of its own,
+ * and a state spread over and over (`{ ...state, x }` at every event) soon makes
+ * every spread in the model take the slow generic path; a state rebuilt here
+ * always has one shape, so the spreads stay fast. Must list every field.
+ */
+export function rebuiltGatewayState(s: HvacGatewayState): HvacGatewayState {
+  return {
+    announcedRole: s.announcedRole,
+    unit: s.unit,
+    pendingStatus: s.pendingStatus,
+    locked: s.locked,
+    windowOpen: s.windowOpen,
+    windowOpening: s.windowOpening,
+    powerAfterWindow: s.powerAfterWindow,
+    learnedScenes: s.learnedScenes,
+    faults: s.faults,
+    roomSender: s.roomSender,
+    modeRequest: s.modeRequest,
+    modeConflict: s.modeConflict,
+    baseSetpointC: s.baseSetpointC,
+    shiftK: s.shiftK,
+    operatingMode: s.operatingMode,
+    occupied: s.occupied,
+    gatewayFaults: s.gatewayFaults,
+  };
+}

@@ -38,7 +38,12 @@ import {
 import { fanLevelFromKnx, fanStatusToKnx } from "./fan-speed";
 import { gatewayObjects as O } from "./objects";
 import type { HvacGatewayParameters } from "./parameters";
-import type { GatewayFunction, HvacGatewayState, LearnedScene } from "./state";
+import {
+  rebuiltGatewayState,
+  type GatewayFunction,
+  type HvacGatewayState,
+  type LearnedScene,
+} from "./state";
 
 type Context = DeviceContext<HvacGatewayParameters>;
 type Result = TransitionResult<HvacGatewayState>;
@@ -834,6 +839,16 @@ export function hvacGatewayTransition(
   event: DeviceEvent,
   context: Context,
 ): Result {
+  const result = gatewayTransition(state, event, context);
+  if (result.state === state) return result;
+  // One shape for every new state keeps the model's spreads fast (see rebuiltGatewayState).
+  const rebuilt = rebuiltGatewayState(result.state);
+  return result.transition === undefined
+    ? { state: rebuilt, effects: result.effects }
+    : { state: rebuilt, effects: result.effects, transition: result.transition };
+}
+
+function gatewayTransition(state: HvacGatewayState, event: DeviceEvent, context: Context): Result {
   const p = context.parameters;
   return withRoleAnnouncement(state, event, p.role, "gateway", context.links, (current) => {
     switch (event.kind) {

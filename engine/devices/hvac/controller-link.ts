@@ -75,7 +75,8 @@ export function withRoleAnnouncement<S extends { readonly announcedRole: Control
 ): TransitionResult<S> {
   if (event.kind === "timer" && event.name === ANNOUNCE_TIMER) {
     return {
-      state: { ...state, announcedRole: role },
+      // Announced every period with the role unchanged: keep the state rather than copy it.
+      state: state.announcedRole === role ? state : { ...state, announcedRole: role },
       effects: periodicAnnounceEffects(role, controller, links),
     };
   }

@@ -59,9 +59,22 @@ function changedEnough(
   return state.lastSentC === null || Math.abs(valueC - state.lastSentC) >= config.deltaK - 0.005;
 }
 
-function sendNow(state: RoomTemperatureSenderState, valueC: number, nowUs: number): SenderStep {
+/**
+ * A sender state, written out: spreading it would give each result a shape of
+ * its own, and the spreads of the devices holding it would then take V8's slow path.
+ */
+function senderState(
+  lastSentC: number | null,
+  lastSentUs: number | null,
+  currentC: number | null,
+  pending: boolean,
+): RoomTemperatureSenderState {
+  return { lastSentC, lastSentUs, currentC, pending };
+}
+
+function sendNow(valueC: number, nowUs: number): SenderStep {
   return {
-    state: { ...state, currentC: valueC, lastSentC: valueC, lastSentUs: nowUs, pending: false },
+    state: senderState(valueC, nowUs, valueC, false),
     sendC: valueC,
     timerDelayUs: null,
   };
@@ -84,16 +97,24 @@ export function sampleRoomTemperature(
   config: RoomTemperatureSending,
 ): SenderStep {
   const value = quantize(valueC);
-  const next = { ...state, currentC: value };
+  // Most readings change nothing here; an unchanged state is kept rather than copied.
+  const next =
+    state.currentC === value
+      ? state
+      : senderState(state.lastSentC, state.lastSentUs, value, state.pending);
   if (!sendsOnChange(config)) return { state: next, sendC: null, timerDelayUs: null };
   if (!changedEnough(state, value, config))
-    return { state: { ...next, pending: false }, sendC: null, timerDelayUs: null };
+    return {
+      state: next.pending ? senderState(next.lastSentC, next.lastSentUs, value, false) : next,
+      sendC: null,
+      timerDelayUs: null,
+    };
   const minIntervalUs = Math.round(config.minIntervalS * US_PER_S);
   if (state.lastSentUs === null || nowUs - state.lastSentUs >= minIntervalUs)
-    return sendNow(state, value, nowUs);
+    return sendNow(value, nowUs);
   if (state.pending) return { state: next, sendC: null, timerDelayUs: null };
   return {
-    state: { ...next, pending: true },
+    state: senderState(next.lastSentC, next.lastSentUs, value, true),
     sendC: null,
     timerDelayUs: state.lastSentUs + minIntervalUs - nowUs,
   };
@@ -105,11 +126,12 @@ export function sendDueRoomTemperature(
   nowUs: number,
   config: RoomTemperatureSending,
 ): SenderStep {
+  const settled = senderState(state.lastSentC, state.lastSentUs, state.currentC, false);
   if (!state.pending || state.currentC === null)
-    return { state: { ...state, pending: false }, sendC: null, timerDelayUs: null };
+    return { state: settled, sendC: null, timerDelayUs: null };
   if (!changedEnough(state, state.currentC, config))
-    return { state: { ...state, pending: false }, sendC: null, timerDelayUs: null };
-  return sendNow(state, state.currentC, nowUs);
+    return { state: settled, sendC: null, timerDelayUs: null };
+  return sendNow(state.currentC, nowUs);
 }
 
 /** The cycle timer fired: send the current value (if known); an on-change send then waits the minimum interval again. */
@@ -118,7 +140,7 @@ export function sendCyclicRoomTemperature(
   nowUs: number,
 ): SenderStep {
   if (state.currentC === null) return { state, sendC: null, timerDelayUs: null };
-  return sendNow(state, state.currentC, nowUs);
+  return sendNow(state.currentC, nowUs);
 }
 
 /**

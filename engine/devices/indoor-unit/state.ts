@@ -50,3 +50,43 @@ export interface IndoorUnitState {
   /** Control temperature last reported on the link (0.01 K steps), to report only changes. */
   readonly reportedRoomC: number | null;
 }
+
+/**
+ * The same state, rebuilt field by field. The transition passes every new state
+ * through here once: V8 gives each object spread's result a shape of its own,
+ * and a state spread over and over (`{ ...state, x }` at every step) soon makes
+ * every spread in the model take the slow generic path; a state rebuilt here
+ * always has one shape, so the spreads stay fast. Must list every field.
+ * `reportedRoomC` may be given anew: reporting, which every path ends in, sets it.
+ */
+export function rebuiltIndoorUnitState(
+  s: IndoorUnitState,
+  reportedRoomC: number | null = s.reportedRoomC,
+): IndoorUnitState {
+  return {
+    power: s.power,
+    mode: s.mode,
+    autoDirection: s.autoDirection,
+    fanLevel: s.fanLevel,
+    louvrePercent: s.louvrePercent,
+    setpointC: s.setpointC,
+    roomC: s.roomC,
+    externalRoomC: s.externalRoomC,
+    sensorOpen: s.sensorOpen,
+    localLocked: s.localLocked,
+    filterRunS: s.filterRunS,
+    frostActive: s.frostActive,
+    fanHeld: s.fanHeld,
+    heldUntilUs: s.heldUntilUs,
+    wasHeating: s.wasHeating,
+    nextDefrostUs: s.nextDefrostUs,
+    controllers: s.controllers,
+    linkFault: s.linkFault,
+    supervising: s.supervising,
+    system: s.system,
+    lastStepUs: s.lastStepUs,
+    reportedRoomC,
+    output: s.output,
+    compressorOn: s.compressorOn,
+  };
+}

@@ -17,7 +17,7 @@ import {
   type UnitStatus,
 } from "../hvac/unit-link-messages";
 import { FROST_BAND_K, unitSetpointC, type IndoorUnitParameters } from "./parameters";
-import type { IndoorUnitState, KnownController } from "./state";
+import { rebuiltIndoorUnitState, type IndoorUnitState, type KnownController } from "./state";
 import { compressorRuns, unitDrive } from "./unit-output";
 
 type Context = DeviceContext<IndoorUnitParameters>;
@@ -85,7 +85,9 @@ function report(
 ): { state: IndoorUnitState; effects: DeviceEffect[] } {
   const message = statusMessage(state, context, refusal);
   return {
-    state: { ...state, reportedRoomC: message.roomC },
+    // Rebuilt, not spread: states from every path end here (see rebuiltIndoorUnitState).
+    state:
+      state.reportedRoomC === message.roomC ? state : rebuiltIndoorUnitState(state, message.roomC),
     effects: context.links.map((link) => ({ kind: "link.send", link, message })),
   };
 }
@@ -100,8 +102,11 @@ function resolveAutoDirection(state: IndoorUnitState, context: Context): IndoorU
   if (controlC === null) return state;
   const p = context.parameters;
   const reachK = p.cycleBandK / 2 + p.autoHysteresisK;
-  if (controlC < state.setpointC - reachK) return { ...state, autoDirection: "heating" };
-  if (controlC > state.setpointC + reachK) return { ...state, autoDirection: "cooling" };
+  // States are copied field by field, so an unchanged direction keeps the state as it is.
+  if (controlC < state.setpointC - reachK && state.autoDirection !== "heating")
+    return { ...state, autoDirection: "heating" };
+  if (controlC > state.setpointC + reachK && state.autoDirection !== "cooling")
+    return { ...state, autoDirection: "cooling" };
   return state;
 }
 
@@ -166,9 +171,11 @@ function modeAllowed(state: IndoorUnitState, mode: HvacMode, context: Context): 
 function evaluateLinkFault(
   state: IndoorUnitState,
   context: Context,
+  /** The controllers as just heard (an announcement); the state's own by default. */
+  known: IndoorUnitState["controllers"] = state.controllers,
 ): { state: IndoorUnitState; effects: DeviceEffect[]; transition?: string } {
-  // Runs on every announcement, so it copies the controllers only when one has gone quiet.
-  const known = state.controllers;
+  // Runs on every announcement, so it copies the controllers only when one has gone quiet,
+  // and the state only when its controllers changed.
   const oldestLiveUs = context.nowUs - CONTROLLER_TIMEOUT_US;
   let primaries = 0;
   let anyGone = false;
@@ -186,7 +193,7 @@ function evaluateLinkFault(
   let fault: HvacFaultId | null = null;
   if (primaries >= 2) fault = hvacFaults.twoPrimaries;
   else if (primaries === 0 && state.supervising) fault = hvacFaults.noPrimary;
-  const next = { ...state, controllers };
+  const next = controllers === state.controllers ? state : { ...state, controllers };
   if (fault === state.linkFault) return { state: next, effects: [] };
   const effects: DeviceEffect[] = [];
   if (state.linkFault !== null) effects.push({ kind: "fault.clear", fault: state.linkFault });
@@ -424,7 +431,7 @@ function receive(state: IndoorUnitState, from: string, raw: unknown, context: Co
         ...state.controllers,
         [from]: { role: message.role, controller: message.controller, lastSeenUs: context.nowUs },
       };
-      return evaluateLinkFault({ ...state, controllers }, context);
+      return evaluateLinkFault(state, context, controllers);
     }
     case "unit.command":
       return applyCommand(state, message, from, context);
@@ -451,7 +458,11 @@ function receive(state: IndoorUnitState, from: string, raw: unknown, context: Co
         state.system?.authority !== message.authority;
       if (!changed) return { state: next, effects: [] };
       const reported = report(next, context);
-      return { ...reported, transition: "system.state-changed" };
+      return {
+        state: reported.state,
+        effects: reported.effects,
+        transition: "system.state-changed",
+      };
     }
     case "unit.status":
     case "unit.alive":
@@ -466,6 +477,16 @@ export function indoorUnitTransition(
   event: DeviceEvent,
   context: Context,
 ): Result {
+  const result = unitTransition(state, event, context);
+  if (result.state === state) return result;
+  // One shape for every new state keeps the model's spreads fast (see rebuiltIndoorUnitState).
+  const rebuilt = rebuiltIndoorUnitState(result.state);
+  return result.transition === undefined
+    ? { state: rebuilt, effects: result.effects }
+    : { state: rebuilt, effects: result.effects, transition: result.transition };
+}
+
+function unitTransition(state: IndoorUnitState, event: DeviceEvent, context: Context): Result {
   switch (event.kind) {
     case "start": {
       const roomC = context.roomTemperatureC() ?? state.roomC;
@@ -494,7 +515,10 @@ export function indoorUnitTransition(
     case "timer":
       if (event.name === MODEL_TIMER) return stepModel(state, context);
       if (event.name === SUPERVISION_TIMER) {
-        const evaluated = evaluateLinkFault({ ...state, supervising: true }, context);
+        const evaluated = evaluateLinkFault(
+          state.supervising ? state : { ...state, supervising: true },
+          context,
+        );
         const alive: UnitAlive = { kind: "unit.alive" };
         return {
           ...evaluated,

@@ -90,7 +90,11 @@ function onStatus(
   context: Context,
 ): Result {
   const memberDirection: SystemDirection = status.power ? status.direction : "none";
-  const members = { ...state.members, [from]: { direction: memberDirection } };
+  // Members mostly repeat what they run; the table is copied only when one changed.
+  const members =
+    state.members[from]?.direction === memberDirection
+      ? state.members
+      : { ...state.members, [from]: { direction: memberDirection } };
   const p = context.parameters;
   const authority =
     p.modeAuthority === "heat-recovery"

@@ -101,7 +101,8 @@ function receive(state: WallControllerState, raw: unknown, context: Context): Re
     fanLevel: message.fanLevel,
   };
   const faults = linkFaultEffects(state.faults, message);
-  const next = { ...state, display, faults: message.faults };
+  // Written out rather than spread: a spread's result gets a shape of its own, which makes later spreads slow.
+  const next = { announcedRole: state.announcedRole, display, faults: message.faults };
   const refusedHere =
     message.refusal?.controller === context.deviceId ? message.refusal.transition : undefined;
   const transition = faults.changed ?? refusedHere;
