@@ -136,7 +136,9 @@ function ConsoleWorkbench({
     <div className="space-y-3">
       <div className="flex flex-wrap items-center justify-between gap-3">
         <TimeControls />
-        <RecordPanel benchId={benchId} />
+        <OwnerControls>
+          <RecordPanel benchId={benchId} />
+        </OwnerControls>
       </div>
       <ErrorLine />
       <div>
@@ -163,14 +165,18 @@ function ConsoleWorkbench({
             collapsed={collapsed["control-pad"] === true}
             onToggle={() => toggle("control-pad")}
           >
-            <ControlPad />
+            <OwnerControls>
+              <ControlPad />
+            </OwnerControls>
           </DockPanel>
           <DockPanel
             title="Faults"
             collapsed={collapsed.faults === true}
             onToggle={() => toggle("faults")}
           >
-            <FaultsPanel />
+            <OwnerControls>
+              <FaultsPanel />
+            </OwnerControls>
           </DockPanel>
           {onServer ? (
             <DockPanel
@@ -236,6 +242,21 @@ function ConsoleWorkbench({
         </div>
       </div>
     </div>
+  );
+}
+
+/**
+ * Controls that send commands, disabled (a native disabled fieldset) for a
+ * member who watches someone else's server session: the API would refuse
+ * them anyway, and a pad that only ever fails says less than a greyed one.
+ */
+function OwnerControls({ children }: { children: React.ReactNode }) {
+  const link = useLiveLink();
+  if (link === null || link.canControl) return children;
+  return (
+    <fieldset disabled className="contents" title="Only the session's owner sends commands">
+      {children}
+    </fieldset>
   );
 }
 

@@ -201,12 +201,14 @@ describe("EndpointPanel", () => {
 });
 
 describe("SessionBar", () => {
-  it("says whose session it is, that it is live, and when it stops if idle", () => {
+  it("says whose session it is, that it is live, and after how long idle it stops", () => {
     const { link } = mount(<SessionBar viewerId="m-trainer" />, { canControl: false });
     act(() => link.getState().setStatus("live"));
     const bar = screen.getByRole("region", { name: "Server session" });
     expect(bar.textContent).toContain("Theo Apprentice's session");
-    expect(bar.textContent).toContain("Stops when idle at 2026-12-02 07:31 UTC");
+    expect(bar.textContent).toContain(
+      "Stops after 30 min with nobody watching, commanding or connected over KNXnet/IP",
+    );
     expect(screen.getByRole("status", { name: "Link to the session" }).textContent).toBe("live");
     expect(bar.textContent).toMatch(/You are watching/);
     expect(screen.queryByRole("button", { name: "Stop session" })).toBeNull();

@@ -17,6 +17,14 @@ const LINK_BADGE: Readonly<Record<LinkStatus, { tone: StatusTone; text: string }
 };
 
 /**
+ * The idle time the server applies, in minutes. Shown as a duration rather than
+ * `idleStopAt`, which moves on while anyone watches and would be stale here.
+ */
+function idleMinutes(session: { lastActivityAt: string; idleStopAt: string }): number {
+  return Math.round((Date.parse(session.idleStopAt) - Date.parse(session.lastActivityAt)) / 60_000);
+}
+
+/**
  * A server session's line above the console: whose it is, since when, when it
  * stops if nobody acts, the stream's state, and Stop for the owner. When the
  * session ends (idle, stopped, server restart) it says so in a banner that
@@ -67,8 +75,9 @@ export function SessionBar({ viewerId }: { viewerId: string }) {
               <Timestamp value={session.startedAt} relative />
             </span>
             {ended ? null : (
-              <span className="text-ink-soft">
-                Stops when idle at <Timestamp value={session.idleStopAt} />
+              <span className="text-ink-soft" data-testid="idle-stop">
+                Stops after {idleMinutes(session)} min with nobody watching, commanding or connected
+                over KNXnet/IP
               </span>
             )}
           </>
