@@ -446,6 +446,68 @@ describe("tunnelling server: heartbeat and disconnect", () => {
     });
   });
 
+  // Status values: knx-reference.md (KNXnet/IP spec); which response carries them: the Core
+  // spec's connection-state response (Core §7.8.4, KNX Standard 03_08_02 / ISO 22510), from memory.
+  it("answers a heartbeat with E_DATA_CONNECTION while a request to the client waits on its repetition", () => {
+    const h = harness();
+    const a = h.connect(CLIENT_A);
+    const heartbeat: KnxNetIpFrame = {
+      service: "CONNECTIONSTATE_REQUEST",
+      channelId: a,
+      controlEndpoint: ROUTE_BACK_HPAI,
+    };
+    const fromDevice: DataFrame = { ...write2102, source: 0x1114, destination: 0x1102 };
+    h.apply({ kind: "line.frame", nowUs: 0, frame: fromDevice });
+    // Outstanding but not yet overdue: the data connection is fine.
+    expect(sent(h.at(S / 2).receive(CLIENT_A, heartbeat))[0]!.frame).toMatchObject({
+      status: STATUS.E_NO_ERROR,
+    });
+    h.at(S).tick(); // unacknowledged for 1 s: sent once more
+    expect(sent(h.at(S + S / 2).receive(CLIENT_A, heartbeat))[0]!.frame).toEqual({
+      service: "CONNECTIONSTATE_RESPONSE",
+      channelId: a,
+      status: STATUS.E_DATA_CONNECTION, // 0x26
+    });
+    // The client acknowledges the repetition: the data connection is healthy again.
+    h.receive(CLIENT_A, {
+      service: "TUNNELLING_ACK",
+      channelId: a,
+      sequenceCounter: 0,
+      status: STATUS.E_NO_ERROR,
+    });
+    expect(sent(h.receive(CLIENT_A, heartbeat))[0]!.frame).toMatchObject({
+      status: STATUS.E_NO_ERROR,
+    });
+  });
+
+  it("answers a heartbeat with E_KNX_CONNECTION while the KNX side is down, and confirms frames negatively then", () => {
+    const h = harness();
+    const a = h.connect(CLIENT_A);
+    const heartbeat: KnxNetIpFrame = {
+      service: "CONNECTIONSTATE_REQUEST",
+      channelId: a,
+      controlEndpoint: ROUTE_BACK_HPAI,
+    };
+    h.apply({ kind: "line.state", nowUs: 0, available: false });
+    expect(sent(h.receive(CLIENT_A, heartbeat))[0]!.frame).toEqual({
+      service: "CONNECTIONSTATE_RESPONSE",
+      channelId: a,
+      status: STATUS.E_KNX_CONNECTION, // 0x27
+    });
+    const effects = h.receive(CLIENT_A, request(a, 0));
+    expect(effects.some((e) => e.kind === "line.put")).toBe(false);
+    const [ack, confirmation] = sent(effects);
+    expect(ack!.frame).toMatchObject({ service: "TUNNELLING_ACK", status: STATUS.E_NO_ERROR });
+    expect(cemiOf(confirmation!.frame)).toMatchObject({
+      messageCode: "L_Data.con",
+      confirmError: true,
+    });
+    h.apply({ kind: "line.state", nowUs: 0, available: true });
+    expect(sent(h.receive(CLIENT_A, heartbeat))[0]!.frame).toMatchObject({
+      status: STATUS.E_NO_ERROR,
+    });
+  });
+
   it("takes a configurable timeout for tests", () => {
     const h = harness({ connectionAliveTimeoutUs: 300_000 });
     h.connect(CLIENT_A);

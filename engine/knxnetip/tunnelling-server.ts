@@ -24,7 +24,12 @@ import { descriptionDibs, type TunnellingServerConfig, type UdpAddress } from ".
  *   E_NO_MORE_CONNECTIONS; an HPAI over TCP with E_HOST_PROTOCOL_TYPE.
  * - CONNECTIONSTATE requests are the heartbeat: E_NO_ERROR for a live channel,
  *   E_CONNECTION_ID otherwise. A channel silent for `connectionAliveTimeoutUs`
- *   (120 s) is closed with a DISCONNECT_REQUEST to the client.
+ *   (120 s) is closed with a DISCONNECT_REQUEST to the client. Two more answers
+ *   the Core spec gives a connection-state response (Core §7.8.4; from memory):
+ *   E_KNX_CONNECTION (0x27) while the server's KNX side is down (the host says
+ *   so with a `line.state` event), and E_DATA_CONNECTION (0x26) while the data
+ *   connection to the client is failing: a tunnelling request to it went
+ *   unacknowledged and is waiting on its one repetition.
  * - DISCONNECT from the client is answered and closes the tunnel; the server
  *   closes with a DISCONNECT_REQUEST (heartbeat lost, acknowledgement lost,
  *   operator, shutdown) and forgets the channel at once.
@@ -98,6 +103,8 @@ export interface TunnellingServerState {
   readonly puts: ReadonlyMap<number, { readonly channelId: number; readonly frame: DataFrame }>;
   readonly buckets: ReadonlyMap<string, { readonly tokens: number; readonly atUs: number }>;
   readonly counters: TunnellingServerCounters;
+  /** False while the KNX side (the simulated line) is unavailable; true from the start. */
+  readonly lineAvailable: boolean;
 }
 
 export type CloseReason = "client" | "heartbeat" | "ack-timeout" | "operator" | "shutdown";
@@ -126,6 +133,8 @@ export type TunnellingServerEvent =
       readonly requestId: number;
       readonly acknowledged: boolean;
     }
+  /** The KNX side went down or came back (E_KNX_CONNECTION; frames are then confirmed negatively). */
+  | { readonly kind: "line.state"; readonly nowUs: number; readonly available: boolean }
   /** Time passed: heartbeat and acknowledgement timeouts. */
   | { readonly kind: "tick"; readonly nowUs: number }
   /** The operator closes a tunnel. */
@@ -184,6 +193,7 @@ export function initialTunnellingServerState(): TunnellingServerState {
     puts: new Map(),
     buckets: new Map(),
     counters: ZERO_COUNTERS,
+    lineAvailable: true,
   };
 }
 
@@ -222,6 +232,9 @@ export function tunnellingServerTransition(
     case "tick":
       run.tick();
       break;
+    case "line.state":
+      run.lineAvailable = event.available;
+      break;
     case "disconnect": {
       const connection = run.connections.get(event.channelId);
       if (connection !== undefined) run.close(connection, "operator");
@@ -242,6 +255,7 @@ class Transition {
   private counters: TunnellingServerCounters;
   private nextChannelId: number;
   private nextRequestId: number;
+  lineAvailable: boolean;
   private readonly effects: TunnellingServerEffect[] = [];
 
   constructor(
@@ -255,6 +269,7 @@ class Transition {
     this.counters = state.counters;
     this.nextChannelId = state.nextChannelId;
     this.nextRequestId = state.nextRequestId;
+    this.lineAvailable = state.lineAvailable;
   }
 
   result(): TunnellingServerResult {
@@ -266,6 +281,7 @@ class Transition {
         puts: this.puts,
         buckets: this.buckets,
         counters: this.counters,
+        lineAvailable: this.lineAvailable,
       },
       effects: this.effects,
     };
@@ -312,7 +328,7 @@ class Transition {
         this.send(this.replyTo(frame.controlEndpoint, from), {
           service: "CONNECTIONSTATE_RESPONSE",
           channelId: frame.channelId,
-          status: connection === undefined ? STATUS.E_CONNECTION_ID : STATUS.E_NO_ERROR,
+          status: this.connectionStatus(connection),
         });
         return;
       }
@@ -435,7 +451,7 @@ class Transition {
       source: current.individualAddress,
       repeated: false,
     };
-    if (current.pendingPuts >= this.config.maxPendingPerTunnel) {
+    if (!this.lineAvailable || current.pendingPuts >= this.config.maxPendingPerTunnel) {
       this.count("putsRefused");
       this.enqueue(
         current.channelId,
@@ -549,6 +565,14 @@ class Transition {
   }
 
   // ---------------------------------------------------------------- helpers
+
+  /** The status of a connection-state response (see the module comment). */
+  private connectionStatus(connection: TunnelConnection | undefined): number {
+    if (connection === undefined) return STATUS.E_CONNECTION_ID;
+    if (!this.lineAvailable) return STATUS.E_KNX_CONNECTION;
+    if (connection.outstanding?.attempt === 2) return STATUS.E_DATA_CONNECTION;
+    return STATUS.E_NO_ERROR;
+  }
 
   /** Closes a tunnel from the server side: DISCONNECT_REQUEST to the client's control endpoint. */
   close(connection: TunnelConnection, reason: CloseReason): void {

@@ -20,6 +20,59 @@ function scenario(steps: ScenarioDocument["steps"], extra: Partial<ScenarioDocum
 }
 
 describe("runScenario", () => {
+  it("filters expectations by the sender's individual address, a tunnel's as any station's", () => {
+    // The test tool (1.1.250) is a station on the line like a KNXnet/IP tunnel (1.1.241 say):
+    // both send with their own individual address and no device id.
+    const result = runScenario(
+      scenario([
+        { kind: "press", device: "pb-1", button: "channel-1" },
+        { kind: "expect-count", groupAddress: "1/0/1", count: 1, source: "1.1.1", within: "1s" },
+        { kind: "write", groupAddress: "1/0/1", value: false },
+        { kind: "expect-count", groupAddress: "1/0/1", count: 1, source: "1.1.250", within: "1s" },
+        { kind: "expect-count", groupAddress: "1/0/1", count: 0, source: "1.1.1", within: "1s" },
+        {
+          kind: "expect-value",
+          groupAddress: "1/0/1",
+          value: false,
+          source: "1.1.250",
+          within: "500ms",
+        },
+        // No bench device has 1.1.241: the filter takes it anyway (a tunnel is not on the bench).
+        {
+          kind: "expect-value",
+          groupAddress: "1/0/1",
+          value: false,
+          source: "1.1.241",
+          within: "500ms",
+        },
+      ]),
+      lightsBench,
+    );
+    expect(result.steps.map((s) => [s.label, s.status])).toEqual([
+      ["press pb-1 channel-1", "pass"],
+      ["expect-count 1/0/1 1 from 1.1.1 within 1s", "pass"],
+      ["write 1/0/1 = false", "pass"],
+      ["expect-count 1/0/1 1 from 1.1.250 within 1s", "pass"],
+      ["expect-count 1/0/1 0 from 1.1.1 within 1s", "pass"],
+      ["expect-value 1/0/1 = false from 1.1.250 within 500ms", "pass"],
+      ["expect-value 1/0/1 = false from 1.1.241 within 500ms", "fail"],
+    ]);
+    expect(result.steps[6]).toMatchObject({
+      expected: expect.stringContaining("a write or response from 1.1.241 to 1/0/1"),
+      actual: expect.stringContaining("no write or response from 1.1.241 to 1/0/1"),
+    });
+    const bad = parseScenario({
+      format: 1,
+      name: "bad source",
+      bench: { name: "Runner fixture" },
+      steps: [
+        { kind: "expect-count", groupAddress: "1/0/1", count: 1, source: "1/0/1", within: "1s" },
+      ],
+    });
+    expect(bad.ok).toBe(false);
+    expect(!bad.ok && bad.error.message).toMatch(/steps\[0\]\.source|source/);
+  });
+
   it("passes when the actuator's status follows a button press", () => {
     const result = runScenario(
       scenario([

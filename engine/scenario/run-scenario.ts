@@ -1,4 +1,4 @@
-import { formatGroupAddress, parseGroupAddress } from "../address";
+import { formatGroupAddress, parseGroupAddress, parseIndividualAddress } from "../address";
 import type { Bench, BenchInput, LoadedBench } from "../bench";
 import { eventTouchesDevice, type TraceEvent } from "../core/trace";
 import { getDpt, type DptCodec } from "../dpt";
@@ -102,7 +102,7 @@ export function stepLabel(step: Step): string {
     case "clear-fault":
       return `${step.kind} ${step.fault} on ${step.device}`;
     case "expect-value":
-      return `expect-value ${step.groupAddress} = ${value(step.value)} within ${step.within}`;
+      return `expect-value ${step.groupAddress} = ${value(step.value)}${step.source ? ` from ${step.source}` : ""} within ${step.within}`;
     case "expect-response":
       return `expect-response ${step.groupAddress}${step.value === undefined ? "" : ` = ${value(step.value)}`} within ${step.within}`;
     case "expect-state":
@@ -110,7 +110,7 @@ export function stepLabel(step: Step): string {
     case "expect-count": {
       const bound =
         step.count !== undefined ? `${step.count}` : `${step.min ?? 0}..${step.max ?? "∞"}`;
-      return `expect-count ${step.groupAddress} ${bound} within ${step.within}`;
+      return `expect-count ${step.groupAddress} ${bound}${step.source ? ` from ${step.source}` : ""} within ${step.within}`;
     }
     case "expect-bus-load":
       return `expect-bus-load below ${step.belowPercent} % over ${step.over}`;
@@ -397,6 +397,8 @@ class TelegramWatch {
     private readonly tolerance: number,
     fromUs: number,
     private readonly toUs: number,
+    /** Raw individual address the sender must have; undefined for any sender. */
+    private readonly source: number | undefined,
   ) {
     this.cursor = lowerBound(run.sim.trace, fromUs);
   }
@@ -410,7 +412,8 @@ class TelegramWatch {
       if (
         event.kind !== "telegram.sent" ||
         event.attempt !== 0 ||
-        event.destination !== this.address.raw
+        event.destination !== this.address.raw ||
+        (this.source !== undefined && event.source !== this.source)
       )
         continue;
       const service = SERVICE_OF[event.service];
@@ -445,7 +448,17 @@ function expectTelegramValue(
         : [step.service];
   const fromUs = run.anchorUs;
   const toUs = fromUs + durationUs(step.within);
-  const watch = new TelegramWatch(run, address, services, expected, tolerance, fromUs, toUs);
+  const source = step.kind === "expect-value" ? sourceOf(step) : undefined;
+  const watch = new TelegramWatch(
+    run,
+    address,
+    services,
+    expected,
+    tolerance,
+    fromUs,
+    toUs,
+    source,
+  );
   if (!watch.scan()) run.advance(toUs, () => watch.scan());
   const { matchUs, seen } = watch;
   const slice = run.addressSlice(address, fromUs, Math.min(toUs, run.sim.nowUs));
@@ -457,12 +470,13 @@ function expectTelegramValue(
       : services.length === 2
         ? "write or response"
         : String(services[0]);
-  const expectedText = `a ${what} to ${describeAddress(address)}${expected === undefined ? "" : ` carrying ${formatValue(expected, address.codec)}${tolerance > 0 ? ` ± ${tolerance}` : ""}`} within ${step.within}`;
+  const sender = step.kind === "expect-value" && step.source ? ` from ${step.source}` : "";
+  const expectedText = `a ${what}${sender} to ${describeAddress(address)}${expected === undefined ? "" : ` carrying ${formatValue(expected, address.codec)}${tolerance > 0 ? ` ± ${tolerance}` : ""}`} within ${step.within}`;
   if (seen.length === 0) {
     const last = run.sim.groupValue(address.raw);
     return fail(
       expectedText,
-      `no ${what} to ${address.text} in the window${last === undefined ? "" : `; the last value seen on it is ${formatValue(last, address.codec)}`}`,
+      `no ${what}${sender} to ${address.text} in the window${last === undefined ? "" : `; the last value seen on it is ${formatValue(last, address.codec)}`}`,
       slice,
     );
   }
@@ -477,6 +491,13 @@ function expectTelegramValue(
     `${address.text} carried ${values.join(", ")}${seen.length > 3 ? ` and ${seen.length - 3} more` : ""}`,
     slice,
   );
+}
+
+/** The raw sender address an expectation filters on (the schema has checked its text). */
+function sourceOf(step: { readonly source?: string | undefined }): number | undefined {
+  if (step.source === undefined) return undefined;
+  const parsed = parseIndividualAddress(step.source);
+  return parsed.ok ? parsed.value : undefined;
 }
 
 function expectState(run: ScenarioRun, step: Extract<Step, { kind: "expect-state" }>): StepOutcome {
@@ -510,12 +531,14 @@ function expectCount(run: ScenarioRun, step: Extract<Step, { kind: "expect-count
   const toUs = fromUs + durationUs(step.within);
   run.advance(toUs);
   const service = step.service ?? "any";
+  const source = sourceOf(step);
   const counted = run
     .telegrams(fromUs, toUs, address.raw)
     .filter(
       (event) =>
         event.kind === "telegram.sent" &&
-        (service === "any" || SERVICE_OF[event.service] === service),
+        (service === "any" || SERVICE_OF[event.service] === service) &&
+        (source === undefined || event.source === source),
     );
   const min = step.count ?? step.min ?? 0;
   const max = step.count ?? step.max ?? Infinity;
@@ -527,7 +550,7 @@ function expectCount(run: ScenarioRun, step: Extract<Step, { kind: "expect-count
       : max === Infinity
         ? `at least ${min}`
         : `${min} to ${max}`;
-  const expected = `${bound} ${service === "any" ? "" : `${service} `}telegram(s) to ${describeAddress(address)} within ${step.within}`;
+  const expected = `${bound} ${service === "any" ? "" : `${service} `}telegram(s)${step.source ? ` from ${step.source}` : ""} to ${describeAddress(address)} within ${step.within}`;
   return fail(expected, `${counted.length} telegram(s)`, slice);
 }
 

@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { individualAddressTextSchema } from "../address/address-schemas";
 import { parseDuration } from "./duration";
 import {
   deviceIdSchema,
@@ -39,6 +40,12 @@ const toleranceSchema = z.number().nonnegative("tolerance must be zero or more")
 const jsonValueSchema = inputValueSchema;
 const labelSchema = z.string().optional();
 const serviceFilterSchema = z.enum(["write", "response", "any"]);
+/**
+ * Only telegrams whose sender has this individual address ("1.1.241"): a
+ * device's, the test tool's, or a KNXnet/IP tunnel's as the console lists it,
+ * so QA can assert what a connected client sent. It need not be a bench device.
+ */
+const sourceFilterSchema = individualAddressTextSchema.optional();
 
 // Action steps are simulation inputs (engine/sim/sim-input.ts) plus a label; in a
 // document the group address is always text.
@@ -82,6 +89,7 @@ export const expectValueStepSchema = z
     tolerance: toleranceSchema.optional(),
     within: durationTextSchema,
     service: serviceFilterSchema.optional(),
+    source: sourceFilterSchema,
   })
   .strict();
 
@@ -122,6 +130,7 @@ export const expectCountStepSchema = z
     min: z.number().int().nonnegative().optional(),
     max: z.number().int().nonnegative().optional(),
     service: serviceFilterSchema.optional(),
+    source: sourceFilterSchema,
   })
   .strict()
   .superRefine((step, ctx) => {

@@ -7,10 +7,8 @@
  */
 import dgram from "node:dgram";
 import { readFileSync } from "node:fs";
-import { createRequire } from "node:module";
-import { afterEach, beforeAll, describe, expect, it } from "vitest";
+import { afterEach, describe, expect, it } from "vitest";
 import { parseIndividualAddress } from "@/engine";
-import { getDpt } from "@/engine";
 import {
   decodeKnxNetIpFrame,
   encodeKnxNetIpFrame,
@@ -19,35 +17,9 @@ import {
   type TunnellingServerEffect,
 } from "@/engine";
 import { createSimulation } from "@/engine";
+import { dpt9, KNX_WAIT_MS, knxClients, waitFor } from "@/test/harness/knx-client";
 import { pacedSimulationLine } from "./simulation-line";
 import { startKnxNetIpEndpoint, type KnxNetIpEndpoint } from "./udp-endpoint";
-
-/** The client's machina state machine: `on` / `off`, no `once`. */
-interface Emitter {
-  on(event: string, listener: (...args: never[]) => void): unknown;
-  off(event: string, listener: (...args: never[]) => void): void;
-}
-interface KnxClient extends Emitter {
-  state: string;
-  write(ga: string, value: unknown, dpt: string): void;
-  read(ga: string, callback: (src: string, value: Buffer) => void): void;
-  transition(state: string): void;
-  Disconnect(callback?: () => void): void;
-  idletimer?: ReturnType<typeof setTimeout> | null;
-  connecttimer?: ReturnType<typeof setInterval>;
-  socket?: dgram.Socket;
-}
-let Connection: (options: Record<string, unknown>) => KnxClient;
-
-beforeAll(() => {
-  const require = createRequire(import.meta.url);
-  const logger = createRequire(require.resolve("knx/package.json"))("log-driver").logger as Record<
-    string,
-    unknown
-  >;
-  for (const level of ["error", "warn", "info", "debug", "trace"]) logger[level] = () => undefined;
-  Connection = (require("knx") as { Connection: typeof Connection }).Connection;
-});
 
 const bench = JSON.parse(
   readFileSync(
@@ -60,10 +32,13 @@ const ia = (text: string) => {
   if (!parsed.ok) throw new Error(text);
   return parsed.value;
 };
-const WAIT_MS = 4000;
+const WAIT_MS = KNX_WAIT_MS;
 
+const clients = knxClients();
+const connect = (port: number) => clients.connect(port);
 const cleanups: (() => Promise<void> | void)[] = [];
 afterEach(async () => {
+  await clients.closeAll();
   while (cleanups.length > 0) await cleanups.pop()!();
 });
 
@@ -102,73 +77,6 @@ async function world(server: { connectionAliveTimeoutUs?: number } = {}, port = 
   };
 }
 
-function connect(port: number): Promise<KnxClient> {
-  return new Promise((resolve, reject) => {
-    const timeout = setTimeout(() => reject(new Error("knx client did not connect")), WAIT_MS);
-    const client = Connection({
-      ipAddr: "127.0.0.1",
-      ipPort: port,
-      loglevel: "error",
-      manualConnect: true,
-    });
-    const onConnected = () => {
-      clearTimeout(timeout);
-      client.off("connected", onConnected);
-      resolve(client);
-    };
-    client.on("connected", onConnected);
-    cleanups.push(() => closeClient(client));
-    (client as unknown as { Connect(): void }).Connect();
-  });
-}
-
-async function closeClient(client: KnxClient): Promise<void> {
-  if (client.state !== "uninitialized") {
-    await new Promise<void>((resolve) => {
-      const timeout = setTimeout(resolve, 1000);
-      client.Disconnect(() => {
-        clearTimeout(timeout);
-        resolve();
-      });
-    });
-  }
-  if (client.idletimer) clearTimeout(client.idletimer);
-  if (client.connecttimer) clearInterval(client.connecttimer);
-  client.transition("uninitialized");
-  try {
-    client.socket?.close();
-  } catch {
-    // already closed by the client
-  }
-}
-
-/** The first emission of `event` whose arguments pass `accept`, within WAIT_MS. */
-function waitFor(
-  emitter: Emitter,
-  event: string,
-  accept: (...args: never[]) => boolean = () => true,
-  timeoutMs = WAIT_MS,
-) {
-  return new Promise<unknown[]>((resolve, reject) => {
-    const listener = (...args: never[]) => {
-      if (!accept(...args)) return;
-      clearTimeout(timeout);
-      emitter.off(event, listener);
-      resolve(args);
-    };
-    const timeout = setTimeout(() => {
-      emitter.off(event, listener);
-      reject(new Error(`no "${event}" within ${timeoutMs} ms`));
-    }, timeoutMs);
-    emitter.on(event, listener);
-  });
-}
-
-function float(value: unknown): unknown {
-  const decoded = getDpt("9.001")!.decode(new Uint8Array(value as Buffer));
-  return decoded.ok ? decoded.value : decoded.error;
-}
-
 const sleep = (ms: number) => new Promise((resolve) => setTimeout(resolve, ms));
 
 describe("KNXnet/IP endpoint with the knx package as a real tunnelling client", () => {
@@ -190,7 +98,7 @@ describe("KNXnet/IP endpoint with the knx package as a real tunnelling client", 
     expect(confirmation.cemi.dest_addr).toBe("2/0/2");
     const [, src, , value] = await status;
     expect(src).toBe("1.1.20"); // gw-front on the demo bench
-    expect(float(value)).toBe(23.5);
+    expect(dpt9(value)).toBe(23.5);
     // The tunnel's telegram went on the simulated line from the tunnel's own address.
     expect(
       w.sim.trace.some(
@@ -220,7 +128,7 @@ describe("KNXnet/IP endpoint with the knx package as a real tunnelling client", 
     });
     const [src, value] = await response;
     expect(src).toBe("1.1.20");
-    expect(float(value)).toBe(30);
+    expect(dpt9(value)).toBe(30);
   });
 
   it("keeps the tunnel across heartbeats and ends it when they stop (short timeout for the test)", async () => {
@@ -340,7 +248,7 @@ describe("KNXnet/IP endpoint with the knx package as a real tunnelling client", 
       (_s: string, _src: string, dest: string) => dest === "2/1/2",
     );
     client.write("2/0/2", 22, "DPT9.001");
-    expect(float((await status)[3])).toBe(22);
+    expect(dpt9((await status)[3])).toBe(22);
   });
 });
 

@@ -1,7 +1,8 @@
 import { describe, expect, it } from "vitest";
 import { trainingRoomBench } from "../../../test/harness/training-room-bench";
+import { Tp1Sender } from "../../bus";
 import { LiveSession } from "./live-session";
-import type { SimMessage } from "./live-protocol";
+import { parseSimMessage, type LogRow, type SimMessage } from "./live-protocol";
 
 /**
  * The live session runs in a plain Node process (this test's), with no Worker
@@ -98,5 +99,91 @@ describe("LiveSession in a Node process", () => {
     node.session.handle({ type: "press", deviceId: "rocker", buttonId: "channel-1" });
     expect(node.session.nowUs).toBe(nowUs);
     expect(node.messages.slice(before).map((m) => m.type)).toEqual(["batch"]);
+  });
+
+  it("hands a viewer who arrives late the whole state, and changes nothing doing so", () => {
+    const node = nodeSession();
+    node.session.handle({ type: "load", bench: trainingRoomBench });
+    node.session.handle({ type: "play", speed: 1 });
+    node.session.handle({ type: "press", deviceId: "rocker", buttonId: "channel-1" });
+    node.session.handle({
+      type: "input",
+      input: { kind: "inject-fault", device: "light", fault: "bus.nak" },
+    });
+    node.advanceWall(2_000);
+    const posted = node.batches().flatMap((b) => (b.type === "batch" ? b.rows : []));
+    const before = node.messages.length;
+
+    const snapshot = node.session.snapshot().map(parseSimMessage);
+
+    expect(node.messages).toHaveLength(before);
+    expect(snapshot.map((m) => m.type)).toEqual(["loaded", "batch"]);
+    expect(snapshot[0]).toMatchObject({ type: "loaded", fresh: true, clock: { speed: 1 } });
+    const batch = snapshot[1]!;
+    if (batch.type !== "batch") throw new Error("no batch");
+    // Exactly the rows the others already have, so the late viewer's log starts where theirs is.
+    expect(batch.rows).toEqual(posted);
+    expect(posted.length).toBeGreaterThan(0);
+    expect(batch.devices.map((d) => d.id)).toEqual(
+      (trainingRoomBench.devices ?? []).map((d) => d.id),
+    );
+    expect(batch.faults).toContainEqual({ target: "light", fault: "bus.nak", by: "user" });
+    expect(batch.rooms.map((r) => r.unitId)).toEqual(["unit"]);
+    // Rows still waiting go to everyone with the next tick, the late viewer included.
+    node.advanceWall(50);
+    expect(node.messages.length).toBeGreaterThan(before);
+  });
+
+  it("keeps only the newest rows for a late viewer", () => {
+    const messages: SimMessage[] = [];
+    let wallMs = 0;
+    const session = new LiveSession({
+      post: (m) => messages.push(m),
+      now: () => wallMs,
+      recentRows: 3,
+    });
+    session.handle({ type: "load", bench: trainingRoomBench });
+    session.handle({ type: "play", speed: 1 });
+    session.handle({ type: "flood", groupAddress: "1/0/1", count: 8, value: true });
+    for (let i = 0; i < 40; i++) {
+      wallMs += 50;
+      session.tick();
+    }
+    const posted = messages.flatMap((m) => (m.type === "batch" ? m.rows : []));
+    const batch = session.snapshot()[1];
+    expect(batch?.type === "batch" && batch.rows).toEqual(posted.slice(-3));
+  });
+
+  it("marks a telegram sent from a KNXnet/IP tunnel's individual address in the log", () => {
+    const node = nodeSession();
+    node.session.handle({ type: "load", bench: trainingRoomBench });
+    node.session.handle({ type: "play", speed: 1 });
+    const tunnel = 0x11f1; // 1.1.241
+    node.session.setTunnelSources([tunnel]);
+    node.session.simulation!.line().queue(
+      new Tp1Sender(tunnel, undefined, "tunnel 1.1.241"),
+      {
+        priority: "low",
+        repeated: false,
+        source: tunnel,
+        destination: 0x0801, // 1/0/1
+        addressType: "group",
+        hopCount: 6,
+        service: "GroupValue_Write",
+        payload: Uint8Array.of(1),
+        shortPayload: true,
+      },
+      -2,
+    );
+    node.session.handle({ type: "write", groupAddress: "1/0/1", value: false });
+    node.advanceWall(1_000);
+    const rows: LogRow[] = node.batches().flatMap((b) => (b.type === "batch" ? b.rows : []));
+    const fromTunnel = rows.filter((r) => r.source === "1.1.241");
+    expect(fromTunnel).toHaveLength(1);
+    expect(fromTunnel[0]).toMatchObject({ tunnel: "1.1.241", destination: "1/0/1", ack: "ack" });
+    // The test tool's and the devices' telegrams carry no mark.
+    expect(rows.filter((r) => r.source !== "1.1.241").every((r) => r.tunnel === undefined)).toBe(
+      true,
+    );
   });
 });
