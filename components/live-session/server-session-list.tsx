@@ -57,7 +57,7 @@ export function ServerSessionList({
               <Link
                 href={serverSessionHref(session.id)}
                 className="rounded-md border border-paper-line bg-paper px-3.5 py-2 text-sm font-medium text-ink hover:bg-paper-deep"
-                aria-label={`${session.canControl ? "Open" : "Watch"} ${whose.toLowerCase()} of ${session.benchName}`}
+                aria-label={`${session.canControl ? "Open" : "Watch"} ${own ? "your session" : `${session.owner.name}'s session`} of ${session.benchName}`}
               >
                 {session.canControl ? "Open" : "Watch"}
               </Link>

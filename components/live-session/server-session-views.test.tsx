@@ -8,6 +8,7 @@ import { LiveLinkProvider, SimStoreProvider } from "@/components/sim/sim-context
 import type { LogRow, SimCommand } from "@/components/sim/sim-protocol";
 import { createSimStore } from "@/components/sim/sim-store";
 import { EndpointPanel } from "./endpoint-panel";
+import { ServerSessionList } from "./server-session-list";
 import { SessionBar } from "./session-bar";
 
 /**
@@ -314,5 +315,41 @@ describe("TelegramLog on a server session", () => {
     expect(mark.getAttribute("title")).toBe("Came in over KNXnet/IP, tunnel 1.1.241");
     expect(overIp!.getAttribute("data-tunnel")).toBe("1.1.241");
     expect(overIp!.textContent).not.toContain("test tool");
+  });
+});
+
+describe("ServerSessionList", () => {
+  it("opens the member's own sessions and offers to watch others', with their endpoint", () => {
+    render(
+      <ServerSessionList
+        memberId="m-trainer"
+        sessions={[
+          { ...published, canControl: false },
+          {
+            ...unpublished,
+            id: "ls-2",
+            owner: { memberId: "m-trainer", name: "Ada Trainer" },
+          },
+        ]}
+      />,
+    );
+    const items = within(
+      screen.getByRole("list", { name: "Sessions running on the server" }),
+    ).getAllByRole("listitem");
+    expect(items[0]!.textContent).toContain("on KNXnet/IP127.0.0.1:3671");
+    expect(items[0]!.textContent).toContain("1 client");
+    const watch = screen.getByRole("link", {
+      name: "Watch Theo Apprentice's session of Training room",
+    });
+    expect(watch.getAttribute("href")).toBe("/console/sessions/ls-1");
+    expect(items[1]!.textContent).toContain("not published");
+    expect(
+      screen.getByRole("link", { name: "Open your session of Training room" }).getAttribute("href"),
+    ).toBe("/console/sessions/ls-2");
+  });
+
+  it("shows nothing when no session runs", () => {
+    const { container } = render(<ServerSessionList memberId="m-1" sessions={[]} />);
+    expect(container.textContent).toBe("");
   });
 });

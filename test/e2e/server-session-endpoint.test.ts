@@ -1,3 +1,4 @@
+import { AxeBuilder } from "@axe-core/playwright";
 import type { Browser, Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { launchChromium } from "./chromium";
@@ -91,6 +92,43 @@ describe("server session with a KNXnet/IP client in headless Chromium", () => {
       sessionId,
     )) as { session: { endpoint: { clients: { individualAddress: string }[] } } };
     expect(view.session.endpoint.clients.map((c) => c.individualAddress)).toEqual([tunnelAddress]);
+  });
+
+  it("shows a trainer the same session to watch: the client listed, no controls", async () => {
+    const trainer = "ada.trainer@fernhill.example";
+    const context = await browser.newContext();
+    try {
+      const watcher = await context.newPage();
+      await signIn(watcher, trainer, demoPassword(trainer), "/console");
+      await watcher
+        .getByRole("list", { name: "Sessions running on the server" })
+        .getByRole("link", { name: /^Watch .+'s session of Fernhill Training Centre$/ })
+        .click();
+      await watcher.waitForURL(/\/console\/sessions\/[^/]+$/, { timeout: WAIT_MS });
+      const clients = watcher.getByRole("table", { name: "Tunnel clients" });
+      await clients.getByText(tunnelAddress).waitFor({ timeout: WAIT_MS });
+      expect(await watcher.getByRole("button", { name: /^Disconnect tunnel/ }).count()).toBe(0);
+      expect(await watcher.getByRole("button", { name: "Unpublish" }).count()).toBe(0);
+      expect(await watcher.getByRole("button", { name: "Stop session" }).count()).toBe(0);
+      expect(await watcher.getByText("You are watching").count()).toBe(1);
+      // The control pad is there to follow, greyed out: only the owner sends.
+      expect(await watcher.getByRole("combobox", { name: "Group address" }).isDisabled()).toBe(
+        true,
+      );
+    } finally {
+      await context.close();
+    }
+  });
+
+  it("has no serious accessibility violations with a client listed (axe-core, WCAG 2.x A/AA)", async () => {
+    // Rules: axe-core's WCAG tags (https://github.com/dequelabs/axe-core/blob/develop/doc/rule-descriptions.md).
+    const results = await new AxeBuilder({ page })
+      .withTags(["wcag2a", "wcag2aa", "wcag21a", "wcag21aa", "wcag22aa"])
+      .analyze();
+    const serious = results.violations
+      .filter((v) => v.impact === "serious" || v.impact === "critical")
+      .map((v) => `${v.id}: ${v.nodes.map((n) => n.target.join(" ")).join(" | ")}`);
+    expect(serious).toEqual([]);
   });
 
   it("marks the telegram the client sent as IP in the telegram log", async () => {
