@@ -96,7 +96,8 @@ export class ServerSimClient implements SimTransport {
 
   /** Posts the command after the ones before it; a refusal lands in the store. */
   send(command: SimCommand): void {
-    this.queue = this.queue.then(() => this.post(command));
+    // Each post answers its own failures; the catch only keeps one bug from stalling every later command.
+    this.queue = this.queue.then(() => this.post(command)).catch(() => undefined);
   }
 
   /** Resolves when every command sent so far has its answer (tests). */

@@ -28,7 +28,8 @@ describe("server session with a KNXnet/IP client in headless Chromium", () => {
 
   beforeAll(async () => {
     browser = await launchChromium();
-    page = await browser.newPage();
+    // A context of its own: axe-core's Playwright runner needs one.
+    page = await (await browser.newContext()).newPage();
     page.on("pageerror", (error) => pageErrors.push(error.message));
     await signIn(page, engineer, demoPassword(engineer), "/console");
   });
