@@ -176,6 +176,10 @@ describe("server session with a KNXnet/IP client in headless Chromium", () => {
     await banner.waitFor({ timeout: WAIT_MS });
     expect(await banner.innerText()).toContain("owner stopped it");
     sessionId = "";
+    // A reload after the end (or an old link) says the session is not running.
+    const response = await page.reload();
+    expect(response?.status()).toBe(404);
+    await page.getByRole("heading", { name: "This session is not running" }).waitFor();
     expect(pageErrors).toEqual([]);
   });
 });
