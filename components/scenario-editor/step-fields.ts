@@ -52,6 +52,14 @@ const service: FieldSpec = {
   editor: { choices: ["write", "response", "any"] },
   optional: true,
 };
+/** Only telegrams from this sender: a device's, the test tool's or a KNXnet/IP tunnel's individual address. */
+const source: FieldSpec = {
+  key: "source",
+  label: "From (individual address)",
+  editor: "text",
+  optional: true,
+  hint: "e.g. 1.1.241, a tunnel's address as the console lists it",
+};
 
 /** The form of each step kind, in the order the fields are shown. */
 export const stepFields: Readonly<Record<StepKind, readonly FieldSpec[]>> = {
@@ -108,6 +116,7 @@ export const stepFields: Readonly<Record<StepKind, readonly FieldSpec[]>> = {
     tolerance,
     within,
     service,
+    source,
     label,
   ],
   "expect-response": [
@@ -132,6 +141,7 @@ export const stepFields: Readonly<Record<StepKind, readonly FieldSpec[]>> = {
     { key: "min", label: "At least", editor: "integer", optional: true },
     { key: "max", label: "At most", editor: "integer", optional: true },
     service,
+    source,
     label,
   ],
   "expect-bus-load": [

@@ -368,6 +368,65 @@ describe("tunnelling server: frames on the line to the clients", () => {
     expect(h.state.connections.get(b)?.telegramsOut).toBe(2);
   });
 
+  it("delivers an individually addressed frame to another tunnel's address as L_Data.ind and confirms it", () => {
+    const h = harness();
+    const a = h.connect(CLIENT_A);
+    const b = h.connect(CLIENT_B);
+    // cEMI L_Data.req (knx-reference.md, cEMI layout): no additional info, Ctrl1 0xBC (standard,
+    // not repeated, low priority), Ctrl2 0x60 (individual address, hop count 6), source 0.0.0,
+    // destination 1.1.242, length 1, TPCI/APCI 0x03 0x00: an A_DeviceDescriptor_Read (from memory).
+    const cemi = Uint8Array.of(0x11, 0x00, 0xbc, 0x60, 0x00, 0x00, 0x11, 0xf2, 0x01, 0x03, 0x00);
+    const effects = h.receive(CLIENT_A, {
+      service: "TUNNELLING_REQUEST",
+      channelId: a,
+      sequenceCounter: 0,
+      cemi,
+    });
+    expect(effects.some((e) => e.kind === "line.put")).toBe(false);
+    const frames = sent(effects);
+    expect(frames.map((f) => [f.to.port, f.frame.service])).toEqual([
+      [CLIENT_A.port, "TUNNELLING_ACK"],
+      [CLIENT_B.port, "TUNNELLING_REQUEST"],
+      [CLIENT_A.port, "TUNNELLING_REQUEST"],
+    ]);
+    const toB = frames[1]!.frame;
+    const toA = frames[2]!.frame;
+    if (toB.service !== "TUNNELLING_REQUEST" || toA.service !== "TUNNELLING_REQUEST")
+      throw new Error("no tunnelling requests");
+    expect(toB.channelId).toBe(b);
+    // L_Data.ind 0x29 and L_Data.con 0x2E, from the sending tunnel's address 1.1.241.
+    expect([...toB.cemi]).toEqual([
+      0x29, 0x00, 0xbc, 0x60, 0x11, 0xf1, 0x11, 0xf2, 0x01, 0x03, 0x00,
+    ]);
+    expect([...toA.cemi]).toEqual([
+      0x2e, 0x00, 0xbc, 0x60, 0x11, 0xf1, 0x11, 0xf2, 0x01, 0x03, 0x00,
+    ]);
+    expect(h.state.connections.get(a)).toMatchObject({ telegramsIn: 1 });
+    expect(h.state.connections.get(b)).toMatchObject({ telegramsOut: 1 });
+
+    // To an address no tunnel has (a bench device): the line does not carry it, so L_Data.con
+    // comes back with the confirm bit set.
+    h.receive(CLIENT_B, {
+      service: "TUNNELLING_ACK",
+      channelId: b,
+      sequenceCounter: toB.sequenceCounter,
+      status: STATUS.E_NO_ERROR,
+    });
+    const toDevice = cemi.slice();
+    toDevice[7] = 0x02; // 1.1.2
+    const [, refused] = sent(
+      h.receive(CLIENT_B, {
+        service: "TUNNELLING_REQUEST",
+        channelId: b,
+        sequenceCounter: 0,
+        cemi: toDevice,
+      }),
+    );
+    if (refused?.frame.service !== "TUNNELLING_REQUEST") throw new Error("no confirmation");
+    expect(refused.frame.cemi[0]).toBe(0x2e);
+    expect(refused.frame.cemi[2]! & 0x01).toBe(1);
+  });
+
   it("keeps one request outstanding per tunnel; the next follows the acknowledgement with the next counter", () => {
     const h = harness();
     const a = h.connect(CLIENT_A);

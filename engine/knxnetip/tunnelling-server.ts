@@ -45,6 +45,9 @@ import { descriptionDibs, type TunnellingServerConfig, type UdpAddress } from ".
  *   frame was not acknowledged on the line. Every frame on the line goes to
  *   each tunnel as L_Data.ind, except to the tunnel that sent it (that one gets
  *   the L_Data.con).
+ * - An individually addressed L_Data.req to another tunnel's address goes to
+ *   that tunnel as L_Data.ind (see `toOtherTunnel`); one to any other address
+ *   is confirmed negatively, since the line model carries group frames only.
  *
  * Hostile input: a datagram that does not decode, a service a server does not
  * take, an unknown channel, or one sent from another IP address than the one
@@ -438,6 +441,7 @@ class Transition {
       this.drop(from, "unsupported", `cEMI message code ${cemi[0]} is not L_Data.req`);
       return;
     }
+    if (this.toOtherTunnel(current, cemi)) return;
     const decoded = decodeCemi(cemi);
     if (!decoded.ok) {
       // Taken, but not a frame the line models (individual or extended): confirm negatively.
@@ -502,6 +506,43 @@ class Transition {
       connection.channelId,
       this.transmit({ ...connection, sendSequence, queue: rest }, next),
     );
+  }
+
+  /**
+   * An individually addressed L_Data.req to another tunnel's individual address
+   * is delivered by that address: the interface owns it, so the frame goes to
+   * that tunnel as L_Data.ind, from the sending tunnel's address, and the sender
+   * gets a positive L_Data.con (from memory: an interface with several tunnel
+   * addresses answers for each of them, KNXnet/IP Tunnelling 03_08_04). Its
+   * octets after the addresses (TPCI, APCI, data) travel as they came: device
+   * management between two clients needs no model of its own here. False when
+   * the frame is not such a frame (group, or for another address).
+   */
+  private toOtherTunnel(sender: TunnelConnection, cemi: Uint8Array): boolean {
+    const header = standardHeader(cemi);
+    if (header === undefined || header.group) return false;
+    const target = [...this.connections.values()].find(
+      (c) => c.individualAddress === header.destination && c.channelId !== sender.channelId,
+    );
+    if (target === undefined) return false;
+    const withSource = (code: number) => {
+      const copy = cemi.slice();
+      copy[0] = code;
+      copy[header.at] = (copy[header.at] as number) & 0xfe; // confirm bit clear
+      copy[header.at + 2] = sender.individualAddress >> 8;
+      copy[header.at + 3] = sender.individualAddress & 0xff;
+      return copy;
+    };
+    this.connections.set(sender.channelId, { ...sender, telegramsIn: sender.telegramsIn + 1 });
+    if (this.enqueue(target.channelId, withSource(CEMI_MESSAGE_CODES["L_Data.ind"]))) {
+      const current = this.connections.get(target.channelId)!;
+      this.connections.set(target.channelId, {
+        ...current,
+        telegramsOut: current.telegramsOut + 1,
+      });
+    }
+    this.enqueue(sender.channelId, withSource(CEMI_MESSAGE_CODES["L_Data.con"]));
+    return true;
   }
 
   // ---------------------------------------------------------------- the line
@@ -687,4 +728,25 @@ function negativeConfirmation(cemi: Uint8Array): Uint8Array | undefined {
   confirmation[0] = CEMI_MESSAGE_CODES["L_Data.con"];
   confirmation[at] = (confirmation[at] as number) | 0x01;
   return confirmation;
+}
+
+/**
+ * Where the control fields of a cEMI L_Data frame start, its destination and
+ * address type, when its octets hold a whole standard frame (the length octet
+ * matches); undefined otherwise.
+ */
+function standardHeader(
+  cemi: Uint8Array,
+): { readonly at: number; readonly destination: number; readonly group: boolean } | undefined {
+  if (cemi.length < 2) return undefined;
+  const at = 2 + (cemi[1] as number);
+  if (cemi.length < at + 9) return undefined;
+  const length = cemi[at + 6] as number;
+  if (length > 15 || cemi.length !== at + 8 + length) return undefined;
+  if (((cemi[at] as number) & 0xd0) !== 0x90) return undefined;
+  return {
+    at,
+    destination: ((cemi[at + 4] as number) << 8) | (cemi[at + 5] as number),
+    group: ((cemi[at + 1] as number) & 0x80) !== 0,
+  };
 }

@@ -228,6 +228,10 @@ describe("a published live session with the knx package as a real client", () =>
     await afterReset;
     // The endpoint stays published after a reset: the client connects again (it retries after 3 s).
     await waitFor(client, "connected", () => true, 8000);
+    // The new run plays at real time again: the gateway answers a setpoint.
+    const status = waitFor(client, "event", isWrite("2/1/2"));
+    client.write("2/0/2", 24, "DPT9.001");
+    expect(dpt9((await status)[3])).toBe(24);
     const afterStop = waitFor(client, "disconnected");
     const stopped = await request(
       () => import("@/app/api/live-sessions/[sessionId]/route"),

@@ -1,9 +1,20 @@
+import dgram from "node:dgram";
 import { afterAll, afterEach, beforeAll, describe, expect, it } from "vitest";
 import { liveSessionViewSchema, type LiveSessionView } from "@/app/_lib/live/live-session-view";
 import { installLiveSessions, LiveSessionRegistry } from "@/app/_lib/live/live-session-registry";
 import { createBench } from "@/db/queries/benches";
 import type { Role } from "@/db/schema";
-import { simMessageSchema } from "@/engine";
+import {
+  decodeCemi,
+  decodeKnxNetIpFrame,
+  encodeCemi,
+  encodeKnxNetIpFrame,
+  ROUTE_BACK_HPAI,
+  simMessageSchema,
+  STATUS,
+  tunnelCri,
+  type KnxNetIpFrame,
+} from "@/engine";
 import { fakeLiveSessionClock, sseReader } from "./support/live-sessions";
 import { call, cookieFor, createWorld, destroyWorld, type World } from "./support/world";
 
@@ -437,5 +448,115 @@ describe("publishing on KNXnet/IP", () => {
     expect(((await unpublished.json()) as { session: LiveSessionView }).session.endpoint).toBe(
       null,
     );
+  });
+});
+
+/** A bare KNXnet/IP client on 127.0.0.1 built on the engine's frame code; every wait is bounded. */
+async function rawClient(port: number) {
+  const socket = dgram.createSocket("udp4");
+  await new Promise<void>((resolve) => socket.bind(0, "127.0.0.1", () => resolve()));
+  const inbox: KnxNetIpFrame[] = [];
+  socket.on("message", (message) => {
+    const decoded = decodeKnxNetIpFrame(new Uint8Array(message));
+    if (decoded.ok) inbox.push(decoded.value);
+  });
+  return {
+    send(frame: KnxNetIpFrame) {
+      socket.send(encodeKnxNetIpFrame(frame), port, "127.0.0.1");
+    },
+    /** The first received frame passing `accept` (consumed), or undefined after `timeoutMs` of real time. */
+    async receive(accept: (frame: KnxNetIpFrame) => boolean, timeoutMs = 2000) {
+      const deadline = Date.now() + timeoutMs;
+      for (;;) {
+        const index = inbox.findIndex(accept);
+        if (index >= 0) return inbox.splice(index, 1)[0];
+        if (Date.now() > deadline) return undefined;
+        await new Promise((resolve) => setTimeout(resolve, 5));
+      }
+    },
+    close: () => socket.close(),
+  };
+}
+
+describe("a tunnel on a session's own clock", () => {
+  it("confirms a tunnel's frame once the line has carried it, without waiting for the session's 50 ms tick, and keeps the session from idling until its heartbeat lapses", async () => {
+    const session = await start("engineer");
+    const cookie = await cookieOf("engineer");
+    const published = await sessionRequest("endpoint", "POST", session.id, { cookie });
+    const { port } = ((await published.json()) as { session: LiveSessionView }).session.endpoint!;
+    const client = await rawClient(port);
+    try {
+      client.send({
+        service: "CONNECT_REQUEST",
+        controlEndpoint: ROUTE_BACK_HPAI,
+        dataEndpoint: ROUTE_BACK_HPAI,
+        cri: tunnelCri(),
+      });
+      const connected = await client.receive((f) => f.service === "CONNECT_RESPONSE");
+      if (connected?.service !== "CONNECT_RESPONSE") throw new Error("no CONNECT_RESPONSE");
+      expect(connected.status).toBe(STATUS.E_NO_ERROR);
+      const channelId = connected.channelId;
+      client.send({
+        service: "TUNNELLING_REQUEST",
+        channelId,
+        sequenceCounter: 0,
+        cemi: encodeCemi({
+          messageCode: "L_Data.req",
+          ackRequest: true,
+          frame: {
+            priority: "low",
+            repeated: false,
+            source: 0,
+            destination: 0x0801, // 1/0/1, the actuator's switch address
+            addressType: "group",
+            hopCount: 6,
+            service: "GroupValue_Write",
+            payload: Uint8Array.of(1),
+            shortPayload: true,
+          },
+        }),
+      });
+      expect(await client.receive((f) => f.service === "TUNNELLING_ACK")).toBeDefined();
+      // 9 octets and the acknowledgement take under 20 ms of line time (knx-reference.md, TP1
+      // timing: 193 bit times at 9600 bit/s); the session's first tick is at 50 ms.
+      fake.advance(30);
+      const confirmation = await client.receive((f) => f.service === "TUNNELLING_REQUEST");
+      if (confirmation?.service !== "TUNNELLING_REQUEST") throw new Error("no L_Data.con");
+      const cemi = decodeCemi(confirmation.cemi);
+      expect(cemi.ok && cemi.value).toMatchObject({
+        messageCode: "L_Data.con",
+        confirmError: false,
+      });
+      client.send({
+        service: "TUNNELLING_ACK",
+        channelId,
+        sequenceCounter: confirmation.sequenceCounter,
+        status: STATUS.E_NO_ERROR,
+      });
+      // A heartbeat answered means the acknowledgement before it was taken too (one socket, in order).
+      client.send({
+        service: "CONNECTIONSTATE_REQUEST",
+        channelId,
+        controlEndpoint: ROUTE_BACK_HPAI,
+      });
+      expect(await client.receive((f) => f.service === "CONNECTIONSTATE_RESPONSE")).toMatchObject({
+        status: STATUS.E_NO_ERROR,
+      });
+
+      // A connected tunnel is activity: past the idle time the session still runs ...
+      fake.advance(IDLE_MS + 5_000);
+      expect(registry.size).toBe(1);
+      // ... until the client's heartbeat lapses (120 s, knx-reference.md) and the server ends
+      // the tunnel with a DISCONNECT_REQUEST; the idle time counts from then.
+      fake.advance(120_000 - IDLE_MS);
+      expect(await client.receive((f) => f.service === "DISCONNECT_REQUEST")).toMatchObject({
+        channelId,
+      });
+      expect(registry.size).toBe(1);
+      fake.advance(IDLE_MS);
+      expect(registry.size).toBe(0);
+    } finally {
+      client.close();
+    }
   });
 });

@@ -97,7 +97,10 @@ export class HostedLiveSession {
     this.onEnded = init.onEnded;
     this.startedAtMs = init.clock.epochMs();
     this.lastActivityMs = this.startedAtMs;
-    this.line = new LiveSessionLine(() => this.live);
+    this.line = new LiveSessionLine(
+      () => this.live,
+      () => this.scheduleWake(),
+    );
     this.live = new LiveSession({
       post: (message) => this.post(message),
       now: () => this.clock.nowMs(),
@@ -140,6 +143,9 @@ export class HostedLiveSession {
     this.commandErrors = errors;
     try {
       this.live.handle(command);
+      // A reset starts the new run paused, as in the browser; a server session runs at real time.
+      if ((command as { type?: unknown }).type === "reset")
+        this.live.handle({ type: "play", speed: 1 });
     } finally {
       this.commandErrors = undefined;
     }
@@ -282,6 +288,11 @@ export class HostedLiveSession {
     endpoint.disconnect(channelId);
     this.sendViewIfChanged(this.clock.epochMs());
     return true;
+  }
+
+  /** The running simulation: benchmarks read its trace and line statistics. */
+  get simulation() {
+    return this.live.simulation;
   }
 
   // ---------------------------------------------------------------- ending

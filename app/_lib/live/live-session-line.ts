@@ -13,7 +13,11 @@ export class LiveSessionLine implements LineAccess {
   private sim: Simulation | undefined;
   private readonly listeners = new Set<(frame: DataFrame) => void>();
 
-  constructor(private readonly live: () => LiveSession | undefined) {}
+  constructor(
+    private readonly live: () => LiveSession | undefined,
+    /** Called after a frame was queued, so the owner wakes up for its transmission rather than at its next tick. */
+    private readonly onQueued: () => void = () => undefined,
+  ) {}
 
   /** Serves the bench line of the test tool in `sim` from now on; frames in flight in the old run are dropped. */
   attach(sim: Simulation): void {
@@ -31,7 +35,10 @@ export class LiveSessionLine implements LineAccess {
 
   put(frame: DataFrame, onDone: (acknowledged: boolean) => void): void {
     if (this.core === undefined) onDone(false);
-    else this.core.line.put(frame, onDone);
+    else {
+      this.core.line.put(frame, onDone);
+      this.onQueued();
+    }
   }
 
   subscribe(listener: (frame: DataFrame) => void): () => void {
