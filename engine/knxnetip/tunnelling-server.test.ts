@@ -427,6 +427,29 @@ describe("tunnelling server: frames on the line to the clients", () => {
     expect(refused.frame.cemi[2]! & 0x01).toBe(1);
   });
 
+  it("indicates an individually addressed frame on the line only to the tunnel it is addressed to", () => {
+    const h = harness();
+    const a = h.connect(CLIENT_A);
+    h.connect(CLIENT_B);
+    const toTunnelA: DataFrame = {
+      ...write2102,
+      source: 0x1114,
+      destination: TUNNEL_A,
+      addressType: "individual",
+    };
+    const toDevice: DataFrame = { ...toTunnelA, destination: 0x1102 };
+    expect(sent(h.apply({ kind: "line.frame", nowUs: 0, frame: toDevice }))).toEqual([]);
+    const delivered = sent(h.apply({ kind: "line.frame", nowUs: 0, frame: toTunnelA }));
+    expect(delivered.map((d) => [d.to.port, d.frame.service])).toEqual([
+      [CLIENT_A.port, "TUNNELLING_REQUEST"],
+    ]);
+    expect(cemiOf(delivered[0]!.frame)).toMatchObject({
+      channelId: a,
+      messageCode: "L_Data.ind",
+      frame: { addressType: "individual", destination: TUNNEL_A },
+    });
+  });
+
   it("keeps one request outstanding per tunnel; the next follows the acknowledgement with the next counter", () => {
     const h = harness();
     const a = h.connect(CLIENT_A);
@@ -643,6 +666,16 @@ describe("tunnelling server: properties", () => {
       ok: fc.boolean(),
     }),
     fc.record({ kind: fc.constant("time" as const), us: fc.integer({ min: 0, max: 3 * S }) }),
+    fc.record({ kind: fc.constant("line-state" as const), available: fc.boolean() }),
+    // An individually addressed frame to a tunnel, a device or nobody, with any octets after the addresses.
+    fc.record({
+      kind: fc.constant("individual" as const),
+      from,
+      channel: fc.integer({ min: 1, max: 4 }),
+      seq: fc.nat(3),
+      destination: fc.constantFrom(TUNNEL_A, TUNNEL_B, 0x1102, 0),
+      tpdu: fc.uint8Array({ minLength: 1, maxLength: 16 }),
+    }),
   );
 
   it("never throws, keeps the tunnels within the pool and only sends frames that decode", () => {
@@ -656,6 +689,26 @@ describe("tunnelling server: properties", () => {
           else if (e.kind === "raw") effects = h.receive(e.from, e.bytes);
           else if (e.kind === "connect") effects = h.receive(e.from, connectRequest());
           else if (e.kind === "request") effects = h.receive(e.from, request(e.channel, e.seq));
+          else if (e.kind === "line-state")
+            effects = h.apply({ kind: "line.state", nowUs: t, available: e.available });
+          else if (e.kind === "individual")
+            effects = h.receive(e.from, {
+              service: "TUNNELLING_REQUEST",
+              channelId: e.channel,
+              sequenceCounter: e.seq,
+              cemi: Uint8Array.of(
+                0x11,
+                0x00,
+                0xbc,
+                0x60,
+                0x00,
+                0x00,
+                e.destination >> 8,
+                e.destination & 0xff,
+                e.tpdu.length - 1,
+                ...e.tpdu,
+              ),
+            });
           else if (e.kind === "line")
             effects = h.apply({
               kind: "line.frame",

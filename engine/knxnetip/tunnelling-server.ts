@@ -551,6 +551,10 @@ class Transition {
     let cemi: Uint8Array | undefined;
     for (const connection of [...this.connections.values()]) {
       if (connection.individualAddress === frame.source) continue;
+      // A link-layer tunnel hears group frames and the individual frames addressed to it,
+      // not other stations' point-to-point traffic (from memory: KNXnet/IP Tunnelling 03_08_04).
+      if (frame.addressType === "individual" && frame.destination !== connection.individualAddress)
+        continue;
       cemi ??= encodeCemi({ messageCode: "L_Data.ind", frame });
       if (this.enqueue(connection.channelId, cemi)) {
         const current = this.connections.get(connection.channelId)!;

@@ -41,6 +41,8 @@ let world: World;
 let fake: ReturnType<typeof fakeLiveSessionClock>;
 let registry: LiveSessionRegistry;
 const limits = { perMember: 2, perWorkspace: 4, idleMs: IDLE_MS };
+/** The endpoints' port range: any free port unless a test names one. */
+let knxPorts = { first: 0, last: 0 };
 
 beforeAll(() => {
   world = createWorld();
@@ -55,7 +57,7 @@ function freshRegistry() {
     knxNetIp: () => ({
       host: "127.0.0.1",
       loopback: true,
-      ports: { first: 0, last: 0 },
+      ports: knxPorts,
       tunnels: 2,
     }),
   });
@@ -64,6 +66,7 @@ function freshRegistry() {
 freshRegistry();
 
 afterEach(async () => {
+  knxPorts = { first: 0, last: 0 };
   await registry.shutdown();
   freshRegistry();
 });
@@ -477,6 +480,33 @@ async function rawClient(port: number) {
     close: () => socket.close(),
   };
 }
+
+describe("publishing when no port is free", () => {
+  it("answers 409 naming the range and leaves the session running unpublished", async () => {
+    const taken = dgram.createSocket("udp4");
+    await new Promise<void>((resolve) => taken.bind(0, "127.0.0.1", () => resolve()));
+    try {
+      const port = taken.address().port;
+      knxPorts = { first: port, last: port };
+      const session = await start("engineer");
+      const cookie = await cookieOf("engineer");
+      const error = await expectError(
+        await sessionRequest("endpoint", "POST", session.id, { cookie }),
+        409,
+      );
+      expect(error.message).toContain(
+        `no free UDP port for KNXnet/IP on 127.0.0.1 in ${port}..${port}`,
+      );
+      const view = await sessionRequest("one", "GET", session.id, { cookie });
+      expect(((await view.json()) as { session: LiveSessionView }).session.endpoint).toBe(null);
+      // The next attempt, with a free port, publishes.
+      knxPorts = { first: 0, last: 0 };
+      expect((await sessionRequest("endpoint", "POST", session.id, { cookie })).status).toBe(200);
+    } finally {
+      taken.close();
+    }
+  });
+});
 
 describe("a tunnel on a session's own clock", () => {
   it("confirms a tunnel's frame once the line has carried it, without waiting for the session's 50 ms tick, and keeps the session from idling until its heartbeat lapses", async () => {

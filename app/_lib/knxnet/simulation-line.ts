@@ -159,7 +159,8 @@ function frameOf(event: Extract<TraceEvent, { kind: "telegram.sent" }>): DataFra
     repeated: false,
     source: event.source,
     destination: event.destination,
-    addressType: "group", // the line model carries group telegrams only
+    // Lines that carry individually addressed telegrams mark them in the trace.
+    addressType: (event as { readonly individual?: true }).individual ? "individual" : "group",
     hopCount: DEFAULT_HOP_COUNT, // not in the trace; devices send 6
     service: event.service,
     payload: fromHex(event.payloadHex) ?? new Uint8Array(0),

@@ -1,17 +1,11 @@
-import {
-  formatIndividualAddress,
-  LiveSession,
-  tunnelAddressPool,
-  type SimMessage,
-  type TunnellingServerConfig,
-} from "@/engine";
+import { LiveSession, type SimMessage } from "@/engine";
 import type { KnxNetIpSettings } from "../config";
 import { AppError } from "../errors";
-import { startKnxNetIpEndpoint, type KnxNetIpEndpoint } from "../knxnet/udp-endpoint";
 import type { Who } from "../policy/policy";
 import type { LiveSessionClock } from "./live-session-clock";
 import { LiveSessionLine } from "./live-session-line";
-import type { EndpointView, LiveSessionEndReason, LiveSessionView } from "./live-session-view";
+import type { LiveSessionEndReason, LiveSessionView } from "./live-session-view";
+import { SessionEndpoint, type ServerOverrides } from "./session-endpoint";
 
 /** What goes to one viewer's event stream. */
 export type LiveSessionEvent =
@@ -73,13 +67,9 @@ export class HostedLiveSession {
   private wakeTimer: unknown;
   private wakeAtMs = Infinity;
   private ended = false;
-  private endpoint: KnxNetIpEndpoint | undefined;
-  private endpointLoopback = true;
-  private endpointAddress = 0;
+  private endpoint: SessionEndpoint | undefined;
   private publishing: Promise<void> | undefined;
   private lastViewKey = "";
-  /** Wall-clock ms each open tunnel connected at, by channel id. */
-  private readonly connectedAt = new Map<number, number>();
   private lastViewSentMs = -Infinity;
   /** While a command is handled: its errors are answered to the sender, not broadcast. */
   private commandErrors: Extract<SimMessage, { type: "command-error" }>[] | undefined;
@@ -127,7 +117,8 @@ export class HostedLiveSession {
 
   /** Adds a viewer: it gets the full current state at once, then everything as it happens. */
   watch(viewer: Viewer): () => void {
-    for (const message of this.live.snapshot()) viewer.send({ event: "message", data: message });
+    for (const message of this.live.currentState())
+      viewer.send({ event: "message", data: message });
     viewer.send({ event: "session", data: this.view(viewer.who) });
     this.viewers.add(viewer);
     this.touch();
@@ -186,8 +177,7 @@ export class HostedLiveSession {
     this.live.tick();
     this.line.deliver();
     const nowMs = this.clock.epochMs();
-    if (this.viewers.size > 0 || (this.endpoint?.connections().length ?? 0) > 0)
-      this.lastActivityMs = nowMs;
+    if (this.viewers.size > 0 || (this.endpoint?.clientCount ?? 0) > 0) this.lastActivityMs = nowMs;
     if (nowMs - this.lastActivityMs >= this.idleMs) {
       void this.end("idle");
       return;
@@ -202,7 +192,7 @@ export class HostedLiveSession {
    * 50 ms batch rhythm. Only while tunnels are open.
    */
   private scheduleWake(): void {
-    if (this.ended || (this.endpoint?.connections().length ?? 0) === 0) return;
+    if (this.ended || (this.endpoint?.clientCount ?? 0) === 0) return;
     const inMs = this.line.nextDueInMs();
     if (inMs === undefined || inMs >= TICK_MS) return;
     const atMs = this.clock.nowMs() + Math.max(1, inMs);
@@ -234,39 +224,23 @@ export class HostedLiveSession {
   private async bind(settings: KnxNetIpSettings, server: ServerOverrides): Promise<void> {
     const sim = this.live.simulation;
     if (sim === undefined) throw new AppError("conflict", "the session has no running bench");
-    const pool = tunnelAddressPool(sim.bench, sim.bench.testToolLine, settings.tunnels);
-    if (!pool.ok) throw new AppError("conflict", pool.error.message);
-    let endpoint: KnxNetIpEndpoint;
-    try {
-      endpoint = await startKnxNetIpEndpoint({
-        line: this.line,
-        tunnelAddresses: pool.value.tunnelAddresses,
-        individualAddress: pool.value.individualAddress,
-        host: settings.host,
-        ports: settings.ports,
-        server,
-        clock: this.clock,
-        onEvent: (effect) => {
-          if (effect.kind === "tunnel.opened" || effect.kind === "tunnel.closed") {
-            if (effect.kind === "tunnel.opened")
-              this.connectedAt.set(effect.connection.channelId, this.clock.epochMs());
-            else this.connectedAt.delete(effect.connection.channelId);
-            this.touch();
-            this.lastViewSentMs = -Infinity; // a client came or went: tell viewers at the next tick
-          }
-        },
-      });
-    } catch (error) {
-      throw new AppError("conflict", (error as Error).message);
-    }
+    const endpoint = await SessionEndpoint.open({
+      line: this.line,
+      bench: sim.bench,
+      settings,
+      server,
+      clock: this.clock,
+      onClientsChanged: () => {
+        this.touch();
+        this.lastViewSentMs = -Infinity; // a client came or went: tell viewers at the next tick
+      },
+    });
     if (this.ended) {
       await endpoint.close();
       throw new AppError("not_found", "no such live session");
     }
     this.endpoint = endpoint;
-    this.endpointLoopback = settings.loopback;
-    this.endpointAddress = pool.value.individualAddress;
-    this.live.setTunnelSources(pool.value.tunnelAddresses);
+    this.live.setTunnelSources(endpoint.tunnelAddresses);
     this.sendViewIfChanged(this.clock.epochMs());
   }
 
@@ -282,10 +256,7 @@ export class HostedLiveSession {
 
   /** False when no tunnel has that channel. */
   disconnectClient(channelId: number): boolean {
-    const endpoint = this.endpoint;
-    if (endpoint === undefined || !endpoint.connections().some((c) => c.channelId === channelId))
-      return false;
-    endpoint.disconnect(channelId);
+    if (this.endpoint?.disconnect(channelId) !== true) return false;
     this.sendViewIfChanged(this.clock.epochMs());
     return true;
   }
@@ -352,30 +323,7 @@ export class HostedLiveSession {
     };
   }
 
-  private endpointView(): EndpointView | null {
-    const endpoint = this.endpoint;
-    if (endpoint === undefined) return null;
-    return {
-      address: endpoint.address.address,
-      port: endpoint.address.port,
-      loopback: this.endpointLoopback,
-      individualAddress: formatIndividualAddress(this.endpointAddress),
-      clients: endpoint.connections().map((c) => ({
-        channelId: c.channelId,
-        address: c.client.address,
-        port: c.client.port,
-        individualAddress: formatIndividualAddress(c.individualAddress),
-        connectedSince: new Date(
-          this.connectedAt.get(c.channelId) ?? this.startedAtMs,
-        ).toISOString(),
-        telegramsIn: c.telegramsIn,
-        telegramsOut: c.telegramsOut,
-      })),
-    };
+  private endpointView() {
+    return this.endpoint?.view(this.startedAtMs) ?? null;
   }
 }
-
-/** Timeouts and limits of the tunnelling server a test may shorten (heartbeat). */
-export type ServerOverrides = Partial<
-  Omit<TunnellingServerConfig, "endpoint" | "tunnelAddresses" | "individualAddress" | "canReach">
->;

@@ -13,13 +13,10 @@ import type { VerifiedSession } from "../dal";
 import { AppError } from "../errors";
 import { benchCan, loadBench } from "../policy/bench";
 import { notFound, type Who } from "../policy/policy";
-import {
-  HostedLiveSession,
-  type LiveSessionEvent,
-  type ServerOverrides,
-} from "./hosted-live-session";
+import { HostedLiveSession, type LiveSessionEvent } from "./hosted-live-session";
 import { systemLiveSessionClock, type LiveSessionClock } from "./live-session-clock";
 import type { LiveSessionView } from "./live-session-view";
+import type { ServerOverrides } from "./session-endpoint";
 
 export type { LiveSessionEvent } from "./hosted-live-session";
 

@@ -114,7 +114,7 @@ describe("LiveSession in a Node process", () => {
     const posted = node.batches().flatMap((b) => (b.type === "batch" ? b.rows : []));
     const before = node.messages.length;
 
-    const snapshot = node.session.snapshot().map(parseSimMessage);
+    const snapshot = node.session.currentState().map(parseSimMessage);
 
     expect(node.messages).toHaveLength(before);
     expect(snapshot.map((m) => m.type)).toEqual(["loaded", "batch"]);
@@ -150,7 +150,7 @@ describe("LiveSession in a Node process", () => {
       session.tick();
     }
     const posted = messages.flatMap((m) => (m.type === "batch" ? m.rows : []));
-    const batch = session.snapshot()[1];
+    const batch = session.currentState()[1];
     expect(batch?.type === "batch" && batch.rows).toEqual(posted.slice(-3));
   });
 

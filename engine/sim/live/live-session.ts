@@ -41,7 +41,7 @@ export interface LiveSessionOptions {
    * follows the session to the new run this way.
    */
   readonly onSimulation?: (sim: Simulation) => void;
-  /** Log rows a `snapshot` carries for a viewer who arrives late (the newest are kept). */
+  /** Log rows `currentState` carries for a viewer who arrives late (the newest are kept). */
   readonly recentRows?: number;
 }
 
@@ -112,7 +112,7 @@ export class LiveSession {
   private anchorUs = 0;
   private anchorWallMs = 0;
   private lastPostedClock = "";
-  /** Rows already posted, newest last, for `snapshot` (at most `recentCapacity`). */
+  /** Rows already posted, newest last, for `currentState` (at most `recentCapacity`). */
   private recent: LogRow[] = [];
   /** Individual addresses of KNXnet/IP tunnels: their telegrams are marked in the log. */
   private tunnelSources: ReadonlySet<number> = new Set();
@@ -174,7 +174,7 @@ export class LiveSession {
    * the next tick's batch to everyone, so a late viewer sees each row once.
    * Nothing of the session changes; empty before a bench is loaded.
    */
-  snapshot(): SimMessage[] {
+  currentState(): SimMessage[] {
     const sim = this.sim;
     const loaded = this.loaded;
     if (sim === undefined || loaded === undefined) return [];
@@ -193,7 +193,7 @@ export class LiveSession {
         clock,
         rows: this.recent.slice(-this.recentCapacity),
         dropped: 0,
-        devices: loaded.devices.map((device) => this.snapshotOf(sim, device.id)),
+        devices: loaded.devices.map((device) => this.snapshot(sim, device.id)),
         faults: this.activeFaults(sim),
         rooms: this.roomSamples(sim),
         busLoad: [],
@@ -534,7 +534,11 @@ export class LiveSession {
     this.recorder?.onEvent(event);
     switch (event.kind) {
       case "telegram.sent": {
-        this.awaiting.set(event.telegramId, this.telegramRow(event));
+        const row = this.telegramRow(event);
+        // A tunnel has no device id; the test tool has none either, but never a tunnel's address.
+        if (event.deviceId === undefined && this.tunnelSources.has(event.source))
+          row.tunnel = row.source;
+        this.awaiting.set(event.telegramId, row);
         return;
       }
       case "telegram.acked":
@@ -607,7 +611,7 @@ export class LiveSession {
       frame,
       ga === undefined ? {} : { dpt: ga.dpt, groupAddressName: ga.name },
     );
-    const row: LogRow = {
+    return {
       seq: this.rowSeq++,
       kind: "telegram",
       timeUs: event.timeUs,
@@ -625,10 +629,6 @@ export class LiveSession {
       ack: "",
       rawHex: description.rawHex,
     };
-    // A tunnel has no device id; the test tool has none either, but never a tunnel's address.
-    if (event.deviceId === undefined && this.tunnelSources.has(event.source))
-      row.tunnel = description.source;
-    return row;
   }
 
   private finish(telegramId: number, ack: Ack): void {
@@ -661,7 +661,7 @@ export class LiveSession {
       this.backlog = this.backlog.slice(this.backlogHead);
       this.backlogHead = 0;
     }
-    const devices = [...this.dirtyDevices].map((id) => this.snapshotOf(sim, id));
+    const devices = [...this.dirtyDevices].map((id) => this.snapshot(sim, id));
     this.dirtyDevices.clear();
     const faults = this.faultsDirty ? this.activeFaults(sim) : undefined;
     this.faultsDirty = false;
@@ -710,7 +710,7 @@ export class LiveSession {
       this.recent = this.recent.slice(this.recent.length - this.recentCapacity);
   }
 
-  private snapshotOf(sim: Simulation, deviceId: string): DeviceSnapshot {
+  private snapshot(sim: Simulation, deviceId: string): DeviceSnapshot {
     const device = sim.bench.deviceById.get(deviceId);
     const transition = this.transitions.get(deviceId);
     return {
