@@ -5,6 +5,8 @@ export const CONSOLE_PANELS = [
   "control-pad",
   "faults",
   "scene-dry-run",
+  // A server session's KNXnet/IP endpoint (absent from a browser run).
+  "endpoint",
   "bench",
   "charts",
   "inspector",

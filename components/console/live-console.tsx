@@ -2,7 +2,17 @@
 
 import { useEffect, useMemo } from "react";
 import { ConsoleCharts } from "@/components/charts/console-charts";
-import { SimProvider, useSimState, useSimStore } from "@/components/sim/sim-context";
+import type { LiveSessionView } from "@/app/_lib/live/live-session-view";
+import { EndpointPanel } from "@/components/live-session/endpoint-panel";
+import { SessionBar } from "@/components/live-session/session-bar";
+import {
+  ServerSimProvider,
+  SimProvider,
+  useLiveLink,
+  useLiveLinkState,
+  useSimState,
+  useSimStore,
+} from "@/components/sim/sim-context";
 import { Panel } from "@/components/ui/panel";
 import { LAYOUT_BOUNDS } from "./console-layout";
 import { ControlPad } from "./control-pad";
@@ -41,6 +51,30 @@ export function LiveConsole({
   );
 }
 
+/**
+ * The live console attached to a session hosted by the server: the same
+ * panels, fed by the session's event stream, with the session's line on top
+ * and its KNXnet/IP endpoint in the dock instead of the scene dry-run (which
+ * runs ahead of real time). What the member may do there (`canControl`) is in
+ * the session view, decided by the server for this member.
+ */
+export function ServerLiveConsole({
+  session,
+  memberId,
+}: {
+  session: LiveSessionView;
+  memberId: string;
+}) {
+  return (
+    <ServerSimProvider session={session}>
+      <div className="space-y-3">
+        <SessionBar viewerId={memberId} />
+        <ConsoleBody benchId={session.benchId} document={null} memberId={memberId} />
+      </div>
+    </ServerSimProvider>
+  );
+}
+
 function ConsoleBody({
   benchId,
   document,
@@ -66,7 +100,7 @@ function ConsoleBody({
       </Panel>
     );
   }
-  if (status === "idle") return <p className="text-sm text-ink-soft">Starting the simulation…</p>;
+  if (status === "idle") return <Starting />;
   return <ConsoleWorkbench benchId={benchId} document={document} memberId={memberId} />;
 }
 
@@ -88,7 +122,10 @@ function ConsoleWorkbench({
   memberId?: string;
 }) {
   const { layout, resize, toggle } = useConsoleLayout(memberId);
-  const lines = useMemo(() => lineLabels(document), [document]);
+  // A server session's document arrives on the stream; a browser run's is the page's.
+  const simulated = useSimState((s) => s.benchDocument);
+  const lines = useMemo(() => lineLabels(document ?? simulated), [document, simulated]);
+  const onServer = useLiveLink() !== null;
   const collapsed = layout.collapsed;
   const columns = {
     "--console-left": `${layout.leftWidthPx}px`,
@@ -99,7 +136,9 @@ function ConsoleWorkbench({
     <div className="space-y-3">
       <div className="flex flex-wrap items-center justify-between gap-3">
         <TimeControls />
-        <RecordPanel benchId={benchId} />
+        <OwnerControls>
+          <RecordPanel benchId={benchId} />
+        </OwnerControls>
       </div>
       <ErrorLine />
       <div>
@@ -126,22 +165,36 @@ function ConsoleWorkbench({
             collapsed={collapsed["control-pad"] === true}
             onToggle={() => toggle("control-pad")}
           >
-            <ControlPad />
+            <OwnerControls>
+              <ControlPad />
+            </OwnerControls>
           </DockPanel>
           <DockPanel
             title="Faults"
             collapsed={collapsed.faults === true}
             onToggle={() => toggle("faults")}
           >
-            <FaultsPanel />
+            <OwnerControls>
+              <FaultsPanel />
+            </OwnerControls>
           </DockPanel>
-          <DockPanel
-            title="Scene dry-run"
-            collapsed={collapsed["scene-dry-run"] === true}
-            onToggle={() => toggle("scene-dry-run")}
-          >
-            <SceneDryRun />
-          </DockPanel>
+          {onServer ? (
+            <DockPanel
+              title="KNXnet/IP endpoint"
+              collapsed={collapsed.endpoint === true}
+              onToggle={() => toggle("endpoint")}
+            >
+              <EndpointPanel />
+            </DockPanel>
+          ) : (
+            <DockPanel
+              title="Scene dry-run"
+              collapsed={collapsed["scene-dry-run"] === true}
+              onToggle={() => toggle("scene-dry-run")}
+            >
+              <SceneDryRun />
+            </DockPanel>
+          )}
         </div>
         <ResizeHandle
           label="Width of the control pad column"
@@ -189,6 +242,33 @@ function ConsoleWorkbench({
         </div>
       </div>
     </div>
+  );
+}
+
+/**
+ * Controls that send commands, disabled (a native disabled fieldset) for a
+ * member who watches someone else's server session: the API would refuse
+ * them anyway, and a pad that only ever fails says less than a greyed one.
+ */
+function OwnerControls({ children }: { children: React.ReactNode }) {
+  const link = useLiveLink();
+  if (link === null || link.canControl) return children;
+  return (
+    <fieldset disabled className="contents" title="Only the session's owner sends commands">
+      {children}
+    </fieldset>
+  );
+}
+
+/** Before the first state arrives; a server session that ended before that says so above. */
+function Starting() {
+  const onServer = useLiveLink() !== null;
+  const ended = useLiveLinkState((s) => s.status === "ended", false);
+  if (ended) return null;
+  return (
+    <p className="text-sm text-ink-soft">
+      {onServer ? "Attaching to the session on the server…" : "Starting the simulation…"}
+    </p>
   );
 }
 

@@ -244,13 +244,14 @@ const LogRowView = memo(function LogRowView({
 }) {
   const fault = row.kind === "fault";
   const service = fault ? row.service : (SERVICE_LABEL[row.service] ?? row.service);
-  const source = fault ? row.source : `${row.source} ${sender}`;
+  const source = fault ? row.source : `${row.source} ${row.tunnel ? "over KNXnet/IP" : sender}`;
   const destination = `${row.destination} ${row.destinationName}`;
   return (
     <div
       role="row"
       aria-rowindex={index + 2}
       data-kind={row.kind}
+      data-tunnel={row.tunnel || undefined}
       className={cx(
         COLUMNS,
         "absolute inset-x-0 items-center px-2 font-mono text-xs whitespace-nowrap",
@@ -266,7 +267,12 @@ const LogRowView = memo(function LogRowView({
           <span className="font-sans">{row.source}</span>
         ) : (
           <>
-            {row.source} <span className="font-sans">{sender}</span>
+            {row.source}{" "}
+            {row.tunnel ? (
+              <TunnelMark tunnel={row.tunnel} />
+            ) : (
+              <span className="font-sans">{sender}</span>
+            )}
           </>
         )}
       </span>
@@ -299,3 +305,15 @@ const LogRowView = memo(function LogRowView({
     </div>
   );
 });
+
+/** A telegram that came in from a KNXnet/IP tunnel client rather than a bench device. */
+function TunnelMark({ tunnel }: { tunnel: string }) {
+  return (
+    <abbr
+      title={`Came in over KNXnet/IP, tunnel ${tunnel}`}
+      className="rounded bg-copper/10 px-1 font-sans text-[0.85em] font-semibold text-copper-deep no-underline"
+    >
+      IP
+    </abbr>
+  );
+}

@@ -1,6 +1,6 @@
 "use client";
 
-import { useSimSend } from "@/components/sim/sim-context";
+import { useLiveLink, useSimSend } from "@/components/sim/sim-context";
 import type { SimSpeed } from "@/components/sim/sim-protocol";
 import { Button } from "@/components/ui/button";
 import { formatVirtualTime } from "./format-time";
@@ -23,22 +23,69 @@ const JUMPS: readonly { us: number; label: string }[] = [
 
 const speedText = (speed: SimSpeed) => (speed === "max" ? "as fast as possible" : `at ${speed}x`);
 
+/** Why a server session has no speeds: said beside the controls, not only in a tooltip. */
+export const REAL_TIME_REASON =
+  "KNX software connected from outside lives in real time, so a session on the server always runs at 1x: no pause, single steps, other speeds or jumps ahead.";
+
 /**
  * Run or pause, single step (which pauses), speeds, jumps and reset, with the virtual clock.
  * The run/pause button names what pressing it does; the state is said in
- * words beside the clock, so the two never contradict each other.
+ * words beside the clock, so the two never contradict each other. A session
+ * on the server runs at 1x only (see `REAL_TIME_REASON`).
  */
 export function TimeControls() {
+  const link = useLiveLink();
+  return link === null ? (
+    <BrowserTimeControls />
+  ) : (
+    <RealTimeControls canControl={link.canControl} />
+  );
+}
+
+/** The virtual clock readout both kinds of controls start with. */
+function ClockReadout({ nowUs }: { nowUs: number }) {
+  return (
+    <output
+      aria-label="Virtual clock"
+      className="min-w-32 rounded-md bg-graphite px-3 py-1.5 font-mono text-sm text-graphite-text tabular-nums"
+    >
+      {formatVirtualTime(nowUs)}
+    </output>
+  );
+}
+
+/** A server session's controls: the clock at 1x for everyone, Reset for the owner. */
+function RealTimeControls({ canControl }: { canControl: boolean }) {
   const send = useSimSend();
   const clock = useFrameSimState((s) => s.clock);
   return (
     <div className="flex flex-wrap items-center gap-2" role="toolbar" aria-label="Time controls">
-      <output
-        aria-label="Virtual clock"
-        className="min-w-32 rounded-md bg-graphite px-3 py-1.5 font-mono text-sm text-graphite-text tabular-nums"
-      >
-        {formatVirtualTime(clock.nowUs)}
-      </output>
+      <ClockReadout nowUs={clock.nowUs} />
+      <span className="text-xs text-ink-soft" data-testid="run-state">
+        <span aria-hidden="true">▶ </span>Running in real time
+      </span>
+      {canControl ? (
+        <Button
+          variant="secondary"
+          onClick={() => send({ type: "reset" })}
+          title="Start the run again; connected KNXnet/IP clients are disconnected and may reconnect"
+        >
+          Reset
+        </Button>
+      ) : null}
+      <p className="max-w-xl text-xs text-ink-soft" data-testid="real-time-reason">
+        <span className="font-medium text-ink">Real time (1x).</span> {REAL_TIME_REASON}
+      </p>
+    </div>
+  );
+}
+
+function BrowserTimeControls() {
+  const send = useSimSend();
+  const clock = useFrameSimState((s) => s.clock);
+  return (
+    <div className="flex flex-wrap items-center gap-2" role="toolbar" aria-label="Time controls">
+      <ClockReadout nowUs={clock.nowUs} />
       <span className="min-w-40 text-xs text-ink-soft" data-testid="run-state">
         {clock.running ? (
           <>

@@ -1,5 +1,6 @@
 import { checkSimMessage, type SimCommand } from "./sim-protocol";
 import type { SimStore } from "./sim-store";
+import type { SimTransport } from "./sim-transport";
 
 /** The part of a Worker the client uses, so tests can hand in a fake. */
 export interface SimPort {
@@ -9,14 +10,14 @@ export interface SimPort {
 }
 
 /**
- * The page side of the worker: posts typed commands and folds every message
+ * The page side of the worker (the browser transport): posts typed commands and folds every message
  * into the store. Commands are validated once, by the worker, which treats
  * whatever arrives as untrusted and answers a bad one with a command-error
  * naming the field (the store shows it like any other refusal); the page
  * builds its commands from typed code, so checking them here too only cost
  * time. Messages get the cheap envelope check (see `checkSimMessage`).
  */
-export class SimClient {
+export class SimClient implements SimTransport {
   constructor(
     private readonly port: SimPort,
     private readonly store: SimStore,

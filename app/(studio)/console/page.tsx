@@ -3,8 +3,11 @@ import Link from "next/link";
 import type { ReactNode } from "react";
 import { benchOffersFor } from "@/app/_lib/bench-offers";
 import { requireCapability } from "@/app/_lib/dal";
+import { liveSessions } from "@/app/_lib/live/live-session-registry";
 import { listReadableBenches } from "@/app/_lib/policy/bench";
 import { SimulatorCaution } from "@/components/console/simulator-caution";
+import { ServerSessionList } from "@/components/live-session/server-session-list";
+import { StartSessionButton } from "@/components/live-session/start-session-button";
 import { PageHeader } from "@/components/ui/page-header";
 import { StatusBadge } from "@/components/ui/status-badge";
 import { PracticeCopyButton } from "./practice-copy-button";
@@ -44,6 +47,7 @@ export default async function ConsolePage() {
     offers: benchOffersFor(session, bench),
   }));
   const benches = visible.filter(({ offers }) => offers.live).map(({ bench }) => bench);
+  const running = liveSessions().list(session);
   const copyable = visible
     .filter(({ offers }) => !offers.live && offers.practiceCopy)
     .map(({ bench }) => bench);
@@ -51,8 +55,9 @@ export default async function ConsolePage() {
     <div className="mx-auto flex max-w-5xl flex-col gap-6 px-6 py-8 md:px-10">
       <PageHeader
         title="Live console"
-        lead="Run a bench in the browser, send telegrams from the control pad and watch the bus answer."
+        lead="Run a bench in the browser, or on the server in real time where KNX software can reach it over KNXnet/IP; send telegrams from the control pad and watch the bus answer."
       />
+      <ServerSessionList sessions={running} memberId={session.userId} />
       {benches.length === 0 ? (
         <p className="text-sm text-ink-soft">
           {session.scope === "own"
@@ -73,9 +78,11 @@ export default async function ConsolePage() {
                   href={`/benches/${bench.id}/live`}
                   className="rounded-md bg-copper px-3.5 py-2 text-sm font-medium text-white hover:bg-copper-deep"
                   aria-label={`Open ${bench.name} live`}
+                  title="Runs in this browser, at any speed"
                 >
                   Open live
                 </Link>
+                <StartSessionButton bench={{ id: bench.id, name: bench.name }} />
               </div>
             </BenchItem>
           ))}

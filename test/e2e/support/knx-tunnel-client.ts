@@ -1,0 +1,128 @@
+import type dgram from "node:dgram";
+import { createRequire } from "node:module";
+
+/**
+ * The `knx` npm package (test-only devDependency, "Libraries" in
+ * knx-reference.md) as a real KNXnet/IP tunnelling client, for browser tests
+ * that check what the console shows of a connected client. 127.0.0.1 only;
+ * every wait is bounded and `close` releases the socket and the timers.
+ */
+
+/** The client's machina state machine: `on` / `off`, no `once`. */
+interface KnxConnection {
+  state: string;
+  on(event: string, listener: (...args: never[]) => void): unknown;
+  off(event: string, listener: (...args: never[]) => void): void;
+  write(ga: string, value: unknown, dpt: string): void;
+  transition(state: string): void;
+  Connect(): void;
+  Disconnect(callback?: () => void): void;
+  send(datagram: unknown): void;
+  idletimer?: ReturnType<typeof setTimeout> | null;
+  connecttimer?: ReturnType<typeof setInterval>;
+  socket?: dgram.Socket;
+}
+
+let connectionFactory: ((options: Record<string, unknown>) => KnxConnection) | null = null;
+
+function factory() {
+  if (connectionFactory) return connectionFactory;
+  const require = createRequire(import.meta.url);
+  // The package logs through log-driver; silence it so the test output stays readable.
+  const logger = createRequire(require.resolve("knx/package.json"))("log-driver").logger as Record<
+    string,
+    unknown
+  >;
+  for (const level of ["error", "warn", "info", "debug", "trace"]) logger[level] = () => undefined;
+  connectionFactory = (require("knx") as { Connection: typeof connectionFactory }).Connection!;
+  return connectionFactory;
+}
+
+export interface TunnelClient {
+  /** Sends a GroupValue_Write through the tunnel, e.g. ("1/0/1", 1, "DPT1.001"). */
+  write(groupAddress: string, value: unknown, dpt: string): void;
+  /**
+   * Resolves when the server ends the tunnel (a DISCONNECT_REQUEST), within `timeoutMs`.
+   * The package would dial again at once; this client stays disconnected instead.
+   */
+  disconnectedByServer(timeoutMs: number): Promise<void>;
+  /** Disconnects (if still connected) and releases the socket and timers. */
+  close(): Promise<void>;
+}
+
+/** Connects a tunnelling client to 127.0.0.1:`port`, within `timeoutMs`. */
+export function connectTunnelClient(port: number, timeoutMs: number): Promise<TunnelClient> {
+  const connection = factory()({
+    ipAddr: "127.0.0.1",
+    ipPort: port,
+    loglevel: "error",
+    manualConnect: true,
+  });
+  let serverEnded = false;
+  const ended = new Set<() => void>();
+  const onDisconnected = () => {
+    if (serverEnded || connection.state === "uninitialized") return;
+    // Emitted on entering "connecting", just before the package sends its next
+    // CONNECT_REQUEST: turn sending off so it does not come back as a new tunnel.
+    serverEnded = true;
+    connection.send = () => undefined;
+    for (const resolve of ended) resolve();
+  };
+
+  const close = async () => {
+    if (!serverEnded && connection.state !== "uninitialized" && connection.state !== "connecting")
+      await new Promise<void>((resolve) => {
+        const timer = setTimeout(resolve, 1000);
+        connection.Disconnect(() => {
+          clearTimeout(timer);
+          resolve();
+        });
+      });
+    connection.off("disconnected", onDisconnected);
+    if (connection.idletimer) clearTimeout(connection.idletimer);
+    if (connection.connecttimer) clearInterval(connection.connecttimer);
+    connection.transition("uninitialized");
+    try {
+      connection.socket?.close();
+    } catch {
+      // already closed by the package
+    }
+  };
+
+  const client: TunnelClient = {
+    write: (groupAddress, value, dpt) => connection.write(groupAddress, value, dpt),
+    disconnectedByServer: (waitMs) =>
+      serverEnded
+        ? Promise.resolve()
+        : new Promise<void>((resolve, reject) => {
+            const timer = setTimeout(() => {
+              ended.delete(done);
+              reject(new Error(`the server did not end the tunnel within ${waitMs} ms`));
+            }, waitMs);
+            const done = () => {
+              clearTimeout(timer);
+              resolve();
+            };
+            ended.add(done);
+          }),
+    close,
+  };
+
+  return new Promise((resolve, reject) => {
+    const timer = setTimeout(() => {
+      connection.off("connected", onConnected);
+      void close().then(() =>
+        reject(new Error(`no tunnel to 127.0.0.1:${port} within ${timeoutMs} ms`)),
+      );
+    }, timeoutMs);
+    const onConnected = () => {
+      clearTimeout(timer);
+      connection.off("connected", onConnected);
+      // Only now: the package also emits "disconnected" while it first dials.
+      connection.on("disconnected", onDisconnected);
+      resolve(client);
+    };
+    connection.on("connected", onConnected);
+    connection.Connect();
+  });
+}
