@@ -274,6 +274,7 @@ describe("TelegramLog on a server session", () => {
       seq,
       kind: "telegram",
       timeUs: seq * 1000,
+      line: "1.1",
       source: "1.1.250",
       deviceId: "",
       destination: "1/0/1",
