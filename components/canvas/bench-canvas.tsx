@@ -36,6 +36,8 @@ import { AddressGroupNodeComponent } from "./address-group-node";
 import { BusBarNodeComponent } from "./bus-bar-node";
 import { DeviceNodeComponent } from "./device-node";
 import { FloorPlanNodeComponent } from "./floor-plan-node";
+import { CouplerNodeComponent } from "./coupler-node";
+import { LineRegionNodeComponent } from "./line-region-node";
 import { EdgeMarkers, LinkEdgeComponent, UnitLinkEdgeComponent } from "./link-edges";
 import {
   busBarNodeId,
@@ -55,6 +57,8 @@ const nodeTypes: NodeTypes = {
   busBar: BusBarNodeComponent,
   floorPlan: FloorPlanNodeComponent,
   addressGroup: AddressGroupNodeComponent,
+  lineRegion: LineRegionNodeComponent,
+  coupler: CouplerNodeComponent,
 };
 const edgeTypes: EdgeTypes = { link: LinkEdgeComponent, unitLink: UnitLinkEdgeComponent };
 
@@ -433,9 +437,11 @@ export function BenchCanvas({
                 ? "#d98b4e" // --color-copper-bright
                 : n.type === "device" && n.data.faults !== undefined
                   ? "#f07a70" // --color-fault-bright: a faulty device stays visible however far out
-                  : n.type === "addressGroup"
+                  : n.type === "addressGroup" || n.type === "lineRegion"
                     ? "transparent"
-                    : "#41464f"
+                    : n.type === "coupler"
+                      ? "#a3591f" // --color-copper
+                      : "#41464f"
             }
             maskColor="rgba(36,39,44,0.7)"
             bgColor="#2f333a"

@@ -20,6 +20,15 @@ import {
   GROUP_PADDING,
   type BenchLayout,
 } from "./bench-layout";
+import { CARD_WIDTH, cardHeight } from "./bench-layout";
+import {
+  couplerPosition,
+  deviceLines,
+  drawsLineRegions,
+  isCoupler,
+  regionsAround,
+  type LineRegionBox,
+} from "./line-regions";
 
 export { BUS_BAR_HEIGHT, BUS_BAR_WIDTH, CARD_HEADER, CARD_WIDTH, ROW_HEIGHT } from "./bench-layout";
 
@@ -66,7 +75,35 @@ export type AddressGroupNodeData = {
   readonly height: number;
 };
 export type AddressGroupNode = Node<AddressGroupNodeData, "addressGroup">;
-export type BenchNode = DeviceNode | BusBarNode | FloorPlanNode | AddressGroupNode;
+export type LineRegionNodeData = {
+  /** "1.1" */
+  readonly address: string;
+  readonly name: string;
+  readonly kind: "line" | "main" | "backbone";
+  readonly deviceCount: number;
+  /** Expected load from the bench topology, when known. */
+  readonly expectedLoadPercent?: number;
+  readonly width: number;
+  readonly height: number;
+};
+export type LineRegionNode = Node<LineRegionNodeData, "lineRegion">;
+
+/** How a coupler passes telegrams (topology contract); missing settings read as the defaults. */
+export type CouplerNodeData = {
+  readonly device: BenchDevice;
+  /** "1.1.0" */
+  readonly address: string;
+  /** The line it joins its own line to ("1.0"), when the bench has it. */
+  readonly upperLine?: string;
+  readonly groupTelegrams: string;
+  readonly individualTelegrams: string;
+  /** Entries of a stored (hand-edited) filter table; undefined when generated from the links. */
+  readonly storedEntries?: number;
+  readonly severity?: CheckSeverity;
+};
+export type CouplerNode = Node<CouplerNodeData, "coupler">;
+export type BenchNode =
+  DeviceNode | BusBarNode | FloorPlanNode | AddressGroupNode | LineRegionNode | CouplerNode;
 
 export type LinkEdgeData = {
   readonly device: string;
@@ -153,6 +190,22 @@ export interface GraphOptions {
    * selected every wire is faint, so the cards and bars read first.
    */
   readonly focusWires?: boolean;
+  /** Expected load per line id (percent), from the engine's bench topology. */
+  readonly lineLoads?: ReadonlyMap<string, number>;
+}
+
+/** "1.1" -> "line", "1.0" -> "main", "0.0" -> "backbone". */
+export function lineKind(address: string): "line" | "main" | "backbone" {
+  if (address === "0.0") return "backbone";
+  return address.endsWith(".0") ? "main" : "line";
+}
+
+/** The address of the line a line's coupler leads to: a.l -> a.0, a.0 -> 0.0. */
+export function upperLineAddress(address: string): string | undefined {
+  const [area, line] = address.split(".");
+  if (area === undefined || line === undefined) return undefined;
+  if (Number(line) !== 0) return `${Number(area)}.0`;
+  return Number(area) === 0 ? undefined : "0.0";
 }
 
 /** The canvas view of a bench: one card per device, one bus-bar per group address, one edge per link and unit link. */
@@ -256,7 +309,13 @@ export function benchGraph(
       zIndex: -1,
     });
   }
+  const regionsDrawn = drawsLineRegions(bench);
+  const couplers: BenchDevice[] = [];
   for (const device of bench.devices) {
+    if (regionsDrawn && isCoupler(device)) {
+      couplers.push(device);
+      continue;
+    }
     const type = getDeviceType(device.type);
     const objects: DeviceObjectRow[] = deviceObjects(device).map((object) => {
       const links = linksByObject.get(`${device.id}#${object.number}`) ?? [];
@@ -289,6 +348,18 @@ export function benchGraph(
       },
     });
   }
+  if (regionsDrawn)
+    nodes.push(
+      ...lineNodes(
+        bench,
+        nodes,
+        couplers,
+        layout.lines,
+        deviceSeverity,
+        selectedDevices,
+        options.lineLoads,
+      ),
+    );
   const barPositions = new Map<string, Position>();
   for (const groupAddress of bench.groupAddresses) {
     const key = groupAddressKey(groupAddress.address);
@@ -313,6 +384,105 @@ export function benchGraph(
     });
   }
   return { nodes, edges };
+}
+
+/**
+ * One region per line around its cards (drawn under them) and one badge per
+ * coupler on the top border of its line's region, the boundary with the line above.
+ */
+function lineNodes(
+  bench: Bench,
+  drawn: readonly BenchNode[],
+  couplers: readonly BenchDevice[],
+  laidOut: readonly LineRegionBox[],
+  deviceSeverity: ReadonlyMap<string, CheckSeverity>,
+  selectedDevices: ReadonlySet<string>,
+  lineLoads: ReadonlyMap<string, number> | undefined,
+): BenchNode[] {
+  const cards = drawn.flatMap((node) =>
+    node.type === "device"
+      ? [
+          {
+            id: node.data.device.id,
+            position: node.position,
+            width: CARD_WIDTH,
+            height: cardHeight(node.data.objects.length),
+          },
+        ]
+      : [],
+  );
+  const regions = regionsAround(bench, cards, laidOut);
+  const lineOf = deviceLines(bench);
+  const counts = new Map<string, number>();
+  for (const device of bench.devices) {
+    if (device.individualAddress === undefined) continue;
+    const line = lineOf.get(device.id);
+    if (line !== undefined) counts.set(line, (counts.get(line) ?? 0) + 1);
+  }
+  const lineById = new Map(bench.lines.map((l) => [l.id, l]));
+  const addresses = new Set(bench.lines.map((l) => l.address));
+  const nodes: BenchNode[] = [];
+  const regionOf = new Map<string, LineRegionBox>();
+  for (const region of regions) {
+    const line = lineById.get(region.lineId);
+    if (line === undefined) continue;
+    regionOf.set(line.id, region);
+    const load = lineLoads?.get(line.id);
+    nodes.push({
+      id: `ln:${line.id}`,
+      type: "lineRegion",
+      position: region.position,
+      data: {
+        address: line.address,
+        name: line.name,
+        kind: lineKind(line.address),
+        deviceCount: counts.get(line.id) ?? 0,
+        ...(load === undefined ? {} : { expectedLoadPercent: load }),
+        width: region.width,
+        height: region.height,
+      },
+      draggable: false,
+      selectable: false,
+      deletable: false,
+      focusable: false,
+      connectable: false,
+      zIndex: -2,
+    });
+  }
+  const perLine = new Map<string, number>();
+  for (const device of couplers) {
+    const lineId = lineOf.get(device.id);
+    const line = lineId === undefined ? undefined : lineById.get(lineId);
+    const region = lineId === undefined ? undefined : regionOf.get(lineId);
+    const index = perLine.get(lineId ?? "") ?? 0;
+    perLine.set(lineId ?? "", index + 1);
+    const upper = line === undefined ? undefined : upperLineAddress(line.address);
+    const parameters = device.parameters as Record<string, unknown>;
+    const table = parameters.filterTable;
+    const severity = deviceSeverity.get(device.id);
+    nodes.push({
+      id: deviceNodeId(device.id),
+      type: "coupler",
+      position:
+        device.position ?? (region === undefined ? { x: 0, y: 0 } : couplerPosition(region, index)),
+      selected: selectedDevices.has(device.id),
+      data: {
+        device,
+        address: deviceAddressLabel(device),
+        ...(upper !== undefined && addresses.has(upper) ? { upperLine: upper } : {}),
+        groupTelegrams:
+          typeof parameters.groupTelegrams === "string" ? parameters.groupTelegrams : "filter",
+        individualTelegrams:
+          typeof parameters.individualTelegrams === "string"
+            ? parameters.individualTelegrams
+            : "route",
+        ...(Array.isArray(table) ? { storedEntries: table.length } : {}),
+        ...(severity === undefined ? {} : { severity }),
+      },
+      zIndex: 1,
+    });
+  }
+  return nodes;
 }
 
 /** "1.1.10" for a device with an address, "unit link" otherwise. */

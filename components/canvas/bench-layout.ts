@@ -3,6 +3,7 @@ import { parseGroupAddress, parseIndividualAddress } from "@/engine";
 import type { Bench, Position } from "@/engine";
 import { deviceObjects } from "@/components/bench-editor/model/device-objects";
 import { groupAddressKey } from "@/components/bench-editor/model/group-address-key";
+import { drawsLineRegions, isCoupler, stackByLine, type LineRegionBox } from "./line-regions";
 
 /** Card and bus-bar sizes in canvas units; the layout and the nodes share them. */
 export const CARD_WIDTH = 248;
@@ -43,6 +44,8 @@ export interface BenchLayout {
    * instead of all turning at the midpoint.
    */
   readonly channels: ReadonlyMap<string, number>;
+  /** Line regions top to bottom, when the bench has more than one line (or a coupler). */
+  readonly lines: readonly LineRegionBox[];
 }
 
 export const EMPTY_LAYOUT: BenchLayout = {
@@ -50,6 +53,7 @@ export const EMPTY_LAYOUT: BenchLayout = {
   addresses: new Map(),
   groups: [],
   channels: new Map(),
+  lines: [],
 };
 
 /** The subset of elkjs's API the layout needs, so tests and benchmarks can pass their own instance. */
@@ -115,6 +119,8 @@ export function benchElkGraph(bench: Bench): ElkNode {
   const ports = new Set<string>();
   const devices = bench.devices
     .map((device, index) => ({ device, index }))
+    // Couplers sit on the border between two line regions, placed after the layout.
+    .filter(({ device }) => !isCoupler(device))
     .sort(
       (a, b) =>
         deviceOrder(a.device.individualAddress) - deviceOrder(b.device.individualAddress) ||
@@ -238,14 +244,29 @@ export function positionsFromElk(laidOut: ElkNode): BenchLayout {
     const bend = edge.sections?.[0]?.bendPoints?.[0];
     if (bend !== undefined) channels.set(edge.id, bend.x);
   }
-  return { devices, addresses, groups, channels };
+  return { devices, addresses, groups, channels, lines: [] };
 }
 
 /** Lays the bench out with ELK's layered algorithm. Async: elkjs runs its own event loop. */
 export async function layoutBench(bench: Bench, elk: ElkLike): Promise<BenchLayout> {
   const graph = benchElkGraph(bench);
-  if ((graph.children ?? []).length === 0) return EMPTY_LAYOUT;
-  return positionsFromElk(await elk.layout(graph));
+  const laidOut =
+    (graph.children ?? []).length === 0 ? EMPTY_LAYOUT : positionsFromElk(await elk.layout(graph));
+  return drawsLineRegions(bench) ? withLineRegions(bench, laidOut) : laidOut;
+}
+
+/** The layout with its device column restacked line by line (line-regions.ts). */
+export function withLineRegions(bench: Bench, layout: BenchLayout): BenchLayout {
+  const cards = bench.devices
+    .filter((device) => layout.devices.has(device.id))
+    .map((device) => ({
+      id: device.id,
+      position: layout.devices.get(device.id)!,
+      width: CARD_WIDTH,
+      height: cardHeight(deviceObjects(device).length),
+    }));
+  const { positions, regions } = stackByLine(bench, cards);
+  return { ...layout, devices: positions, lines: regions };
 }
 
 /**
@@ -256,8 +277,9 @@ export async function layoutBench(bench: Bench, elk: ElkLike): Promise<BenchLayo
  */
 export function layoutSignature(bench: Bench): string {
   const devices = bench.devices.map(
-    (d) => `${d.id}:${d.individualAddress ?? ""}:${deviceObjects(d).length}`,
+    (d) => `${d.id}:${d.individualAddress ?? ""}:${d.line ?? ""}:${deviceObjects(d).length}`,
   );
   const addresses = bench.groupAddresses.map((g) => groupAddressKey(g.address));
-  return JSON.stringify([devices, addresses]);
+  const lines = bench.lines.map((l) => `${l.id}:${l.address}`);
+  return JSON.stringify([devices, addresses, lines]);
 }
