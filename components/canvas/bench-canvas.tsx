@@ -86,6 +86,8 @@ export interface BenchCanvasProps {
   readonly label?: string;
   /** Active fault ids per device id from a running simulation (live console), drawn in fault red. */
   readonly faults?: ReadonlyMap<string, readonly string[]>;
+  /** Expected load per line id (percent), shown on the line regions. */
+  readonly lineLoads?: ReadonlyMap<string, number>;
 }
 
 /**
@@ -99,6 +101,7 @@ export function BenchCanvas({
   readOnly = false,
   label = "Bench canvas",
   faults,
+  lineLoads,
 }: BenchCanvasProps) {
   const storeApi = useEditorStoreApi();
   const bench = useEditor((s) => s.bench);
@@ -124,8 +127,9 @@ export function BenchCanvas({
             ...(faults ? { faults } : {}),
             layout,
             focusWires,
+            ...(lineLoads ? { lineLoads } : {}),
           }),
-    [bench, findings, selection, floorPlan, faults, layout, focusWires],
+    [bench, findings, selection, floorPlan, faults, layout, focusWires, lineLoads],
   );
   const [nodes, setNodes] = useState<BenchNode[]>(graph.nodes);
   const [edges, setEdges] = useState<BenchEdge[]>(graph.edges);

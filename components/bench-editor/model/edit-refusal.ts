@@ -22,7 +22,10 @@ export interface EditRefusal {
     | "edit.link-unknown"
     | "edit.parameters-invalid"
     | "edit.name-empty"
-    | "edit.unit-link-invalid";
+    | "edit.unit-link-invalid"
+    | "edit.line-invalid"
+    | "edit.line-exists"
+    | "edit.coupler-invalid";
   readonly message: string;
   /** Field at fault, e.g. "parameters.fanLevels", "individualAddress", "address". */
   readonly field?: string;
