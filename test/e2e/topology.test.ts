@@ -1,0 +1,105 @@
+import type { Browser, Page } from "playwright-core";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { launchChromium } from "./chromium";
+import { demoPassword, signIn } from "./support/sign-in";
+
+const ENGINEER = "tomas.engineer@fernhill.example";
+
+describe("topology of the demo hotel in headless Chromium", () => {
+  let browser: Browser;
+  let page: Page;
+  const pageErrors: string[] = [];
+  let benchPath = "";
+
+  beforeAll(async () => {
+    browser = await launchChromium();
+    page = await browser.newPage({ viewport: { width: 1600, height: 1000 } });
+    page.on("pageerror", (error) => pageErrors.push(error.message));
+    await signIn(page, ENGINEER, demoPassword(ENGINEER), "/benches");
+    // The hotel is the engineer's project in a workspace of its own.
+    await Promise.all([
+      page.waitForURL((url) => url.pathname === "/benches"),
+      page.getByLabel("Workspace", { exact: true }).selectOption({ label: "Wrenhallow Hotel" }),
+    ]);
+    const link = page.getByRole("list", { name: "Benches" }).getByRole("link", {
+      name: "Wrenhallow Hotel",
+    });
+    await link.waitFor({ timeout: 20_000 });
+    benchPath = (await link.getAttribute("href"))!;
+  });
+
+  afterAll(async () => {
+    await browser?.close();
+  });
+
+  it("draws each line as a region with its coupler on the border to the main line", async () => {
+    await page.goto(`${new URL(page.url()).origin}${benchPath}`);
+    const canvas = page.getByRole("application", { name: "Bench canvas" });
+    await canvas.waitFor();
+    await expect.poll(() => canvas.getAttribute("data-view"), { timeout: 30_000 }).toBe("opened");
+    await canvas.focus();
+    await page.keyboard.press("f");
+    const regions = page.locator('[data-testid^="line-region-"]');
+    await expect.poll(() => regions.count(), { timeout: 20_000 }).toBe(4);
+    expect(await page.getByRole("region", { name: "Line 1.2 Floor 2" }).count()).toBe(1);
+    const coupler = page.getByRole("group", { name: /^Coupler 1\.2\.0 Floor 2 line coupler/ });
+    await coupler.waitFor();
+    expect(await coupler.getAttribute("aria-label")).toContain("joins to line 1.0");
+    // The coupler straddles the top border of its line's region (line-regions.ts).
+    const region = await page.getByTestId("line-region-1.2").boundingBox();
+    const badge = await coupler.boundingBox();
+    expect(badge!.y).toBeLessThan(region!.y);
+    expect(badge!.y + badge!.height).toBeGreaterThan(region!.y);
+  });
+
+  it("lists the lines with their device counts in the topology panel, and opens a coupler's filter table", async () => {
+    await page.getByRole("tab", { name: /^Topology/ }).click();
+    const area = page.getByRole("region", { name: "Area 1" });
+    await area.waitFor();
+    const row = (address: string) =>
+      area
+        .getByRole("row")
+        .filter({
+          has: page.getByRole("rowheader", {
+            name: new RegExp(`^${address.replace(".", "\\.")} `),
+          }),
+        });
+    // Main line: the central push-button; each floor: 12 push-buttons, 12 gateways, 12 room
+    // sensors, 2 actuators and the coupler (indoor units sit on unit links, not on the line).
+    expect(await row("1.0").getByRole("cell").first().innerText()).toBe("1");
+    for (const floor of ["1.1", "1.2", "1.3"])
+      expect(await row(floor).getByRole("cell").first().innerText()).toBe("39");
+    await row("1.2")
+      .getByRole("button", { name: /^Coupler 1\.2\.0/ })
+      .click();
+    const table = page.getByRole("table", { name: "Filter table of Floor 2 line coupler" });
+    await table.waitFor();
+    expect(await table.innerText()).toContain("4/0/1");
+    expect(pageErrors).toEqual([]);
+  });
+
+  it("shows the line of each telegram in the console's log, and the couplers passing it on", async () => {
+    await page.goto(`${new URL(page.url()).origin}${benchPath}/live`);
+    await page.getByRole("toolbar", { name: "Time controls" }).waitFor();
+    await page.getByRole("button", { name: "Run at 10x" }).click();
+    const log = page.getByRole("table", { name: "Telegram log" });
+    expect(await log.getByRole("columnheader", { name: "Line" }).count()).toBe(1);
+    const input = page.getByRole("combobox", { name: "Group address" });
+    await input.fill("4/0/1");
+    await page
+      .getByRole("listbox", { name: "Matching group addresses" })
+      .getByRole("option")
+      .first()
+      .click();
+    await page.getByRole("button", { name: "Write", exact: true }).click();
+    await page.getByRole("textbox", { name: "Filter by address" }).fill("4/0/1");
+    // Sent on the main line by the test tool, then on each floor by its coupler.
+    for (const line of ["1.0", "1.1", "1.2", "1.3"])
+      await log
+        .getByRole("row")
+        .filter({ has: page.getByRole("cell", { name: line, exact: true }) })
+        .first()
+        .waitFor({ timeout: 20_000 });
+    expect(pageErrors).toEqual([]);
+  });
+});
