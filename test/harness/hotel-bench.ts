@@ -183,10 +183,47 @@ export function hotelBench(): Record<string, unknown> {
   };
 }
 
+/**
+ * The exercise copy (scenarios/exercises/late-address.bench.json): after the
+ * couplers' filter tables were written, a third central channel was added,
+ * "Night round lights off" on 4/0/3. Floors 1 and 3 had their tables
+ * regenerated; floor 2 still holds the table written before the change, so its
+ * coupler blocks 4/0/3 (its checks report `topology.filter-blocks`).
+ */
+export function hotelLateAddressBench(): Record<string, unknown> {
+  const bench = hotelBench() as {
+    name: string;
+    description: string;
+    groupAddresses: { address: string; name: string; dpt: string }[];
+    devices: Device[];
+    links: { device: string; object: number; groupAddress: string }[];
+  };
+  bench.name = "Wrenhallow Hotel, late address exercise";
+  bench.description =
+    "Exercise copy of the invented Wrenhallow Hotel: a night round lights off (4/0/3) was added to the reception's central push-button after the couplers' filter tables were written. Floors 1 and 3 were regenerated, floor 2 was not: find why its lights stay on and regenerate its table.";
+  bench.groupAddresses.push({ address: "4/0/3", name: "Night round lights off", dpt: "1.001" });
+  const central = bench.devices.find((d) => d.id === "pb-central")!;
+  central.parameters = { channels: [{ function: "off" }, { function: "on" }, { function: "off" }] };
+  bench.links.push({ device: "pb-central", object: 2, groupAddress: "4/0/3" });
+  for (const link of [...bench.links])
+    if (link.groupAddress === "4/0/1")
+      bench.links.push({ device: link.device, object: link.object, groupAddress: "4/0/3" });
+  for (let floor = 1; floor <= HOTEL_FLOORS; floor++) {
+    const coupler = bench.devices.find((d) => d.id === `lc-floor-${floor}`)!;
+    coupler.parameters = {
+      ...coupler.parameters,
+      filterTable: floor === 2 ? ["4/0/1", "4/1/1"] : ["4/0/1", "4/0/3", "4/1/1"],
+    };
+  }
+  return bench;
+}
+
 if (process.argv[1] && fileURLToPath(import.meta.url) === process.argv[1]) {
-  const target = fileURLToPath(
-    new URL("../../scenarios/benches/wrenhallow-hotel.bench.json", import.meta.url),
-  );
-  writeFileSync(target, `${JSON.stringify(hotelBench(), null, 2)}\n`);
-  console.log(`wrote ${target}`);
+  const write = (relative: string, document: unknown) => {
+    const target = fileURLToPath(new URL(`../../scenarios/${relative}`, import.meta.url));
+    writeFileSync(target, `${JSON.stringify(document, null, 2)}\n`);
+    console.log(`wrote ${target}`);
+  };
+  write("benches/wrenhallow-hotel.bench.json", hotelBench());
+  write("exercises/late-address.bench.json", hotelLateAddressBench());
 }
