@@ -108,6 +108,8 @@ export { BENCH_FORMAT } from "./bench";
 export { benchSchema } from "./bench";
 /** A validated bench document. */
 export type { Bench } from "./bench";
+/** Display name of an area in a bench document (`areas`: number 0..15, name). */
+export type { BenchArea } from "./bench";
 /** A bench document as written by hand (defaulted fields optional). */
 export type { BenchInput } from "./bench";
 /** Why a bench did not load; `path` is a JSON path and the device, object or address at fault is named. */
@@ -120,6 +122,61 @@ export type { LoadedDevice } from "./bench";
 export { loadBench } from "./bench";
 /** Brings a bench document of an older format to the current one. */
 export { migrateBench } from "./bench";
+
+// ---------------------------------------------------------------- topology
+
+/**
+ * Areas and lines of a loaded bench for the topology panel: per line its
+ * address ("1.2"), kind ("line" | "main" | "backbone"), KNX device count, the
+ * coupler joining it to the line above, and the expected steady load in
+ * percent of capacity including what couplers pass into it.
+ */
+export {
+  benchTopology,
+  type BenchTopology,
+  type TopologyArea,
+  type TopologyLine,
+} from "./topology";
+/**
+ * The group addresses (raw, ascending) a coupler must pass, generated from the
+ * links: an address whose sender and listener sit on different sides of the
+ * coupler (rule and source in engine/topology/filter-table.ts). Throws for an
+ * id that is not a coupler of the bench.
+ */
+export { generateFilterTable } from "./topology";
+/** The same table as group address texts ("1/2/3"), ready to store in a coupler's `filterTable`. */
+export { generateFilterTableTexts } from "./topology";
+/** The couplers of a loaded bench with their settings and (stored or generated) filter tables. */
+export { benchCouplers, type TopologyCoupler } from "./topology";
+/**
+ * Coupler decisions: group telegrams by mode and table (main groups 14 and 15
+ * pass a filtering coupler, from memory), individual telegrams by address,
+ * routing counter (0 is not passed, 7 is never decremented).
+ */
+export {
+  groupPasses,
+  individualPasses,
+  nextHopCount,
+  UNFILTERED_MAIN_GROUPS,
+  UNLIMITED_HOP_COUNT,
+  type CouplerDropReason,
+  type GroupTelegramMode,
+  type IndividualTelegramMode,
+} from "./topology";
+/** A line's place from its address: kind, the line above, the lines a coupler address joins, "1.2" formatting. */
+export {
+  couplerLines,
+  formatLineAddress,
+  lineKind,
+  upperLineAddress,
+  type LineKind,
+} from "./topology";
+/** Catalogue id of couplers ("coupler") and their default buffer per direction (32 telegrams, our own choice). */
+export { COUPLER_TYPE_ID, DEFAULT_COUPLER_QUEUE_CAPACITY } from "./devices";
+/** A coupler's parameters: groupTelegrams, individualTelegrams, filterTable (texts, optional), queueCapacity. */
+export type { CouplerParameters } from "./devices";
+/** Telegrams a coupler forwarded and dropped per reason since the start of a run (`Simulation.couplerCounts`). */
+export type { CouplerCounts } from "./sim/couplers";
 
 // ---------------------------------------------------------------- devices
 

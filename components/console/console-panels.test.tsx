@@ -20,7 +20,7 @@ afterAll(() => Reflect.deleteProperty(HTMLElement.prototype, "clientHeight"));
 
 const bench: BenchSummary = {
   name: "Test bench",
-  lines: [{ id: "line-a", name: "Lab room line" }],
+  lines: [{ id: "line-a", name: "Lab room line", address: "1.1" }],
   testToolAddress: "1.1.250",
   groupAddresses: [
     { raw: 1, address: "0/0/1", name: "Ceiling light", dpt: "1.001" },
@@ -49,6 +49,7 @@ function row(seq: number, overrides: Partial<LogRow>): LogRow {
     seq,
     kind: "telegram",
     timeUs: seq * 1_000,
+    line: "1.1",
     source: "1.1.250",
     deviceId: "",
     destination: "0/0/1",
@@ -69,7 +70,7 @@ function mount(children: React.ReactNode, sent: SimCommand[] = []) {
     type: "loaded",
     bench,
     document: {
-      format: 1,
+      format: 2,
       name: "Test bench",
       lines: [{ id: "line-1", address: "1.1", name: "Test line" }],
       testToolAddress: "1.1.250",

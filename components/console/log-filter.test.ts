@@ -8,6 +8,7 @@ function row(seq: number, fields: Partial<LogRow> = {}): LogRow {
     seq,
     kind: "telegram",
     timeUs: seq * 1000,
+    line: "1.1",
     source: "1.1.250",
     deviceId: "",
     destination: seq % 2 === 0 ? "1/0/1" : "2/0/2",

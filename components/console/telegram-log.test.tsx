@@ -10,6 +10,7 @@ function rows(from: number, count: number): LogRow[] {
     seq: from + i,
     kind: "telegram" as const,
     timeUs: (from + i) * 20_000,
+    line: "1.1",
     source: "1.1.250",
     deviceId: "",
     destination: (from + i) % 10 === 0 ? "2/0/2" : "1/0/1",

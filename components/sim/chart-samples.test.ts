@@ -21,7 +21,13 @@ describe("ChartSamples", () => {
     for (let second = 0; second < SECONDS_KEPT + 10; second++) {
       charts.add(
         [{ timeUs: second * 1_000_000, unitId: "unit", roomC: 21, setpointC: 22, power: true }],
-        ["line-a", "line-b"].map((line) => ({ second, line, loadPercent: 1, telegrams: 1 })),
+        ["line-a", "line-b"].map((line, i) => ({
+          second,
+          line,
+          lineAddress: `1.${i + 1}`,
+          loadPercent: 1,
+          telegrams: 1,
+        })),
         [{ second, counts: { "1/0/1": 1 } }],
       );
     }

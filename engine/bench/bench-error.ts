@@ -25,7 +25,11 @@ export interface BenchError {
     | "bench.link-address-unknown"
     | "bench.link-duplicate"
     | "bench.address-size-mismatch"
-    | "bench.unit-link-member-unknown";
+    | "bench.unit-link-member-unknown"
+    /** A coupler's individual address is not a.l.0 (line coupler) or a.0.0 (area coupler). */
+    | "bench.coupler-address"
+    /** A line a coupler joins (its own line or the line above) is not on the bench. */
+    | "bench.coupler-line-missing";
   readonly path: string;
   readonly message: string;
   readonly deviceId?: string;

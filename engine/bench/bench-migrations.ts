@@ -6,12 +6,15 @@ import { BENCH_FORMAT } from "./bench-schema";
  * One step from format n to n + 1, keyed by n. A step receives the parsed JSON
  * of format n (not yet validated: older formats have no schema of their own any
  * more) and returns the document in format n + 1 with `format` updated.
- * Format 1 is the first, so there are no steps yet; the first change to the
- * bench format adds `1: (doc) => ...` here and a fixture test with a format-1 file.
+ * Format 1 -> 2 added topology (optional `areas`, couplers as devices of type
+ * "coupler"); every format-1 document is a valid format-2 document, so the
+ * step only renumbers.
  */
 export type BenchMigration = (document: Record<string, unknown>) => Record<string, unknown>;
 
-export const benchMigrations: Readonly<Record<number, BenchMigration>> = {};
+export const benchMigrations: Readonly<Record<number, BenchMigration>> = {
+  1: (document) => ({ ...document, format: 2 }),
+};
 
 /**
  * Brings a bench document of any known format to the current one. Refuses

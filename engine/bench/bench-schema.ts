@@ -2,7 +2,8 @@ import { z } from "zod";
 import { entityIdSchema } from "../core/ids";
 
 /**
- * Benchline's own bench document, format 1. Addresses are stored as text
+ * Benchline's own bench document, format 2 (format 1 plus topology: optional
+ * `areas`, couplers as devices of type "coupler"). Addresses are stored as text
  * ("1/0/1", "1.1.10") so people can read and edit the file; `loadBench` turns
  * them into raw numbers and checks everything that needs more than one field.
  * The schema checks shapes only; cross-references are checked by the loader so
@@ -10,14 +11,30 @@ import { entityIdSchema } from "../core/ids";
  */
 
 /** Current bench format. Older documents are migrated by bench-migrations.ts. */
-export const BENCH_FORMAT = 1;
+export const BENCH_FORMAT = 2;
+
+/**
+ * Format 1 differs from 2 only in its number (the 1 -> 2 step in
+ * bench-migrations.ts only renumbers), so the schema reads a format-1 document
+ * as format 2: stored single-line benches and code that still writes 1 load
+ * unchanged, and every parsed document says 2.
+ */
+const formatSchema = z
+  .union([z.literal(1), z.literal(BENCH_FORMAT)])
+  .transform((): typeof BENCH_FORMAT => BENCH_FORMAT);
+
+/** Display name of an area; areas are otherwise derived from the line addresses. */
+export const benchAreaSchema = z.object({
+  number: z.number().int().min(0).max(15),
+  name: z.string().min(1),
+});
 
 /** Canvas position in canvas units (not pixels); the canvas owns the scale. */
 export const positionSchema = z.object({ x: z.number(), y: z.number() });
 
 export const benchLineSchema = z.object({
   id: entityIdSchema,
-  /** Line address "area.line", e.g. "1.1". */
+  /** Line address "area.line", e.g. "1.1"; "a.0" is the main line of area a, "0.0" the backbone. */
   address: z.string().regex(/^\d{1,2}\.\d{1,2}$/, 'a line address is "area.line", e.g. "1.1"'),
   name: z.string().min(1),
 });
@@ -71,9 +88,11 @@ export const benchUnitLinkSchema = z.object({
 });
 
 export const benchSchema = z.object({
-  format: z.literal(BENCH_FORMAT),
+  format: formatSchema,
   name: z.string().min(1),
   description: z.string().optional(),
+  /** Display names of areas (optional); a line's area is the first number of its address. */
+  areas: z.array(benchAreaSchema).optional(),
   lines: z.array(benchLineSchema).min(1),
   /** Individual address the test tool sends from, e.g. "1.1.250". */
   testToolAddress: z.string().min(1),
@@ -86,6 +105,7 @@ export const benchSchema = z.object({
 
 export type Position = z.infer<typeof positionSchema>;
 export type BenchLine = z.infer<typeof benchLineSchema>;
+export type BenchArea = z.infer<typeof benchAreaSchema>;
 export type BenchGroupAddress = z.infer<typeof benchGroupAddressSchema>;
 export type BenchDevice = z.infer<typeof benchDeviceSchema>;
 export type BenchLink = z.infer<typeof benchLinkSchema>;

@@ -6,6 +6,7 @@ export {
   type BenchDevice,
   type BenchGroupAddress,
   type BenchLine,
+  type BenchArea,
   type BenchLink,
   type BenchUnitLink,
   type Position,

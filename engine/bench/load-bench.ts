@@ -8,6 +8,8 @@ import { dptSizeBits } from "../dpt";
 import type { BenchError } from "./bench-error";
 import { migrateBench } from "./bench-migrations";
 import { benchSchema, type Bench, type BenchUnitLink } from "./bench-schema";
+import { COUPLER_TYPE_ID } from "../devices/coupler/coupler";
+import { checkCouplerLines } from "./coupler-lines";
 
 /** A group object of a loaded device: the type's declaration, the bench's flag overrides and its links. */
 export interface LoadedObject {
@@ -338,6 +340,11 @@ function resolveBench(
         line = device.line;
       } else {
         line = individualAddress === undefined ? lines[0]!.id : lineFor(individualAddress);
+      }
+      if (type.id === COUPLER_TYPE_ID && individualAddress !== undefined) {
+        const coupler = checkCouplerLines(path, device.id, individualAddress, lines, device.line);
+        errors.push(...coupler.errors);
+        line = coupler.line ?? line;
       }
     } else if (device.individualAddress !== undefined) {
       errors.push({

@@ -156,6 +156,8 @@ export interface Tp1LineHost {
    * `NO_ACK_OCTET` when nobody is addressed.
    */
   receiveFrame(telegram: Telegram, repeated: boolean): number;
+  /** Called when a telegram is given up after its last repetition (couplers trace their drop). */
+  telegramLost?(telegram: Telegram): void;
 }
 
 /** Load and counts on one line over a window of virtual time. */
@@ -444,6 +446,7 @@ export class Tp1Line {
           event.reason = reason;
           this.trace.append(event);
         }
+        this.host.telegramLost?.(telegram);
         this.finish(sender, now);
       }
     }

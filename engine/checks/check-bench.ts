@@ -27,6 +27,12 @@ import {
   outdoorUnitLeaderNotMemberRule,
 } from "./hvac-rules";
 import { lineExpectedLoadRule } from "./line-load";
+import {
+  topologyAddressWrongLineRule,
+  topologyFilterBlocksRule,
+  topologyFilterUnusedRule,
+  topologyLineLimitsRule,
+} from "./topology-rules";
 import { objectStatusOnCommandAddressRule, objectStatusUnlinkedRule } from "./object-rules";
 import { panelPresetOutOfRangeRule } from "./panel-rules";
 import { addressSeveralReadRespondersRule, objectReadOnInitUnansweredRule } from "./read-rules";
@@ -61,6 +67,10 @@ export const benchCheckRules: readonly BenchCheckRule[] = [
   outdoorUnitLeaderNotMemberRule,
   panelPresetOutOfRangeRule,
   lineExpectedLoadRule,
+  topologyFilterBlocksRule,
+  topologyFilterUnusedRule,
+  topologyAddressWrongLineRule,
+  topologyLineLimitsRule,
   // Last: it only reports what the specific rules above did not already explain.
   deviceParametersInvalidRule,
 ];

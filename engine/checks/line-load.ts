@@ -1,9 +1,10 @@
-import { parseIndividualAddress } from "../address";
 import { telegramOccupancyUs, tp1FrameOctets } from "../frame";
 import type { BenchCheckRule } from "./bench-check-rule";
 import type { BenchView, DeviceView } from "./bench-view";
 import type { CheckFinding } from "./check-finding";
 import { childPath, walkParameterObjects } from "./walk-parameters";
+import { blockedOnPath, deviceLineId, topologyView } from "./topology-view";
+import { formatLineAddress } from "../topology/line-address";
 
 /**
  * Expected steady bus load from the sending conditions devices are configured
@@ -22,6 +23,11 @@ import { childPath, walkParameterObjects } from "./walk-parameters";
  * Each telegram holds the line for its occupancy: idle 50 + 13 per octet + ack gap
  * 15 + ack 11 bit times (Basic course; engine/frame/timing.ts), so a 9-octet frame
  * takes 193 bit times ≈ 20.1 ms and a line carries about 50 such telegrams/s.
+ *
+ * On a bench with couplers a line also carries what couplers pass into it: a
+ * device's sending conditions count on every other line that a telegram on one
+ * of the addresses it sends on reaches through the couplers' settings and
+ * filter tables (worst case again: any of its sending addresses).
  */
 
 const ROOM_TEMPERATURE_OCTETS = tp1FrameOctets({ payload: new Uint8Array(2), shortPayload: false });
@@ -43,6 +49,8 @@ export interface LoadContribution {
   readonly loadPercent: number;
   /** How the rate was derived, for the finding's message. */
   readonly basis: string;
+  /** Set when couplers pass it into the line: the line id the device sits on. */
+  readonly forwardedFrom?: string;
 }
 
 export interface LineLoadEstimate {
@@ -124,20 +132,6 @@ export function deviceLoadContributions(id: string, entry: DeviceView): LoadCont
   return found;
 }
 
-function lineOf(view: BenchView, entry: DeviceView): string | undefined {
-  if (entry.device.line !== undefined) return entry.device.line;
-  const lines = view.bench.lines;
-  if (entry.device.individualAddress !== undefined) {
-    const parsed = parseIndividualAddress(entry.device.individualAddress);
-    if (parsed.ok) {
-      const prefix = `${parsed.value >> 12}.${(parsed.value >> 8) & 15}`;
-      const match = lines.find((line) => line.address === prefix);
-      if (match) return match.id;
-    }
-  }
-  return lines[0]?.id;
-}
-
 /** Expected load per line from the devices' sending conditions. Devices only on a unit link send nothing on KNX. */
 export function estimateLineLoad(view: BenchView): LineLoadEstimate[] {
   const perLine = new Map<string, LoadContribution[]>();
@@ -145,9 +139,11 @@ export function estimateLineLoad(view: BenchView): LineLoadEstimate[] {
   for (const [id, entry] of view.devices) {
     if (entry.type?.medium === "unit-link" || entry.device.individualAddress === undefined)
       continue;
-    const line = lineOf(view, entry);
+    const line = deviceLineId(view, entry);
     if (line === undefined) continue;
-    perLine.set(line, [...(perLine.get(line) ?? []), ...deviceLoadContributions(id, entry)]);
+    const own = deviceLoadContributions(id, entry);
+    perLine.set(line, [...(perLine.get(line) ?? []), ...own]);
+    if (own.length > 0) addForwarded(view, perLine, id, line, own);
   }
   return [...perLine].map(([line, contributions]) => ({
     line,
@@ -187,3 +183,28 @@ export const lineExpectedLoadRule: BenchCheckRule = {
     return findings;
   },
 };
+
+/** Adds `own` (a device's contributions on `line`) to every other line its telegrams reach through couplers. */
+function addForwarded(
+  view: BenchView,
+  perLine: Map<string, LoadContribution[]>,
+  device: string,
+  line: string,
+  own: readonly LoadContribution[],
+): void {
+  const topology = topologyView(view);
+  if (topology.couplers.length === 0) return;
+  const from = topology.lineAddress.get(line);
+  const sends = topology.sendsOn.get(device) ?? [];
+  if (from === undefined || sends.length === 0) return;
+  for (const [other, to] of topology.lineAddress) {
+    if (other === line || to === from) continue;
+    if (!sends.some((raw) => blockedOnPath(topology, raw, from, to) === undefined)) continue;
+    const forwarded = own.map((c) => ({
+      ...c,
+      basis: `${c.basis}, passed in by couplers from line ${formatLineAddress(from)}`,
+      forwardedFrom: line,
+    }));
+    perLine.set(other, [...(perLine.get(other) ?? []), ...forwarded]);
+  }
+}

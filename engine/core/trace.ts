@@ -127,6 +127,58 @@ export type TraceEvent =
       readonly deviceId: string;
       readonly message: unknown;
     }
+  /**
+   * A coupler took a telegram heard on `fromLine` (and acknowledged it) and
+   * queued it for `toLine` as `forwardedTelegramId`, with `hopCount` the
+   * decreased routing counter it carries there.
+   */
+  | {
+      readonly kind: "coupler.forward";
+      readonly timeUs: number;
+      /** Device id of the coupler. */
+      readonly coupler: string;
+      /** The telegram as heard on `fromLine`. */
+      readonly telegramId: number;
+      /** The same telegram as the coupler sends it on `toLine`. */
+      readonly forwardedTelegramId: number;
+      readonly fromLine: string;
+      readonly toLine: string;
+      /** Raw destination address. */
+      readonly destination: number;
+      readonly hopCount: number;
+    }
+  /** A forwarded telegram waits in the coupler's buffer: `toLine` is busy or `queued` telegrams are ahead of it. */
+  | {
+      readonly kind: "coupler.hold";
+      readonly timeUs: number;
+      readonly coupler: string;
+      readonly telegramId: number;
+      readonly forwardedTelegramId: number;
+      readonly fromLine: string;
+      readonly toLine: string;
+      readonly destination: number;
+      /** Telegrams ahead of it in the buffer for `toLine`. */
+      readonly queued: number;
+    }
+  /**
+   * A coupler did not pass a telegram on: not in its filter table ("filter"),
+   * group or individual telegrams blocked by its setting ("blocked"), routing
+   * counter used up ("hop-count"), its buffer full ("queue-full": it answered
+   * BUSY, so the sender repeats), or nobody acknowledged it on `toLine` after
+   * the last repetition ("not-acknowledged").
+   */
+  | {
+      readonly kind: "coupler.drop";
+      readonly timeUs: number;
+      readonly coupler: string;
+      readonly telegramId: number;
+      /** Set for "not-acknowledged": the telegram as it was sent on `toLine`. */
+      readonly forwardedTelegramId?: number;
+      readonly fromLine: string;
+      readonly toLine: string;
+      readonly destination: number;
+      readonly reason: "filter" | "blocked" | "hop-count" | "queue-full" | "not-acknowledged";
+    }
   /** Something a person (or a scenario step) did from outside. */
   | {
       readonly kind: "user.action";
@@ -298,6 +350,10 @@ function eventTouchesAddress(event: TraceEvent, address: number): boolean {
     case "object.changed":
     case "user.action":
       return event.groupAddress === address;
+    case "coupler.forward":
+    case "coupler.hold":
+    case "coupler.drop":
+      return event.destination === address;
     default:
       return false;
   }
@@ -309,6 +365,10 @@ export function eventTouchesDevice(event: TraceEvent, deviceId: string): boolean
     case "link.delivered":
     case "link.dropped":
       return event.deviceId === deviceId || event.from === deviceId;
+    case "coupler.forward":
+    case "coupler.hold":
+    case "coupler.drop":
+      return event.coupler === deviceId;
     default:
       return "deviceId" in event && event.deviceId === deviceId;
   }

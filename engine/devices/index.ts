@@ -13,6 +13,7 @@ import "./room-temperature-sensor";
 import "./presence-detector";
 import "./binary-input";
 import "./control-panel";
+import "./coupler";
 
 export { getDeviceType, listDeviceTypes, registerDeviceType } from "./catalogue";
 export * from "./device-type";
@@ -54,3 +55,9 @@ export {
   type ControlPanelParameters,
   type ControlPanelTile,
 } from "./control-panel";
+export {
+  COUPLER_TYPE_ID,
+  DEFAULT_COUPLER_QUEUE_CAPACITY,
+  couplerType,
+  type CouplerParameters,
+} from "./coupler";

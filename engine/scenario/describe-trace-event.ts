@@ -8,6 +8,14 @@ const SERVICE_NAMES = {
   GroupValue_Read: "read",
 } as const;
 
+const COUPLER_DROP_TEXT = {
+  filter: "not in its filter table",
+  blocked: "blocked by its setting",
+  "hop-count": "routing counter used up",
+  "queue-full": "buffer full, answered BUSY",
+  "not-acknowledged": "not acknowledged on the far line after the last repetition",
+} as const;
+
 /** One readable line for a trace event (its time as h:mm:ss.mmm), for verdicts, the CLI and JUnit reports. */
 export function describeTraceEvent(event: TraceEvent, format: VirtualTimeFormat = {}): string {
   const at = formatVirtualTime(event.timeUs, format);
@@ -41,6 +49,12 @@ export function describeTraceEvent(event: TraceEvent, format: VirtualTimeFormat 
     case "link.delivered":
     case "link.dropped":
       return `${at} ${event.kind} ${event.unitLink}: ${event.from} -> ${event.deviceId} ${JSON.stringify(event.message)}`;
+    case "coupler.forward":
+      return `${at} coupler.forward ${event.coupler}: ${formatGroupAddress(event.destination)} from line ${event.fromLine} to line ${event.toLine} as telegram ${event.forwardedTelegramId} (routing counter ${event.hopCount})`;
+    case "coupler.hold":
+      return `${at} coupler.hold ${event.coupler}: ${formatGroupAddress(event.destination)} for line ${event.toLine} waits behind ${event.queued} telegram(s)`;
+    case "coupler.drop":
+      return `${at} coupler.drop ${event.coupler}: ${formatGroupAddress(event.destination)} from line ${event.fromLine} not passed to line ${event.toLine} (${COUPLER_DROP_TEXT[event.reason]})`;
     case "user.action":
       return `${at} user ${event.action}${event.deviceId ? ` ${event.deviceId}` : ""}${event.groupAddress === undefined ? "" : ` ${formatGroupAddress(event.groupAddress)}`}: ${event.detail}`;
   }

@@ -1,4 +1,6 @@
 import { formatGroupAddress, parseGroupAddress } from "../address";
+import { formatLineAddress } from "../topology/line-address";
+import { benchCouplers } from "../topology/bench-topology";
 import type { Bench, BenchInput, LoadedBench } from "../bench";
 import { eventTouchesDevice, type TraceEvent } from "../core/trace";
 import { getDpt, type DptCodec } from "../dpt";
@@ -110,10 +112,10 @@ export function stepLabel(step: Step): string {
     case "expect-count": {
       const bound =
         step.count !== undefined ? `${step.count}` : `${step.min ?? 0}..${step.max ?? "∞"}`;
-      return `expect-count ${step.groupAddress} ${bound} within ${step.within}`;
+      return `expect-count ${step.groupAddress} ${bound}${step.line === undefined ? "" : ` on line ${step.line}`} within ${step.within}`;
     }
     case "expect-bus-load":
-      return `expect-bus-load below ${step.belowPercent} % over ${step.over}`;
+      return `expect-bus-load below ${step.belowPercent} %${step.line === undefined ? "" : ` on line ${step.line}`} over ${step.over}`;
     case "expect-silence":
       return `expect-silence ${step.groupAddress ?? "(all addresses)"} for ${step.for}`;
   }
@@ -183,6 +185,28 @@ class ScenarioRun {
     return info;
   }
 
+  /**
+   * Which telegram events a step with an optional `line` ("1.2") counts:
+   * those on that line; without one, those as their senders sent them (a
+   * coupler's copies on other lines are left out). Undefined when every
+   * telegram counts (no line given, no couplers on the bench).
+   */
+  lineMatcher(
+    line: string | undefined,
+  ): ((event: { readonly line: string; readonly deviceId?: string }) => boolean) | undefined {
+    const bench = this.bench;
+    if (line !== undefined) {
+      const found = bench.lines.find((l) => formatLineAddress(l.lineAddress) === line);
+      if (found === undefined)
+        throw new StepError(`line: no line ${line} on the bench "${bench.bench.name}"`);
+      const id = found.id;
+      return (event) => event.line === id;
+    }
+    const couplers = new Set(benchCouplers(bench).map((c) => c.id));
+    if (couplers.size === 0) return undefined;
+    return (event) => event.deviceId === undefined || !couplers.has(event.deviceId);
+  }
+
   /** The expected value as it would travel: validated by the DPT and put through encode/decode. */
   expectedValue(address: AddressInfo, value: unknown, field = "value"): unknown {
     const checked = address.codec.valueSchema.safeParse(value);
@@ -238,8 +262,13 @@ class ScenarioRun {
     }
   }
 
-  /** First-transmission telegrams with fromUs <= timeUs <= toUs, optionally to one address. */
-  telegrams(fromUs: number, toUs: number, raw?: number): TraceEvent[] {
+  /** First-transmission telegrams with fromUs <= timeUs <= toUs, optionally to one address and matching a line. */
+  telegrams(
+    fromUs: number,
+    toUs: number,
+    raw?: number,
+    onLine?: (event: { readonly line: string; readonly deviceId?: string }) => boolean,
+  ): TraceEvent[] {
     const events = this.sim.trace;
     const found: TraceEvent[] = [];
     for (let i = lowerBound(events, fromUs); i < events.length; i++) {
@@ -247,6 +276,7 @@ class ScenarioRun {
       if (event.timeUs > toUs) break;
       if (event.kind !== "telegram.sent" || event.attempt !== 0) continue;
       if (raw !== undefined && event.destination !== raw) continue;
+      if (onLine !== undefined && !onLine(event)) continue;
       found.push(event);
     }
     return found;
@@ -397,6 +427,10 @@ class TelegramWatch {
     private readonly tolerance: number,
     fromUs: number,
     private readonly toUs: number,
+    private readonly onLine?: (event: {
+      readonly line: string;
+      readonly deviceId?: string;
+    }) => boolean,
   ) {
     this.cursor = lowerBound(run.sim.trace, fromUs);
   }
@@ -410,7 +444,8 @@ class TelegramWatch {
       if (
         event.kind !== "telegram.sent" ||
         event.attempt !== 0 ||
-        event.destination !== this.address.raw
+        event.destination !== this.address.raw ||
+        (this.onLine !== undefined && !this.onLine(event))
       )
         continue;
       const service = SERVICE_OF[event.service];
@@ -445,7 +480,16 @@ function expectTelegramValue(
         : [step.service];
   const fromUs = run.anchorUs;
   const toUs = fromUs + durationUs(step.within);
-  const watch = new TelegramWatch(run, address, services, expected, tolerance, fromUs, toUs);
+  const watch = new TelegramWatch(
+    run,
+    address,
+    services,
+    expected,
+    tolerance,
+    fromUs,
+    toUs,
+    run.lineMatcher(step.line),
+  );
   if (!watch.scan()) run.advance(toUs, () => watch.scan());
   const { matchUs, seen } = watch;
   const slice = run.addressSlice(address, fromUs, Math.min(toUs, run.sim.nowUs));
@@ -511,7 +555,7 @@ function expectCount(run: ScenarioRun, step: Extract<Step, { kind: "expect-count
   run.advance(toUs);
   const service = step.service ?? "any";
   const counted = run
-    .telegrams(fromUs, toUs, address.raw)
+    .telegrams(fromUs, toUs, address.raw, run.lineMatcher(step.line))
     .filter(
       (event) =>
         event.kind === "telegram.sent" &&
@@ -527,7 +571,7 @@ function expectCount(run: ScenarioRun, step: Extract<Step, { kind: "expect-count
       : max === Infinity
         ? `at least ${min}`
         : `${min} to ${max}`;
-  const expected = `${bound} ${service === "any" ? "" : `${service} `}telegram(s) to ${describeAddress(address)} within ${step.within}`;
+  const expected = `${bound} ${service === "any" ? "" : `${service} `}telegram(s) to ${describeAddress(address)}${step.line === undefined ? "" : ` on line ${step.line}`} within ${step.within}`;
   return fail(expected, `${counted.length} telegram(s)`, slice);
 }
 
@@ -538,6 +582,7 @@ function expectBusLoad(
   const fromUs = run.anchorUs;
   const windowUs = durationUs(step.over);
   const toUs = fromUs + windowUs;
+  const onLine = step.line === undefined ? undefined : run.lineMatcher(step.line);
   run.advance(toUs);
   // Basic course accounting, as the bench check uses: each transmission (repetitions too)
   // holds the line for idle 50 + 13 per octet + gap 15 + ack 11 bit times.
@@ -547,12 +592,16 @@ function expectBusLoad(
     const event = events[i]!;
     if (event.timeUs >= toUs) break;
     if (event.kind !== "telegram.sent") continue;
+    if (onLine !== undefined && !onLine(event)) continue;
     occupiedUs.set(
       event.line,
       (occupiedUs.get(event.line) ?? 0) + telegramOccupancyUs(event.octets),
     );
   }
-  let worstLine = run.bench.lines[0]?.id ?? "";
+  let worstLine =
+    run.bench.lines.find((l) => formatLineAddress(l.lineAddress) === step.line)?.id ??
+    run.bench.lines[0]?.id ??
+    "";
   let worstPercent = 0;
   for (const [line, us] of occupiedUs) {
     const percent = windowUs === 0 ? 0 : (us / windowUs) * 100;
@@ -564,7 +613,11 @@ function expectBusLoad(
   const slice = run.addressSlice(undefined, fromUs, toUs);
   const actual = `${worstPercent.toFixed(1)} % on line ${worstLine}`;
   if (worstPercent < step.belowPercent) return pass(slice);
-  return fail(`bus load below ${step.belowPercent} % over ${step.over}`, actual, slice);
+  return fail(
+    `bus load below ${step.belowPercent} %${step.line === undefined ? "" : ` on line ${step.line}`} over ${step.over}`,
+    actual,
+    slice,
+  );
 }
 
 function expectSilence(
@@ -574,11 +627,12 @@ function expectSilence(
   const address = step.groupAddress === undefined ? undefined : run.address(step.groupAddress);
   const fromUs = run.anchorUs;
   const toUs = fromUs + durationUs(step.for);
+  const onLine = run.lineMatcher(step.line);
   run.advance(
     toUs,
-    () => run.telegrams(fromUs, Math.min(toUs, run.sim.nowUs), address?.raw).length > 0,
+    () => run.telegrams(fromUs, Math.min(toUs, run.sim.nowUs), address?.raw, onLine).length > 0,
   );
-  const found = run.telegrams(fromUs, Math.min(toUs, run.sim.nowUs), address?.raw);
+  const found = run.telegrams(fromUs, Math.min(toUs, run.sim.nowUs), address?.raw, onLine);
   const slice = run.addressSlice(address, fromUs, Math.min(toUs, run.sim.nowUs));
   const target = address === undefined ? "any address" : describeAddress(address);
   if (found.length === 0) return pass(slice);

@@ -39,6 +39,15 @@ const toleranceSchema = z.number().nonnegative("tolerance must be zero or more")
 const jsonValueSchema = inputValueSchema;
 const labelSchema = z.string().optional();
 const serviceFilterSchema = z.enum(["write", "response", "any"]);
+/**
+ * The line an expectation looks at, by address ("1.2"); absent: telegrams as
+ * their senders sent them (copies a coupler passes to other lines are not
+ * counted again) and, for bus load, the busiest line.
+ */
+const lineSchema = z
+  .string()
+  .regex(/^\d{1,2}\.\d{1,2}$/, 'expected a line address "area.line", like "1.2"')
+  .optional();
 
 // Action steps are simulation inputs (engine/sim/sim-input.ts) plus a label; in a
 // document the group address is always text.
@@ -77,6 +86,7 @@ export const expectValueStepSchema = z
   .object({
     kind: z.literal("expect-value"),
     label: labelSchema,
+    line: lineSchema,
     groupAddress: groupAddressTextSchema,
     value: jsonValueSchema,
     tolerance: toleranceSchema.optional(),
@@ -90,6 +100,7 @@ export const expectResponseStepSchema = z
   .object({
     kind: z.literal("expect-response"),
     label: labelSchema,
+    line: lineSchema,
     groupAddress: groupAddressTextSchema,
     value: jsonValueSchema.optional(),
     tolerance: toleranceSchema.optional(),
@@ -116,6 +127,7 @@ export const expectCountStepSchema = z
   .object({
     kind: z.literal("expect-count"),
     label: labelSchema,
+    line: lineSchema,
     groupAddress: groupAddressTextSchema,
     within: durationTextSchema,
     count: z.number().int().nonnegative().optional(),
@@ -149,6 +161,7 @@ export const expectBusLoadStepSchema = z
   .object({
     kind: z.literal("expect-bus-load"),
     label: labelSchema,
+    line: lineSchema,
     belowPercent: z
       .number()
       .gt(0, "belowPercent must be above 0")
@@ -162,6 +175,7 @@ export const expectSilenceStepSchema = z
   .object({
     kind: z.literal("expect-silence"),
     label: labelSchema,
+    line: lineSchema,
     groupAddress: groupAddressTextSchema.optional(),
     for: durationTextSchema,
   })

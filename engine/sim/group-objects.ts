@@ -67,6 +67,8 @@ export interface LineRuntime {
   line: Tp1Line;
   /** Group address -> devices with objects linked to it, in bench order. */
   listeners: Map<number, Listener[]>;
+  /** Coupler sides on this line (engine/sim/couplers); they hear every frame. Absent when none. */
+  couplers?: readonly { receive(telegram: Telegram, repeated: boolean): number }[];
 }
 
 const EMPTY_PAYLOAD: Uint8Array = new Uint8Array(0);
@@ -251,9 +253,12 @@ export class GroupObjectLayer {
     const service = frame.service;
     if (telegram.transmissions === 1 && service !== "GroupValue_Read")
       this.recordGroupValue(destination, frame.payload);
-    const listeners = line.listeners.get(destination);
-    if (listeners === undefined) return NO_ACK_OCTET;
     let answer = NO_ACK_OCTET;
+    const couplers = line.couplers;
+    if (couplers !== undefined)
+      for (let i = 0; i < couplers.length; i++) answer &= couplers[i]!.receive(telegram, repeated);
+    const listeners = line.listeners.get(destination);
+    if (listeners === undefined) return answer;
     const senderDeviceId = telegram.sender.deviceId;
     for (let i = 0; i < listeners.length; i++) {
       const { device, objects } = listeners[i]!;

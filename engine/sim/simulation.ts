@@ -16,6 +16,7 @@ import type { SimError } from "./sim-error";
 import type { Receipt, SimInput } from "./sim-input";
 import { TraceEmitter, type FaultSource } from "./trace-emitter";
 import { UNIT_LINK_DELAY_US, UnitLinkMedium } from "./unit-link-medium";
+import { CouplerNetwork, type CouplerCounts } from "./couplers";
 
 export { BUS_FAULTS, UNIT_LINK_BROKEN } from "./fault-registry";
 export { DEFAULT_GROUP_PRIORITY } from "./group-objects";
@@ -35,9 +36,11 @@ type JsonValue = Extract<SimInput, { kind: "write" }>["value"];
  * - FaultRegistry (fault-registry.ts): active faults and who raised them.
  * - TraceEmitter (trace-emitter.ts): every event the runtime records.
  *
- * Each bench line is its own medium; couplers are not modelled yet, so a
- * telegram reaches only devices on its sender's line. The test tool sits on the
- * line matching its individual address (else the first line).
+ * Each bench line is its own medium. Couplers (devices of type "coupler")
+ * join a line to the line above and pass telegrams between them
+ * (engine/sim/couplers); lines with no coupler between them stay apart. The
+ * test tool sits on the line matching its individual address (else the first
+ * line).
  *
  * Faults the runtime itself interprets on a device (`BUS_FAULTS`): "bus.busy"
  * and "bus.nak" make the device answer BUSY / NAK and not take the frame;
@@ -136,6 +139,7 @@ export class Simulation {
   private readonly testToolSender: Tp1Sender;
   private readonly testToolLine: LineRuntime;
   private readonly inputs: InputDispatch;
+  private readonly couplers: CouplerNetwork;
 
   /**
    * Starts a run of `bench`. With `original` (see `fork`) it starts from that
@@ -186,7 +190,10 @@ export class Simulation {
         line.id,
         this.scheduler,
         this.traceLog,
-        { receiveFrame: (t, r) => this.objects.receiveFrame(runtime, t, r) },
+        {
+          receiveFrame: (t, r) => this.objects.receiveFrame(runtime, t, r),
+          telegramLost: (t) => this.couplers.lost(t),
+        },
         { historyCapacity: options.historyCapacity },
       );
       this.lines.set(line.id, runtime);
@@ -208,6 +215,14 @@ export class Simulation {
       this.deviceById.set(device.id, device);
     });
     this.objects.rebuildListeners(this.lines.values(), this.devices);
+    this.couplers = new CouplerNetwork(
+      bench,
+      this.lines,
+      this.traceLog,
+      this.scheduler,
+      this.telegramIds,
+      (id) => this.deviceById.get(id)!.busAnswer,
+    );
     this.inputs = new InputDispatch({
       clock: this.scheduler,
       emitter: this.emitter,
@@ -218,7 +233,10 @@ export class Simulation {
       reuse: this.reuse,
       bench: benchNow,
       setBench: (next) => (this.loadedBench = next),
-      rebuildListeners: () => this.objects.rebuildListeners(this.lines.values(), this.devices),
+      rebuildListeners: () => {
+        this.objects.rebuildListeners(this.lines.values(), this.devices);
+        this.couplers.refresh(this.loadedBench);
+      },
       queueFromTestTool: (frame) =>
         this.testToolLine.line.queue(this.testToolSender, frame, this.telegramIds.next()).id,
     });
@@ -252,6 +270,7 @@ export class Simulation {
         this.copyTelegram(original, telegrams, t),
       ),
     );
+    this.couplers.copyFrom(original.couplers, (t) => this.copyTelegram(original, telegrams, t));
     for (const [id, line] of this.lines)
       line.line.copyFrom(
         original.lines.get(id)!.line,
@@ -277,7 +296,11 @@ export class Simulation {
       copy = {
         ...telegram,
         sender: this.sender(original, telegram.sender),
-        takenBy: telegram.takenBy?.map((taker) => this.devices[(taker as DeviceRuntime).index]!),
+        takenBy: telegram.takenBy?.map(
+          (taker) =>
+            this.couplers.portLike(original.couplers, taker) ??
+            this.devices[(taker as DeviceRuntime).index]!,
+        ),
       };
       copies.set(telegram, copy);
     }
@@ -287,6 +310,8 @@ export class Simulation {
   /** This run's sender matching a sender of `original`. */
   private sender(original: Simulation, sender: Tp1Sender): Tp1Sender {
     if (sender === original.testToolSender) return this.testToolSender;
+    const coupler = this.couplers.senderLike(original.couplers, sender);
+    if (coupler !== undefined) return coupler;
     return this.deviceById.get(sender.deviceId!)!.sender!;
   }
 
@@ -404,6 +429,11 @@ export class Simulation {
   } {
     const line = this.line(lineId, "telegramCounts");
     return { byGroupAddress: line.telegramsByGroupAddress, bySender: line.telegramsBySender };
+  }
+
+  /** Telegrams each coupler forwarded and dropped (by reason) since the start, by coupler device id. */
+  couplerCounts(): ReadonlyMap<string, Readonly<CouplerCounts>> {
+    return this.couplers.counts();
   }
 
   /** The TP1 line model by id (the test tool's line by default), for totals and tests. */

@@ -1,3 +1,4 @@
+import { formatLineAddress } from "../../topology/line-address";
 import { formatGroupAddress, formatIndividualAddress } from "../../address";
 import type { LoadedBench } from "../../bench";
 import {
@@ -20,7 +21,11 @@ export function summarizeBench(loaded: LoadedBench): BenchSummary {
   const bench = loaded.bench;
   return {
     name: bench.name,
-    lines: loaded.lines.map((line) => ({ id: line.id, name: line.name })),
+    lines: loaded.lines.map((line) => ({
+      id: line.id,
+      name: line.name,
+      address: formatLineAddress(line.lineAddress),
+    })),
     testToolAddress: formatIndividualAddress(loaded.testToolAddress),
     groupAddresses: [...loaded.groupAddresses.values()]
       .map((ga) => ({

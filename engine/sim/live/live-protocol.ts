@@ -176,8 +176,27 @@ export type Ack = z.infer<typeof ackSchema>;
 export const logRowSchema = z.object({
   /** Increasing per run; a row's identity in the log. */
   seq: z.number().int(),
-  kind: z.enum(["telegram", "fault"]),
+  /** "coupler": a coupler held or dropped a telegram (its forwards show as telegram rows on the far line). */
+  kind: z.enum(["telegram", "fault", "coupler"]),
   timeUs: z.number().int(),
+  /** Line address ("1.2") the telegram was on; for a coupler row the line it was heard on; "" for a fault row. */
+  line: z.string(),
+  /**
+   * Set when a coupler is involved: on a telegram row, the coupler that sent it
+   * on this line ("forward"); on a coupler row, what the coupler did ("hold",
+   * "drop") and, for a drop, why.
+   */
+  coupler: z
+    .object({
+      id: z.string(),
+      action: z.enum(["forward", "hold", "drop"]),
+      reason: z
+        .enum(["filter", "blocked", "hop-count", "queue-full", "not-acknowledged"])
+        .optional(),
+      /** Line address ("1.0") the coupler passes (or would have passed) the telegram to. */
+      toLine: z.string(),
+    })
+    .optional(),
   /** Individual address "1.1.10" of the sender, or the device name for a fault row. */
   source: z.string(),
   /** Device id of the sender or of the faulty device; "" for the test tool. */
@@ -237,7 +256,10 @@ export type RoomSample = z.infer<typeof roomSampleSchema>;
 /** Bus load over one whole virtual second on one line. */
 export const busLoadSampleSchema = z.object({
   second: z.number().int(),
+  /** Line id from the bench (see `lineAddress` for its address). */
   line: z.string(),
+  /** Line address ("1.2"). */
+  lineAddress: z.string(),
   loadPercent: z.number(),
   telegrams: z.number().int(),
 });
@@ -259,7 +281,8 @@ export type SimClock = z.infer<typeof clockSchema>;
 
 export const benchSummarySchema = z.object({
   name: z.string(),
-  lines: z.array(z.object({ id: z.string(), name: z.string() })),
+  /** Lines with their address ("1.2"). */
+  lines: z.array(z.object({ id: z.string(), name: z.string(), address: z.string() })),
   testToolAddress: z.string(),
   groupAddresses: z.array(
     z.object({

@@ -8,6 +8,8 @@ import type { Result } from "../../core/result";
 import type { SimError } from "../sim-error";
 import { Simulation } from "../simulation";
 import { summarizeBench } from "./bench-summary";
+import { formatLineAddress } from "../../topology/line-address";
+import { COUPLER_TYPE_ID } from "../../devices/coupler/coupler";
 import {
   parseSimCommand,
   type Ack,
@@ -108,6 +110,10 @@ export class LiveSession {
   private dropped = 0;
   /** Rows whose transmission has not ended yet, by telegram id. */
   private readonly awaiting = new Map<number, LogRow>();
+  /** Line id -> line address ("1.2"), for rows and samples. */
+  private lineAddresses = new Map<string, string>();
+  /** Routing counter of forwarded telegrams not yet on their line, by forwarded telegram id. */
+  private readonly forwardedHopCount = new Map<number, number>();
 
   private readonly dirtyDevices = new Set<string>();
   private readonly transitions = new Map<string, { name: string; atUs: number }>();
@@ -337,6 +343,10 @@ export class LiveSession {
       return;
     }
     this.loaded = loaded.value;
+    this.lineAddresses = new Map(
+      loaded.value.lines.map((line) => [line.id, formatLineAddress(line.lineAddress)]),
+    );
+    this.forwardedHopCount.clear();
     // Nothing is kept inside the engine: the host takes every event as it happens.
     const sim = new Simulation(loaded.value, { seed: this.seed, traceCapacity: 0 });
     this.sim = sim;
@@ -414,6 +424,7 @@ export class LiveSession {
       this.busLoad.push({
         second,
         line: line.id,
+        lineAddress: formatLineAddress(line.lineAddress),
         loadPercent: stats.loadPercent,
         telegrams: stats.telegrams,
       });
@@ -477,6 +488,7 @@ export class LiveSession {
           seq: this.rowSeq++,
           kind: "fault",
           timeUs: event.timeUs,
+          line: "",
           source: device?.name ?? target,
           deviceId: event.deviceId ?? "",
           destination: event.unitLink ?? "",
@@ -490,6 +502,13 @@ export class LiveSession {
         });
         return;
       }
+      case "coupler.forward":
+        this.forwardedHopCount.set(event.forwardedTelegramId, event.hopCount);
+        return;
+      case "coupler.hold":
+      case "coupler.drop":
+        this.enqueue(this.couplerRow(event));
+        return;
       case "device.transition":
         this.transitions.set(event.deviceId, { name: event.transition, atUs: event.timeUs });
         this.dirtyDevices.add(event.deviceId);
@@ -519,7 +538,7 @@ export class LiveSession {
       source: event.source,
       destination: event.destination,
       addressType: "group",
-      hopCount: DEFAULT_HOP_COUNT,
+      hopCount: this.forwardedHopCount.get(event.telegramId) ?? DEFAULT_HOP_COUNT,
       service: event.service,
       payload: fromHex(event.payloadHex) ?? new Uint8Array(0),
       shortPayload: event.shortPayload,
@@ -528,10 +547,18 @@ export class LiveSession {
       frame,
       ga === undefined ? {} : { dpt: ga.dpt, groupAddressName: ga.name },
     );
+    this.forwardedHopCount.delete(event.telegramId);
+    const sender =
+      event.deviceId === undefined ? undefined : this.loaded?.deviceById.get(event.deviceId);
+    const line = this.lineAddresses.get(event.line) ?? event.line;
     return {
       seq: this.rowSeq++,
       kind: "telegram",
       timeUs: event.timeUs,
+      line,
+      ...(sender?.type.id === COUPLER_TYPE_ID
+        ? { coupler: { id: sender.id, action: "forward" as const, toLine: line } }
+        : {}),
       source: description.source,
       deviceId: event.deviceId ?? "",
       destination: description.destination,
@@ -545,6 +572,36 @@ export class LiveSession {
       repeated: event.repeated,
       ack: "",
       rawHex: description.rawHex,
+    };
+  }
+
+  private couplerRow(
+    event: Extract<TraceEvent, { kind: "coupler.hold" | "coupler.drop" }>,
+  ): LogRow {
+    const ga = this.loaded?.groupAddresses.get(event.destination);
+    const coupler = this.loaded?.deviceById.get(event.coupler);
+    const toLine = this.lineAddresses.get(event.toLine) ?? event.toLine;
+    const hold = event.kind === "coupler.hold";
+    return {
+      seq: this.rowSeq++,
+      kind: "coupler",
+      timeUs: event.timeUs,
+      line: this.lineAddresses.get(event.fromLine) ?? event.fromLine,
+      coupler: hold
+        ? { id: event.coupler, action: "hold", toLine }
+        : { id: event.coupler, action: "drop", reason: event.reason, toLine },
+      source: coupler?.name ?? event.coupler,
+      deviceId: event.coupler,
+      destination: formatGroupAddress(event.destination),
+      destinationName: ga?.name ?? "",
+      service: hold ? "coupler hold" : "coupler drop",
+      value: hold
+        ? `held for line ${toLine} behind ${event.queued} telegram(s)`
+        : `not passed to line ${toLine}: ${event.reason}`,
+      priority: "",
+      repeated: false,
+      ack: "",
+      rawHex: "",
     };
   }
 

@@ -1,0 +1,2 @@
+export { CouplerNetwork } from "./coupler-network";
+export { CouplerPort, type CouplerCounts } from "./coupler-port";
