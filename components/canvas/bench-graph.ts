@@ -1,5 +1,12 @@
 import type { Edge, Node } from "@xyflow/react";
-import { formatIndividualAddress, parseIndividualAddress } from "@/engine";
+import {
+  formatIndividualAddress,
+  formatLineAddress,
+  lineKind,
+  parseIndividualAddress,
+  upperLineAddress,
+} from "@/engine";
+import { lineHighByte } from "@/components/bench-editor/model/individual-addresses";
 import type { Bench, BenchDevice, BenchGroupAddress, Position } from "@/engine";
 import type { CheckFinding, CheckSeverity } from "@/engine";
 import { getDeviceType } from "@/engine";
@@ -192,20 +199,6 @@ export interface GraphOptions {
   readonly focusWires?: boolean;
   /** Expected load per line id (percent), from the engine's bench topology. */
   readonly lineLoads?: ReadonlyMap<string, number>;
-}
-
-/** "1.1" -> "line", "1.0" -> "main", "0.0" -> "backbone". */
-export function lineKind(address: string): "line" | "main" | "backbone" {
-  if (address === "0.0") return "backbone";
-  return address.endsWith(".0") ? "main" : "line";
-}
-
-/** The address of the line a line's coupler leads to: a.l -> a.0, a.0 -> 0.0. */
-export function upperLineAddress(address: string): string | undefined {
-  const [area, line] = address.split(".");
-  if (area === undefined || line === undefined) return undefined;
-  if (Number(line) !== 0) return `${Number(area)}.0`;
-  return Number(area) === 0 ? undefined : "0.0";
 }
 
 /** The canvas view of a bench: one card per device, one bus-bar per group address, one edge per link and unit link. */
@@ -435,7 +428,7 @@ function lineNodes(
       data: {
         address: line.address,
         name: line.name,
-        kind: lineKind(line.address),
+        kind: lineKind(lineHighByte(line)),
         deviceCount: counts.get(line.id) ?? 0,
         ...(load === undefined ? {} : { expectedLoadPercent: load }),
         width: region.width,
@@ -456,7 +449,8 @@ function lineNodes(
     const region = lineId === undefined ? undefined : regionOf.get(lineId);
     const index = perLine.get(lineId ?? "") ?? 0;
     perLine.set(lineId ?? "", index + 1);
-    const upper = line === undefined ? undefined : upperLineAddress(line.address);
+    const upperRaw = line === undefined ? undefined : upperLineAddress(lineHighByte(line));
+    const upper = upperRaw === undefined ? undefined : formatLineAddress(upperRaw);
     const parameters = device.parameters as Record<string, unknown>;
     const table = parameters.filterTable;
     const severity = deviceSeverity.get(device.id);

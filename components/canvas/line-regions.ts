@@ -1,9 +1,9 @@
-import { parseIndividualAddress } from "@/engine";
+import { COUPLER_TYPE_ID, parseIndividualAddress } from "@/engine";
 import type { Bench, BenchDevice, BenchLine, Position } from "@/engine";
 import { lineHighByte } from "@/components/bench-editor/model/individual-addresses";
 
 /** Catalogue type id of couplers (topology contract): drawn on a line's top border, not in its column. */
-export const COUPLER_TYPE = "coupler";
+export const COUPLER_TYPE = COUPLER_TYPE_ID;
 
 /** Inner margin of a line region; the top leaves room for its title and the lower half of its coupler. */
 export const LINE_PADDING = { top: 40, side: 16, bottom: 16 } as const;

@@ -174,6 +174,7 @@ export function hotelBench(): Record<string, unknown> {
     name: "Wrenhallow Hotel",
     description:
       "An invented 36-room hotel (no real place): a main line by reception with three guest floors as lines 1.1-1.3, each joined to it by a line coupler that filters group telegrams by a table generated from the links. Per room a push-button on a lights actuator channel, an HVAC gateway (primary) with its indoor unit and a room sensor feeding the gateway. The reception's central push-button sends all lights off (4/0/1) and the HVAC morning start (4/1/1) to every floor through the couplers. Addresses: main group = floor, middle group = function, sub = room; main group 4 = central.",
+    areas: [{ number: 1, name: "Hotel" }],
     lines,
     testToolAddress: "1.0.250",
     groupAddresses,

@@ -50,7 +50,10 @@ describe("topology edits", () => {
   it("adds an area with its main line a.0 and its name", () => {
     const { bench } = value(addArea(hotel(), { area: 2, name: "Annexe" }));
     expect(bench.lines.at(-1)).toMatchObject({ address: "2.0" });
-    expect(bench.areas).toEqual([{ number: 2, name: "Annexe" }]);
+    expect(bench.areas).toEqual([
+      { number: 1, name: "Hotel" },
+      { number: 2, name: "Annexe" },
+    ]);
     expect(loadBench(bench).ok).toBe(true);
   });
 

@@ -1,24 +1,25 @@
 import {
+  COUPLER_TYPE_ID,
   formatGroupAddress,
-  generateFilterTable,
+  formatLineAddress,
+  generateFilterTableTexts,
   loadBench,
   ok,
   parseGroupAddress,
   parseIndividualAddress,
+  upperLineAddress,
+  type GroupTelegramMode,
+  type IndividualTelegramMode,
 } from "@/engine";
 import type { Bench, BenchDevice, BenchLine } from "@/engine";
 import { refuse, type EditResult } from "./edit-refusal";
 import { freshDeviceId } from "./devices";
-import { takenIndividualAddresses } from "./individual-addresses";
+import { lineHighByte, takenIndividualAddresses } from "./individual-addresses";
 
-/** Catalogue type id of couplers (topology contract). */
-export const COUPLER_TYPE = "coupler";
+export type { GroupTelegramMode, IndividualTelegramMode };
 
 /** Area and line numbers run 0..15 (knx-reference.md, Topology: 15 areas, 15 lines per area). */
 const MAX_NUMBER = 15;
-
-export type GroupTelegramMode = "filter" | "forward" | "block";
-export type IndividualTelegramMode = "route" | "forward" | "block";
 
 function lineNumbers(line: BenchLine): { area: number; line: number } {
   const [area = 0, number = 0] = line.address.split(".").map(Number);
@@ -91,14 +92,13 @@ export function proposedCouplerAddress(line: BenchLine): string | undefined {
 
 /** The line a coupler of `line` joins it to: a.0 above a.l, the backbone 0.0 above a.0. */
 export function upperLineOf(bench: Bench, line: BenchLine): BenchLine | undefined {
-  const { area, line: number } = lineNumbers(line);
-  const upper = number === 0 ? "0.0" : `${area}.0`;
-  if (area === 0 && number === 0) return undefined;
-  return bench.lines.find((l) => l.address === upper);
+  const upper = upperLineAddress(lineHighByte(line));
+  if (upper === undefined) return undefined;
+  return bench.lines.find((l) => l.address === formatLineAddress(upper));
 }
 
 export function isCouplerDevice(device: BenchDevice): boolean {
-  return device.type === COUPLER_TYPE;
+  return device.type === COUPLER_TYPE_ID;
 }
 
 /** Adds the coupler joining `lineId` to the line above, at the address the line proposes. */
@@ -135,11 +135,11 @@ export function addCoupler(
       `individual address ${address} is already used on this bench`,
       "individualAddress",
     );
-  const id = freshDeviceId(bench, COUPLER_TYPE);
+  const id = freshDeviceId(bench, COUPLER_TYPE_ID);
   const kind = lineNumbers(line).line === 0 ? "area coupler" : "line coupler";
   const device: BenchDevice = {
     id,
-    type: COUPLER_TYPE,
+    type: COUPLER_TYPE_ID,
     name: `${line.name} ${kind}`,
     line: line.id,
     individualAddress: address,
@@ -184,7 +184,7 @@ export function setIndividualTelegrams(
 export function generatedFilterTable(bench: Bench, id: string): string[] | undefined {
   const loaded = loadBench(bench);
   if (!loaded.ok) return undefined;
-  return generateFilterTable(loaded.value, id).map((raw) => formatGroupAddress(raw));
+  return generateFilterTableTexts(loaded.value, id);
 }
 
 /** The coupler's stored table, or undefined when it follows the links. */
