@@ -57,13 +57,11 @@ describe("topology of the demo hotel in headless Chromium", () => {
     const area = page.getByRole("region", { name: "Area 1" });
     await area.waitFor();
     const row = (address: string) =>
-      area
-        .getByRole("row")
-        .filter({
-          has: page.getByRole("rowheader", {
-            name: new RegExp(`^${address.replace(".", "\\.")} `),
-          }),
-        });
+      area.getByRole("row").filter({
+        has: page.getByRole("rowheader", {
+          name: new RegExp(`^${address.replace(".", "\\.")} `),
+        }),
+      });
     // Main line: the central push-button; each floor: 12 push-buttons, 12 gateways, 12 room
     // sensors, 2 actuators and the coupler (indoor units sit on unit links, not on the line).
     expect(await row("1.0").getByRole("cell").first().innerText()).toBe("1");
@@ -94,10 +92,19 @@ describe("topology of the demo hotel in headless Chromium", () => {
     await page.getByRole("button", { name: "Write", exact: true }).click();
     await page.getByRole("textbox", { name: "Filter by address" }).fill("4/0/1");
     // Sent on the main line by the test tool, then on each floor by its coupler.
-    for (const line of ["1.0", "1.1", "1.2", "1.3"])
+    await log
+      .getByRole("row")
+      .filter({ has: page.getByRole("cell", { name: "1.0", exact: true }) })
+      .first()
+      .waitFor({ timeout: 20_000 });
+    for (const floor of ["1.1", "1.2", "1.3"])
       await log
         .getByRole("row")
-        .filter({ has: page.getByRole("cell", { name: line, exact: true }) })
+        .filter({
+          has: page.getByRole("cell", {
+            name: `${floor} passed onto line ${floor} by Floor ${floor.slice(2)} line coupler`,
+          }),
+        })
         .first()
         .waitFor({ timeout: 20_000 });
     expect(pageErrors).toEqual([]);
