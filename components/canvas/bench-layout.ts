@@ -247,8 +247,18 @@ export function positionsFromElk(laidOut: ElkNode): BenchLayout {
   return { devices, addresses, groups, channels, lines: [] };
 }
 
+/**
+ * Above this many cards and bars ELK's layered layout takes seconds (a
+ * 1,000-device building: about 8 s here, npm run bench:canvas), so the bench
+ * is laid out directly instead (directLayout): the same columns and frames,
+ * without ELK's crossing minimisation and wire channels.
+ */
+export const DIRECT_LAYOUT_NODES = 1500;
+
 /** Lays the bench out with ELK's layered algorithm. Async: elkjs runs its own event loop. */
 export async function layoutBench(bench: Bench, elk: ElkLike): Promise<BenchLayout> {
+  if (bench.devices.length + bench.groupAddresses.length > DIRECT_LAYOUT_NODES)
+    return directLayout(bench);
   const graph = benchElkGraph(bench);
   const laidOut =
     (graph.children ?? []).length === 0 ? EMPTY_LAYOUT : positionsFromElk(await elk.layout(graph));
@@ -267,6 +277,97 @@ export function withLineRegions(bench: Bench, layout: BenchLayout): BenchLayout 
     }));
   const { positions, regions } = stackByLine(bench, cards);
   return { ...layout, devices: positions, lines: regions };
+}
+
+/**
+ * The layout of a bench too big for ELK in the time a person waits: cards in
+ * one column by individual address (then restacked line by line), bus-bars in
+ * a second column in their main/middle group frames, the frames ordered by
+ * where the cards they wire to sit (their mean y), so most wires run across
+ * rather than up and down the whole drawing. Linear apart from the sorts.
+ */
+export function directLayout(bench: Bench): BenchLayout {
+  const devices = new Map<string, Position>();
+  let y = 0;
+  const cards = bench.devices
+    .map((device, index) => ({ device, index }))
+    .filter(({ device }) => !isCoupler(device))
+    .sort(
+      (a, b) =>
+        deviceOrder(a.device.individualAddress) - deviceOrder(b.device.individualAddress) ||
+        a.index - b.index,
+    );
+  for (const { device } of cards) {
+    devices.set(device.id, { x: 0, y });
+    y += cardHeight(deviceObjects(device).length) + NODE_GAP;
+  }
+  const stacked = drawsLineRegions(bench)
+    ? withLineRegions(bench, { ...EMPTY_LAYOUT, devices })
+    : { ...EMPTY_LAYOUT, devices };
+
+  // Each frame's bars, by address; each frame's weight: the mean y of the cards wired to it.
+  const frames = new Map<
+    string,
+    { main: number; middle: number; keys: string[]; sumY: number; n: number }
+  >();
+  const frameOfKey = new Map<string, string>();
+  const sorted = bench.groupAddresses
+    .map((g) => ({ g, raw: parseGroupAddress(g.address) }))
+    .sort((a, b) => (a.raw.ok ? a.raw.value : -1) - (b.raw.ok ? b.raw.value : -1));
+  for (const { g } of sorted) {
+    const key = groupAddressKey(g.address);
+    if (frameOfKey.has(key)) continue;
+    const group = middleGroupOf(g.address);
+    const id = group === undefined ? "?" : `${group.main}/${group.middle}`;
+    let frame = frames.get(id);
+    if (frame === undefined) {
+      frame = {
+        main: group?.main ?? Number.NaN,
+        middle: group?.middle ?? Number.NaN,
+        keys: [],
+        sumY: 0,
+        n: 0,
+      };
+      frames.set(id, frame);
+    }
+    frame.keys.push(key);
+    frameOfKey.set(key, id);
+  }
+  for (const link of bench.links) {
+    const frame = frames.get(frameOfKey.get(groupAddressKey(link.groupAddress)) ?? "");
+    const card = stacked.devices.get(link.device);
+    if (frame === undefined || card === undefined) continue;
+    frame.sumY += card.y;
+    frame.n += 1;
+  }
+  const ordered = [...frames.entries()].sort(
+    ([, a], [, b]) => (a.n === 0 ? Infinity : a.sumY / a.n) - (b.n === 0 ? Infinity : b.sumY / b.n),
+  );
+  const addresses = new Map<string, Position>();
+  const groups: AddressGroupBox[] = [];
+  const barX = CARD_WIDTH + WIRE_GAP;
+  let top = Math.min(0, ...[...stacked.devices.values()].map((p) => p.y));
+  for (const [id, frame] of ordered) {
+    const height =
+      GROUP_PADDING.top + frame.keys.length * (BUS_BAR_HEIGHT + 12) - 12 + GROUP_PADDING.bottom;
+    frame.keys.forEach((key, i) =>
+      addresses.set(key, {
+        x: barX + GROUP_PADDING.side,
+        y: top + GROUP_PADDING.top + i * (BUS_BAR_HEIGHT + 12),
+      }),
+    );
+    groups.push({
+      id,
+      main: frame.main,
+      middle: frame.middle,
+      position: { x: barX, y: top },
+      width: BUS_BAR_WIDTH + 2 * GROUP_PADDING.side,
+      height,
+      addresses: frame.keys,
+    });
+    top += height + NODE_GAP;
+  }
+  return { ...stacked, addresses, groups, channels: new Map() };
 }
 
 /**
