@@ -596,10 +596,12 @@ function DevicePanel({ deviceId, readOnly }: { deviceId: string; readOnly: boole
           <ParameterPanel device={device} readOnly={readOnly} />
         </section>
       )}
-      <section aria-label="Group objects">
-        <h3 className="mb-2 text-sm font-semibold">Group objects</h3>
-        <ObjectList device={device} bench={bench} readOnly={readOnly} />
-      </section>
+      {isCouplerDevice(device) ? null : (
+        <section aria-label="Group objects">
+          <h3 className="mb-2 text-sm font-semibold">Group objects</h3>
+          <ObjectList device={device} bench={bench} readOnly={readOnly} />
+        </section>
+      )}
     </div>
   );
 }
