@@ -515,7 +515,12 @@ function EditorLayout({
                 </p>
               )
             ) : tab === "topology" ? (
-              <TopologyPanel bench={bench} topology={topology} readOnly={!canEdit} />
+              <TopologyPanel
+                bench={bench}
+                topology={topology}
+                readOnly={!canEdit}
+                onOpenCoupler={() => setTab("selection")}
+              />
             ) : tab === "addresses" ? (
               <AddressTable bench={bench} findings={findings} readOnly={!canEdit} />
             ) : tab === "checks" ? (

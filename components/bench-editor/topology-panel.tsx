@@ -21,8 +21,11 @@ export function TopologyPanel({
   bench,
   topology,
   readOnly,
+  onOpenCoupler,
 }: {
   bench: Bench;
+  /** Shows a coupler's settings and filter table (the editor's selection panel). */
+  onOpenCoupler: (deviceId: string) => void;
   /** Null while the bench does not load (its check findings say why). */
   topology: BenchTopology | null;
   readOnly: boolean;
@@ -33,8 +36,10 @@ export function TopologyPanel({
   const [name, setName] = useState("");
   const [newArea, setNewArea] = useState("");
 
-  const select = (deviceId: string) =>
+  const select = (deviceId: string) => {
     store.getState().revealNode({ kind: "device", id: deviceId });
+    onOpenCoupler(deviceId);
+  };
 
   const addLineNow = () => {
     let added: string | undefined;

@@ -16,11 +16,21 @@ describe("topology of the demo hotel in headless Chromium", () => {
     page = await browser.newPage({ viewport: { width: 1600, height: 1000 } });
     page.on("pageerror", (error) => pageErrors.push(error.message));
     await signIn(page, ENGINEER, demoPassword(ENGINEER), "/benches");
-    // The hotel is the engineer's project in a workspace of its own.
-    await Promise.all([
-      page.waitForURL((url) => url.pathname === "/benches"),
-      page.getByLabel("Workspace", { exact: true }).selectOption({ label: "Wrenhallow Hotel" }),
-    ]);
+    // The hotel is the engineer's project in a workspace of its own: switch to it as the
+    // account menu does (its select may sit in a folded navigation).
+    const workspaceId = await page
+      .locator('select[aria-label="Workspace"] option', { hasText: "Wrenhallow Hotel" })
+      .getAttribute("value");
+    const switched = await page.evaluate(async (id) => {
+      const response = await fetch("/api/session", {
+        method: "PATCH",
+        headers: { "Content-Type": "application/json" },
+        body: JSON.stringify({ workspaceId: id }),
+      });
+      return response.status;
+    }, workspaceId);
+    expect(switched).toBe(200);
+    await page.goto(`${new URL(page.url()).origin}/benches`);
     const link = page.getByRole("list", { name: "Benches" }).getByRole("link", {
       name: "Wrenhallow Hotel",
     });
@@ -37,8 +47,8 @@ describe("topology of the demo hotel in headless Chromium", () => {
     const canvas = page.getByRole("application", { name: "Bench canvas" });
     await canvas.waitFor();
     await expect.poll(() => canvas.getAttribute("data-view"), { timeout: 30_000 }).toBe("opened");
-    await canvas.focus();
-    await page.keyboard.press("f");
+    // Fit the whole building on screen (the canvas draws only what is on screen).
+    await page.getByRole("button", { name: "fit view" }).click();
     const regions = page.locator('[data-testid^="line-region-"]');
     await expect.poll(() => regions.count(), { timeout: 20_000 }).toBe(4);
     expect(await page.getByRole("region", { name: "Line 1.2 Floor 2" }).count()).toBe(1);
