@@ -291,10 +291,8 @@ export class Tp1Line {
     return count;
   }
 
-  /** Queues a group telegram; it goes out when the line and arbitration allow. */
+  /** Queues a telegram; it goes out when the line and arbitration allow. */
   queue(sender: Tp1Sender, frame: DataFrame, id: number): Telegram {
-    if (frame.addressType !== "group")
-      throw new Error("Tp1Line.queue: only group telegrams are modelled so far");
     const now = this.scheduler.nowUs;
     const telegram: Telegram = {
       id,
@@ -341,6 +339,7 @@ export class Tp1Line {
       shortPayload: frame.shortPayload,
     };
     if (telegram.sender.deviceId !== undefined) event.deviceId = telegram.sender.deviceId;
+    if (frame.addressType === "individual") event.individual = true;
     return event as Mutable<Extract<TraceEvent, { kind: K }>>;
   }
 

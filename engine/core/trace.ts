@@ -34,6 +34,8 @@ export interface TelegramTraceFields {
   readonly shortPayload: boolean;
   /** Device id of the sender; absent when the test tool sent it. */
   readonly deviceId?: string;
+  /** Set on an individually addressed telegram: `destination` is then an individual address. */
+  readonly individual?: true;
 }
 
 export type TraceEvent =
@@ -145,6 +147,8 @@ export type TraceEvent =
       readonly toLine: string;
       /** Raw destination address. */
       readonly destination: number;
+      /** Set when the telegram is individually addressed (`destination` is an individual address). */
+      readonly individual?: true;
       readonly hopCount: number;
     }
   /** A forwarded telegram waits in the coupler's buffer: `toLine` is busy or `queued` telegrams are ahead of it. */
@@ -157,6 +161,7 @@ export type TraceEvent =
       readonly fromLine: string;
       readonly toLine: string;
       readonly destination: number;
+      readonly individual?: true;
       /** Telegrams ahead of it in the buffer for `toLine`. */
       readonly queued: number;
     }
@@ -177,6 +182,7 @@ export type TraceEvent =
       readonly fromLine: string;
       readonly toLine: string;
       readonly destination: number;
+      readonly individual?: true;
       readonly reason: "filter" | "blocked" | "hop-count" | "queue-full" | "not-acknowledged";
     }
   /** Something a person (or a scenario step) did from outside. */

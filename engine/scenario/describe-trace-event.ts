@@ -16,6 +16,12 @@ const COUPLER_DROP_TEXT = {
   "not-acknowledged": "not acknowledged on the far line after the last repetition",
 } as const;
 
+function couplerDestination(event: { destination: number; individual?: true }): string {
+  return event.individual
+    ? formatIndividualAddress(event.destination)
+    : formatGroupAddress(event.destination);
+}
+
 /** One readable line for a trace event (its time as h:mm:ss.mmm), for verdicts, the CLI and JUnit reports. */
 export function describeTraceEvent(event: TraceEvent, format: VirtualTimeFormat = {}): string {
   const at = formatVirtualTime(event.timeUs, format);
@@ -33,7 +39,10 @@ export function describeTraceEvent(event: TraceEvent, format: VirtualTimeFormat 
             ? ` (${event.reason})`
             : "";
       const payload = event.payloadHex ? ` ${event.payloadHex}` : "";
-      return `${at} ${event.kind} ${formatIndividualAddress(event.source)} (${from}) -> ${formatGroupAddress(event.destination)} ${SERVICE_NAMES[event.service]}${payload}${extra}`;
+      const to = event.individual
+        ? formatIndividualAddress(event.destination)
+        : formatGroupAddress(event.destination);
+      return `${at} ${event.kind} ${formatIndividualAddress(event.source)} (${from}) -> ${to} ${SERVICE_NAMES[event.service]}${payload}${extra}`;
     }
     case "device.transition":
       return `${at} ${event.deviceId}: ${event.transition} (on ${event.cause})`;
@@ -50,11 +59,11 @@ export function describeTraceEvent(event: TraceEvent, format: VirtualTimeFormat 
     case "link.dropped":
       return `${at} ${event.kind} ${event.unitLink}: ${event.from} -> ${event.deviceId} ${JSON.stringify(event.message)}`;
     case "coupler.forward":
-      return `${at} coupler.forward ${event.coupler}: ${formatGroupAddress(event.destination)} from line ${event.fromLine} to line ${event.toLine} as telegram ${event.forwardedTelegramId} (routing counter ${event.hopCount})`;
+      return `${at} coupler.forward ${event.coupler}: ${couplerDestination(event)} from line ${event.fromLine} to line ${event.toLine} as telegram ${event.forwardedTelegramId} (routing counter ${event.hopCount})`;
     case "coupler.hold":
-      return `${at} coupler.hold ${event.coupler}: ${formatGroupAddress(event.destination)} for line ${event.toLine} waits behind ${event.queued} telegram(s)`;
+      return `${at} coupler.hold ${event.coupler}: ${couplerDestination(event)} for line ${event.toLine} waits behind ${event.queued} telegram(s)`;
     case "coupler.drop":
-      return `${at} coupler.drop ${event.coupler}: ${formatGroupAddress(event.destination)} from line ${event.fromLine} not passed to line ${event.toLine} (${COUPLER_DROP_TEXT[event.reason]})`;
+      return `${at} coupler.drop ${event.coupler}: ${couplerDestination(event)} from line ${event.fromLine} not passed to line ${event.toLine} (${COUPLER_DROP_TEXT[event.reason]})`;
     case "user.action":
       return `${at} user ${event.action}${event.deviceId ? ` ${event.deviceId}` : ""}${event.groupAddress === undefined ? "" : ` ${formatGroupAddress(event.groupAddress)}`}: ${event.detail}`;
   }

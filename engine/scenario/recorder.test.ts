@@ -1,5 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { parseScenario } from "./parse-scenario";
+import { benchBuilder } from "@/test/harness";
 import { lightsFixture } from "../../test/harness/fixture-benches";
 import { createSimulation } from "../sim";
 import { TraceRecorder, recordScenario, replyWindowUs, type RecordedAction } from "./recorder";
@@ -98,5 +99,25 @@ describe("TraceRecorder", () => {
       atUs: 1_000_000,
     });
     expect(recorded?.observed[0]).toMatchObject({ groupAddress: "1/0/1", service: "write" });
+  });
+
+  it("observes a telegram once, not again where a coupler passes it to another line", () => {
+    const bench = benchBuilder()
+      .mainLine("l11", "1.1")
+      .line("m1", "1.0")
+      .groupAddress("1/0/1", "1.001")
+      .device("c11", "coupler", "1.1.0")
+      .device("pb", "push-button", "1.1.1")
+      .device("act", "switch-actuator", "1.0.1")
+      .link("pb", 0, "1/0/1")
+      .link("act", 0, "1/0/1")
+      .build();
+    const sim = createSimulation(bench, { seed: 1 });
+    const recorder = new TraceRecorder((raw) => sim.bench.groupAddresses.get(raw)?.dpt);
+    sim.subscribe((event) => recorder.onEvent(event));
+    expect(sim.pressButton("pb", "channel-1").ok).toBe(true);
+    sim.runFor(1_000_000);
+    expect(sim.line("m1").telegramsTotal).toBe(1);
+    expect(recorder.actions()[0]?.observed).toHaveLength(1);
   });
 });

@@ -84,6 +84,8 @@ function actionStep(action: ConsoleAction): Step | undefined {
  */
 export class TraceRecorder {
   private readonly recorded: { action: ConsoleAction; observed: ObservedTelegram[] }[] = [];
+  /** Copies couplers sent on other lines: the same telegram again, so not observed twice. */
+  private readonly forwarded = new Set<number>();
 
   /** `dptOf` gives the DPT of a raw group address on the bench (undefined when it is not on it). */
   constructor(private readonly dptOf: (groupAddress: number) => string | undefined) {}
@@ -94,7 +96,12 @@ export class TraceRecorder {
       this.recorded.push({ action: { ...event.input, atUs: event.timeUs }, observed: [] });
       return;
     }
+    if (event.kind === "coupler.forward") {
+      this.forwarded.add(event.forwardedTelegramId);
+      return;
+    }
     if (event.kind !== "telegram.sent" || event.attempt !== 0) return;
+    if (this.forwarded.delete(event.telegramId)) return;
     const last = this.recorded[this.recorded.length - 1];
     if (last === undefined) return;
     const service =

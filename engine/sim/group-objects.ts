@@ -69,6 +69,8 @@ export interface LineRuntime {
   listeners: Map<number, Listener[]>;
   /** Coupler sides on this line (engine/sim/couplers); they hear every frame. Absent when none. */
   couplers?: readonly { receive(telegram: Telegram, repeated: boolean): number }[];
+  /** Who answers an individually addressed frame on this line (engine/sim/couplers); absent: nobody. */
+  receiveIndividual?: (telegram: Telegram, repeated: boolean) => number;
 }
 
 const EMPTY_PAYLOAD: Uint8Array = new Uint8Array(0);
@@ -249,6 +251,8 @@ export class GroupObjectLayer {
   /** End of a frame on a line: acknowledge, take, store, hand to devices. Returns the wired-AND acknowledgement. */
   receiveFrame(line: LineRuntime, telegram: Telegram, repeated: boolean): number {
     const frame = telegram.frame;
+    if (frame.addressType !== "group")
+      return line.receiveIndividual?.(telegram, repeated) ?? NO_ACK_OCTET;
     const destination = frame.destination;
     const service = frame.service;
     if (telegram.transmissions === 1 && service !== "GroupValue_Read")

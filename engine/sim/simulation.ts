@@ -222,6 +222,7 @@ export class Simulation {
       this.scheduler,
       this.telegramIds,
       (id) => this.deviceById.get(id)!.busAnswer,
+      this.devices,
     );
     this.inputs = new InputDispatch({
       clock: this.scheduler,

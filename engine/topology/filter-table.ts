@@ -12,12 +12,13 @@ import { isWithin } from "./line-address";
  * one table serves both directions, as on a real coupler.
  *
  * Source: the coupler's job as the Basic course describes it (knx-reference.md,
- * Topology: couplers pass group telegrams by filter table). Commissioning
- * software commonly puts every address with any member below the coupler into
- * its table (common practice, no published source); our rule is narrower and
- * keeps addresses used only inside a line off the main line and backbone. The
- * test tool is not a member: as a commissioning tool it is not in any table,
- * so it reaches other lines only on addresses that cross anyway.
+ * Topology: couplers pass group telegrams by filter table), which is to keep a
+ * line's own traffic off the rest of the installation; commissioning software
+ * likewise leaves addresses used only inside a line out of its coupler's table
+ * (common practice, no published source). The test tool is not a member: like
+ * a diagnostic interface plugged into one line, it reaches other lines only on
+ * addresses that cross anyway, and a write it sends that a coupler filters is
+ * traced as coupler.drop "filter" when someone beyond listens.
  */
 export function generatedFilterTable(
   uses: ReadonlyMap<number, AddressUse>,

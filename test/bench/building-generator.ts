@@ -10,8 +10,10 @@ import type { BenchInput } from "../../engine";
  *
  * Per room: a push-button (toggles the room light, follows its status), a
  * switch actuator (light, status), a room temperature sensor (on change and
- * every 10 min), and in every `hvacEvery`-th room an HVAC gateway with its
- * indoor unit on a unit link, sending its status every 5 min. Per area a
+ * about every 10 min), and in every `hvacEvery`-th room an HVAC gateway with
+ * its indoor unit on a unit link, sending its status about every 5 min. Cycle
+ * times differ from room to room (540..659 s, 240..359 s): identical cycles
+ * started together would send in step and flood the main lines every cycle. Per area a
  * supervision actuator on the main line listens to every light status of the
  * area, and per floor a panel on the main line shows the floor's room
  * temperatures and HVAC status (traffic that crosses the line couplers
@@ -135,7 +137,12 @@ export function generateBuilding(options: BuildingOptions = {}): BenchInput {
             name: `${label} temperature sensor`,
             individualAddress: ia(2),
             parameters: {
-              sending: { mode: "on-change-and-cyclic", minIntervalS: 60, cycleS: 600 },
+              // Cycles differ a little from room to room, as real devices started at different times drift apart.
+              sending: {
+                mode: "on-change-and-cyclic",
+                minIntervalS: 60,
+                cycleS: 540 + ((r * 13 + l * 7) % 120),
+              },
               sampleS: 60,
               initialC: 19 + (r % 5),
               outdoorC: 8 + a * 2,
@@ -175,7 +182,7 @@ export function generateBuilding(options: BuildingOptions = {}): BenchInput {
               parameters: {
                 role: "primary",
                 systemType: "single-split",
-                statusCycleS: 300,
+                statusCycleS: 240 + ((r * 17 + l * 11 + a * 5) % 120),
                 roomTemperatureSending: { mode: "on-change", minIntervalS: 60, cycleS: 900 },
               },
             },
@@ -183,7 +190,8 @@ export function generateBuilding(options: BuildingOptions = {}): BenchInput {
               id: `unit-${room}`,
               type: "indoor-unit",
               name: `${label} indoor unit`,
-              parameters: { initialRoomC: 20 + (r % 3), outdoorC: 8 + a * 2 },
+              // A minute per model step is plenty for a building-scale day (the default 10 s is for a bench).
+              parameters: { initialRoomC: 20 + (r % 3), outdoorC: 8 + a * 2, modelStepS: 60 },
             },
           );
           unitLinks.push({

@@ -248,4 +248,38 @@ describe("couplers between lines", () => {
     expect(writes(sim, "far")).toEqual([]);
     expect(writes(sim, "near")).toEqual([4]);
   });
+
+  // Routing by address (knx-reference.md, Topology: a.l.0 joins a.l to a.0, a.0.0 joins a.0 to 0.0).
+  it("routes an individually addressed telegram along the path to its destination only", () => {
+    const probe = (bench: ReturnType<typeof building>, destination: number) => {
+      const sim = createSimulation(bench, { seed: 1 });
+      const tool = new Tp1Sender(0x11fa, undefined, "probe");
+      const frame = groupFrame(0x11fa, destination, "GroupValue_Read", new Uint8Array(0), 1, "low");
+      sim.line("l11").queue(tool, { ...frame, addressType: "individual" }, 1_000_000);
+      sim.runFor(2_000_000);
+      return sim;
+    };
+    const toFar = probe(building(), 0x2101); // 2.1.1
+    const forwards = kinds(toFar.trace, "coupler.forward") as Extract<
+      TraceEvent,
+      { kind: "coupler.forward" }
+    >[];
+    expect(forwards.map((f) => f.coupler)).toEqual(["c11", "a1", "a2", "c21"]);
+    expect(forwards.every((f) => f.individual === true)).toBe(true);
+    // The addressed device acknowledges on its line; nobody repeats.
+    expect(kinds(toFar.trace, "telegram.repeated")).toEqual([]);
+    expect(toFar.line("l12").telegramsTotal).toBe(0);
+
+    const local = probe(building(), 0x1102); // 1.1.2, on the sender's own line
+    expect(kinds(local.trace, "coupler.forward")).toEqual([]);
+    expect(kinds(local.trace, "coupler.drop")).toEqual([]);
+
+    const blocked = probe(building({ a1: { individualTelegrams: "block" } }), 0x2101);
+    // a1 blocks it (traced once), so nobody acknowledges c11's copy on the main line either.
+    expect(kinds(blocked.trace, "coupler.drop")).toEqual([
+      expect.objectContaining({ coupler: "a1", reason: "blocked", individual: true }),
+      expect.objectContaining({ coupler: "c11", reason: "not-acknowledged", individual: true }),
+    ]);
+    expect(blocked.line("l21").telegramsTotal).toBe(0);
+  });
 });

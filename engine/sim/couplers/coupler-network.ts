@@ -4,7 +4,8 @@ import type { SequentialIds } from "../../core/ids";
 import type { Trace } from "../../core/trace";
 import { benchCouplers, loadedAddressUses } from "../../topology/bench-topology";
 import { isWithin } from "../../topology/line-address";
-import type { LineRuntime } from "../group-objects";
+import { NO_ACK_OCTET } from "../../bus";
+import type { LineRuntime, ObjectOwner } from "../group-objects";
 import { CouplerPort, emptyCouplerCounts, type CouplerCounts } from "./coupler-port";
 
 /**
@@ -33,6 +34,8 @@ export class CouplerNetwork {
     private readonly telegramIds: SequentialIds,
     /** The coupler device's acknowledgement under an injected bus fault (ACK when none). */
     private readonly busAnswer: (couplerId: string) => number,
+    /** Every running device: who answers an individually addressed frame on its line. */
+    devices: readonly ObjectOwner[] = [],
   ) {
     for (const coupler of benchCouplers(bench)) {
       const [above, below] = listenersBySide(bench, coupler.lowerLineAddress);
@@ -57,6 +60,36 @@ export class CouplerNetwork {
       }
       lower.couplers = [...(lower.couplers ?? []), up];
       upper.couplers = [...(upper.couplers ?? []), down];
+    }
+    this.wireIndividual(devices);
+  }
+
+  /**
+   * Individually addressed frames: the couplers on the line hear them (routing
+   * by address), and the device with the destination address acknowledges
+   * (as it would on the bus; the engine models no services for them, so
+   * nothing is delivered).
+   */
+  private wireIndividual(devices: readonly ObjectOwner[]): void {
+    const byLine = new Map<LineRuntime, Map<number, ObjectOwner>>();
+    for (const device of devices) {
+      const address = device.loaded.individualAddress;
+      if (device.line === undefined || address === undefined) continue;
+      let map = byLine.get(device.line);
+      if (map === undefined) byLine.set(device.line, (map = new Map()));
+      map.set(address, device);
+    }
+    for (const line of this.lines.values()) {
+      const addressed = byLine.get(line) ?? new Map<number, ObjectOwner>();
+      line.receiveIndividual = (telegram, repeated) => {
+        let answer = NO_ACK_OCTET;
+        const couplers = line.couplers ?? [];
+        for (let i = 0; i < couplers.length; i++)
+          answer &= couplers[i]!.receive(telegram, repeated);
+        const device = addressed.get(telegram.frame.destination);
+        if (device !== undefined && device.sender !== telegram.sender) answer &= device.busAnswer;
+        return answer;
+      };
     }
   }
 

@@ -52,7 +52,8 @@ export function emptyCouplerCounts(): CouplerCounts {
  *    decreased, sent with that line's timing, arbitration and repetitions.
  * Outcomes 3 to 6 are traced (coupler.forward, .hold, .drop), except that a
  * group telegram not passed in step 3 is traced only when someone on the far
- * side listens to its address: filtering traffic that stays inside a line is
+ * side listens to its address, and an individual one only when its setting
+ * blocks it: filtering traffic that stays inside a line is
  * the coupler's everyday work, not news (otherwise every local telegram would
  * leave a drop per coupler that hears it).
  */
@@ -96,9 +97,12 @@ export class CouplerPort {
           );
     if (decision !== "pass") {
       // Only the first transmission is traced: its repetitions meet the same setting.
+      // Routing an individual telegram to its own side is the coupler's everyday work too.
       if (
         telegram.transmissions === 1 &&
-        (frame.addressType !== "group" || this.farListens.has(frame.destination))
+        (frame.addressType === "group"
+          ? this.farListens.has(frame.destination)
+          : decision === "blocked")
       )
         this.drop(telegram.id, frame, decision);
       return NO_ACK_OCTET;
@@ -126,6 +130,7 @@ export class CouplerPort {
         fromLine: this.lineId,
         toLine: far.lineId,
         destination: frame.destination,
+        ...individual(frame),
         hopCount,
       });
     const copy: DataFrame = { ...frame, repeated: false, hopCount };
@@ -143,6 +148,7 @@ export class CouplerPort {
         fromLine: this.lineId,
         toLine: far.lineId,
         destination: frame.destination,
+        ...individual(frame),
         queued: waitingBefore,
       });
     (telegram.takenBy ??= []).push(this);
@@ -165,6 +171,7 @@ export class CouplerPort {
         fromLine: this.far.lineId,
         toLine: this.lineId,
         destination: telegram.frame.destination,
+        ...individual(telegram.frame),
         reason: "not-acknowledged",
       });
   }
@@ -187,7 +194,13 @@ export class CouplerPort {
         fromLine: this.lineId,
         toLine: this.far.lineId,
         destination: frame.destination,
+        ...individual(frame),
         reason,
       });
   }
+}
+
+/** The trace's mark of an individually addressed telegram (absent on group telegrams, as in telegram events). */
+function individual(frame: DataFrame): { individual?: true } {
+  return frame.addressType === "individual" ? { individual: true } : {};
 }

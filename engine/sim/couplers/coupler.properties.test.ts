@@ -25,6 +25,11 @@ const LINES = ["0.0", "1.0", "1.1", "1.2", "2.0", "2.1", "2.2"] as const;
 type Line = (typeof LINES)[number];
 const ADDRESSES = ["1/0/1", "1/0/2", "2/0/1", "14/0/1"] as const;
 
+/** Raw individual address of device `n` on a line ("1.2" -> 0x12nn). */
+const individualOn = (line: string, n: number) => {
+  const [area, number] = line.split(".").map(Number) as [number, number];
+  return (area << 12) | (number << 8) | n;
+};
 const lineId = (line: string) => `line-${line.replace(".", "-")}`;
 const upper = (line: Line): Line | undefined =>
   line === "0.0" ? undefined : line.endsWith(".0") ? "0.0" : (`${line[0]}.0` as Line);
@@ -200,6 +205,8 @@ describe("coupler properties", () => {
             line: fc.constantFrom(...LINES),
             hopCount: fc.integer({ min: 0, max: 7 }),
             address: fc.constantFrom(...ADDRESSES),
+            // Individually addressed to a device number on a random line, routed by address.
+            to: fc.option(fc.constantFrom(...LINES), { nil: undefined }),
           }),
           { minLength: 1, maxLength: 6 },
         ),
@@ -223,23 +230,22 @@ describe("coupler properties", () => {
             hopOf.set(id, probe.hopCount);
             rootOf.set(id, id);
             const sender = new Tp1Sender(0x0ffa, undefined, `probe${i}`);
-            sim
-              .line(lineId(probe.line))
-              .queue(
-                sender,
-                {
-                  ...groupFrame(
-                    0x0ffa,
-                    raw.value,
-                    "GroupValue_Write",
-                    new Uint8Array([0, i]),
-                    16,
-                    "low",
-                  ),
-                  hopCount: probe.hopCount,
-                },
-                id,
-              );
+            sim.line(lineId(probe.line)).queue(
+              sender,
+              {
+                ...groupFrame(
+                  0x0ffa,
+                  probe.to === undefined ? raw.value : individualOn(probe.to, 200 + i),
+                  "GroupValue_Write",
+                  new Uint8Array([0, i]),
+                  16,
+                  "low",
+                ),
+                addressType: probe.to === undefined ? "group" : "individual",
+                hopCount: probe.hopCount,
+              },
+              id,
+            );
           });
           sim.runFor(5_000_000);
           const linesOf = new Map<number, string[]>();

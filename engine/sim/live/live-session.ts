@@ -1,4 +1,4 @@
-import { formatGroupAddress } from "../../address";
+import { formatGroupAddress, formatIndividualAddress } from "../../address";
 import { loadBench, type LoadedBench } from "../../bench";
 import type { TraceEvent } from "../../core/trace";
 import { getDpt } from "../../dpt";
@@ -531,13 +531,13 @@ export class LiveSession {
   }
 
   private telegramRow(event: Extract<TraceEvent, { kind: "telegram.sent" }>): LogRow {
-    const ga = this.loaded?.groupAddresses.get(event.destination);
+    const ga = event.individual ? undefined : this.loaded?.groupAddresses.get(event.destination);
     const frame: DataFrame = {
       priority: event.priority,
       repeated: event.repeated,
       source: event.source,
       destination: event.destination,
-      addressType: "group",
+      addressType: event.individual ? "individual" : "group",
       hopCount: this.forwardedHopCount.get(event.telegramId) ?? DEFAULT_HOP_COUNT,
       service: event.service,
       payload: fromHex(event.payloadHex) ?? new Uint8Array(0),
@@ -592,7 +592,9 @@ export class LiveSession {
         : { id: event.coupler, action: "drop", reason: event.reason, toLine },
       source: coupler?.name ?? event.coupler,
       deviceId: event.coupler,
-      destination: formatGroupAddress(event.destination),
+      destination: event.individual
+        ? formatIndividualAddress(event.destination)
+        : formatGroupAddress(event.destination),
       destinationName: ga?.name ?? "",
       service: hold ? "coupler hold" : "coupler drop",
       value: hold

@@ -1,0 +1,58 @@
+import { beforeAll, describe, expect, it } from "vitest";
+import { benchBuilder, registerTestDevices } from "@/test/harness";
+import { LiveSession } from "./live-session";
+import { parseSimMessage, type LogRow, type SimMessage } from "./live-protocol";
+
+beforeAll(registerTestDevices);
+
+/** Sender on 1.1; listeners on 1.2; c12 holds a stale stored table without 1/0/1. */
+const bench = () =>
+  benchBuilder()
+    .mainLine("l11", "1.1")
+    .line("m1", "1.0")
+    .line("l12", "1.2")
+    .groupAddress("1/0/1", "7.001")
+    .device("c11", "coupler", "1.1.0")
+    .device("c12", "coupler", "1.2.0", { filterTable: [] })
+    .device("s", "test-recorder", "1.1.1")
+    .device("r", "test-recorder", "1.2.1")
+    .device("m", "test-recorder", "1.0.1")
+    .link("s", 0, "1/0/1")
+    .link("r", 0, "1/0/1")
+    .link("m", 0, "1/0/1")
+    .build();
+
+describe("live session on several lines", () => {
+  it("log rows name their line and the coupler that forwarded or dropped; samples name the line address", () => {
+    const messages: SimMessage[] = [];
+    const session = new LiveSession({
+      post: (m) => messages.push(parseSimMessage(m)),
+      now: () => 0,
+    });
+    session.handle({ type: "load", bench: bench() });
+    session.handle({
+      type: "input",
+      input: { kind: "set-input", device: "s", input: "send", value: 4 },
+    });
+    session.handle({ type: "jump", durationUs: 2_000_000 });
+    session.tick();
+    const batches = messages.filter(
+      (m): m is Extract<SimMessage, { type: "batch" }> => m.type === "batch",
+    );
+    const rows: LogRow[] = batches.flatMap((b) => b.rows);
+    const sent = rows.filter(
+      (r) => r.kind === "telegram" && r.destination === "1/0/1" && !r.repeated,
+    );
+    expect(sent.map((r) => r.line)).toEqual(["1.1", "1.0"]);
+    expect(sent[1]!.coupler).toEqual({ id: "c11", action: "forward", toLine: "1.0" });
+    // The forwarded frame carries the decreased routing counter (octet 5, bits 6-4; knx-reference.md TP1 standard frame).
+    expect(sent[1]!.rawHex.split(" ")[5]).toBe("D3");
+    expect(rows.find((r) => r.kind === "coupler")).toMatchObject({
+      line: "1.0",
+      deviceId: "c12",
+      coupler: { id: "c12", action: "drop", reason: "filter", toLine: "1.2" },
+    });
+    const samples = batches.flatMap((b) => b.busLoad);
+    expect(new Set(samples.map((s) => s.lineAddress))).toEqual(new Set(["1.1", "1.0", "1.2"]));
+  });
+});
