@@ -1,3 +1,4 @@
+import { AxeBuilder } from "@axe-core/playwright";
 import type { Browser, Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { launchChromium } from "./chromium";
@@ -13,7 +14,9 @@ describe("topology of the demo hotel in headless Chromium", () => {
 
   beforeAll(async () => {
     browser = await launchChromium();
-    page = await browser.newPage({ viewport: { width: 1600, height: 1000 } });
+    // A page of its own context: axe-core's builder needs one.
+    const context = await browser.newContext({ viewport: { width: 1600, height: 1000 } });
+    page = await context.newPage();
     page.on("pageerror", (error) => pageErrors.push(error.message));
     await signIn(page, ENGINEER, demoPassword(ENGINEER), "/benches");
     // The hotel is the engineer's project in a workspace of its own: switch to it as the
@@ -87,6 +90,39 @@ describe("topology of the demo hotel in headless Chromium", () => {
         );
       })
       .toBe(true);
+
+    // axe-core, WCAG 2.x A and AA tags as in accessibility.test.ts: the regions, the coupler
+    // badge and the coupler panel add no serious or critical violation.
+    const results = await new AxeBuilder({ page })
+      .withTags(["wcag2a", "wcag2aa", "wcag21a", "wcag21aa", "wcag22aa"])
+      .analyze();
+    expect(
+      results.violations
+        .filter((v) => v.impact === "serious" || v.impact === "critical")
+        .map(
+          (v) =>
+            `${v.id}: ${v.nodes
+              .slice(0, 3)
+              .map((n) => n.target.join(" "))
+              .join(" | ")}`,
+        ),
+    ).toEqual([]);
+    await page.getByRole("tab", { name: /^Topology/ }).click();
+    const panel = await new AxeBuilder({ page })
+      .include('[aria-label="Topology"]')
+      .withTags(["wcag2a", "wcag2aa", "wcag21a", "wcag21aa", "wcag22aa"])
+      .analyze();
+    expect(
+      panel.violations
+        .filter((v) => v.impact === "serious" || v.impact === "critical")
+        .map(
+          (v) =>
+            `${v.id}: ${v.nodes
+              .slice(0, 3)
+              .map((n) => n.target.join(" "))
+              .join(" | ")}`,
+        ),
+    ).toEqual([]);
     expect(pageErrors).toEqual([]);
   });
 
