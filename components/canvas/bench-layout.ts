@@ -251,18 +251,25 @@ export function positionsFromElk(laidOut: ElkNode): BenchLayout {
  * Above this many cards and bars ELK's layered layout takes seconds (a
  * 1,000-device building: about 8 s here, npm run bench:canvas), so the bench
  * is laid out directly instead (directLayout): the same columns and frames,
- * without ELK's crossing minimisation and wire channels.
+ * without ELK's crossing minimisation.
  */
 export const DIRECT_LAYOUT_NODES = 1500;
 
-/** Lays the bench out with ELK's layered algorithm. Async: elkjs runs its own event loop. */
+/**
+ * Lays the bench out: ELK's layered algorithm for a bench of one line, the
+ * direct layout for a topology (its lines drawn as a tree of regions, which
+ * ELK's two columns cannot express) or a bench too big for ELK. Async: elkjs
+ * runs its own event loop.
+ */
 export async function layoutBench(bench: Bench, elk: ElkLike): Promise<BenchLayout> {
-  if (bench.devices.length + bench.groupAddresses.length > DIRECT_LAYOUT_NODES)
+  if (
+    drawsLineRegions(bench) ||
+    bench.devices.length + bench.groupAddresses.length > DIRECT_LAYOUT_NODES
+  )
     return directLayout(bench);
   const graph = benchElkGraph(bench);
-  const laidOut =
-    (graph.children ?? []).length === 0 ? EMPTY_LAYOUT : positionsFromElk(await elk.layout(graph));
-  return drawsLineRegions(bench) ? withLineRegions(bench, laidOut) : laidOut;
+  if ((graph.children ?? []).length === 0) return EMPTY_LAYOUT;
+  return positionsFromElk(await elk.layout(graph));
 }
 
 /** The layout with its device column restacked line by line (line-regions.ts). */
@@ -280,11 +287,13 @@ export function withLineRegions(bench: Bench, layout: BenchLayout): BenchLayout 
 }
 
 /**
- * The layout of a bench too big for ELK in the time a person waits: cards in
- * one column by individual address (then restacked line by line), bus-bars in
- * a second column in their main/middle group frames, the frames ordered by
- * where the cards they wire to sit (their mean y), so most wires run across
- * rather than up and down the whole drawing. Linear apart from the sorts.
+ * The layout without ELK, for a topology or a bench too big for ELK in the
+ * time a person waits: cards by individual address, in one column or, on a
+ * bench with several lines, in a tree of line regions (stackByLine); bus-bars
+ * in a column right of them in their main/middle group frames, the frames
+ * ordered by where the cards they wire to sit (their mean y), so most wires
+ * run across rather than up and down the whole drawing, each bar's wires in a
+ * channel of their own in the gap. Linear apart from the sorts.
  */
 export function directLayout(bench: Bench): BenchLayout {
   const devices = new Map<string, Position>();
@@ -345,7 +354,13 @@ export function directLayout(bench: Bench): BenchLayout {
   );
   const addresses = new Map<string, Position>();
   const groups: AddressGroupBox[] = [];
-  const barX = CARD_WIDTH + WIRE_GAP;
+  // Right of every card and region; the wires run down the gap in channels a few units apart.
+  const right = Math.max(
+    CARD_WIDTH,
+    ...stacked.lines.map((r) => r.position.x + r.width),
+    ...[...stacked.devices.values()].map((p) => p.x + CARD_WIDTH),
+  );
+  const barX = right + WIRE_GAP;
   let top = Math.min(0, ...[...stacked.devices.values()].map((p) => p.y));
   for (const [id, frame] of ordered) {
     const height =
@@ -367,8 +382,25 @@ export function directLayout(bench: Bench): BenchLayout {
     });
     top += height + NODE_GAP;
   }
-  return { ...stacked, addresses, groups, channels: new Map() };
+  // One channel per bus-bar (its wires merge into it anyway), spread across the gap.
+  const channels = new Map<string, number>();
+  const rank = new Map([...addresses.keys()].map((key, i) => [key, i]));
+  const lanes = Math.max(1, Math.floor((WIRE_GAP - 2 * CHANNEL_MARGIN) / CHANNEL_STEP));
+  for (const link of bench.links) {
+    const key = groupAddressKey(link.groupAddress);
+    const i = rank.get(key);
+    if (i === undefined) continue;
+    channels.set(
+      `${link.device}#${link.object}@${key}`,
+      right + CHANNEL_MARGIN + (i % lanes) * CHANNEL_STEP,
+    );
+  }
+  return { ...stacked, addresses, groups, channels };
 }
+
+/** Room between the cards and the first wire channel, and between two channels. */
+const CHANNEL_MARGIN = 16;
+const CHANNEL_STEP = 4;
 
 /**
  * When the layout runs again: when a card or bus-bar is added or removed, or

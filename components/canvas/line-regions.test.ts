@@ -3,7 +3,7 @@ import { describe, expect, it } from "vitest";
 import { benchSchema, type Bench } from "@/engine";
 import { benchGraph, type BenchNode } from "./bench-graph";
 import { layoutBench } from "./bench-layout";
-import { COUPLER_HEIGHT, deviceLines, orderedLines } from "./line-regions";
+import { COUPLER_HEIGHT, COUPLER_WIDTH, deviceLines, orderedLines } from "./line-regions";
 
 const elk = new ELK();
 
@@ -50,25 +50,36 @@ describe("line regions", () => {
     expect(lines.get("ac-1")).toBe("main");
   });
 
-  it("draws one region per line around its cards, in order, without overlaps", async () => {
+  it("draws the lines as a tree of regions: backbone, main line below it, its lines side by side below that", async () => {
     const bench = building();
     const { nodes } = benchGraph(bench, { layout: await layoutBench(bench, elk) });
     const regions = of(nodes, "lineRegion");
     expect(regions.map((r) => r.data.address)).toEqual(["0.0", "1.0", "1.1", "1.2"]);
     expect(regions.map((r) => r.data.kind)).toEqual(["backbone", "main", "line", "line"]);
-    for (let i = 1; i < regions.length; i++)
-      expect(regions[i]!.position.y).toBeGreaterThan(
-        regions[i - 1]!.position.y + regions[i - 1]!.data.height,
-      );
-    // Device counts: KNX devices only (the indoor unit has no individual address); couplers count.
-    expect(regions.find((r) => r.data.address === "1.2")!.data.deviceCount).toBe(3);
     const region = (address: string) => regions.find((r) => r.data.address === address)!;
+    const bottom = (address: string) => region(address).position.y + region(address).data.height;
+    const right = (address: string) => region(address).position.x + region(address).data.width;
+    // Each line below the line its coupler joins it to (knx-reference.md, Topology).
+    expect(region("1.0").position.y).toBeGreaterThan(bottom("0.0"));
+    expect(region("1.1").position.y).toBeGreaterThan(bottom("1.0"));
+    expect(region("1.2").position.y).toBe(region("1.1").position.y);
+    // Floors side by side, both under the main line, which spans them.
+    expect(region("1.2").position.x).toBeGreaterThan(right("1.1"));
+    expect(region("1.0").position.x).toBeLessThanOrEqual(region("1.1").position.x);
+    expect(right("1.0")).toBeGreaterThanOrEqual(right("1.2"));
+    // Device counts: KNX devices only (the indoor unit has no individual address); couplers count.
+    expect(region("1.2").data.deviceCount).toBe(3);
     for (const card of of(nodes, "device")) {
       const line = deviceLines(bench).get(card.data.device.id)!;
       const box = region(bench.lines.find((l) => l.id === line)!.address);
       expect(card.position.y).toBeGreaterThan(box.position.y);
       expect(card.position.y).toBeLessThan(box.position.y + box.data.height);
+      expect(card.position.x).toBeGreaterThanOrEqual(box.position.x);
+      expect(card.position.x).toBeLessThan(box.position.x + box.data.width);
     }
+    // Every card left of every bus-bar, so the wires run one way.
+    const cardsRight = Math.max(...of(nodes, "device").map((n) => n.position.x + 248));
+    expect(Math.min(...of(nodes, "busBar").map((n) => n.position.x))).toBeGreaterThan(cardsRight);
   });
 
   it("draws each coupler across the top border of its line, the boundary with the line above", async () => {
@@ -82,6 +93,13 @@ describe("line regions", () => {
     for (const coupler of couplers) {
       const own = regions.find((r) => r.data.address === coupler.data.address.replace(/\.0$/, ""))!;
       expect(coupler.position.y + COUPLER_HEIGHT / 2).toBe(own.position.y);
+      // Its upper half in the gap below the line above, which spans over it.
+      const upper = regions.find((r) => r.data.address === coupler.data.upperLine)!;
+      expect(coupler.position.y).toBeGreaterThanOrEqual(upper.position.y + upper.data.height);
+      expect(coupler.position.x).toBeGreaterThanOrEqual(upper.position.x);
+      expect(coupler.position.x + COUPLER_WIDTH).toBeLessThanOrEqual(
+        upper.position.x + upper.data.width,
+      );
     }
     // knx-reference.md, Topology: a line coupler a.l.0 joins line a.l to main line a.0, an
     // area coupler a.0.0 joins main line a.0 to the backbone 0.0.

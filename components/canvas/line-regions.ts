@@ -85,12 +85,27 @@ export interface CardBox {
   readonly height: number;
 }
 
+/** Level of a line in the topology tree: backbone 0, main lines (and 0.l) 1, lines 2. */
+function levelOf(line: BenchLine): number {
+  const [area = 0, number = 0] = line.address.split(".").map(Number);
+  if (area === 0) return number === 0 ? 0 : 1;
+  return number === 0 ? 1 : 2;
+}
+
+/** The parent of a line in the drawn tree: the line above it when the bench has it. */
+function parentOf(bench: Bench, line: BenchLine): BenchLine | undefined {
+  const [area = 0, number = 0] = line.address.split(".").map(Number);
+  const upper = area === 0 && number === 0 ? undefined : number === 0 ? "0.0" : `${area}.0`;
+  return upper === undefined ? undefined : bench.lines.find((l) => l.address === upper);
+}
+
 /**
- * Restacks the device column the layered layout produced so each line's cards
- * are together, lines top to bottom in `orderedLines` order, with room for a
- * region frame and a coupler between them. Keeps every card's x and the
- * layout's order of cards within a line, so wires still reach the same bars.
- * Couplers are left out: they sit on a region's border (couplerPosition).
+ * Lays the lines out as the topology they are: the backbone on top, each
+ * area's main line below it, an area's lines side by side under their main
+ * line, each line a region holding its cards in a column (in the order given,
+ * the cards' y). A coupler sits on its line's top border, so it leads up to
+ * the region it joins. Lines whose line above is not on the bench start a tree
+ * of their own, left to right by address. Couplers are left out of `cards`.
  */
 export function stackByLine(
   bench: Bench,
@@ -98,46 +113,80 @@ export function stackByLine(
 ): { positions: Map<string, Position>; regions: LineRegionBox[] } {
   const lineOf = deviceLines(bench);
   const byLine = new Map<string, CardBox[]>();
-  let minX = Infinity;
-  let minY = Infinity;
-  let maxRight = -Infinity;
   for (const card of cards) {
     const line = lineOf.get(card.id);
     if (line === undefined) continue;
     const list = byLine.get(line) ?? [];
     list.push(card);
     byLine.set(line, list);
-    minX = Math.min(minX, card.position.x);
-    minY = Math.min(minY, card.position.y);
-    maxRight = Math.max(maxRight, card.position.x + card.width);
   }
+  const lines = orderedLines(bench);
+  const children = new Map<string, BenchLine[]>();
+  const roots: BenchLine[] = [];
+  for (const line of lines) {
+    const parent = parentOf(bench, line);
+    if (parent === undefined) roots.push(line);
+    else children.set(parent.id, [...(children.get(parent.id) ?? []), line]);
+  }
+  const columnWidth = (line: BenchLine) =>
+    Math.max(COUPLER_WIDTH, ...(byLine.get(line.id) ?? []).map((card) => card.width)) +
+    2 * LINE_PADDING.side;
+  const columnHeight = (line: BenchLine) => {
+    const own = byLine.get(line.id) ?? [];
+    const inner =
+      own.length === 0
+        ? COUPLER_HEIGHT
+        : own.reduce((sum, card) => sum + card.height, 0) + (own.length - 1) * CARD_GAP;
+    return LINE_PADDING.top + inner + LINE_PADDING.bottom;
+  };
+  // Width of each subtree, so children sit side by side under their parent.
+  const span = new Map<string, number>();
+  const spanOf = (line: BenchLine): number => {
+    const kids = children.get(line.id) ?? [];
+    const below =
+      kids.reduce((sum, kid) => sum + spanOf(kid), 0) + Math.max(0, kids.length - 1) * LINE_GAP;
+    const width = Math.max(columnWidth(line), below);
+    span.set(line.id, width);
+    return width;
+  };
+  // One row per level: a row starts below the tallest region of the row above.
+  const levels = [...new Set(lines.map(levelOf))].sort((a, b) => a - b);
+  const rowHeight = new Map<number, number>();
+  for (const line of lines)
+    rowHeight.set(levelOf(line), Math.max(rowHeight.get(levelOf(line)) ?? 0, columnHeight(line)));
+  const rowTop = new Map<number, number>();
+  let y = 0;
+  for (const level of levels) {
+    rowTop.set(level, y);
+    y += (rowHeight.get(level) ?? 0) + LINE_GAP;
+  }
+
   const positions = new Map<string, Position>();
   const regions: LineRegionBox[] = [];
-  if (minX === Infinity) {
-    minX = 0;
-    minY = 0;
-    maxRight = 0;
-  }
-  // The first region's title and coupler need room above the first card.
-  let cursor = minY - LINE_PADDING.top + LINE_GAP;
-  for (const line of orderedLines(bench)) {
-    const own = (byLine.get(line.id) ?? []).sort((a, b) => a.position.y - b.position.y);
-    const top = cursor;
-    let y = top + LINE_PADDING.top;
-    for (const card of own) {
-      positions.set(card.id, { x: card.position.x, y });
-      y += card.height + CARD_GAP;
+  const place = (line: BenchLine, x: number) => {
+    const top = rowTop.get(levelOf(line)) ?? 0;
+    const width = span.get(line.id) ?? columnWidth(line);
+    regions.push({ lineId: line.id, position: { x, y: top }, width, height: columnHeight(line) });
+    let cardY = top + LINE_PADDING.top;
+    for (const card of (byLine.get(line.id) ?? []).sort((a, b) => a.position.y - b.position.y)) {
+      positions.set(card.id, { x: x + LINE_PADDING.side, y: cardY });
+      cardY += card.height + CARD_GAP;
     }
-    const inner = own.length === 0 ? COUPLER_HEIGHT : y - CARD_GAP - (top + LINE_PADDING.top);
-    const height = LINE_PADDING.top + inner + LINE_PADDING.bottom;
-    regions.push({
-      lineId: line.id,
-      position: { x: minX - LINE_PADDING.side, y: top },
-      width: Math.max(maxRight - minX, COUPLER_WIDTH) + 2 * LINE_PADDING.side,
-      height,
-    });
-    cursor = top + height + LINE_GAP;
+    let childX = x;
+    for (const kid of children.get(line.id) ?? []) {
+      place(kid, childX);
+      childX += (span.get(kid.id) ?? 0) + LINE_GAP;
+    }
+  };
+  let x = 0;
+  for (const root of roots) {
+    spanOf(root);
+    place(root, x);
+    x += (span.get(root.id) ?? 0) + LINE_GAP;
   }
+  regions.sort(
+    (a, b) => lines.findIndex((l) => l.id === a.lineId) - lines.findIndex((l) => l.id === b.lineId),
+  );
   return { positions, regions };
 }
 
@@ -176,12 +225,24 @@ export function regionsAround(
       if (kept !== undefined) regions.push(kept);
       continue;
     }
-    const width = Math.max(box.maxX - box.minX, COUPLER_WIDTH) + 2 * LINE_PADDING.side;
+    // The laid-out box (a main line spans the lines under it), grown to any card dragged out.
+    const kept = fallback.get(line.id);
+    const minX = Math.min(box.minX - LINE_PADDING.side, kept?.position.x ?? Infinity);
+    const minY = Math.min(box.minY - LINE_PADDING.top, kept?.position.y ?? Infinity);
+    const maxX = Math.max(
+      box.maxX + LINE_PADDING.side,
+      minX + COUPLER_WIDTH + 2 * LINE_PADDING.side,
+      kept === undefined ? -Infinity : kept.position.x + kept.width,
+    );
+    const maxY = Math.max(
+      box.maxY + LINE_PADDING.bottom,
+      kept === undefined ? -Infinity : kept.position.y + kept.height,
+    );
     regions.push({
       lineId: line.id,
-      position: { x: box.minX - LINE_PADDING.side, y: box.minY - LINE_PADDING.top },
-      width,
-      height: box.maxY - box.minY + LINE_PADDING.top + LINE_PADDING.bottom,
+      position: { x: minX, y: minY },
+      width: maxX - minX,
+      height: maxY - minY,
     });
   }
   return regions;

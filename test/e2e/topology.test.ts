@@ -74,10 +74,10 @@ describe("topology of the demo hotel in headless Chromium", () => {
     await coupler.waitFor();
     expect(await coupler.getAttribute("aria-label")).toContain("joins to line 1.0");
     const below = page.getByRole("region", { name: "Line 1.2 Floor 2" });
-    const above = page.getByRole("region", { name: "Line 1.1 Floor 1" });
+    const above = page.getByRole("region", { name: "Line 1.0 Main line" });
     await below.waitFor();
     await above.waitFor();
-    // The coupler straddles the border between floor 2's region and the one above it.
+    // The coupler straddles floor 2's top border, under the main line it joins floor 2 to.
     await expect
       .poll(async () => {
         const region = (await below.boundingBox())!;
@@ -86,7 +86,9 @@ describe("topology of the demo hotel in headless Chromium", () => {
         return (
           badge.y < region.y &&
           badge.y + badge.height > region.y &&
-          upper.y + upper.height <= region.y
+          upper.y + upper.height <= badge.y &&
+          upper.x <= badge.x &&
+          badge.x + badge.width <= upper.x + upper.width
         );
       })
       .toBe(true);
