@@ -147,11 +147,11 @@ for (const key of [
   );
 }
 console.log(
-  `layout: elkjs for the demo and the 300-device bench; the building is over DIRECT_LAYOUT_NODES (${DIRECT_LAYOUT_NODES} cards and bars) and laid out directly (bench-layout.ts)`,
+  `layout: elkjs for a bench of one line (the demo); benches with several lines (the 300-device bench, the building) are drawn as a tree of line regions without elkjs, as is any bench over ${DIRECT_LAYOUT_NODES} cards and bars (bench-layout.ts directLayout)`,
 );
 console.log(
   `1000-device building, editor work before first render: ${building.total.toFixed(0)} ms warm, ${building["total, cold layout"].toFixed(0)} ms with its first layout (target under 1000 ms)`,
 );
 console.log(
-  `elk layout, first run in a fresh process: 13-device training bench ${fmt(firstLayout)}; then 300 dev / 1000 GA in a new ELK instance ${fmt(largeFirst)}`,
+  `elk layout, first run in a fresh process: 13-device training bench ${fmt(firstLayout)}; then 300 dev / 1000 GA (direct layout) ${fmt(largeFirst)}`,
 );
