@@ -57,9 +57,9 @@ describe("applyHiddenFaults", () => {
   });
 });
 
-const hotel = JSON.parse(
-  readFileSync("scenarios/benches/wrenhallow-hotel.bench.json", "utf8"),
-) as { devices: { id: string; parameters: Record<string, unknown> }[] };
+const hotel = JSON.parse(readFileSync("scenarios/benches/wrenhallow-hotel.bench.json", "utf8")) as {
+  devices: { id: string; parameters: Record<string, unknown> }[];
+};
 const couplerParameters = (bench: unknown, id: string) =>
   (bench as typeof hotel).devices.find((d) => d.id === id)!.parameters;
 
