@@ -162,6 +162,10 @@ export function TopologyPanel({
         <Mono>0.0</Mono>. Load is the share of the line&apos;s capacity the bench is expected to
         use.
       </p>
+      <p className="text-[11px] leading-snug text-ink-soft">
+        A simulated topology, for planning and training: it does not replace the manufacturers&apos;
+        instructions, local codes or licensed practice on a real installation.
+      </p>
       {readOnly ? null : (
         <>
           <form
