@@ -43,6 +43,7 @@ import {
   busBarNodeId,
   DEVICE_TYPE_DRAG,
   deviceNodeId,
+  LINE_REGION_PREFIX,
   nodeRefOf,
   objectOfHandle,
   UNIT_LINK_HANDLE,
@@ -357,8 +358,19 @@ export function BenchCanvas({
       const raw = event.dataTransfer.getData(DEVICE_TYPE_DRAG);
       if (raw === "") return;
       event.preventDefault();
-      const { type, line } = JSON.parse(raw) as { type: string; line?: string };
+      const dropped = JSON.parse(raw) as { type: string; line?: string };
       const position = flow.screenToFlowPosition({ x: event.clientX, y: event.clientY });
+      // Dropped inside a line's region: the device goes on that line, whatever the shelf says.
+      const region = nodes.find(
+        (n) =>
+          n.type === "lineRegion" &&
+          position.x >= n.position.x &&
+          position.x <= n.position.x + n.data.width &&
+          position.y >= n.position.y &&
+          position.y <= n.position.y + n.data.height,
+      );
+      const line = region === undefined ? dropped.line : region.id.slice(LINE_REGION_PREFIX.length);
+      const type = dropped.type;
       let added: string | undefined;
       storeApi.getState().apply((b) => {
         const result = addDevice(b, { type, ...(line ? { line } : {}), position });
@@ -368,7 +380,7 @@ export function BenchCanvas({
       }, "Added a device");
       if (added) storeApi.getState().selectNode({ kind: "device", id: added });
     },
-    [flow, storeApi],
+    [flow, storeApi, nodes],
   );
 
   const onReveal = useCallback((node: NodeRef) => storeApi.getState().revealNode(node), [storeApi]);

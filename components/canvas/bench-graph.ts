@@ -17,6 +17,7 @@ import {
   BUS_HANDLE,
   busBarNodeId,
   deviceNodeId,
+  LINE_REGION_PREFIX,
   objectHandleId,
   UNIT_LINK_HANDLE,
 } from "./node-ids";
@@ -422,7 +423,7 @@ function lineNodes(
     regionOf.set(line.id, region);
     const load = lineLoads?.get(line.id);
     nodes.push({
-      id: `ln:${line.id}`,
+      id: `${LINE_REGION_PREFIX}${line.id}`,
       type: "lineRegion",
       position: region.position,
       data: {
