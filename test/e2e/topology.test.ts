@@ -128,6 +128,24 @@ describe("topology of the demo hotel in headless Chromium", () => {
     expect(pageErrors).toEqual([]);
   });
 
+  it("puts a device dropped from the shelf inside floor 2's region on floor 2", async () => {
+    const region = (await page.getByRole("region", { name: "Line 1.2 Floor 2" }).boundingBox())!;
+    const canvas = page.getByRole("application", { name: "Bench canvas" });
+    const frame = (await canvas.boundingBox())!;
+    await page
+      .getByRole("listitem")
+      .filter({ hasText: "Push-button" })
+      .first()
+      .dragTo(canvas, {
+        // Inside the region, beside its title: relative to the canvas's top left.
+        targetPosition: { x: region.x - frame.x + 12, y: region.y - frame.y + 30 },
+      });
+    await page.getByRole("tab", { name: "Selection" }).click();
+    await expect
+      .poll(() => page.getByLabel("Individual address").inputValue(), { timeout: 10_000 })
+      .toBe("1.2.13");
+  });
+
   it("shows the line of each telegram in the console's log, and the couplers passing it on", async () => {
     await page.goto(`${new URL(page.url()).origin}${benchPath}/live`);
     await page.getByRole("toolbar", { name: "Time controls" }).waitFor();
