@@ -25,7 +25,7 @@ const LOG_REFRESH_MS = 100;
 /**
  * Every column fits a 1,110 px log (1440 px window with the navigation open)
  * without scrolling sideways, frames of up to 11 octets whole; names and
- * longer frames are cut with "…" (whole on hover), down to about 890 px (a
+ * longer frames are cut with "…" (whole on hover), down to about 960 px (a
  * 1024 px tablet with the navigation folded).
  */
 const COLUMNS =
