@@ -255,6 +255,14 @@ export function positionsFromElk(laidOut: ElkNode): BenchLayout {
  */
 export const DIRECT_LAYOUT_NODES = 1500;
 
+/** Whether the bench is laid out by ELK (one line, not too big), so a page knows to load elkjs. */
+export function needsElk(bench: Bench): boolean {
+  return (
+    !drawsLineRegions(bench) &&
+    bench.devices.length + bench.groupAddresses.length <= DIRECT_LAYOUT_NODES
+  );
+}
+
 /**
  * Lays the bench out: ELK's layered algorithm for a bench of one line, the
  * direct layout for a topology (its lines drawn as a tree of regions, which
@@ -262,11 +270,7 @@ export const DIRECT_LAYOUT_NODES = 1500;
  * runs its own event loop.
  */
 export async function layoutBench(bench: Bench, elk: ElkLike): Promise<BenchLayout> {
-  if (
-    drawsLineRegions(bench) ||
-    bench.devices.length + bench.groupAddresses.length > DIRECT_LAYOUT_NODES
-  )
-    return directLayout(bench);
+  if (!needsElk(bench)) return directLayout(bench);
   const graph = benchElkGraph(bench);
   if ((graph.children ?? []).length === 0) return EMPTY_LAYOUT;
   return positionsFromElk(await elk.layout(graph));
