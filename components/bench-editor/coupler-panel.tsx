@@ -1,7 +1,8 @@
 "use client";
 
 import { useMemo, useState } from "react";
-import type { Bench, BenchDevice } from "@/engine";
+import { DEFAULT_COUPLER_QUEUE_CAPACITY, type Bench, type BenchDevice } from "@/engine";
+import { setParameters } from "./model/devices";
 import { Button } from "@/components/ui/button";
 import { Mono } from "@/components/ui/mono";
 import { StatusBadge } from "@/components/ui/status-badge";
@@ -102,6 +103,33 @@ export function CouplerPanel({
             </option>
           ))}
         </select>
+      </label>
+
+      <label className="flex flex-col gap-1 text-xs text-ink-soft">
+        Buffer per direction (telegrams)
+        <input
+          key={`queue:${String(parameters.queueCapacity ?? "")}`}
+          type="number"
+          min={1}
+          max={1024}
+          className={`${selectClass} w-28 font-mono`}
+          defaultValue={Number(parameters.queueCapacity ?? DEFAULT_COUPLER_QUEUE_CAPACITY)}
+          readOnly={readOnly}
+          onBlur={(e) => {
+            const value = Number(e.target.value);
+            if (value === Number(parameters.queueCapacity ?? DEFAULT_COUPLER_QUEUE_CAPACITY))
+              return;
+            apply((b) => {
+              const result = setParameters(b, device.id, { ...parameters, queueCapacity: value });
+              return result.ok ? { ok: true, value: result.value.bench } : result;
+            }, `Buffer per direction: ${value} telegrams`);
+          }}
+          onKeyDown={(e) => e.key === "Enter" && e.currentTarget.blur()}
+        />
+        <span className="text-[11px]">
+          Telegrams it holds while the other line is busy; one more is answered busy, so the sender
+          repeats.
+        </span>
       </label>
 
       <section aria-label="Filter table" className="flex flex-col gap-2">

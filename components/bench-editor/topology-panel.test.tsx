@@ -96,6 +96,19 @@ describe("CouplerPanel", () => {
     );
     const coupler = store.getState().bench.devices.find((d) => d.id === "lc-floor-2")!;
     expect(coupler.parameters.filterTable).toEqual(["4/0/1", "4/1/1"]);
+    // The buffer per direction is checked against the coupler type's schema (1..1024).
+    const buffer = screen.getByLabelText(/^Buffer per direction/);
+    fireEvent.change(buffer, { target: { value: "0" } });
+    await act(async () => fireEvent.blur(buffer));
+    expect(store.getState().notice).toMatchObject({
+      tone: "refusal",
+      field: "parameters.queueCapacity",
+    });
+    fireEvent.change(buffer, { target: { value: "8" } });
+    await act(async () => fireEvent.blur(buffer));
+    expect(
+      store.getState().bench.devices.find((d) => d.id === "lc-floor-2")!.parameters.queueCapacity,
+    ).toBe(8);
     fireEvent.change(screen.getByLabelText("Group telegrams"), { target: { value: "block" } });
     expect(
       store.getState().bench.devices.find((d) => d.id === "lc-floor-2")!.parameters.groupTelegrams,
