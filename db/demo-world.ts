@@ -8,6 +8,7 @@ import type { Role } from "./schema";
 export const demoWorkspaces = [
   { slug: "fernhill", name: "Fernhill Training Centre" },
   { slug: "quayside-dental", name: "Quayside Dental" },
+  { slug: "wrenhallow", name: "Wrenhallow Hotel" },
 ] as const;
 
 export type DemoWorkspaceSlug = (typeof demoWorkspaces)[number]["slug"];
@@ -38,8 +39,9 @@ export const demoPeople: readonly DemoPerson[] = [
     password: "fernhill-engineer-demo",
     memberships: [
       { workspace: "fernhill", role: "engineer" },
-      // The engineer's own project lives in a second workspace.
+      // The engineer's own projects live in workspaces of their own.
       { workspace: "quayside-dental", role: "engineer" },
+      { workspace: "wrenhallow", role: "engineer" },
     ],
   },
   {

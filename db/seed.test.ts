@@ -123,17 +123,31 @@ describe("migrations and demo seed on a fresh database", () => {
         .map((row) => row.name);
     expect(benchNames(fernhill.id)).toEqual(["Fernhill Training Centre"]);
     expect(benchNames(quayside.id)).toEqual(["Quayside Dental, level 2"]);
+    const wrenhallow = findWorkspaceBySlug({ db, slug: "wrenhallow" })!;
+    expect(benchNames(wrenhallow.id)).toEqual(["Wrenhallow Hotel"]);
     // One revision per bench, holding the shipped file unchanged.
     const revisions = db.select().from(benchRevisions).all();
-    expect(revisions.map((r) => r.number)).toEqual([1, 1]);
-    expect(JSON.parse(revisions[0]!.document).format).toBe(1);
+    expect(revisions.map((r) => r.number)).toEqual([1, 1, 1]);
+    expect(JSON.parse(revisions[0]!.document).format).toBe(
+      (
+        JSON.parse(
+          readFileSync(path.join(demoContentRoot(), demoContent[0]!.benchFile), "utf8"),
+        ) as { format: number }
+      ).format,
+    );
 
     const scenarioCount = (workspaceId: string) =>
       db.select({ n: count() }).from(scenarios).where(eq(scenarios.workspaceId, workspaceId)).get()
         ?.n;
     const fernhillFiles = shippedSuite.scenarios.filter((f) => f.startsWith("fernhill/"));
     expect(scenarioCount(fernhill.id)).toBe(fernhillFiles.length);
-    expect(scenarioCount(quayside.id)).toBe(shippedSuite.scenarios.length - fernhillFiles.length);
+    const inFolder = (folder: string) =>
+      shippedSuite.scenarios.filter((f) => f.startsWith(folder)).length;
+    expect(scenarioCount(quayside.id)).toBe(inFolder("quayside/"));
+    expect(scenarioCount(wrenhallow.id)).toBe(inFolder("wrenhallow/"));
+    expect(fernhillFiles.length + inFolder("quayside/") + inFolder("wrenhallow/")).toBe(
+      shippedSuite.scenarios.length,
+    );
 
     // The suite keeps the shipped order, per workspace.
     const suite = db.select().from(suites).where(eq(suites.workspaceId, fernhill.id)).get()!;

@@ -48,6 +48,12 @@ export const demoContent: readonly {
     scenarioFolder: "quayside/",
     authorEmail: "tomas.engineer@fernhill.example",
   },
+  {
+    workspace: "wrenhallow",
+    benchFile: "benches/wrenhallow-hotel.bench.json",
+    scenarioFolder: "wrenhallow/",
+    authorEmail: "tomas.engineer@fernhill.example",
+  },
 ];
 
 /** The shipped suite file; each workspace gets the part of it that runs on its bench. */

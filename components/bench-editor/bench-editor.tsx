@@ -5,7 +5,7 @@ import { ReactFlowProvider } from "@xyflow/react";
 import { useEffect, useMemo, useRef, useState } from "react";
 import { useStore } from "zustand";
 import type { Bench } from "@/engine";
-import { checkBench } from "@/engine";
+import { benchTopology, checkBench, loadBench } from "@/engine";
 import { BenchCanvas } from "@/components/canvas/bench-canvas";
 import type { FloorPlanNodeData } from "@/components/canvas/bench-graph";
 import { dptFamilies } from "@/components/canvas/dpt-family";
@@ -13,6 +13,9 @@ import { Button } from "@/components/ui/button";
 import { Mono } from "@/components/ui/mono";
 import { AddressTable } from "./address-table";
 import { CheckList } from "./check-list";
+import { CouplerPanel } from "./coupler-panel";
+import { isCouplerDevice } from "./model/topology";
+import { TopologyPanel } from "./topology-panel";
 import { DeviceShelf } from "./device-shelf";
 import { checkImportText, type ImportCheck, type ImportIssue } from "./import-file";
 import { renameDevice, setDeviceRoom, setIndividualAddress } from "./model/devices";
@@ -64,7 +67,7 @@ export interface BenchEditorProps {
   readonly links: BenchEditorLinks;
 }
 
-type SideTab = "selection" | "addresses" | "checks" | "history";
+type SideTab = "selection" | "topology" | "addresses" | "checks" | "history";
 
 /** Floor plans are drawn at their natural size, or this when an SVG has none. */
 const DEFAULT_PLAN_SIZE = { width: 1600, height: 1000 };
@@ -135,6 +138,19 @@ function EditorLayout({
   const planInput = useRef<HTMLInputElement>(null);
   const floorPlan = useFloorPlan(planUrl);
   const findings = useMemo(() => checkBench(bench), [bench]);
+  const topology = useMemo(() => {
+    const loaded = loadBench(bench);
+    return loaded.ok ? benchTopology(loaded.value) : null;
+  }, [bench]);
+  const lineLoads = useMemo(
+    () =>
+      new Map(
+        (topology?.areas ?? []).flatMap((a) =>
+          a.lines.map((l) => [l.id, l.expectedLoadPercent] as const),
+        ),
+      ),
+    [topology],
+  );
   const dirty = bench !== savedBench;
   const summary = useMemo(
     () => (dirty ? summarizeChanges(savedBench, bench) : ""),
@@ -445,7 +461,12 @@ function EditorLayout({
               onClose={() => setViewing(null)}
             />
           ) : (
-            <BenchCanvas findings={findings} floorPlan={floorPlan} readOnly={!canEdit} />
+            <BenchCanvas
+              findings={findings}
+              floorPlan={floorPlan}
+              readOnly={!canEdit}
+              lineLoads={lineLoads}
+            />
           )}
         </div>
         <aside className="flex w-[26rem] shrink-0 flex-col border-l border-paper-line bg-paper">
@@ -457,6 +478,7 @@ function EditorLayout({
             {(
               [
                 ["selection", "Selection"],
+                ["topology", `Topology (${bench.lines.length})`],
                 ["addresses", `Addresses (${bench.groupAddresses.length})`],
                 ["checks", `Checks (${findings.length})`],
                 ["history", "History"],
@@ -492,6 +514,13 @@ function EditorLayout({
                   group objects.
                 </p>
               )
+            ) : tab === "topology" ? (
+              <TopologyPanel
+                bench={bench}
+                topology={topology}
+                readOnly={!canEdit}
+                onOpenCoupler={() => setTab("selection")}
+              />
             ) : tab === "addresses" ? (
               <AddressTable bench={bench} findings={findings} readOnly={!canEdit} />
             ) : tab === "checks" ? (
@@ -586,14 +615,23 @@ function DevicePanel({ deviceId, readOnly }: { deviceId: string; readOnly: boole
           Id <Mono>{device.id}</Mono> · type <Mono>{device.type}</Mono>
         </p>
       </section>
-      <section aria-label="Parameters">
-        <h3 className="mb-2 text-sm font-semibold">Parameters</h3>
-        <ParameterPanel device={device} readOnly={readOnly} />
-      </section>
-      <section aria-label="Group objects">
-        <h3 className="mb-2 text-sm font-semibold">Group objects</h3>
-        <ObjectList device={device} bench={bench} readOnly={readOnly} />
-      </section>
+      {isCouplerDevice(device) ? (
+        <section aria-label="Coupler">
+          <h3 className="mb-2 text-sm font-semibold">Coupler</h3>
+          <CouplerPanel bench={bench} device={device} readOnly={readOnly} />
+        </section>
+      ) : (
+        <section aria-label="Parameters">
+          <h3 className="mb-2 text-sm font-semibold">Parameters</h3>
+          <ParameterPanel device={device} readOnly={readOnly} />
+        </section>
+      )}
+      {isCouplerDevice(device) ? null : (
+        <section aria-label="Group objects">
+          <h3 className="mb-2 text-sm font-semibold">Group objects</h3>
+          <ObjectList device={device} bench={bench} readOnly={readOnly} />
+        </section>
+      )}
     </div>
   );
 }

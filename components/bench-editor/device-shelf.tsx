@@ -2,7 +2,7 @@
 
 import { useState } from "react";
 import type { Bench } from "@/engine";
-import { listDeviceTypes } from "@/engine";
+import { COUPLER_TYPE_ID, listDeviceTypes } from "@/engine";
 import { addDevice } from "./model/devices";
 import { useEditorStoreApi } from "./store/editor-context";
 import { DEVICE_TYPE_DRAG } from "@/components/canvas/node-ids";
@@ -10,12 +10,13 @@ import { DEVICE_TYPE_DRAG } from "@/components/canvas/node-ids";
 /**
  * The catalogue of device types. "Add" places a device with the next free
  * individual address on the chosen line; an item can also be dragged onto the
- * canvas to drop it where it should go.
+ * canvas to drop it where it should go. Couplers are added from the topology panel.
  */
 export function DeviceShelf({ bench }: { bench: Bench }) {
   const store = useEditorStoreApi();
   const [line, setLine] = useState(bench.lines[0]?.id ?? "");
-  const types = listDeviceTypes();
+  // A coupler takes its line's address a.l.0 and joins two lines: the topology panel adds it.
+  const types = listDeviceTypes().filter((type) => type.id !== COUPLER_TYPE_ID);
   return (
     <section aria-label="Device shelf" className="flex flex-col gap-2">
       <label className="flex flex-col gap-1 text-xs text-ink-soft">

@@ -36,11 +36,14 @@ import { AddressGroupNodeComponent } from "./address-group-node";
 import { BusBarNodeComponent } from "./bus-bar-node";
 import { DeviceNodeComponent } from "./device-node";
 import { FloorPlanNodeComponent } from "./floor-plan-node";
+import { CouplerNodeComponent } from "./coupler-node";
+import { LineRegionNodeComponent } from "./line-region-node";
 import { EdgeMarkers, LinkEdgeComponent, UnitLinkEdgeComponent } from "./link-edges";
 import {
   busBarNodeId,
   DEVICE_TYPE_DRAG,
   deviceNodeId,
+  LINE_REGION_PREFIX,
   nodeRefOf,
   objectOfHandle,
   UNIT_LINK_HANDLE,
@@ -55,6 +58,8 @@ const nodeTypes: NodeTypes = {
   busBar: BusBarNodeComponent,
   floorPlan: FloorPlanNodeComponent,
   addressGroup: AddressGroupNodeComponent,
+  lineRegion: LineRegionNodeComponent,
+  coupler: CouplerNodeComponent,
 };
 const edgeTypes: EdgeTypes = { link: LinkEdgeComponent, unitLink: UnitLinkEdgeComponent };
 
@@ -82,6 +87,8 @@ export interface BenchCanvasProps {
   readonly label?: string;
   /** Active fault ids per device id from a running simulation (live console), drawn in fault red. */
   readonly faults?: ReadonlyMap<string, readonly string[]>;
+  /** Expected load per line id (percent), shown on the line regions. */
+  readonly lineLoads?: ReadonlyMap<string, number>;
 }
 
 /**
@@ -95,6 +102,7 @@ export function BenchCanvas({
   readOnly = false,
   label = "Bench canvas",
   faults,
+  lineLoads,
 }: BenchCanvasProps) {
   const storeApi = useEditorStoreApi();
   const bench = useEditor((s) => s.bench);
@@ -120,8 +128,9 @@ export function BenchCanvas({
             ...(faults ? { faults } : {}),
             layout,
             focusWires,
+            ...(lineLoads ? { lineLoads } : {}),
           }),
-    [bench, findings, selection, floorPlan, faults, layout, focusWires],
+    [bench, findings, selection, floorPlan, faults, layout, focusWires, lineLoads],
   );
   const [nodes, setNodes] = useState<BenchNode[]>(graph.nodes);
   const [edges, setEdges] = useState<BenchEdge[]>(graph.edges);
@@ -349,8 +358,19 @@ export function BenchCanvas({
       const raw = event.dataTransfer.getData(DEVICE_TYPE_DRAG);
       if (raw === "") return;
       event.preventDefault();
-      const { type, line } = JSON.parse(raw) as { type: string; line?: string };
+      const dropped = JSON.parse(raw) as { type: string; line?: string };
       const position = flow.screenToFlowPosition({ x: event.clientX, y: event.clientY });
+      // Dropped inside a line's region: the device goes on that line, whatever the shelf says.
+      const region = nodes.find(
+        (n) =>
+          n.type === "lineRegion" &&
+          position.x >= n.position.x &&
+          position.x <= n.position.x + n.data.width &&
+          position.y >= n.position.y &&
+          position.y <= n.position.y + n.data.height,
+      );
+      const line = region === undefined ? dropped.line : region.id.slice(LINE_REGION_PREFIX.length);
+      const type = dropped.type;
       let added: string | undefined;
       storeApi.getState().apply((b) => {
         const result = addDevice(b, { type, ...(line ? { line } : {}), position });
@@ -360,7 +380,7 @@ export function BenchCanvas({
       }, "Added a device");
       if (added) storeApi.getState().selectNode({ kind: "device", id: added });
     },
-    [flow, storeApi],
+    [flow, storeApi, nodes],
   );
 
   const onReveal = useCallback((node: NodeRef) => storeApi.getState().revealNode(node), [storeApi]);
@@ -433,9 +453,11 @@ export function BenchCanvas({
                 ? "#d98b4e" // --color-copper-bright
                 : n.type === "device" && n.data.faults !== undefined
                   ? "#f07a70" // --color-fault-bright: a faulty device stays visible however far out
-                  : n.type === "addressGroup"
+                  : n.type === "addressGroup" || n.type === "lineRegion"
                     ? "transparent"
-                    : "#41464f"
+                    : n.type === "coupler"
+                      ? "#a3591f" // --color-copper
+                      : "#41464f"
             }
             maskColor="rgba(36,39,44,0.7)"
             bgColor="#2f333a"

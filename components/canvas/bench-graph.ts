@@ -1,5 +1,12 @@
 import type { Edge, Node } from "@xyflow/react";
-import { formatIndividualAddress, parseIndividualAddress } from "@/engine";
+import {
+  formatIndividualAddress,
+  formatLineAddress,
+  lineKind,
+  parseIndividualAddress,
+  upperLineAddress,
+} from "@/engine";
+import { lineHighByte } from "@/components/bench-editor/model/individual-addresses";
 import type { Bench, BenchDevice, BenchGroupAddress, Position } from "@/engine";
 import type { CheckFinding, CheckSeverity } from "@/engine";
 import { getDeviceType } from "@/engine";
@@ -10,6 +17,7 @@ import {
   BUS_HANDLE,
   busBarNodeId,
   deviceNodeId,
+  LINE_REGION_PREFIX,
   objectHandleId,
   UNIT_LINK_HANDLE,
 } from "./node-ids";
@@ -20,6 +28,15 @@ import {
   GROUP_PADDING,
   type BenchLayout,
 } from "./bench-layout";
+import { CARD_WIDTH, cardHeight } from "./bench-layout";
+import {
+  couplerPosition,
+  deviceLines,
+  drawsLineRegions,
+  isCoupler,
+  regionsAround,
+  type LineRegionBox,
+} from "./line-regions";
 
 export { BUS_BAR_HEIGHT, BUS_BAR_WIDTH, CARD_HEADER, CARD_WIDTH, ROW_HEIGHT } from "./bench-layout";
 
@@ -66,7 +83,35 @@ export type AddressGroupNodeData = {
   readonly height: number;
 };
 export type AddressGroupNode = Node<AddressGroupNodeData, "addressGroup">;
-export type BenchNode = DeviceNode | BusBarNode | FloorPlanNode | AddressGroupNode;
+export type LineRegionNodeData = {
+  /** "1.1" */
+  readonly address: string;
+  readonly name: string;
+  readonly kind: "line" | "main" | "backbone";
+  readonly deviceCount: number;
+  /** Expected load from the bench topology, when known. */
+  readonly expectedLoadPercent?: number;
+  readonly width: number;
+  readonly height: number;
+};
+export type LineRegionNode = Node<LineRegionNodeData, "lineRegion">;
+
+/** How a coupler passes telegrams (topology contract); missing settings read as the defaults. */
+export type CouplerNodeData = {
+  readonly device: BenchDevice;
+  /** "1.1.0" */
+  readonly address: string;
+  /** The line it joins its own line to ("1.0"), when the bench has it. */
+  readonly upperLine?: string;
+  readonly groupTelegrams: string;
+  readonly individualTelegrams: string;
+  /** Entries of a stored (hand-edited) filter table; undefined when generated from the links. */
+  readonly storedEntries?: number;
+  readonly severity?: CheckSeverity;
+};
+export type CouplerNode = Node<CouplerNodeData, "coupler">;
+export type BenchNode =
+  DeviceNode | BusBarNode | FloorPlanNode | AddressGroupNode | LineRegionNode | CouplerNode;
 
 export type LinkEdgeData = {
   readonly device: string;
@@ -153,6 +198,8 @@ export interface GraphOptions {
    * selected every wire is faint, so the cards and bars read first.
    */
   readonly focusWires?: boolean;
+  /** Expected load per line id (percent), from the engine's bench topology. */
+  readonly lineLoads?: ReadonlyMap<string, number>;
 }
 
 /** The canvas view of a bench: one card per device, one bus-bar per group address, one edge per link and unit link. */
@@ -256,7 +303,13 @@ export function benchGraph(
       zIndex: -1,
     });
   }
+  const regionsDrawn = drawsLineRegions(bench);
+  const couplers: BenchDevice[] = [];
   for (const device of bench.devices) {
+    if (regionsDrawn && isCoupler(device)) {
+      couplers.push(device);
+      continue;
+    }
     const type = getDeviceType(device.type);
     const objects: DeviceObjectRow[] = deviceObjects(device).map((object) => {
       const links = linksByObject.get(`${device.id}#${object.number}`) ?? [];
@@ -289,6 +342,18 @@ export function benchGraph(
       },
     });
   }
+  if (regionsDrawn)
+    nodes.push(
+      ...lineNodes(
+        bench,
+        nodes,
+        couplers,
+        layout.lines,
+        deviceSeverity,
+        selectedDevices,
+        options.lineLoads,
+      ),
+    );
   const barPositions = new Map<string, Position>();
   for (const groupAddress of bench.groupAddresses) {
     const key = groupAddressKey(groupAddress.address);
@@ -313,6 +378,106 @@ export function benchGraph(
     });
   }
   return { nodes, edges };
+}
+
+/**
+ * One region per line around its cards (drawn under them) and one badge per
+ * coupler on the top border of its line's region, the boundary with the line above.
+ */
+function lineNodes(
+  bench: Bench,
+  drawn: readonly BenchNode[],
+  couplers: readonly BenchDevice[],
+  laidOut: readonly LineRegionBox[],
+  deviceSeverity: ReadonlyMap<string, CheckSeverity>,
+  selectedDevices: ReadonlySet<string>,
+  lineLoads: ReadonlyMap<string, number> | undefined,
+): BenchNode[] {
+  const cards = drawn.flatMap((node) =>
+    node.type === "device"
+      ? [
+          {
+            id: node.data.device.id,
+            position: node.position,
+            width: CARD_WIDTH,
+            height: cardHeight(node.data.objects.length),
+          },
+        ]
+      : [],
+  );
+  const regions = regionsAround(bench, cards, laidOut);
+  const lineOf = deviceLines(bench);
+  const counts = new Map<string, number>();
+  for (const device of bench.devices) {
+    if (device.individualAddress === undefined) continue;
+    const line = lineOf.get(device.id);
+    if (line !== undefined) counts.set(line, (counts.get(line) ?? 0) + 1);
+  }
+  const lineById = new Map(bench.lines.map((l) => [l.id, l]));
+  const addresses = new Set(bench.lines.map((l) => l.address));
+  const nodes: BenchNode[] = [];
+  const regionOf = new Map<string, LineRegionBox>();
+  for (const region of regions) {
+    const line = lineById.get(region.lineId);
+    if (line === undefined) continue;
+    regionOf.set(line.id, region);
+    const load = lineLoads?.get(line.id);
+    nodes.push({
+      id: `${LINE_REGION_PREFIX}${line.id}`,
+      type: "lineRegion",
+      position: region.position,
+      data: {
+        address: line.address,
+        name: line.name,
+        kind: lineKind(lineHighByte(line)),
+        deviceCount: counts.get(line.id) ?? 0,
+        ...(load === undefined ? {} : { expectedLoadPercent: load }),
+        width: region.width,
+        height: region.height,
+      },
+      draggable: false,
+      selectable: false,
+      deletable: false,
+      focusable: false,
+      connectable: false,
+      zIndex: -2,
+    });
+  }
+  const perLine = new Map<string, number>();
+  for (const device of couplers) {
+    const lineId = lineOf.get(device.id);
+    const line = lineId === undefined ? undefined : lineById.get(lineId);
+    const region = lineId === undefined ? undefined : regionOf.get(lineId);
+    const index = perLine.get(lineId ?? "") ?? 0;
+    perLine.set(lineId ?? "", index + 1);
+    const upperRaw = line === undefined ? undefined : upperLineAddress(lineHighByte(line));
+    const upper = upperRaw === undefined ? undefined : formatLineAddress(upperRaw);
+    const parameters = device.parameters as Record<string, unknown>;
+    const table = parameters.filterTable;
+    const severity = deviceSeverity.get(device.id);
+    nodes.push({
+      id: deviceNodeId(device.id),
+      type: "coupler",
+      position:
+        device.position ?? (region === undefined ? { x: 0, y: 0 } : couplerPosition(region, index)),
+      selected: selectedDevices.has(device.id),
+      data: {
+        device,
+        address: deviceAddressLabel(device),
+        ...(upper !== undefined && addresses.has(upper) ? { upperLine: upper } : {}),
+        groupTelegrams:
+          typeof parameters.groupTelegrams === "string" ? parameters.groupTelegrams : "filter",
+        individualTelegrams:
+          typeof parameters.individualTelegrams === "string"
+            ? parameters.individualTelegrams
+            : "route",
+        ...(Array.isArray(table) ? { storedEntries: table.length } : {}),
+        ...(severity === undefined ? {} : { severity }),
+      },
+      zIndex: 1,
+    });
+  }
+  return nodes;
 }
 
 /** "1.1.10" for a device with an address, "unit link" otherwise. */

@@ -5,12 +5,14 @@ import { benchSchema, type Bench } from "@/engine";
 import { parseGroupAddress } from "@/engine";
 import { testBench } from "@/components/bench-editor/model/test-bench";
 import { moveNodes } from "@/components/bench-editor/model/move-nodes";
+import { generateBuilding } from "@/test/bench/building-generator";
 import { benchGraph, type BenchNode } from "./bench-graph";
 import {
   BUS_BAR_HEIGHT,
   BUS_BAR_WIDTH,
   CARD_WIDTH,
   cardHeight,
+  DIRECT_LAYOUT_NODES,
   layoutBench,
   layoutSignature,
 } from "./bench-layout";
@@ -151,13 +153,41 @@ describe("layoutBench (elkjs layered)", { timeout: 60_000 }, () => {
     };
     expect(layoutSignature(grown)).not.toBe(layoutSignature(bench));
     const empty = { ...bench, devices: [], groupAddresses: [], links: [] };
-    expect(
-      await layoutBench(empty, { layout: () => Promise.reject(new Error("not called")) }),
-    ).toEqual({
+    const emptyLayout = await layoutBench(empty, {
+      layout: () => Promise.reject(new Error("not called")),
+    });
+    expect(emptyLayout).toMatchObject({
       devices: new Map(),
       addresses: new Map(),
       groups: [],
       channels: new Map(),
     });
+    // Its two lines still show, as empty regions to add devices to.
+    expect(emptyLayout.lines.map((l) => l.lineId)).toHaveLength(2);
+  });
+});
+
+describe("directLayout (benches too big for ELK)", () => {
+  it("lays a 1,000-device building out without ELK: cards by line left of bars in their frames, nothing overlapping", async () => {
+    const bench = benchSchema.parse(generateBuilding({ devices: 1000 }));
+    expect(bench.devices.length + bench.groupAddresses.length).toBeGreaterThan(DIRECT_LAYOUT_NODES);
+    const layout = await layoutBench(bench, {
+      layout: () => Promise.reject(new Error("ELK is not called for a bench this size")),
+    });
+    const couplers = bench.devices.filter((d) => d.type === "coupler").length;
+    expect(layout.devices.size).toBe(bench.devices.length - couplers);
+    expect(layout.addresses.size).toBe(bench.groupAddresses.length);
+    expect(layout.lines.map((l) => l.lineId)).toHaveLength(bench.lines.length);
+    const cardsRight = Math.max(...[...layout.devices.values()].map((p) => p.x + CARD_WIDTH));
+    const barsLeft = Math.min(...[...layout.addresses.values()].map((p) => p.x));
+    expect(cardsRight).toBeLessThan(barsLeft);
+    for (const group of layout.groups)
+      for (const key of group.addresses) {
+        const p = layout.addresses.get(key)!;
+        expect(p.y).toBeGreaterThanOrEqual(group.position.y);
+        expect(p.y + BUS_BAR_HEIGHT).toBeLessThanOrEqual(group.position.y + group.height);
+      }
+    const { nodes } = benchGraph(bench, { layout });
+    expect(overlapping(rects(nodes))).toEqual([]);
   });
 });

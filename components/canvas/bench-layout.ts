@@ -3,6 +3,7 @@ import { parseGroupAddress, parseIndividualAddress } from "@/engine";
 import type { Bench, Position } from "@/engine";
 import { deviceObjects } from "@/components/bench-editor/model/device-objects";
 import { groupAddressKey } from "@/components/bench-editor/model/group-address-key";
+import { drawsLineRegions, isCoupler, stackByLine, type LineRegionBox } from "./line-regions";
 
 /** Card and bus-bar sizes in canvas units; the layout and the nodes share them. */
 export const CARD_WIDTH = 248;
@@ -43,6 +44,8 @@ export interface BenchLayout {
    * instead of all turning at the midpoint.
    */
   readonly channels: ReadonlyMap<string, number>;
+  /** Line regions top to bottom, when the bench has more than one line (or a coupler). */
+  readonly lines: readonly LineRegionBox[];
 }
 
 export const EMPTY_LAYOUT: BenchLayout = {
@@ -50,6 +53,7 @@ export const EMPTY_LAYOUT: BenchLayout = {
   addresses: new Map(),
   groups: [],
   channels: new Map(),
+  lines: [],
 };
 
 /** The subset of elkjs's API the layout needs, so tests and benchmarks can pass their own instance. */
@@ -115,6 +119,8 @@ export function benchElkGraph(bench: Bench): ElkNode {
   const ports = new Set<string>();
   const devices = bench.devices
     .map((device, index) => ({ device, index }))
+    // Couplers sit on the border between two line regions, placed after the layout.
+    .filter(({ device }) => !isCoupler(device))
     .sort(
       (a, b) =>
         deviceOrder(a.device.individualAddress) - deviceOrder(b.device.individualAddress) ||
@@ -238,15 +244,167 @@ export function positionsFromElk(laidOut: ElkNode): BenchLayout {
     const bend = edge.sections?.[0]?.bendPoints?.[0];
     if (bend !== undefined) channels.set(edge.id, bend.x);
   }
-  return { devices, addresses, groups, channels };
+  return { devices, addresses, groups, channels, lines: [] };
 }
 
-/** Lays the bench out with ELK's layered algorithm. Async: elkjs runs its own event loop. */
+/**
+ * Above this many cards and bars ELK's layered layout takes seconds (a
+ * 1,000-device building: about 8 s here, npm run bench:canvas), so the bench
+ * is laid out directly instead (directLayout): the same columns and frames,
+ * without ELK's crossing minimisation.
+ */
+export const DIRECT_LAYOUT_NODES = 1500;
+
+/** Whether the bench is laid out by ELK (one line, not too big), so a page knows to load elkjs. */
+export function needsElk(bench: Bench): boolean {
+  return (
+    !drawsLineRegions(bench) &&
+    bench.devices.length + bench.groupAddresses.length <= DIRECT_LAYOUT_NODES
+  );
+}
+
+/**
+ * Lays the bench out: ELK's layered algorithm for a bench of one line, the
+ * direct layout for a topology (its lines drawn as a tree of regions, which
+ * ELK's two columns cannot express) or a bench too big for ELK. Async: elkjs
+ * runs its own event loop.
+ */
 export async function layoutBench(bench: Bench, elk: ElkLike): Promise<BenchLayout> {
+  if (!needsElk(bench)) return directLayout(bench);
   const graph = benchElkGraph(bench);
   if ((graph.children ?? []).length === 0) return EMPTY_LAYOUT;
   return positionsFromElk(await elk.layout(graph));
 }
+
+/** The layout with its device column restacked line by line (line-regions.ts). */
+export function withLineRegions(bench: Bench, layout: BenchLayout): BenchLayout {
+  const cards = bench.devices
+    .filter((device) => layout.devices.has(device.id))
+    .map((device) => ({
+      id: device.id,
+      position: layout.devices.get(device.id)!,
+      width: CARD_WIDTH,
+      height: cardHeight(deviceObjects(device).length),
+    }));
+  const { positions, regions } = stackByLine(bench, cards);
+  return { ...layout, devices: positions, lines: regions };
+}
+
+/**
+ * The layout without ELK, for a topology or a bench too big for ELK in the
+ * time a person waits: cards by individual address, in one column or, on a
+ * bench with several lines, in a tree of line regions (stackByLine); bus-bars
+ * in a column right of them in their main/middle group frames, the frames
+ * ordered by where the cards they wire to sit (their mean y), so most wires
+ * run across rather than up and down the whole drawing, each bar's wires in a
+ * channel of their own in the gap. Linear apart from the sorts.
+ */
+export function directLayout(bench: Bench): BenchLayout {
+  const devices = new Map<string, Position>();
+  let y = 0;
+  const cards = bench.devices
+    .map((device, index) => ({ device, index }))
+    .filter(({ device }) => !isCoupler(device))
+    .sort(
+      (a, b) =>
+        deviceOrder(a.device.individualAddress) - deviceOrder(b.device.individualAddress) ||
+        a.index - b.index,
+    );
+  for (const { device } of cards) {
+    devices.set(device.id, { x: 0, y });
+    y += cardHeight(deviceObjects(device).length) + NODE_GAP;
+  }
+  const stacked = drawsLineRegions(bench)
+    ? withLineRegions(bench, { ...EMPTY_LAYOUT, devices })
+    : { ...EMPTY_LAYOUT, devices };
+
+  // Each frame's bars, by address; each frame's weight: the mean y of the cards wired to it.
+  const frames = new Map<
+    string,
+    { main: number; middle: number; keys: string[]; sumY: number; n: number }
+  >();
+  const frameOfKey = new Map<string, string>();
+  const sorted = bench.groupAddresses
+    .map((g) => ({ g, raw: parseGroupAddress(g.address) }))
+    .sort((a, b) => (a.raw.ok ? a.raw.value : -1) - (b.raw.ok ? b.raw.value : -1));
+  for (const { g } of sorted) {
+    const key = groupAddressKey(g.address);
+    if (frameOfKey.has(key)) continue;
+    const group = middleGroupOf(g.address);
+    const id = group === undefined ? "?" : `${group.main}/${group.middle}`;
+    let frame = frames.get(id);
+    if (frame === undefined) {
+      frame = {
+        main: group?.main ?? Number.NaN,
+        middle: group?.middle ?? Number.NaN,
+        keys: [],
+        sumY: 0,
+        n: 0,
+      };
+      frames.set(id, frame);
+    }
+    frame.keys.push(key);
+    frameOfKey.set(key, id);
+  }
+  for (const link of bench.links) {
+    const frame = frames.get(frameOfKey.get(groupAddressKey(link.groupAddress)) ?? "");
+    const card = stacked.devices.get(link.device);
+    if (frame === undefined || card === undefined) continue;
+    frame.sumY += card.y;
+    frame.n += 1;
+  }
+  const ordered = [...frames.entries()].sort(
+    ([, a], [, b]) => (a.n === 0 ? Infinity : a.sumY / a.n) - (b.n === 0 ? Infinity : b.sumY / b.n),
+  );
+  const addresses = new Map<string, Position>();
+  const groups: AddressGroupBox[] = [];
+  // Right of every card and region; the wires run down the gap in channels a few units apart.
+  const right = Math.max(
+    CARD_WIDTH,
+    ...stacked.lines.map((r) => r.position.x + r.width),
+    ...[...stacked.devices.values()].map((p) => p.x + CARD_WIDTH),
+  );
+  const barX = right + WIRE_GAP;
+  let top = Math.min(0, ...[...stacked.devices.values()].map((p) => p.y));
+  for (const [id, frame] of ordered) {
+    const height =
+      GROUP_PADDING.top + frame.keys.length * (BUS_BAR_HEIGHT + 12) - 12 + GROUP_PADDING.bottom;
+    frame.keys.forEach((key, i) =>
+      addresses.set(key, {
+        x: barX + GROUP_PADDING.side,
+        y: top + GROUP_PADDING.top + i * (BUS_BAR_HEIGHT + 12),
+      }),
+    );
+    groups.push({
+      id,
+      main: frame.main,
+      middle: frame.middle,
+      position: { x: barX, y: top },
+      width: BUS_BAR_WIDTH + 2 * GROUP_PADDING.side,
+      height,
+      addresses: frame.keys,
+    });
+    top += height + NODE_GAP;
+  }
+  // One channel per bus-bar (its wires merge into it anyway), spread across the gap.
+  const channels = new Map<string, number>();
+  const rank = new Map([...addresses.keys()].map((key, i) => [key, i]));
+  const lanes = Math.max(1, Math.floor((WIRE_GAP - 2 * CHANNEL_MARGIN) / CHANNEL_STEP));
+  for (const link of bench.links) {
+    const key = groupAddressKey(link.groupAddress);
+    const i = rank.get(key);
+    if (i === undefined) continue;
+    channels.set(
+      `${link.device}#${link.object}@${key}`,
+      right + CHANNEL_MARGIN + (i % lanes) * CHANNEL_STEP,
+    );
+  }
+  return { ...stacked, addresses, groups, channels };
+}
+
+/** Room between the cards and the first wire channel, and between two channels. */
+const CHANNEL_MARGIN = 16;
+const CHANNEL_STEP = 4;
 
 /**
  * When the layout runs again: when a card or bus-bar is added or removed, or
@@ -256,8 +414,9 @@ export async function layoutBench(bench: Bench, elk: ElkLike): Promise<BenchLayo
  */
 export function layoutSignature(bench: Bench): string {
   const devices = bench.devices.map(
-    (d) => `${d.id}:${d.individualAddress ?? ""}:${deviceObjects(d).length}`,
+    (d) => `${d.id}:${d.individualAddress ?? ""}:${d.line ?? ""}:${deviceObjects(d).length}`,
   );
   const addresses = bench.groupAddresses.map((g) => groupAddressKey(g.address));
-  return JSON.stringify([devices, addresses]);
+  const lines = bench.lines.map((l) => `${l.id}:${l.address}`);
+  return JSON.stringify([devices, addresses, lines]);
 }

@@ -16,6 +16,8 @@ export function objectHandleId(object: number): string {
 }
 
 export const UNIT_LINK_HANDLE = "unit";
+/** Node id prefix of a line's region: "ln:<line id>". */
+export const LINE_REGION_PREFIX = "ln:";
 export const BUS_HANDLE = "bus";
 
 export function objectOfHandle(handle: string | null | undefined): number | undefined {

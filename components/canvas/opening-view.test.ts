@@ -26,6 +26,7 @@ function tallLayout(): BenchLayout {
     ]),
     groups: [],
     channels: new Map(),
+    lines: [],
   };
 }
 

@@ -2,6 +2,7 @@ import type { Viewport } from "@xyflow/react";
 import { parseIndividualAddress } from "@/engine";
 import type { BenchNode } from "./bench-graph";
 import { BUS_BAR_HEIGHT, BUS_BAR_WIDTH, CARD_WIDTH, cardHeight } from "./bench-layout";
+import { COUPLER_HEIGHT, COUPLER_WIDTH } from "./line-regions";
 
 /**
  * The zoom range a canvas opens at: card titles are 14 px and object rows
@@ -30,7 +31,10 @@ function nodeBox(node: BenchNode): Box | undefined {
   } else if (node.type === "busBar") {
     width = BUS_BAR_WIDTH;
     height = BUS_BAR_HEIGHT;
-  } else if (node.type === "addressGroup") {
+  } else if (node.type === "coupler") {
+    width = COUPLER_WIDTH;
+    height = COUPLER_HEIGHT;
+  } else if (node.type === "addressGroup" || node.type === "lineRegion") {
     width = node.data.width;
     height = node.data.height;
   } else return undefined;

@@ -6,11 +6,17 @@ import {
   EMPTY_LAYOUT,
   layoutBench,
   layoutSignature,
+  needsElk,
   type BenchLayout,
   type ElkLike,
 } from "./bench-layout";
 
 let elk: Promise<ElkLike> | undefined;
+
+/** Stands in for elkjs where the layout does not use it (a topology, a very big bench). */
+const NO_ELK: ElkLike = {
+  layout: () => Promise.reject(new Error("this bench is laid out without elkjs")),
+};
 
 /** elkjs's bundled build, loaded on first use so pages without a canvas never download it. */
 function loadElk(): Promise<ElkLike> {
@@ -31,7 +37,7 @@ export function useBenchLayout(bench: Bench): BenchLayout | null {
   useEffect(() => {
     if (current === signature) return;
     let cancelled = false;
-    loadElk()
+    (needsElk(bench) ? loadElk() : Promise.resolve(NO_ELK))
       .then((instance) => layoutBench(bench, instance))
       .then(
         (layout) => {

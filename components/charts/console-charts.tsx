@@ -1,6 +1,6 @@
 "use client";
 
-import { useMemo, useRef } from "react";
+import { useMemo, useRef, useState } from "react";
 import { useDeferredSimState } from "@/components/console/use-deferred-sim-state";
 import { useOnScreen } from "@/components/console/use-on-screen";
 import { useSimState, useSimStore } from "@/components/sim/sim-context";
@@ -36,18 +36,39 @@ export function ConsoleCharts({
     // eslint-disable-next-line react-hooks/exhaustive-deps -- the rings are mutated in place; version says when
     [store, version],
   );
+  // A building has many lines: one chart at a time keeps the page short; "all" shows each.
+  const [lineFilter, setLineFilter] = useState("");
   const names = useMemo(
     () => Object.fromEntries((bench?.groupAddresses ?? []).map((ga) => [ga.address, ga.name])),
     [bench],
   );
   if (bench === null) return null;
   const units = bench.devices.filter((d) => d.type === "indoor-unit");
+  const shownLines =
+    lineFilter === "" ? bench.lines : bench.lines.filter((line) => line.id === lineFilter);
   return (
     <div ref={box} className="space-y-4">
       {units.map((unit) => (
         <RoomTemperatureChart key={unit.id} name={unit.name} samples={rooms[unit.id] ?? []} />
       ))}
-      {bench.lines.map((line) => (
+      {bench.lines.length > 2 ? (
+        <label className="flex items-center gap-2 text-xs text-ink-soft">
+          Bus load on
+          <select
+            className="rounded-md border border-paper-line bg-white px-2 py-1 text-sm text-ink"
+            value={lineFilter}
+            onChange={(e) => setLineFilter(e.target.value)}
+          >
+            <option value="">every line ({bench.lines.length})</option>
+            {bench.lines.map((line) => (
+              <option key={line.id} value={line.id}>
+                {lineLabels.get(line.id) ?? line.name}
+              </option>
+            ))}
+          </select>
+        </label>
+      ) : null}
+      {shownLines.map((line) => (
         <BusLoadChart
           key={line.id}
           line={line.id}

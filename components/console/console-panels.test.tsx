@@ -119,13 +119,14 @@ describe("TelegramLog rows", () => {
       within(r)
         .getAllByRole("cell")
         .map((c) => c.textContent);
-    expect(cells(rows[1]!).slice(0, 3)).toEqual([
+    expect(cells(rows[1]!).slice(0, 4)).toEqual([
       "0:00:00.001",
+      "1.1",
       "1.1.10 Lighting actuator",
       "0/0/1 Ceiling light",
     ]);
-    expect(cells(rows[2]!)[1]).toBe("1.1.250 test tool");
-    expect(cells(rows[2]!)[4]).toBe("(empty)");
+    expect(cells(rows[2]!)[2]).toBe("1.1.250 test tool");
+    expect(cells(rows[2]!)[5]).toBe("(empty)");
   });
 });
 

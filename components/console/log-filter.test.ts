@@ -59,11 +59,29 @@ describe("logRowsToCsv", () => {
     const csv = logRowsToCsv([row(2, { destinationName: 'Hall, "north"', value: "21.00 °C" })]);
     const [header, line] = csv.split("\r\n");
     expect(header).toBe(
-      "time,source,device,destination,name,service,value,priority,repeated,ack,raw",
+      "time,line,source,device,destination,name,service,value,priority,repeated,ack,raw,coupler",
     );
     expect(line).toBe(
-      '0:00:00.002,1.1.250,,1/0/1,"Hall, ""north""",GroupValue_Write,21.00 °C,low,no,ack,BC 11 FA 08 01 E1 00 81 C5',
+      '0:00:00.002,1.1,1.1.250,,1/0/1,"Hall, ""north""",GroupValue_Write,21.00 °C,low,no,ack,BC 11 FA 08 01 E1 00 81 C5,',
     );
     expect(csv.endsWith("\r\n")).toBe(true);
+  });
+});
+
+describe("line and coupler filters", () => {
+  it("keeps one line's rows, or the rows a coupler took part in", () => {
+    const ring = new LogRing(10);
+    ring.push([
+      row(1, { line: "1.0" }),
+      row(2, { line: "1.2", coupler: { id: "lc-2", action: "forward", toLine: "1.2" } }),
+      row(3, {
+        kind: "coupler",
+        line: "1.0",
+        coupler: { id: "lc-3", action: "drop", reason: "filter", toLine: "1.3" },
+      }),
+    ]);
+    expect(new FilteredLog({ ...emptyLogFilter, line: "1.0" }).update(ring)).toBe(2);
+    expect(new FilteredLog({ ...emptyLogFilter, line: "1.2" }).update(ring)).toBe(1);
+    expect(new FilteredLog({ ...emptyLogFilter, service: "coupler" }).update(ring)).toBe(2);
   });
 });

@@ -6,17 +6,32 @@ export interface LogFilter {
   /** Group or individual address, matched as a prefix ("2/0" matches 2/0/1). */
   readonly address: string;
   readonly deviceId: string;
-  /** "GroupValue_Write", "GroupValue_Read", "GroupValue_Response", "fault", or "" for all. */
+  /**
+   * "GroupValue_Write", "GroupValue_Read", "GroupValue_Response", "fault",
+   * "coupler" (what couplers passed on, held or dropped), or "" for all.
+   */
   readonly service: string;
+  /** Line address ("1.2"): telegrams on that line and coupler actions heard there; "" for all. */
+  readonly line: string;
   /** Free text in any column, case-insensitive. */
   readonly text: string;
 }
 
-export const emptyLogFilter: LogFilter = { address: "", deviceId: "", service: "", text: "" };
+export const emptyLogFilter: LogFilter = {
+  address: "",
+  deviceId: "",
+  service: "",
+  text: "",
+  line: "",
+};
 
 export function isEmptyFilter(filter: LogFilter): boolean {
   return (
-    filter.address === "" && filter.deviceId === "" && filter.service === "" && filter.text === ""
+    filter.address === "" &&
+    filter.deviceId === "" &&
+    filter.service === "" &&
+    filter.text === "" &&
+    filter.line === ""
   );
 }
 
@@ -28,10 +43,12 @@ export function logRowMatcher(filter: LogFilter): (row: LogRow) => boolean {
     if (address !== "" && !row.destination.startsWith(address) && !row.source.startsWith(address))
       return false;
     if (filter.deviceId !== "" && row.deviceId !== filter.deviceId) return false;
-    if (filter.service !== "") {
-      if (filter.service === "fault" ? row.kind !== "fault" : row.service !== filter.service)
-        return false;
-    }
+    if (filter.line !== "" && row.line !== filter.line) return false;
+    if (filter.service === "fault") {
+      if (row.kind !== "fault") return false;
+    } else if (filter.service === "coupler") {
+      if (row.coupler === undefined) return false;
+    } else if (filter.service !== "" && row.service !== filter.service) return false;
     if (text !== "") {
       const haystack =
         `${row.source} ${row.destination} ${row.destinationName} ${row.service} ${row.value} ${row.rawHex}`.toLowerCase();
@@ -43,6 +60,7 @@ export function logRowMatcher(filter: LogFilter): (row: LogRow) => boolean {
 
 const CSV_COLUMNS = [
   "time",
+  "line",
   "source",
   "device",
   "destination",
@@ -53,10 +71,20 @@ const CSV_COLUMNS = [
   "repeated",
   "ack",
   "raw",
+  "coupler",
 ] as const;
 
 function csvField(value: string): string {
   return /[",\n\r]/.test(value) ? `"${value.replace(/"/g, '""')}"` : value;
+}
+
+/** "forwarded by lc-1 onto line 1.0", "dropped by lc-1 for 1.2: filter", or "" when no coupler took part. */
+export function couplerText(row: LogRow): string {
+  const c = row.coupler;
+  if (c === undefined) return "";
+  if (c.action === "forward") return `forwarded by ${c.id} onto line ${c.toLine}`;
+  if (c.action === "hold") return `held by ${c.id} for line ${c.toLine}`;
+  return `dropped by ${c.id} for line ${c.toLine}${c.reason ? `: ${c.reason}` : ""}`;
 }
 
 /** The rows as CSV (RFC 4180 quoting), one header line, CRLF line ends. */
@@ -66,6 +94,7 @@ export function logRowsToCsv(rows: Iterable<LogRow>): string {
     lines.push(
       [
         formatVirtualTime(row.timeUs),
+        row.line,
         row.source,
         row.deviceId,
         row.destination,
@@ -76,6 +105,7 @@ export function logRowsToCsv(rows: Iterable<LogRow>): string {
         row.repeated ? "yes" : "no",
         row.ack,
         row.rawHex,
+        couplerText(row),
       ]
         .map(csvField)
         .join(","),

@@ -25,13 +25,14 @@ const LOG_REFRESH_MS = 100;
 /**
  * Every column fits a 1,110 px log (1440 px window with the navigation open)
  * without scrolling sideways, frames of up to 11 octets whole; names and
- * longer frames are cut with "…" (whole on hover), down to about 890 px (a
+ * longer frames are cut with "…" (whole on hover), down to about 960 px (a
  * 1024 px tablet with the navigation folded).
  */
 const COLUMNS =
-  "grid grid-cols-[6rem_minmax(8rem,1fr)_minmax(9rem,1.2fr)_5rem_minmax(6rem,1fr)_3.5rem_3rem_2.5rem_minmax(8rem,15rem)] gap-x-2";
+  "grid grid-cols-[6rem_3.5rem_minmax(8rem,1fr)_minmax(9rem,1.2fr)_5rem_minmax(6rem,1fr)_3.5rem_3rem_2.5rem_minmax(8rem,15rem)] gap-x-2";
 const HEADERS = [
   "Time",
+  "Line",
   "Source",
   "Destination",
   "Service",
@@ -47,6 +48,9 @@ const SERVICE_LABEL: Record<string, string> = {
   GroupValue_Read: "Read",
   GroupValue_Response: "Response",
 };
+
+/** Drops that mean something went wrong (a fault colour); filter and block drops are a coupler doing its job. */
+const FAULTY_DROPS = new Set(["queue-full", "not-acknowledged", "hop-count"]);
 
 /**
  * The telegram log: every telegram (and fault) with its time, sender and
@@ -145,7 +149,23 @@ export function TelegramLog({
           <option value="GroupValue_Read">Read</option>
           <option value="GroupValue_Response">Response</option>
           <option value="fault">Faults</option>
+          <option value="coupler">Coupler actions</option>
         </select>
+        {bench !== null && bench.lines.length > 1 ? (
+          <select
+            aria-label="Filter by line"
+            className={fieldClass}
+            value={filter.line}
+            onChange={(e) => setFilter({ ...filter, line: e.target.value })}
+          >
+            <option value="">All lines</option>
+            {bench.lines.map((line) => (
+              <option key={line.id} value={line.address}>
+                {line.address} {line.name}
+              </option>
+            ))}
+          </select>
+        ) : null}
         <input
           aria-label="Filter by text"
           placeholder="Text"
@@ -212,7 +232,8 @@ export function TelegramLog({
                   row={row}
                   index={item.index}
                   top={item.start}
-                  sender={senders.get(row.deviceId) ?? ""}
+                  sender={senderOf(row, senders)}
+                  coupler={row.coupler ? (senders.get(row.coupler.id) ?? row.coupler.id) : ""}
                 />
               );
             })}
@@ -223,11 +244,25 @@ export function TelegramLog({
   );
 }
 
-/** Device id -> name; the test tool sends with no device id. */
+/**
+ * Device id -> name (the test tool sends with no device id), and individual
+ * address -> name: a coupler's copy of a telegram keeps its original sender's
+ * address, so that is the name shown beside it.
+ */
 function senderNames(bench: BenchSummary | null): Map<string, string> {
   const names = new Map<string, string>([["", "test tool"]]);
-  for (const device of bench?.devices ?? []) names.set(device.id, device.name);
+  for (const device of bench?.devices ?? []) {
+    names.set(device.id, device.name);
+    if (device.individualAddress !== null) names.set(`@${device.individualAddress}`, device.name);
+  }
+  if (bench) names.set(`@${bench.testToolAddress}`, "test tool");
   return names;
+}
+
+function senderOf(row: LogRow, senders: ReadonlyMap<string, string>): string {
+  if (row.coupler?.action === "forward")
+    return senders.get(`@${row.source}`) ?? senders.get(row.deviceId) ?? "";
+  return senders.get(row.deviceId) ?? "";
 }
 
 /** One row; rows are immutable in the ring, so a row already on screen never re-renders. */
@@ -236,15 +271,39 @@ const LogRowView = memo(function LogRowView({
   index,
   top,
   sender,
+  coupler,
 }: {
   row: LogRow;
   index: number;
   top: number;
   sender: string;
+  /** The coupler's name when one forwarded, held or dropped the telegram; "" otherwise. */
+  coupler: string;
 }) {
-  const fault = row.kind === "fault";
-  const service = fault ? row.service : (SERVICE_LABEL[row.service] ?? row.service);
-  const source = fault ? row.source : `${row.source} ${row.tunnel ? "over KNXnet/IP" : sender}`;
+  const couplerRow = row.kind === "coupler";
+  const fault =
+    row.kind === "fault" ||
+    (couplerRow && row.coupler?.reason !== undefined && FAULTY_DROPS.has(row.coupler.reason));
+  const service =
+    row.kind === "fault"
+      ? row.service
+      : couplerRow
+        ? row.coupler?.action === "hold"
+          ? "Held"
+          : "Dropped"
+        : (SERVICE_LABEL[row.service] ?? row.service);
+  const lineNote =
+    row.coupler === undefined
+      ? ""
+      : row.coupler.action === "forward"
+        ? `passed onto line ${row.line} by ${coupler}`
+        : row.coupler.action === "hold"
+          ? `held by ${coupler} for line ${row.coupler.toLine}`
+          : `dropped by ${coupler} for line ${row.coupler.toLine}${row.coupler.reason ? `: ${row.coupler.reason}` : ""}`;
+  const source =
+    row.kind === "fault" || couplerRow
+      ? row.source
+      : `${row.source} ${row.tunnel ? "over KNXnet/IP" : sender}`;
   const destination = `${row.destination} ${row.destinationName}`;
   return (
     <div
@@ -252,18 +311,31 @@ const LogRowView = memo(function LogRowView({
       aria-rowindex={index + 2}
       data-kind={row.kind}
       data-tunnel={row.tunnel || undefined}
+      data-coupler={row.coupler?.action}
       className={cx(
         COLUMNS,
         "absolute inset-x-0 items-center px-2 font-mono text-xs whitespace-nowrap",
-        fault ? "bg-fault-soft text-fault" : "text-ink",
+        fault ? "bg-fault-soft text-fault" : couplerRow ? "bg-paper-deep text-ink" : "text-ink",
       )}
       style={{ top, height: LOG_ROW_HEIGHT_PX }}
     >
       <span role="cell" className="tabular-nums">
         {formatVirtualTime(row.timeUs)}
       </span>
+      <span role="cell" className="truncate" title={lineNote || undefined}>
+        {row.line}
+        {row.coupler ? (
+          <>
+            {" "}
+            <span aria-hidden="true" className="text-copper-deep">
+              {row.coupler.action === "forward" ? "⇅" : row.coupler.action === "hold" ? "⏸" : "⊘"}
+            </span>
+            <span className="sr-only">{lineNote}</span>
+          </>
+        ) : null}
+      </span>
       <span role="cell" className="truncate" title={source}>
-        {fault ? (
+        {row.kind === "fault" || couplerRow ? (
           <span className="font-sans">{row.source}</span>
         ) : (
           <>
@@ -282,7 +354,7 @@ const LogRowView = memo(function LogRowView({
       </span>
       <span role="cell" className="truncate font-sans">
         {/* A fault row says so in words and with a mark, not by its colour alone. */}
-        {fault ? (
+        {row.kind === "fault" ? (
           <span aria-hidden="true">{row.service.endsWith("cleared") ? "✓ " : "⚠ "}</span>
         ) : null}
         {service}

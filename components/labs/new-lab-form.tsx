@@ -15,12 +15,20 @@ export interface LabBenchChoice {
     object: number;
     groupAddress: string;
   }[];
+  /** Couplers of the bench, for a stale filter table. */
+  readonly couplers: readonly { id: string; name: string; address: string }[];
 }
 
+/** One hidden fault being written: a moved link, or an address missing from a coupler's filter table. */
 interface FaultRow {
+  kind: "relink" | "stale-filter-table";
   link: string;
   to: string;
+  coupler: string;
+  groupAddress: string;
 }
+
+const emptyRow: FaultRow = { kind: "relink", link: "", to: "", coupler: "", groupAddress: "" };
 
 const inputClass = "w-full rounded-md border border-paper-line bg-white px-2 py-1.5 text-sm";
 
@@ -44,6 +52,8 @@ export function NewLabForm({ benches }: { benches: readonly LabBenchChoice[] }) 
     setPending(true);
     setError(null);
     const hiddenFaults = faults.map((row) => {
+      if (row.kind === "stale-filter-table")
+        return { kind: row.kind, coupler: row.coupler, groupAddress: row.groupAddress };
       const [device, object, from] = row.link.split("|");
       return { kind: "relink", device, object: Number(object), from, to: row.to };
     });
@@ -140,51 +150,96 @@ export function NewLabForm({ benches }: { benches: readonly LabBenchChoice[] }) 
       <fieldset className="flex flex-col gap-2 rounded-md border border-paper-line p-3">
         <legend className="px-1 text-sm font-medium">Hidden faults (optional)</legend>
         <p className="text-xs text-ink-soft">
-          Each moves one link to another group address in every apprentice&apos;s copy. Apprentices
-          do not see this list.
+          Each moves one link to another group address, or leaves a group address out of a
+          coupler&apos;s stored filter table (a table not regenerated after a late change), in every
+          apprentice&apos;s copy. Apprentices do not see this list.
         </p>
-        {faults.map((row, index) => (
-          <div key={index} className="grid gap-2 sm:grid-cols-[2fr_1fr_auto]">
-            <select
-              aria-label={`Hidden fault ${index + 1}: link`}
-              className={inputClass}
-              value={row.link}
-              onChange={(e) =>
-                setFaults(faults.map((f, i) => (i === index ? { ...f, link: e.target.value } : f)))
-              }
-            >
-              <option value="">choose a link</option>
-              {bench?.links.map((l) => (
-                <option key={linkKey(l)} value={linkKey(l)}>
-                  {l.deviceName} object {l.object} → {l.groupAddress}
+        {faults.map((row, index) => {
+          const update = (change: Partial<FaultRow>) =>
+            setFaults(faults.map((f, i) => (i === index ? { ...f, ...change } : f)));
+          return (
+            <div key={index} className="grid gap-2 sm:grid-cols-[1fr_2fr_1fr_auto]">
+              <select
+                aria-label={`Hidden fault ${index + 1}: kind`}
+                className={inputClass}
+                value={row.kind}
+                onChange={(e) => update({ kind: e.target.value as FaultRow["kind"] })}
+              >
+                <option value="relink">move a link</option>
+                <option value="stale-filter-table" disabled={(bench?.couplers.length ?? 0) === 0}>
+                  stale filter table
                 </option>
-              ))}
-            </select>
-            <select
-              aria-label={`Hidden fault ${index + 1}: move to`}
-              className={inputClass}
-              value={row.to}
-              onChange={(e) =>
-                setFaults(faults.map((f, i) => (i === index ? { ...f, to: e.target.value } : f)))
-              }
-            >
-              <option value="">move to</option>
-              {bench?.groupAddresses.map((ga) => (
-                <option key={ga.address} value={ga.address}>
-                  {ga.address} {ga.name}
-                </option>
-              ))}
-            </select>
-            <Button
-              variant="secondary"
-              onClick={() => setFaults(faults.filter((_, i) => i !== index))}
-            >
-              Remove
-            </Button>
-          </div>
-        ))}
+              </select>
+              {row.kind === "relink" ? (
+                <>
+                  <select
+                    aria-label={`Hidden fault ${index + 1}: link`}
+                    className={inputClass}
+                    value={row.link}
+                    onChange={(e) => update({ link: e.target.value })}
+                  >
+                    <option value="">choose a link</option>
+                    {bench?.links.map((l) => (
+                      <option key={linkKey(l)} value={linkKey(l)}>
+                        {l.deviceName} object {l.object} → {l.groupAddress}
+                      </option>
+                    ))}
+                  </select>
+                  <select
+                    aria-label={`Hidden fault ${index + 1}: move to`}
+                    className={inputClass}
+                    value={row.to}
+                    onChange={(e) => update({ to: e.target.value })}
+                  >
+                    <option value="">move to</option>
+                    {bench?.groupAddresses.map((ga) => (
+                      <option key={ga.address} value={ga.address}>
+                        {ga.address} {ga.name}
+                      </option>
+                    ))}
+                  </select>
+                </>
+              ) : (
+                <>
+                  <select
+                    aria-label={`Hidden fault ${index + 1}: coupler`}
+                    className={inputClass}
+                    value={row.coupler}
+                    onChange={(e) => update({ coupler: e.target.value })}
+                  >
+                    <option value="">choose a coupler</option>
+                    {bench?.couplers.map((c) => (
+                      <option key={c.id} value={c.id}>
+                        {c.address} {c.name}
+                      </option>
+                    ))}
+                  </select>
+                  <select
+                    aria-label={`Hidden fault ${index + 1}: address left out`}
+                    className={inputClass}
+                    value={row.groupAddress}
+                    onChange={(e) => update({ groupAddress: e.target.value })}
+                  >
+                    <option value="">address left out of the table</option>
+                    {bench?.groupAddresses.map((ga) => (
+                      <option key={ga.address} value={ga.address}>
+                        {ga.address} {ga.name}
+                      </option>
+                    ))}
+                  </select>
+                </>
+              )}
+              <Button
+                variant="secondary"
+                onClick={() => setFaults(faults.filter((_, i) => i !== index))}
+              >
+                Remove
+              </Button>
+            </div>
+          );
+        })}
         <div>
-          <Button variant="secondary" onClick={() => setFaults([...faults, { link: "", to: "" }])}>
+          <Button variant="secondary" onClick={() => setFaults([...faults, { ...emptyRow }])}>
             Add hidden fault
           </Button>
         </div>

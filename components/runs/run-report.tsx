@@ -40,10 +40,13 @@ export function RunReport({
   facts,
   result,
   addresses,
+  lines = {},
 }: {
   facts: RunReportFacts;
   result: ScenarioResult | null;
   addresses: Readonly<Record<number, AddressInfo>>;
+  /** Line address by line id, to name each telegram's line on a bench with several. */
+  lines?: Readonly<Record<string, string>>;
 }) {
   return (
     <article className="flex flex-col gap-6" aria-label="Run report">
@@ -130,6 +133,7 @@ export function RunReport({
                     <TraceView
                       trace={step.trace}
                       addresses={addresses}
+                      lines={lines}
                       caption={`Telegrams behind step ${step.index + 1}`}
                     />
                   </div>

@@ -32,22 +32,27 @@ function decoded(payloadHex: string, info: AddressInfo | undefined): string {
 
 /**
  * The trace slice behind a failed step: every telegram on the line as a row
- * (time, sender, destination with its name, service, decoded value, raw hex),
- * then what devices did, in the engine's own words.
+ * (time, sender, destination with its name, service, decoded value, raw hex;
+ * on a bench with several lines, the line it was on first), then what devices
+ * and couplers did, in the engine's own words.
  */
 export function TraceView({
   trace,
   addresses,
   caption,
+  lines = {},
 }: {
   trace: readonly TraceEvent[];
   addresses: Readonly<Record<number, AddressInfo>>;
   caption: string;
+  /** Line address ("1.2") by line id, to name the line of each telegram. */
+  lines?: Readonly<Record<string, string>>;
 }) {
   const telegrams = trace.filter(
     (event): event is Extract<TraceEvent, { kind: "telegram.sent" }> =>
       event.kind === "telegram.sent",
   );
+  const severalLines = Object.keys(lines).length > 1;
   const others = trace.filter((event) => !event.kind.startsWith("telegram."));
   return (
     <div className="flex flex-col gap-2">
@@ -56,6 +61,7 @@ export function TraceView({
         <thead>
           <tr className="border-b border-paper-line text-ink-soft">
             <th className="py-1 pr-3 font-medium">time</th>
+            {severalLines ? <th className="py-1 pr-3 font-medium">line</th> : null}
             <th className="py-1 pr-3 font-medium">from</th>
             <th className="py-1 pr-3 font-medium">to</th>
             <th className="py-1 pr-3 font-medium">service</th>
@@ -66,7 +72,7 @@ export function TraceView({
         <tbody>
           {telegrams.length === 0 ? (
             <tr>
-              <td colSpan={6} className="py-1 text-ink-soft">
+              <td colSpan={severalLines ? 7 : 6} className="py-1 text-ink-soft">
                 No telegram on the line in this window.
               </td>
             </tr>
@@ -78,12 +84,21 @@ export function TraceView({
                   <td className="py-1 pr-3">
                     <Mono>{formatVirtualTime(event.timeUs)}</Mono>
                   </td>
+                  {severalLines ? (
+                    <td className="py-1 pr-3">
+                      <Mono>{lines[event.line] ?? event.line}</Mono>
+                    </td>
+                  ) : null}
                   <td className="py-1 pr-3">
                     <Mono>{formatIndividualAddress(event.source)}</Mono>{" "}
                     <span className="text-ink-soft">{event.deviceId ?? "test tool"}</span>
                   </td>
                   <td className="py-1 pr-3">
-                    <Mono>{formatGroupAddress(event.destination)}</Mono>{" "}
+                    <Mono>
+                      {event.individual
+                        ? formatIndividualAddress(event.destination)
+                        : formatGroupAddress(event.destination)}
+                    </Mono>{" "}
                     <span className="text-ink-soft">{info?.name ?? ""}</span>
                   </td>
                   <td className="py-1 pr-3">
@@ -118,6 +133,17 @@ export function TraceView({
       ) : null}
     </div>
   );
+}
+
+/** Line address ("1.2") by line id for every line of a bench document. */
+export function linesOfBench(bench: unknown): Record<string, string> {
+  const out: Record<string, string> = {};
+  const list = (bench as { lines?: unknown } | null)?.lines;
+  if (!Array.isArray(list)) return out;
+  for (const entry of list as { id?: unknown; address?: unknown }[])
+    if (typeof entry.id === "string" && typeof entry.address === "string")
+      out[entry.id] = entry.address;
+  return out;
 }
 
 /** Decoding information for every group address of a bench document (raw address -> name, DPT). */

@@ -16,15 +16,16 @@ const filesIn = (folder: string, suffix: string) =>
     .map((f) => join(scenariosDir, folder, f));
 
 const benchFiles = filesIn("benches", ".bench.json");
-const scenarioFiles = ["fernhill", "quayside"].flatMap((folder) =>
+const scenarioFiles = ["fernhill", "quayside", "wrenhallow"].flatMap((folder) =>
   filesIn(folder, ".scenario.json"),
 );
 
 describe("shipped demo content", () => {
-  it("ships the two demo benches and at least 12 scenarios", () => {
+  it("ships the three demo benches and at least 12 scenarios", () => {
     expect(benchFiles.map((f) => (json(f) as { name: string }).name).sort()).toEqual([
       "Fernhill Training Centre",
       "Quayside Dental, level 2",
+      "Wrenhallow Hotel",
     ]);
     expect(scenarioFiles.length).toBeGreaterThanOrEqual(12);
   });

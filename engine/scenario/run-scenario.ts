@@ -624,7 +624,9 @@ function expectBusLoad(
     }
   }
   const slice = run.addressSlice(undefined, fromUs, toUs);
-  const actual = `${worstPercent.toFixed(1)} % on line ${worstLine}`;
+  const worst = run.bench.lines.find((l) => l.id === worstLine);
+  // Named as the step names lines: by address ("1.3"), the bench's id beside it.
+  const actual = `${worstPercent.toFixed(1)} % on line ${worst === undefined ? worstLine : `${formatLineAddress(worst.lineAddress)} (${worst.id})`}`;
   if (worstPercent < step.belowPercent) return pass(slice);
   return fail(
     `bus load below ${step.belowPercent} %${step.line === undefined ? "" : ` on line ${step.line}`} over ${step.over}`,

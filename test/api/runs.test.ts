@@ -328,6 +328,7 @@ describe("server runs and the CLI", () => {
     for (const [slug, email] of [
       ["fernhill", qa],
       ["quayside-dental", engineer],
+      ["wrenhallow", engineer],
     ] as const) {
       const cookie = await cookieFor(email, slug);
       const response = await startRun(

@@ -74,6 +74,7 @@ describe("live console layout, keyboard and accessibility in headless Chromium",
     const headers = await log().getByRole("columnheader").allInnerTexts();
     expect(headers).toEqual([
       "Time",
+      "Line",
       "Source",
       "Destination",
       "Service",
@@ -87,7 +88,7 @@ describe("live console layout, keyboard and accessibility in headless Chromium",
     const layout = await log().evaluate((table) => {
       const row = [...table.querySelectorAll("[role=rowgroup] [role=row]")].find(
         (r) =>
-          (r.querySelectorAll("[role=cell]")[3] as HTMLElement | undefined)?.innerText === "Write",
+          (r.querySelectorAll("[role=cell]")[4] as HTMLElement | undefined)?.innerText === "Write",
       )!;
       const box = table.getBoundingClientRect();
       return {
@@ -105,10 +106,13 @@ describe("live console layout, keyboard and accessibility in headless Chromium",
     });
     expect(layout.tableFits).toBe(true);
     expect(layout.pageFits).toBe(true);
-    expect(layout.cells).toHaveLength(9);
+    expect(layout.cells).toHaveLength(10);
     for (const cell of layout.cells) expect(cell.inside).toBe(true);
-    const [time, source, destination, service, value, priority, repeat, ack, raw] = layout.cells;
+    const [time, line, source, destination, service, value, priority, repeat, ack, raw] =
+      layout.cells;
     expect(time!.text).toMatch(/^\d+:\d{2}:\d{2}\.\d{3}$/);
+    // The line it was on, by address (the lab bench has one line, 1.1).
+    expect(line!.text).toBe("1.1");
     // Sender and destination with their names, e.g. "1.1.31 Room temperature sensor".
     expect(source!.text).toMatch(/^\d+\.\d+\.\d+ \S/);
     expect(destination!.text).toMatch(/^\d+\/\d+\/\d+ \S/);

@@ -27,7 +27,7 @@ function labBenches(who: Who): LabBenchChoice[] {
       const revision = latestRevision({ benchId: bench.id });
       let document: {
         groupAddresses?: { address: string; name: string; dpt: string }[];
-        devices?: { id: string; name: string }[];
+        devices?: { id: string; name: string; type?: string; individualAddress?: string }[];
         links?: { device: string; object: number; groupAddress: string }[];
       } = {};
       try {
@@ -51,6 +51,9 @@ function labBenches(who: Who): LabBenchChoice[] {
           ...l,
           deviceName: names.get(l.device) ?? l.device,
         })),
+        couplers: (document.devices ?? [])
+          .filter((d) => d.type === "coupler")
+          .map((d) => ({ id: d.id, name: d.name, address: d.individualAddress ?? "" })),
       };
     });
 }

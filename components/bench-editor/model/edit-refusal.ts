@@ -23,7 +23,10 @@ export interface EditRefusal {
     | "edit.parameters-invalid"
     | "edit.name-empty"
     | "edit.unit-link-invalid"
-    | "edit.room-unknown";
+    | "edit.room-unknown"
+    | "edit.line-invalid"
+    | "edit.line-exists"
+    | "edit.coupler-invalid";
   readonly message: string;
   /** Field at fault, e.g. "parameters.fanLevels", "individualAddress", "address". */
   readonly field?: string;

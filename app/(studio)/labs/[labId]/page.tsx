@@ -59,7 +59,9 @@ export default async function LabPage({ params }: { params: Promise<{ labId: str
                   ? `${fault.device} object ${fault.object}: ${fault.from} moved to ${fault.to}`
                   : fault.kind === "unlink"
                     ? `${fault.device} object ${fault.object}: link to ${fault.groupAddress} removed`
-                    : `${fault.device}: ${fault.parameter} set to ${JSON.stringify(fault.value)}`}
+                    : fault.kind === "stale-filter-table"
+                      ? `${fault.coupler}: ${fault.groupAddress} left out of its filter table`
+                      : `${fault.device}: ${fault.parameter} set to ${JSON.stringify(fault.value)}`}
               </li>
             ))}
           </ul>

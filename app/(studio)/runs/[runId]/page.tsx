@@ -11,7 +11,7 @@ import { EmailReportForm } from "@/components/runs/email-report-form";
 import { PrintButton } from "@/components/runs/print-button";
 import { RunReport } from "@/components/runs/run-report";
 import { SuiteRunView } from "@/components/runs/suite-run-view";
-import { addressesOfBench } from "@/components/runs/trace-view";
+import { addressesOfBench, linesOfBench } from "@/components/runs/trace-view";
 import { SimulatorCaution } from "@/components/runs/simulator-caution";
 import { PrintStyles } from "../print-styles";
 
@@ -81,6 +81,7 @@ export default async function RunPage({ params }: { params: Promise<{ runId: str
           }}
           result={parseStoredResult(run.results)}
           addresses={addressesOfBench(benchDocument(revision?.revision.document))}
+          lines={linesOfBench(benchDocument(revision?.revision.document))}
         />
         <div data-print="hide" className="rounded-lg border border-paper-line p-4">
           <EmailReportForm runId={run.id} />
