@@ -122,6 +122,10 @@ export type { LoadedDevice } from "./bench";
 export { loadBench } from "./bench";
 /** Brings a bench document of an older format to the current one. */
 export { migrateBench } from "./bench";
+/** Zod schema of one bench room (id, name, optional start and outdoor °C, heat capacity kJ/K, envelope loss W/K); its messages name the field's range and unit. */
+export { benchRoomSchema, type BenchRoom } from "./bench";
+/** What a bench room's left-out thermal fields default to: start and outdoor °C, heat capacity kJ/K, envelope loss W/K. */
+export { BENCH_ROOM_DEFAULTS } from "./bench";
 
 // ---------------------------------------------------------------- topology
 

@@ -23,7 +23,8 @@ export interface EditRefusal {
     | "edit.parameters-invalid"
     | "edit.name-empty"
     | "edit.unit-link-invalid"
-    | "edit.room-unknown";
+    | "edit.room-unknown"
+    | "edit.room-invalid";
   readonly message: string;
   /** Field at fault, e.g. "parameters.fanLevels", "individualAddress", "address". */
   readonly field?: string;
