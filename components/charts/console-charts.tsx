@@ -11,7 +11,7 @@ import { RoomTemperatureChart } from "./room-temperature-chart";
 const CHART_REFRESH_MS = 1000;
 
 /**
- * The console's charts, fed from the store: rooms per indoor unit, bus load
+ * The console's charts, fed from the store: rooms (a bench room, or a unit in no room), bus load
  * per line, rates per address. Each chart works out its data only when its
  * samples changed, and draws a few hundred points at most.
  */
@@ -22,6 +22,7 @@ export function ConsoleCharts({
   lineLabels: ReadonlyMap<string, string>;
 }) {
   const bench = useSimState((s) => s.bench);
+  const document = useSimState((s) => s.benchDocument);
   // Charts are the heaviest thing on the page: redraw them once a second, not per batch,
   // and as interruptible transitions so a press is never stuck behind a redraw.
   // Charts scrolled out of view do not redraw at all.
@@ -40,12 +41,26 @@ export function ConsoleCharts({
     () => Object.fromEntries((bench?.groupAddresses ?? []).map((ga) => [ga.address, ga.name])),
     [bench],
   );
+  const unitNames = useMemo(
+    () => new Map((bench?.devices ?? []).map((d) => [d.id, d.name])),
+    [bench],
+  );
   if (bench === null) return null;
-  const units = bench.devices.filter((d) => d.type === "indoor-unit");
+  // One chart per bench room, then one per unit in no room: which devices are units is known
+  // from the samples the session sends (the device types' own hook), never from a type name.
+  const series = [
+    ...(document?.rooms ?? []).map((room) => ({ key: `room:${room.id}`, name: room.name })),
+    ...bench.devices.map((d) => ({ key: `unit:${d.id}`, name: d.name })),
+  ].filter((s) => rooms[s.key] !== undefined);
   return (
     <div ref={box} className="space-y-4">
-      {units.map((unit) => (
-        <RoomTemperatureChart key={unit.id} name={unit.name} samples={rooms[unit.id] ?? []} />
+      {series.map((s) => (
+        <RoomTemperatureChart
+          key={s.key}
+          name={s.name}
+          samples={rooms[s.key]!}
+          unitNames={unitNames}
+        />
       ))}
       {bench.lines.map((line) => (
         <BusLoadChart

@@ -85,7 +85,7 @@ describe("saving a bench with rooms", () => {
     ],
     [
       "a heat capacity that is not a number",
-      (d: Document) => (d.rooms![0]!.heatCapacityKJPerK = "600"),
+      (d: Document) => ((d.rooms![0] as Record<string, unknown>).heatCapacityKJPerK = "600"),
       "document.rooms[0].heatCapacityKJPerK",
       /number in kJ\/K/,
     ],
