@@ -38,24 +38,25 @@ describe("bench rooms in headless Chromium", () => {
 
     await page.getByRole("tab", { name: /^Rooms/ }).click();
     await page.getByRole("note", { name: "Caution" }).waitFor();
-    await page.getByRole("button", { name: "Add room" }).click();
+    await page.getByRole("button", { name: "Add room", exact: true }).click();
     const name = page.getByLabel(/^Room name/);
     await name.fill("Meeting room");
     await name.press("Enter");
-    const capacity = page.getByLabel("Heat capacity (kJ/K)");
+    const room = page.getByRole("region", { name: "Room Meeting room" });
+    const capacity = room.getByLabel("Heat capacity (kJ/K)");
     await capacity.fill("0");
     await capacity.press("Enter");
     await expect
-      .poll(() => page.getByRole("alert").first().innerText())
+      .poll(() => room.getByRole("alert").innerText())
       .toBe("the heat capacity is 10 to 100000 kJ/K");
     await capacity.fill("900");
     await capacity.press("Enter");
-    await expect.poll(() => page.getByRole("alert").count()).toBe(0);
+    await expect.poll(() => room.getByRole("alert").count()).toBe(0);
 
     // The device the shelf just added is selected; its panel puts it in the room.
     await page.getByRole("tab", { name: "Selection" }).click();
     await page
-      .getByRole("region", { name: "Device" })
+      .getByRole("region", { name: "Device", exact: true })
       .getByRole("combobox")
       .selectOption({ label: "Meeting room" });
     await page.getByRole("tab", { name: /^Rooms/ }).click();
