@@ -89,7 +89,7 @@ function roomNumber(min: number, max: number, what: string, unit: string) {
  */
 export const benchRoomSchema = z.object({
   id: entityIdSchema,
-  name: z.string().min(1),
+  name: z.string().regex(/\S/, "a room needs a name"),
   /** Room temperature at the start of a run, °C. */
   initialC: roomNumber(-30, 50, "the start temperature", "°C").optional(),
   /** Outdoor temperature the envelope loses heat to, °C. */

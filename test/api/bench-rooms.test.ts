@@ -90,6 +90,12 @@ describe("saving a bench with rooms", () => {
       /number in kJ\/K/,
     ],
     [
+      "a room with a blank name",
+      (d: Document) => (d.rooms![0]!.name = "  "),
+      "document.rooms[0].name",
+      /a room needs a name/,
+    ],
+    [
       "a room id that is not an id",
       (d: Document) => (d.rooms![0]!.id = "Lab Room"),
       "document.rooms[0].id",
