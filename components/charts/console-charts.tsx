@@ -3,6 +3,7 @@
 import { useMemo, useRef } from "react";
 import { useDeferredSimState } from "@/components/console/use-deferred-sim-state";
 import { useOnScreen } from "@/components/console/use-on-screen";
+import { roomSeriesKey } from "@/components/sim/chart-samples";
 import { useSimState, useSimStore } from "@/components/sim/sim-context";
 import { AddressRateChart } from "./address-rate-chart";
 import { BusLoadChart } from "./bus-load-chart";
@@ -49,8 +50,8 @@ export function ConsoleCharts({
   // One chart per bench room, then one per unit in no room: which devices are units is known
   // from the samples the session sends (the device types' own hook), never from a type name.
   const series = [
-    ...(document?.rooms ?? []).map((room) => ({ key: `room:${room.id}`, name: room.name })),
-    ...bench.devices.map((d) => ({ key: `unit:${d.id}`, name: d.name })),
+    ...(document?.rooms ?? []).map((r) => ({ key: roomSeriesKey({ roomId: r.id }), name: r.name })),
+    ...bench.devices.map((d) => ({ key: roomSeriesKey({ unitId: d.id }), name: d.name })),
   ].filter((s) => rooms[s.key] !== undefined);
   return (
     <div ref={box} className="space-y-4">

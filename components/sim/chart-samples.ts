@@ -2,7 +2,9 @@ import { SampleRing } from "./sample-ring";
 import type { AddressRateSample, BusLoadSample, RoomSample } from "./sim-protocol";
 
 /** The chart series a room sample belongs to: "room:<id>" for a bench room, "unit:<id>" for a unit's own room. */
-export function roomSeriesKey(sample: RoomSample): string {
+export function roomSeriesKey(
+  sample: { readonly roomId: string } | { readonly unitId: string },
+): string {
   return "roomId" in sample ? `room:${sample.roomId}` : `unit:${sample.unitId}`;
 }
 
