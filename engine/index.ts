@@ -122,6 +122,10 @@ export type { LoadedDevice } from "./bench";
 export { loadBench } from "./bench";
 /** Brings a bench document of an older format to the current one. */
 export { migrateBench } from "./bench";
+/** Zod schema of one bench room (id, name, optional start and outdoor °C, heat capacity kJ/K, envelope loss W/K); its messages name the field's range and unit. */
+export { benchRoomSchema, type BenchRoom } from "./bench";
+/** What a bench room's left-out thermal fields default to: start and outdoor °C, heat capacity kJ/K, envelope loss W/K. */
+export { BENCH_ROOM_DEFAULTS } from "./bench";
 
 // ---------------------------------------------------------------- topology
 
@@ -371,9 +375,14 @@ export { checkSimMessage } from "./sim/live/live-protocol";
 export type { PlaybackCommand } from "./sim/live/live-protocol";
 /** Canvas position in canvas units (not pixels); the canvas owns the scale. */
 export type { Position } from "./bench";
-/** A chart sample of one indoor unit, taken through its device type's `roomSample` hook at a whole virtual second: time in µs, room and setpoint in °C, power on or off. */
-export type { RoomSample } from "./sim/live/live-protocol";
-/** Schema of a `RoomSample`; a batch carries only the newest sample per unit. */
+/** A room chart sample at a whole virtual second (time in µs, °C): a bench room (`roomId`, its shared air temperature, the setpoint and power of each unit in it) or a unit in no bench room (`unitId`, its own room, setpoint, power), through the device types' `roomSample` hook. */
+export type {
+  RoomSample,
+  BenchRoomSample,
+  UnitRoomSample,
+  RoomUnitSample,
+} from "./sim/live/live-protocol";
+/** Schema of a `RoomSample`; a batch carries only the newest sample per series. */
 export { roomSampleSchema } from "./sim/live/live-protocol";
 /** What a scene dry-run found: the scene sent (1..64) to a group address at a virtual time in µs, settled for `settleUs`; the devices that changed with each change as "label: before → after", and the listeners that stayed silent. */
 export type { SceneDryRunResult } from "./sim/live/live-protocol";

@@ -24,6 +24,7 @@ import { ObjectList } from "./object-list";
 import { ParameterPanel } from "./parameter-panel";
 import { RevisionHistory, revisionQueryKeys, type RevisionEntry } from "./revision-history";
 import { RevisionView } from "./revision-view";
+import { RoomsPanel } from "./rooms-panel";
 import { EditorStoreProvider, useEditor, useEditorStoreApi } from "./store/editor-context";
 import { createEditorStore } from "./store/editor-store";
 
@@ -67,7 +68,7 @@ export interface BenchEditorProps {
   readonly links: BenchEditorLinks;
 }
 
-type SideTab = "selection" | "topology" | "addresses" | "checks" | "history";
+type SideTab = "selection" | "topology" | "addresses" | "rooms" | "checks" | "history";
 
 /** Floor plans are drawn at their natural size, or this when an SVG has none. */
 const DEFAULT_PLAN_SIZE = { width: 1600, height: 1000 };
@@ -480,6 +481,7 @@ function EditorLayout({
                 ["selection", "Selection"],
                 ["topology", `Topology (${bench.lines.length})`],
                 ["addresses", `Addresses (${bench.groupAddresses.length})`],
+                ["rooms", `Rooms (${bench.rooms?.length ?? 0})`],
                 ["checks", `Checks (${findings.length})`],
                 ["history", "History"],
               ] as const
@@ -523,6 +525,8 @@ function EditorLayout({
               />
             ) : tab === "addresses" ? (
               <AddressTable bench={bench} findings={findings} readOnly={!canEdit} />
+            ) : tab === "rooms" ? (
+              <RoomsPanel bench={bench} readOnly={!canEdit} />
             ) : tab === "checks" ? (
               <CheckList findings={findings} />
             ) : (

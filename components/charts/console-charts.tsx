@@ -3,6 +3,7 @@
 import { useMemo, useRef, useState } from "react";
 import { useDeferredSimState } from "@/components/console/use-deferred-sim-state";
 import { useOnScreen } from "@/components/console/use-on-screen";
+import { roomSeriesKey } from "@/components/sim/chart-samples";
 import { useSimState, useSimStore } from "@/components/sim/sim-context";
 import { AddressRateChart } from "./address-rate-chart";
 import { BusLoadChart } from "./bus-load-chart";
@@ -11,7 +12,7 @@ import { RoomTemperatureChart } from "./room-temperature-chart";
 const CHART_REFRESH_MS = 1000;
 
 /**
- * The console's charts, fed from the store: rooms per indoor unit, bus load
+ * The console's charts, fed from the store: rooms (a bench room, or a unit in no room), bus load
  * per line, rates per address. Each chart works out its data only when its
  * samples changed, and draws a few hundred points at most.
  */
@@ -22,6 +23,7 @@ export function ConsoleCharts({
   lineLabels: ReadonlyMap<string, string>;
 }) {
   const bench = useSimState((s) => s.bench);
+  const document = useSimState((s) => s.benchDocument);
   // Charts are the heaviest thing on the page: redraw them once a second, not per batch,
   // and as interruptible transitions so a press is never stuck behind a redraw.
   // Charts scrolled out of view do not redraw at all.
@@ -42,14 +44,28 @@ export function ConsoleCharts({
     () => Object.fromEntries((bench?.groupAddresses ?? []).map((ga) => [ga.address, ga.name])),
     [bench],
   );
+  const unitNames = useMemo(
+    () => new Map((bench?.devices ?? []).map((d) => [d.id, d.name])),
+    [bench],
+  );
   if (bench === null) return null;
-  const units = bench.devices.filter((d) => d.type === "indoor-unit");
+  // One chart per bench room, then one per unit in no room: which devices are units is known
+  // from the samples the session sends (the device types' own hook), never from a type name.
+  const series = [
+    ...(document?.rooms ?? []).map((r) => ({ key: roomSeriesKey({ roomId: r.id }), name: r.name })),
+    ...bench.devices.map((d) => ({ key: roomSeriesKey({ unitId: d.id }), name: d.name })),
+  ].filter((s) => rooms[s.key] !== undefined);
   const shownLines =
     lineFilter === "" ? bench.lines : bench.lines.filter((line) => line.id === lineFilter);
   return (
     <div ref={box} className="space-y-4">
-      {units.map((unit) => (
-        <RoomTemperatureChart key={unit.id} name={unit.name} samples={rooms[unit.id] ?? []} />
+      {series.map((s) => (
+        <RoomTemperatureChart
+          key={s.key}
+          name={s.name}
+          samples={rooms[s.key]!}
+          unitNames={unitNames}
+        />
       ))}
       {bench.lines.length > 2 ? (
         <label className="flex items-center gap-2 text-xs text-ink-soft">

@@ -19,34 +19,86 @@ const MAX_POINTS = 240;
 
 const COPPER = "#b3662c";
 const TEAL = "#1e8377";
+/** One dash pattern per unit's setpoint line, so units in one room tell apart without new colours. */
+const SETPOINT_DASHES = ["4 2", "1 3", "8 3 2 3", "12 4"];
 
-/** Room temperature against setpoint for one indoor unit over virtual time (minutes). */
+/** What a sample says each unit works toward: one entry for a unit's own room, one per unit in a bench room. */
+function unitsOf(sample: RoomSample) {
+  return "roomId" in sample
+    ? sample.units
+    : [{ unitId: sample.unitId, setpointC: sample.setpointC, power: sample.power }];
+}
+
+/**
+ * Room temperature against setpoint over virtual time (minutes): for a bench
+ * room, its air temperature from the shared room model with one setpoint line
+ * per unit in it; for a unit in no room, the unit's own room and setpoint.
+ */
 export function RoomTemperatureChart({
   name,
   samples,
+  unitNames,
 }: {
   name: string;
   samples: readonly RoomSample[];
+  /** Device name by id, for the setpoint lines. */
+  unitNames: ReadonlyMap<string, string>;
 }) {
+  const latest = samples.at(-1);
+  const isRoom = latest !== undefined && "roomId" in latest;
+  // Units named in any kept sample, in the order they first appear (a unit may join a room by a parameter change).
+  const unitIds = useMemo(() => {
+    const ids = new Set<string>();
+    for (const sample of samples) for (const unit of unitsOf(sample)) ids.add(unit.unitId);
+    return [...ids];
+  }, [samples]);
   const data = useMemo(
     () =>
-      thinSamples(samples, MAX_POINTS).map((s) => ({
-        minute: s.timeUs / 60_000_000,
-        roomC: Math.round(s.roomC * 100) / 100,
-        setpointC: s.setpointC,
-      })),
+      thinSamples(samples, MAX_POINTS).map((s) => {
+        const point: Record<string, number> = {
+          minute: s.timeUs / 60_000_000,
+          roomC: Math.round(s.roomC * 100) / 100,
+        };
+        for (const unit of unitsOf(s)) point[`setpoint:${unit.unitId}`] = unit.setpointC;
+        return point;
+      }),
     [samples],
   );
-  const latest = samples.at(-1);
+  const latestUnits = latest === undefined ? [] : unitsOf(latest);
+  const single = !isRoom ? latestUnits[0] : undefined;
   return (
     <figure
-      aria-label={`Room temperature and setpoint of ${name}`}
-      data-setpoint={latest?.setpointC}
+      aria-label={
+        isRoom
+          ? `Room temperature and setpoints in ${name}`
+          : `Room temperature and setpoint of ${name}`
+      }
+      data-setpoint={single?.setpointC}
       data-room={latest?.roomC}
     >
       <figcaption className="mb-1 text-xs text-ink-soft">
-        {name}: room {latest ? `${latest.roomC.toFixed(2)} °C` : "–"}, setpoint{" "}
-        {latest ? `${latest.setpointC.toFixed(1)} °C` : "–"}
+        {name}: room {latest ? `${latest.roomC.toFixed(2)} °C` : "–"}
+        {isRoom ? (
+          latestUnits.length === 0 ? (
+            ", no unit in this room"
+          ) : (
+            <ul className="inline">
+              {latestUnits.map((unit) => (
+                <li
+                  key={unit.unitId}
+                  className="ml-2 inline"
+                  data-unit={unit.unitId}
+                  data-setpoint={unit.setpointC}
+                >
+                  {unitNames.get(unit.unitId) ?? unit.unitId} {unit.setpointC.toFixed(1)} °C
+                  {unit.power ? "" : " (off)"}
+                </li>
+              ))}
+            </ul>
+          )
+        ) : (
+          <>, setpoint {single ? `${single.setpointC.toFixed(1)} °C` : "–"}</>
+        )}
       </figcaption>
       <ResponsiveContainer width="100%" height={180}>
         <LineChart data={data} margin={{ top: 4, right: 8, bottom: 4, left: 0 }}>
@@ -73,15 +125,18 @@ export function RoomTemperatureChart({
             dot={false}
             isAnimationActive={false}
           />
-          <Line
-            type="stepAfter"
-            dataKey="setpointC"
-            name="Setpoint"
-            stroke={TEAL}
-            dot={false}
-            strokeDasharray="4 2"
-            isAnimationActive={false}
-          />
+          {unitIds.map((unitId, i) => (
+            <Line
+              key={unitId}
+              type="stepAfter"
+              dataKey={`setpoint:${unitId}`}
+              name={isRoom ? `Setpoint ${unitNames.get(unitId) ?? unitId}` : "Setpoint"}
+              stroke={TEAL}
+              dot={false}
+              strokeDasharray={SETPOINT_DASHES[i % SETPOINT_DASHES.length]}
+              isAnimationActive={false}
+            />
+          ))}
         </LineChart>
       </ResponsiveContainer>
     </figure>

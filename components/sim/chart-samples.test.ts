@@ -35,7 +35,9 @@ describe("ChartSamples", () => {
     expect(snapshot.busLoad).toHaveLength(SECONDS_KEPT * 2);
     expect(snapshot.busLoad[0]).toMatchObject({ second: 10, line: "line-a" });
     expect(snapshot.rates).toHaveLength(SECONDS_KEPT);
-    expect(snapshot.rooms.unit).toHaveLength(Math.min(SECONDS_KEPT + 10, ROOM_SAMPLES_KEPT));
+    expect(snapshot.rooms["unit:unit"]).toHaveLength(
+      Math.min(SECONDS_KEPT + 10, ROOM_SAMPLES_KEPT),
+    );
     expect(charts.add([], [], [])).toBe(false);
   });
 });

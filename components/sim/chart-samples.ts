@@ -1,13 +1,21 @@
 import { SampleRing } from "./sample-ring";
 import type { AddressRateSample, BusLoadSample, RoomSample } from "./sim-protocol";
 
-/** Room samples kept per indoor unit. */
+/** The chart series a room sample belongs to: "room:<id>" for a bench room, "unit:<id>" for a unit's own room. */
+export function roomSeriesKey(
+  sample: { readonly roomId: string } | { readonly unitId: string },
+): string {
+  return "roomId" in sample ? `room:${sample.roomId}` : `unit:${sample.unitId}`;
+}
+
+/** Room samples kept per series (a bench room, or a unit in no room). */
 export const ROOM_SAMPLES_KEPT = 1_000;
 /** Virtual seconds of bus load and address rates kept for the charts. */
 export const SECONDS_KEPT = 300;
 
 /** What the charts draw, copied out of the rings when a chart redraws (about once a second). */
 export interface ChartSnapshot {
+  /** By series key (`roomSeriesKey`). */
   readonly rooms: Readonly<Record<string, readonly RoomSample[]>>;
   readonly busLoad: readonly BusLoadSample[];
   readonly rates: readonly AddressRateSample[];
@@ -37,10 +45,11 @@ export class ChartSamples {
     rates: readonly AddressRateSample[],
   ): boolean {
     for (const sample of rooms) {
-      let ring = this.rooms.get(sample.unitId);
+      const key = roomSeriesKey(sample);
+      let ring = this.rooms.get(key);
       if (ring === undefined) {
         ring = new SampleRing<RoomSample>(ROOM_SAMPLES_KEPT);
-        this.rooms.set(sample.unitId, ring);
+        this.rooms.set(key, ring);
       }
       ring.pushOne(sample);
     }
@@ -49,15 +58,15 @@ export class ChartSamples {
     return rooms.length + busLoad.length + rates.length > 0;
   }
 
-  /** Room samples of one unit, oldest first (a copy). */
-  roomSamples(unitId: string): RoomSample[] {
-    return this.rooms.get(unitId)?.toArray() ?? [];
+  /** Room samples of one series (see `roomSeriesKey`), oldest first (a copy). */
+  roomSamples(key: string): RoomSample[] {
+    return this.rooms.get(key)?.toArray() ?? [];
   }
 
   /** Everything kept, oldest first (copies). */
   snapshot(): ChartSnapshot {
     const rooms: Record<string, readonly RoomSample[]> = {};
-    for (const [unitId, ring] of this.rooms) rooms[unitId] = ring.toArray();
+    for (const [key, ring] of this.rooms) rooms[key] = ring.toArray();
     return { rooms, busLoad: this.busLoad.toArray(), rates: this.rates.toArray() };
   }
 }

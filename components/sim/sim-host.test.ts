@@ -123,7 +123,7 @@ describe("SimHost driven like the worker", () => {
     expect(gateway.objects.find((o) => o.number === 1)!.value).toBe("On");
     expect(gateway.transition).not.toBeNull();
     expect((h.store.getState().devices.unit!.state as { power: boolean }).power).toBe(true);
-    expect(h.store.getState().charts.roomSamples("unit").length).toBeGreaterThan(1);
+    expect(h.store.getState().charts.roomSamples("unit:unit").length).toBeGreaterThan(1);
   });
 
   it("raises the two-primaries fault when the wall controller is made primary too", () => {

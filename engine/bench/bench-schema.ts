@@ -77,21 +77,27 @@ export const benchDeviceSchema = z.object({
   room: entityIdSchema.optional(),
 });
 
+/** A finite room figure in [min, max] whose messages say what it is, its range and its unit. */
+function roomNumber(min: number, max: number, what: string, unit: string) {
+  const range = `${what} is ${min} to ${max} ${unit}`;
+  return z.number(`${what} is a number in ${unit}`).min(min, range).max(max, range);
+}
+
 /**
  * A room of the building, modelled once (engine/room): every device naming it
  * reads the same temperature. Thermal fields left out take engine/room's defaults.
  */
 export const benchRoomSchema = z.object({
   id: entityIdSchema,
-  name: z.string().min(1),
+  name: z.string().regex(/\S/, "a room needs a name"),
   /** Room temperature at the start of a run, °C. */
-  initialC: z.number().min(-30).max(50).optional(),
+  initialC: roomNumber(-30, 50, "the start temperature", "°C").optional(),
   /** Outdoor temperature the envelope loses heat to, °C. */
-  outdoorC: z.number().min(-40).max(50).optional(),
-  /** Effective heat capacity of air, furnishings and inner surfaces, kJ/K. */
-  heatCapacityKJPerK: z.number().min(10).max(100_000).optional(),
+  outdoorC: roomNumber(-40, 50, "the outdoor temperature", "°C").optional(),
+  /** Effective heat capacity of air, furnishings and inner surfaces, kJ/K (> 0: a room with none would jump). */
+  heatCapacityKJPerK: roomNumber(10, 100_000, "the heat capacity", "kJ/K").optional(),
   /** Envelope heat loss to outdoors, W/K. */
-  envelopeUaWPerK: z.number().min(1).max(10_000).optional(),
+  envelopeUaWPerK: roomNumber(1, 10_000, "the envelope loss", "W/K").optional(),
 });
 
 export const benchLinkSchema = z.object({

@@ -10,10 +10,13 @@ export {
   type BenchLink,
   type BenchUnitLink,
   type Position,
+  benchRoomSchema,
+  type BenchRoom,
 } from "./bench-schema";
 export type { BenchError } from "./bench-error";
 export { migrateBench, benchMigrations, type BenchMigration } from "./bench-migrations";
 export {
+  BENCH_ROOM_DEFAULTS,
   loadBench,
   jsonPath,
   type LoadedBench,

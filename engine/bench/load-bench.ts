@@ -496,16 +496,25 @@ function resolveBench(
   });
 }
 
+/**
+ * What a bench room's thermal fields default to when left out, in the bench's
+ * units (°C, kJ/K, W/K): engine/room's defaults (their sources are there) and a
+ * 20 °C start, a usual indoor temperature (common practice, no published source).
+ */
+export const BENCH_ROOM_DEFAULTS = {
+  initialC: 20,
+  outdoorC: DEFAULT_OUTDOOR_C,
+  heatCapacityKJPerK: DEFAULT_ROOM_HEAT_CAPACITY_J_PER_K / 1000,
+  envelopeUaWPerK: DEFAULT_ROOM_UA_W_PER_K,
+} as const;
+
 /** A bench room's physics, engine/room's defaults where the bench says nothing. */
 function roomSpecOf(room: BenchRoom): RoomSpec {
   return {
-    initialC: room.initialC ?? 20,
-    outdoorC: room.outdoorC ?? DEFAULT_OUTDOOR_C,
-    heatCapacityJPerK:
-      room.heatCapacityKJPerK === undefined
-        ? DEFAULT_ROOM_HEAT_CAPACITY_J_PER_K
-        : room.heatCapacityKJPerK * 1000,
-    envelopeUaWPerK: room.envelopeUaWPerK ?? DEFAULT_ROOM_UA_W_PER_K,
+    initialC: room.initialC ?? BENCH_ROOM_DEFAULTS.initialC,
+    outdoorC: room.outdoorC ?? BENCH_ROOM_DEFAULTS.outdoorC,
+    heatCapacityJPerK: (room.heatCapacityKJPerK ?? BENCH_ROOM_DEFAULTS.heatCapacityKJPerK) * 1000,
+    envelopeUaWPerK: room.envelopeUaWPerK ?? BENCH_ROOM_DEFAULTS.envelopeUaWPerK,
   };
 }
 

@@ -70,14 +70,16 @@ describe("live console in headless Chromium", () => {
     await expect.poll(() => status.innerText(), { timeout: 20_000 }).toContain("On");
   });
 
-  it("sends a setpoint and the chart's setpoint line moves", async () => {
+  it("sends a setpoint and the room chart's setpoint line of that unit moves", async () => {
+    // The demo bench declares its lab room, so the chart is the room's, with each unit in it.
     const chart = page.getByRole("figure", {
-      name: "Room temperature and setpoint of Front indoor unit",
+      name: "Room temperature and setpoints in Lab room 1",
     });
     await chart.waitFor();
     await write("2/0/2", "26");
     await chart.scrollIntoViewIfNeeded();
-    await expect.poll(() => chart.getAttribute("data-setpoint"), { timeout: 20_000 }).toBe("26");
+    const front = chart.locator('[data-unit="iu-front"]');
+    await expect.poll(() => front.getAttribute("data-setpoint"), { timeout: 20_000 }).toBe("26");
     await filterLog("2/1/2");
     await logRows().filter({ hasText: "26.00 °C" }).first().waitFor({ timeout: 20_000 });
   });

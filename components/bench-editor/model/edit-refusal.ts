@@ -26,7 +26,8 @@ export interface EditRefusal {
     | "edit.room-unknown"
     | "edit.line-invalid"
     | "edit.line-exists"
-    | "edit.coupler-invalid";
+    | "edit.coupler-invalid"
+    | "edit.room-invalid";
   readonly message: string;
   /** Field at fault, e.g. "parameters.fanLevels", "individualAddress", "address". */
   readonly field?: string;

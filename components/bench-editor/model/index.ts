@@ -43,3 +43,12 @@ export { joinUnitLink, joinsUnitLinks, leaveUnitLink } from "./unit-links";
 export { moveNodes, type NodeMove, type NodeRef } from "./move-nodes";
 export { copyDevices, pasteDevices, type DeviceClipboard } from "./clipboard";
 export { summarizeChanges } from "./summarize-changes";
+export {
+  addRoom,
+  deleteRoom,
+  devicesInRoom,
+  freshRoomId,
+  renameRoom,
+  setRoomThermal,
+  type RoomThermalField,
+} from "./rooms";

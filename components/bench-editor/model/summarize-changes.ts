@@ -54,6 +54,16 @@ export function summarizeChanges(before: Bench, after: Bench): string {
   const unlinked = [...beforeLinks].filter((k) => !afterLinks.has(k)).length;
   if (linked) parts.push(`linked ${plural(linked, "object")}`);
   if (unlinked) parts.push(`unlinked ${plural(unlinked, "object")}`);
+  const beforeRooms = new Map((before.rooms ?? []).map((r) => [r.id, JSON.stringify(r)]));
+  const afterRooms = new Map((after.rooms ?? []).map((r) => [r.id, JSON.stringify(r)]));
+  const roomsAdded = [...afterRooms.keys()].filter((id) => !beforeRooms.has(id)).length;
+  const roomsRemoved = [...beforeRooms.keys()].filter((id) => !afterRooms.has(id)).length;
+  const roomsEdited = [...afterRooms].filter(
+    ([id, text]) => beforeRooms.has(id) && beforeRooms.get(id) !== text,
+  ).length;
+  if (roomsAdded) parts.push(`added ${plural(roomsAdded, "room")}`);
+  if (roomsRemoved) parts.push(`removed ${plural(roomsRemoved, "room")}`);
+  if (roomsEdited) parts.push(`edited ${plural(roomsEdited, "room")}`);
   if (JSON.stringify(before.unitLinks) !== JSON.stringify(after.unitLinks))
     parts.push("rewired unit links");
   if (before.name !== after.name || before.description !== after.description)

@@ -249,13 +249,44 @@ export const activeFaultSchema = z.object({
 });
 export type ActiveFault = z.infer<typeof activeFaultSchema>;
 
-export const roomSampleSchema = z.object({
+/**
+ * Chart sample of an indoor unit's own room (a unit in no bench room, as on
+ * every bench without rooms), through its type's `roomSample` hook: the room
+ * as the unit last stepped it, °C, its setpoint, °C, and power.
+ */
+export const unitRoomSampleSchema = z.object({
   timeUs: z.number().int(),
   unitId: z.string(),
   roomC: z.number(),
   setpointC: z.number(),
   power: z.boolean(),
 });
+export type UnitRoomSample = z.infer<typeof unitRoomSampleSchema>;
+
+/** What one unit in a bench room works toward at a sample: setpoint, °C, and power. */
+export const roomUnitSampleSchema = z.object({
+  unitId: z.string(),
+  setpointC: z.number(),
+  power: z.boolean(),
+});
+export type RoomUnitSample = z.infer<typeof roomUnitSampleSchema>;
+
+/**
+ * Chart sample of one bench room (`rooms` of the bench): its air temperature
+ * read from the shared room model at the sample's time, °C, and every unit in
+ * it (devices whose type offers `roomSample`), in bench order; none for a room
+ * with only sensors in it.
+ */
+export const benchRoomSampleSchema = z.object({
+  timeUs: z.number().int(),
+  roomId: z.string(),
+  roomC: z.number(),
+  units: z.array(roomUnitSampleSchema),
+});
+export type BenchRoomSample = z.infer<typeof benchRoomSampleSchema>;
+
+/** One chart series' sample: a bench room (has `roomId`) or a unit's own room (has `unitId`). */
+export const roomSampleSchema = z.union([benchRoomSampleSchema, unitRoomSampleSchema]);
 export type RoomSample = z.infer<typeof roomSampleSchema>;
 
 /** Bus load over one whole virtual second on one line. */

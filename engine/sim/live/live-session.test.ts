@@ -53,7 +53,9 @@ describe("LiveSession in a Node process", () => {
     });
     const rooms = node.batches().flatMap((b) => (b.type === "batch" ? b.rooms : []));
     // Only the indoor unit offers a room sample; the session names no device type itself.
-    expect(new Set(rooms.map((r) => r.unitId))).toEqual(new Set(["unit"]));
+    expect(new Set(rooms.map((r) => ("unitId" in r ? r.unitId : r.roomId)))).toEqual(
+      new Set(["unit"]),
+    );
   });
 
   it("sends the bench it runs on load and again after a parameter change, so the page draws no second copy", () => {
@@ -128,7 +130,7 @@ describe("LiveSession in a Node process", () => {
       (trainingRoomBench.devices ?? []).map((d) => d.id),
     );
     expect(batch.faults).toContainEqual({ target: "light", fault: "bus.nak", by: "user" });
-    expect(batch.rooms.map((r) => r.unitId)).toEqual(["unit"]);
+    expect(batch.rooms.map((r) => ("unitId" in r ? r.unitId : r.roomId))).toEqual(["unit"]);
     // Rows still waiting go to everyone with the next tick, the late viewer included.
     node.advanceWall(50);
     expect(node.messages.length).toBeGreaterThan(before);

@@ -20,6 +20,7 @@ import {
   type LogRow,
   type ParsedSimCommand,
   type RoomSample,
+  type RoomUnitSample,
   type SceneDryRunResult,
   type SimClock,
   type SimMessage,
@@ -517,25 +518,46 @@ export class LiveSession {
     this.sampleRooms();
   }
 
-  /** The latest chart sample of every device whose type offers one (`roomSample`); only the newest is kept per batch. */
+  /** The latest chart samples (see `roomSamples`); only the newest are kept per batch. */
   private sampleRooms(): void {
     const samples = this.roomSamples(this.sim!);
     if (samples.length > 0) this.roomSample = samples;
   }
 
+  /**
+   * One sample per chart series: every bench room, its air temperature read
+   * from the shared room model with the setpoints of the units in it; and every
+   * device whose type offers a `roomSample` but sits in no bench room, as its
+   * own room. Which devices are units comes from their types' hook, never from
+   * a type name.
+   */
   private roomSamples(sim: Simulation): RoomSample[] {
+    const loaded = this.loaded!;
+    const timeUs = sim.nowUs;
     const samples: RoomSample[] = [];
-    for (const device of this.loaded!.devices) {
+    const unitsByRoom = new Map<string, RoomUnitSample[]>(loaded.rooms.map((r) => [r.id, []]));
+    for (const device of loaded.devices) {
       const sample = device.type.roomSample?.(sim.deviceState(device.id));
       if (sample === undefined) continue;
-      samples.push({
-        timeUs: sim.nowUs,
-        unitId: device.id,
-        roomC: sample.roomC,
-        setpointC: sample.setpointC,
-        power: sample.power,
-      });
+      const units = device.room === undefined ? undefined : unitsByRoom.get(device.room);
+      if (units !== undefined)
+        units.push({ unitId: device.id, setpointC: sample.setpointC, power: sample.power });
+      else
+        samples.push({
+          timeUs,
+          unitId: device.id,
+          roomC: sample.roomC,
+          setpointC: sample.setpointC,
+          power: sample.power,
+        });
     }
+    for (const room of loaded.rooms)
+      samples.push({
+        timeUs,
+        roomId: room.id,
+        roomC: sim.roomTemperatureC(room.id),
+        units: unitsByRoom.get(room.id)!,
+      });
     return samples;
   }
 
