@@ -270,7 +270,12 @@ export const busLoadSampleSchema = z.object({
 });
 export type BusLoadSample = z.infer<typeof busLoadSampleSchema>;
 
-/** First transmissions per destination address within one virtual second. */
+/**
+ * Telegrams per destination address within one virtual second, each counted once as its
+ * sender sent it: first transmissions only, and a coupler's copy on another line is not
+ * counted again. Keys are group addresses ("1/0/1") or, for an individually addressed
+ * telegram, the individual address ("1.1.10").
+ */
 export const addressRateSampleSchema = z.object({
   second: z.number().int(),
   counts: z.record(z.string(), z.number().int()),

@@ -55,4 +55,27 @@ describe("live session on several lines", () => {
     const samples = batches.flatMap((b) => b.busLoad);
     expect(new Set(samples.map((s) => s.lineAddress))).toEqual(new Set(["1.1", "1.0", "1.2"]));
   });
+
+  it("counts a telegram once in the address rates, not again for each line a coupler forwards it to", () => {
+    const messages: SimMessage[] = [];
+    const session = new LiveSession({
+      post: (m) => messages.push(parseSimMessage(m)),
+      now: () => 0,
+    });
+    session.handle({ type: "load", bench: bench() });
+    session.handle({
+      type: "input",
+      input: { kind: "set-input", device: "s", input: "send", value: 4 },
+    });
+    session.handle({ type: "jump", durationUs: 2_000_000 });
+    session.tick();
+    const batches = messages.filter(
+      (m): m is Extract<SimMessage, { type: "batch" }> => m.type === "batch",
+    );
+    // s sent once on 1.1; c11's copy on 1.0 is the same telegram, so the rate shows it once.
+    const total = batches
+      .flatMap((b) => b.rates)
+      .reduce((sum, sample) => sum + (sample.counts["1/0/1"] ?? 0), 0);
+    expect(total).toBe(1);
+  });
 });

@@ -130,6 +130,13 @@ export class LiveSession {
   private lineAddresses = new Map<string, string>();
   /** Routing counter of forwarded telegrams not yet on their line, by forwarded telegram id. */
   private readonly forwardedHopCount = new Map<number, number>();
+  /** Device ids of the bench's couplers: what they send is a copy of someone else's telegram. */
+  private couplerIds: ReadonlySet<string> = new Set();
+  /**
+   * Telegrams per destination address in the virtual second running now, as their senders
+   * sent them: first transmissions only, a coupler's copy on another line not counted again.
+   */
+  private secondCounts = new Map<string, number>();
 
   private readonly dirtyDevices = new Set<string>();
   private readonly transitions = new Map<string, { name: string; atUs: number }>();
@@ -421,6 +428,10 @@ export class LiveSession {
       loaded.value.lines.map((line) => [line.id, formatLineAddress(line.lineAddress)]),
     );
     this.forwardedHopCount.clear();
+    this.couplerIds = new Set(
+      loaded.value.devices.filter((d) => d.type.id === COUPLER_TYPE_ID).map((d) => d.id),
+    );
+    this.secondCounts = new Map();
     // Nothing is kept inside the engine: the host takes every event as it happens.
     const sim = new Simulation(loaded.value, { seed: this.seed, traceCapacity: 0 });
     this.sim = sim;
@@ -492,8 +503,6 @@ export class LiveSession {
     const sim = this.sim!;
     const loaded = this.loaded!;
     const second = endUs / SECOND_US - 1;
-    const counts: Record<string, number> = {};
-    let any = false;
     for (const line of loaded.lines) {
       const stats = sim.busStats(SECOND_US, line.id);
       this.busLoad.push({
@@ -503,13 +512,12 @@ export class LiveSession {
         loadPercent: stats.loadPercent,
         telegrams: stats.telegrams,
       });
-      for (const [raw, count] of stats.byGroupAddress) {
-        const key = formatGroupAddress(raw);
-        counts[key] = (counts[key] ?? 0) + count;
-        any = true;
-      }
     }
-    if (any) this.rates.push({ second, counts });
+    // Not the lines' own per-address counts: summed over lines they count a forwarded telegram once per line.
+    if (this.secondCounts.size > 0) {
+      this.rates.push({ second, counts: Object.fromEntries(this.secondCounts) });
+      this.secondCounts = new Map();
+    }
     if (this.busLoad.length > MAX_PENDING_SAMPLES * loaded.lines.length)
       this.busLoad.splice(0, this.busLoad.length - MAX_PENDING_SAMPLES * loaded.lines.length);
     if (this.rates.length > MAX_PENDING_SAMPLES)
@@ -550,6 +558,12 @@ export class LiveSession {
         if (event.deviceId === undefined && this.tunnelSources.has(event.source))
           row.tunnel = row.source;
         this.awaiting.set(event.telegramId, row);
+        if (event.attempt === 0 && !this.couplerIds.has(event.deviceId ?? "")) {
+          const key = event.individual
+            ? formatIndividualAddress(event.destination)
+            : formatGroupAddress(event.destination);
+          this.secondCounts.set(key, (this.secondCounts.get(key) ?? 0) + 1);
+        }
         return;
       }
       case "telegram.acked":
