@@ -79,3 +79,41 @@ describe("live session on several lines", () => {
     expect(total).toBe(1);
   });
 });
+
+describe("coupler totals in the live session", () => {
+  it("counts what each coupler forwarded, held and dropped, and sends the totals when they change", () => {
+    const messages: SimMessage[] = [];
+    const session = new LiveSession({
+      post: (m) => messages.push(parseSimMessage(m)),
+      now: () => 0,
+    });
+    session.handle({ type: "load", bench: bench() });
+    const first = messages.find((m) => m.type === "batch");
+    // Every coupler is listed from the start, at zero, so the console can show them before any traffic.
+    expect(first?.type === "batch" && first.couplers?.map((c) => [c.id, c.forwarded])).toEqual([
+      ["c11", 0],
+      ["c12", 0],
+    ]);
+    session.handle({
+      type: "input",
+      input: { kind: "set-input", device: "s", input: "send", value: 4 },
+    });
+    session.handle({ type: "jump", durationUs: 2_000_000 });
+    session.tick();
+    const latest = messages
+      .flatMap((m) => (m.type === "batch" && m.couplers ? [m.couplers] : []))
+      .at(-1)!;
+    const byId = new Map(latest.map((c) => [c.id, c]));
+    // c11 passes 1/0/1 up to the main line; c12's stale table (no 1/0/1) keeps it from r on 1.2.
+    expect(byId.get("c11")).toMatchObject({ forwarded: 1, held: 0 });
+    expect(byId.get("c12")).toMatchObject({ forwarded: 0, dropped: { filter: 1 } });
+    // A late viewer gets the same totals.
+    const late = session.currentState().find((m) => m.type === "batch");
+    expect(late?.type === "batch" && late.couplers).toEqual(latest);
+    // Nothing changed: the next batch leaves the totals out.
+    session.handle({ type: "jump", durationUs: 1_000_000 });
+    session.tick();
+    const last = messages.at(-1)!;
+    expect(last.type === "batch" && last.couplers).toBeUndefined();
+  });
+});

@@ -16,6 +16,7 @@ import {
   type ActiveFault,
   type AddressRateSample,
   type BusLoadSample,
+  type CouplerTotals,
   type DeviceSnapshot,
   type LogRow,
   type ParsedSimCommand,
@@ -137,6 +138,9 @@ export class LiveSession {
    * sent them: first transmissions only, a coupler's copy on another line not counted again.
    */
   private secondCounts = new Map<string, number>();
+  /** What each coupler forwarded, held and dropped since the run started, by coupler id. */
+  private couplerTotals = new Map<string, CouplerTotals>();
+  private couplersDirty = false;
 
   private readonly dirtyDevices = new Set<string>();
   private readonly transitions = new Map<string, { name: string; atUs: number }>();
@@ -211,6 +215,7 @@ export class LiveSession {
         rooms: this.roomSamples(sim),
         busLoad: [],
         rates: [],
+        ...(this.couplerTotals.size > 0 ? { couplers: this.couplerList() } : {}),
       },
     ];
   }
@@ -432,6 +437,24 @@ export class LiveSession {
       loaded.value.devices.filter((d) => d.type.id === COUPLER_TYPE_ID).map((d) => d.id),
     );
     this.secondCounts = new Map();
+    this.couplerTotals = new Map(
+      [...this.couplerIds].map((id) => [
+        id,
+        {
+          id,
+          forwarded: 0,
+          held: 0,
+          dropped: {
+            filter: 0,
+            blocked: 0,
+            "hop-count": 0,
+            "queue-full": 0,
+            "not-acknowledged": 0,
+          },
+        },
+      ]),
+    );
+    this.couplersDirty = this.couplerTotals.size > 0;
     // Nothing is kept inside the engine: the host takes every event as it happens.
     const sim = new Simulation(loaded.value, { seed: this.seed, traceCapacity: 0 });
     this.sim = sim;
@@ -601,10 +624,12 @@ export class LiveSession {
       }
       case "coupler.forward":
         this.forwardedHopCount.set(event.forwardedTelegramId, event.hopCount);
+        this.countCoupler(event);
         return;
       case "coupler.hold":
       case "coupler.drop":
         this.enqueue(this.couplerRow(event));
+        this.countCoupler(event);
         return;
       case "device.transition":
         this.transitions.set(event.deviceId, { name: event.transition, atUs: event.timeUs });
@@ -704,6 +729,22 @@ export class LiveSession {
     };
   }
 
+  private countCoupler(
+    event: Extract<TraceEvent, { kind: "coupler.forward" | "coupler.hold" | "coupler.drop" }>,
+  ): void {
+    const totals = this.couplerTotals.get(event.coupler);
+    if (totals === undefined) return;
+    if (event.kind === "coupler.forward") totals.forwarded++;
+    else if (event.kind === "coupler.hold") totals.held++;
+    else totals.dropped[event.reason] = (totals.dropped[event.reason] ?? 0) + 1;
+    this.couplersDirty = true;
+  }
+
+  /** Copies of every coupler's totals, in bench order (the message must not share the counters it keeps changing). */
+  private couplerList(): CouplerTotals[] {
+    return [...this.couplerTotals.values()].map((t) => ({ ...t, dropped: { ...t.dropped } }));
+  }
+
   private finish(telegramId: number, ack: Ack): void {
     const row = this.awaiting.get(telegramId);
     if (row === undefined) return;
@@ -740,12 +781,15 @@ export class LiveSession {
     this.faultsDirty = false;
     const rooms = this.roomSample ?? [];
     this.roomSample = undefined;
+    const couplers = this.couplersDirty ? this.couplerList() : undefined;
+    this.couplersDirty = false;
     const clock = this.clock();
     const clockKey = `${clock.nowUs}|${clock.running}|${clock.speed}`;
     const idle =
       rows.length === 0 &&
       devices.length === 0 &&
       faults === undefined &&
+      couplers === undefined &&
       rooms.length === 0 &&
       this.busLoad.length === 0 &&
       this.rates.length === 0 &&
@@ -763,6 +807,7 @@ export class LiveSession {
       rooms,
       busLoad: this.busLoad,
       rates: this.rates,
+      ...(couplers === undefined ? {} : { couplers }),
     };
     this.dropped = 0;
     this.busLoad = [];
