@@ -59,12 +59,23 @@ describe("logRowsToCsv", () => {
     const csv = logRowsToCsv([row(2, { destinationName: 'Hall, "north"', value: "21.00 °C" })]);
     const [header, line] = csv.split("\r\n");
     expect(header).toBe(
-      "time,line,source,device,destination,name,service,value,priority,repeated,ack,raw,coupler",
+      "time,line,source,device,destination,name,service,value,priority,repeated,ack,raw,coupler,tunnel",
     );
     expect(line).toBe(
-      '0:00:00.002,1.1,1.1.250,,1/0/1,"Hall, ""north""",GroupValue_Write,21.00 °C,low,no,ack,BC 11 FA 08 01 E1 00 81 C5,',
+      '0:00:00.002,1.1,1.1.250,,1/0/1,"Hall, ""north""",GroupValue_Write,21.00 °C,low,no,ack,BC 11 FA 08 01 E1 00 81 C5,,',
     );
     expect(csv.endsWith("\r\n")).toBe(true);
+  });
+
+  it("names the KNXnet/IP tunnel a telegram came in over, as the log marks it", () => {
+    const csv = logRowsToCsv([
+      row(1, { source: "1.1.241", tunnel: "1.1.241" }),
+      row(2, { source: "1.1.10" }),
+    ]);
+    const [header, tunnelled, local] = csv.split("\r\n");
+    const column = header!.split(",").indexOf("tunnel");
+    expect(tunnelled!.split(",")[column]).toBe("1.1.241");
+    expect(local!.split(",")[column]).toBe("");
   });
 });
 

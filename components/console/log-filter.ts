@@ -72,6 +72,8 @@ const CSV_COLUMNS = [
   "ack",
   "raw",
   "coupler",
+  // Individual address of the KNXnet/IP tunnel the telegram came in over; last, so older columns keep their place.
+  "tunnel",
 ] as const;
 
 function csvField(value: string): string {
@@ -106,6 +108,7 @@ export function logRowsToCsv(rows: Iterable<LogRow>): string {
         row.ack,
         row.rawHex,
         couplerText(row),
+        row.tunnel ?? "",
       ]
         .map(csvField)
         .join(","),
