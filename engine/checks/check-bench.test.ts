@@ -145,9 +145,12 @@ describe("checkBench", () => {
         ...lightsOk,
         links: lightsOk.links.filter((l) => !(l.device === "pb-1" && l.groupAddress === "1/1/1")),
       });
-      expect(rulesOf(b, "address.no-listener")).toEqual([
+      const findings = rulesOf(b, "address.no-listener");
+      expect(findings).toEqual([
         expect.objectContaining({ severity: "info", location: { groupAddress: "1/1/1" } }),
       ]);
+      // Basic course / knx-reference.md TP1 timing: no acknowledgement -> up to 3 repetitions.
+      expect(findings[0]!.message).toContain("each telegram goes out four times");
     });
     it("passes: both addresses have listeners", () => {
       expect(rulesOf(bench(lightsOk), "address.no-listener")).toEqual([]);
