@@ -80,6 +80,25 @@ describe("live session on several lines", () => {
   });
 });
 
+describe("address rates over several seconds", () => {
+  it("count every telegram of a flood exactly once, frames across a second's end included", () => {
+    const messages: SimMessage[] = [];
+    const session = new LiveSession({
+      post: (m) => messages.push(parseSimMessage(m)),
+      now: () => 0,
+    });
+    session.handle({ type: "load", bench: bench() });
+    // About 50 telegrams/s fit a TP1 line (knx-reference.md, TP1 timing), so 150 take about 3 s:
+    // some frames are still on the line when a second ends.
+    session.handle({ type: "flood", groupAddress: "1/0/1", count: 150, value: 1 });
+    session.handle({ type: "jump", durationUs: 10_000_000 });
+    session.tick();
+    const samples = messages.flatMap((m) => (m.type === "batch" ? m.rates : []));
+    expect(samples.length).toBeGreaterThan(2);
+    expect(samples.reduce((sum, sample) => sum + (sample.counts["1/0/1"] ?? 0), 0)).toBe(150);
+  });
+});
+
 describe("coupler totals in the live session", () => {
   it("counts what each coupler forwarded, held and dropped, and sends the totals when they change", () => {
     const messages: SimMessage[] = [];

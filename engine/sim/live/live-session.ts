@@ -134,10 +134,11 @@ export class LiveSession {
   /** Device ids of the bench's couplers: what they send is a copy of someone else's telegram. */
   private couplerIds: ReadonlySet<string> = new Set();
   /**
-   * Telegrams per destination address in the virtual second running now, as their senders
-   * sent them: first transmissions only, a coupler's copy on another line not counted again.
+   * Telegrams per destination address by the virtual second their frame started in, as their
+   * senders sent them: first transmissions only, a coupler's copy on another line not counted
+   * again. Seconds not yet sampled (a step can run past a second's end before it is sampled).
    */
-  private secondCounts = new Map<string, number>();
+  private secondCounts = new Map<number, Map<string, number>>();
   /** What each coupler forwarded, held and dropped since the run started, by coupler id. */
   private couplerTotals = new Map<string, CouplerTotals>();
   private couplersDirty = false;
@@ -536,10 +537,12 @@ export class LiveSession {
         telegrams: stats.telegrams,
       });
     }
-    // Not the lines' own per-address counts: summed over lines they count a forwarded telegram once per line.
-    if (this.secondCounts.size > 0) {
-      this.rates.push({ second, counts: Object.fromEntries(this.secondCounts) });
-      this.secondCounts = new Map();
+    // Not the lines' own per-address counts: summed over lines they count a forwarded telegram
+    // once per line (and a frame still on the line when a second ends in neither second).
+    for (const [at, counts] of this.secondCounts) {
+      if (at > second) continue;
+      this.rates.push({ second: at, counts: Object.fromEntries(counts) });
+      this.secondCounts.delete(at);
     }
     if (this.busLoad.length > MAX_PENDING_SAMPLES * loaded.lines.length)
       this.busLoad.splice(0, this.busLoad.length - MAX_PENDING_SAMPLES * loaded.lines.length);
@@ -585,7 +588,13 @@ export class LiveSession {
           const key = event.individual
             ? formatIndividualAddress(event.destination)
             : formatGroupAddress(event.destination);
-          this.secondCounts.set(key, (this.secondCounts.get(key) ?? 0) + 1);
+          const at = Math.floor(event.timeUs / SECOND_US);
+          let counts = this.secondCounts.get(at);
+          if (counts === undefined) {
+            counts = new Map();
+            this.secondCounts.set(at, counts);
+          }
+          counts.set(key, (counts.get(key) ?? 0) + 1);
         }
         return;
       }
