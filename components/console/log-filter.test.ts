@@ -67,6 +67,25 @@ describe("logRowsToCsv", () => {
     expect(csv.endsWith("\r\n")).toBe(true);
   });
 
+  it("keeps a text a spreadsheet would run as a formula as text, and negative values as they are", () => {
+    // OWASP "CSV Injection": a field starting with =, +, -, @, tab or CR is a formula to a spreadsheet;
+    // a leading apostrophe makes it text. A KNXnet/IP client can write any DPT 16 text.
+    const quoted = logRowsToCsv([row(1, { value: '=HYPERLINK("x","y")' })]);
+    expect(quoted).toContain(',"\'=HYPERLINK(""x"",""y"")",');
+    const csv = logRowsToCsv([
+      row(2, { value: "=1+1" }),
+      row(3, { value: "@SUM(A1)" }),
+      row(4, { value: "-5.00 °C" }),
+      row(5, { value: "-1+1" }),
+      row(6, { value: "+1" }),
+    ]);
+    const values = csv
+      .split("\r\n")
+      .slice(1, -1)
+      .map((line) => line.split(",")[7]);
+    expect(values).toEqual(["'=1+1", "'@SUM(A1)", "-5.00 °C", "'-1+1", "'+1"]);
+  });
+
   it("names the KNXnet/IP tunnel a telegram came in over, as the log marks it", () => {
     const csv = logRowsToCsv([
       row(1, { source: "1.1.241", tunnel: "1.1.241" }),
