@@ -307,9 +307,9 @@ export { ackSchema } from "./sim/live/live-protocol";
 export type { ActiveFault } from "./sim/live/live-protocol";
 /** Schema of an `ActiveFault` in a batch message; a batch carries the full list of active faults whenever any changed. */
 export { activeFaultSchema } from "./sim/live/live-protocol";
-/** First transmissions per destination address within one virtual second. */
+/** Telegrams per destination address within one virtual second, each counted once as its sender sent it (a coupler's copies are not counted again). */
 export type { AddressRateSample } from "./sim/live/live-protocol";
-/** First transmissions per destination address within one virtual second. */
+/** Telegrams per destination address within one virtual second, each counted once as its sender sent it (a coupler's copies are not counted again). */
 export { addressRateSampleSchema } from "./sim/live/live-protocol";
 /** One device of a bench document: catalogue type id, name, line, individual address as text ("1.1.10"; absent for a unit-link-only device), parameters checked by its type on load, flag overrides by object number, canvas position in canvas units. */
 export type { BenchDevice } from "./bench";
@@ -335,6 +335,10 @@ export type { BusLoadSample } from "./sim/live/live-protocol";
 export { busLoadSampleSchema } from "./sim/live/live-protocol";
 /** Schema of a `SimClock`: virtual time in µs, whether the session runs, and its speed. */
 export { clockSchema } from "./sim/live/live-protocol";
+/** What one coupler forwarded, held and dropped (by reason) since the live run started; a batch carries every coupler's totals when any changed. */
+export type { CouplerTotals } from "./sim/live/live-protocol";
+/** Schema of `CouplerTotals` in a batch message. */
+export { couplerTotalsSchema } from "./sim/live/live-protocol";
 /** What the inspector shows of one device, sent whenever something about it changed. */
 export type { DeviceSnapshot } from "./sim/live/live-protocol";
 /** What the inspector shows of one device, sent whenever something about it changed. */

@@ -8,6 +8,8 @@ export const CONSOLE_PANELS = [
   // A server session's KNXnet/IP endpoint (absent from a browser run).
   "endpoint",
   "bench",
+  // What each coupler forwarded, held and dropped (only on a bench with couplers).
+  "couplers",
   "charts",
   "inspector",
 ] as const;

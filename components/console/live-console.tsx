@@ -14,8 +14,10 @@ import {
   useSimStore,
 } from "@/components/sim/sim-context";
 import { Panel } from "@/components/ui/panel";
+import { COUPLER_TYPE_ID } from "@/engine";
 import { LAYOUT_BOUNDS } from "./console-layout";
 import { ControlPad } from "./control-pad";
+import { CouplersPanel } from "./couplers-panel";
 import { DockPanel } from "./dock-panel";
 import { FaultsPanel } from "./faults-panel";
 import { lineLabels } from "./line-labels";
@@ -126,6 +128,9 @@ function ConsoleWorkbench({
   const simulated = useSimState((s) => s.benchDocument);
   const lines = useMemo(() => lineLabels(document ?? simulated), [document, simulated]);
   const onServer = useLiveLink() !== null;
+  const hasCouplers = useSimState(
+    (s) => s.bench?.devices.some((d) => d.type === COUPLER_TYPE_ID) ?? false,
+  );
   const collapsed = layout.collapsed;
   const columns = {
     "--console-left": `${layout.leftWidthPx}px`,
@@ -213,6 +218,15 @@ function ConsoleWorkbench({
           >
             <LiveCanvas key={benchId} />
           </DockPanel>
+          {hasCouplers ? (
+            <DockPanel
+              title="Couplers"
+              collapsed={collapsed.couplers === true}
+              onToggle={() => toggle("couplers")}
+            >
+              <CouplersPanel />
+            </DockPanel>
+          ) : null}
           <DockPanel
             title="Charts"
             collapsed={collapsed.charts === true}

@@ -59,12 +59,42 @@ describe("logRowsToCsv", () => {
     const csv = logRowsToCsv([row(2, { destinationName: 'Hall, "north"', value: "21.00 °C" })]);
     const [header, line] = csv.split("\r\n");
     expect(header).toBe(
-      "time,line,source,device,destination,name,service,value,priority,repeated,ack,raw,coupler",
+      "time,line,source,device,destination,name,service,value,priority,repeated,ack,raw,coupler,tunnel",
     );
     expect(line).toBe(
-      '0:00:00.002,1.1,1.1.250,,1/0/1,"Hall, ""north""",GroupValue_Write,21.00 °C,low,no,ack,BC 11 FA 08 01 E1 00 81 C5,',
+      '0:00:00.002,1.1,1.1.250,,1/0/1,"Hall, ""north""",GroupValue_Write,21.00 °C,low,no,ack,BC 11 FA 08 01 E1 00 81 C5,,',
     );
     expect(csv.endsWith("\r\n")).toBe(true);
+  });
+
+  it("keeps a text a spreadsheet would run as a formula as text, and negative values as they are", () => {
+    // OWASP "CSV Injection": a field starting with =, +, -, @, tab or CR is a formula to a spreadsheet;
+    // a leading apostrophe makes it text. A KNXnet/IP client can write any DPT 16 text.
+    const quoted = logRowsToCsv([row(1, { value: '=HYPERLINK("x","y")' })]);
+    expect(quoted).toContain(',"\'=HYPERLINK(""x"",""y"")",');
+    const csv = logRowsToCsv([
+      row(2, { value: "=1+1" }),
+      row(3, { value: "@SUM(A1)" }),
+      row(4, { value: "-5.00 °C" }),
+      row(5, { value: "-1+1" }),
+      row(6, { value: "+1" }),
+    ]);
+    const values = csv
+      .split("\r\n")
+      .slice(1, -1)
+      .map((line) => line.split(",")[7]);
+    expect(values).toEqual(["'=1+1", "'@SUM(A1)", "-5.00 °C", "'-1+1", "'+1"]);
+  });
+
+  it("names the KNXnet/IP tunnel a telegram came in over, as the log marks it", () => {
+    const csv = logRowsToCsv([
+      row(1, { source: "1.1.241", tunnel: "1.1.241" }),
+      row(2, { source: "1.1.10" }),
+    ]);
+    const [header, tunnelled, local] = csv.split("\r\n");
+    const column = header!.split(",").indexOf("tunnel");
+    expect(tunnelled!.split(",")[column]).toBe("1.1.241");
+    expect(local!.split(",")[column]).toBe("");
   });
 });
 

@@ -72,9 +72,21 @@ const CSV_COLUMNS = [
   "ack",
   "raw",
   "coupler",
+  // Individual address of the KNXnet/IP tunnel the telegram came in over; last, so older columns keep their place.
+  "tunnel",
 ] as const;
 
-function csvField(value: string): string {
+/**
+ * A text a spreadsheet would run as a formula when the CSV is opened: it starts with
+ * =, +, @, a tab or a carriage return, or with - unless it is a plain signed number
+ * with an optional unit ("-5.00 °C"). Values come from outside too (a KNXnet/IP
+ * client writes any DPT 16 text), so such a field gets a leading apostrophe, which
+ * spreadsheets show as text (OWASP, "CSV Injection").
+ */
+const FORMULA_START = /^(?:[=+@\t\r]|-(?!\d+(?:\.\d+)?(?: [^=+\-@\t\r]*)?$))/;
+
+function csvField(raw: string): string {
+  const value = FORMULA_START.test(raw) ? `'${raw}` : raw;
   return /[",\n\r]/.test(value) ? `"${value.replace(/"/g, '""')}"` : value;
 }
 
@@ -106,6 +118,7 @@ export function logRowsToCsv(rows: Iterable<LogRow>): string {
         row.ack,
         row.rawHex,
         couplerText(row),
+        row.tunnel ?? "",
       ]
         .map(csvField)
         .join(","),

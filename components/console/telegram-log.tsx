@@ -7,6 +7,7 @@ import type { BenchSummary, LogRow } from "@/components/sim/sim-protocol";
 import { Button } from "@/components/ui/button";
 import { cx } from "@/components/ui/cx";
 import { formatVirtualTime } from "./format-time";
+import { FAULTY_DROP_REASONS } from "./coupler-totals";
 import {
   emptyLogFilter,
   FilteredLog,
@@ -48,9 +49,6 @@ const SERVICE_LABEL: Record<string, string> = {
   GroupValue_Read: "Read",
   GroupValue_Response: "Response",
 };
-
-/** Drops that mean something went wrong (a fault colour); filter and block drops are a coupler doing its job. */
-const FAULTY_DROPS = new Set(["queue-full", "not-acknowledged", "hop-count"]);
 
 /**
  * The telegram log: every telegram (and fault) with its time, sender and
@@ -283,7 +281,9 @@ const LogRowView = memo(function LogRowView({
   const couplerRow = row.kind === "coupler";
   const fault =
     row.kind === "fault" ||
-    (couplerRow && row.coupler?.reason !== undefined && FAULTY_DROPS.has(row.coupler.reason));
+    (couplerRow &&
+      row.coupler?.reason !== undefined &&
+      FAULTY_DROP_REASONS.has(row.coupler.reason));
   const service =
     row.kind === "fault"
       ? row.service

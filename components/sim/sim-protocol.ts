@@ -32,6 +32,8 @@ export {
   type AddressRateSample,
   clockSchema,
   type SimClock,
+  couplerTotalsSchema,
+  type CouplerTotals,
   benchSummarySchema,
   type BenchSummary,
   type BenchDeviceSummary,

@@ -5,6 +5,7 @@ import type { Bench } from "@/engine";
 import type {
   ActiveFault,
   BenchSummary,
+  CouplerTotals,
   DeviceSnapshot,
   SceneDryRunResult,
   SimClock,
@@ -53,6 +54,8 @@ export interface SimState {
   readonly batches: number;
   readonly devices: Readonly<Record<string, DeviceView>>;
   readonly faults: readonly ActiveFault[];
+  /** What each coupler forwarded, held and dropped since the run started (empty on a bench without couplers). */
+  readonly couplers: readonly CouplerTotals[];
   /** Chart samples in rings, mutated in place; watch `chartVersion`. */
   readonly charts: ChartSamples;
   /** Bumped once per batch that added chart samples: what the charts redraw on. */
@@ -86,6 +89,7 @@ function initialState(log: LogRing, charts: ChartSamples): SimState {
     batches: 0,
     devices: {},
     faults: [],
+    couplers: [],
     charts,
     chartVersion: 0,
     recording: false,
@@ -192,6 +196,7 @@ function foldBatch(
     next.devices = devices;
   }
   if (batch.faults !== undefined) next.faults = batch.faults;
+  if (batch.couplers !== undefined) next.couplers = batch.couplers;
   // Appended in place: copying the kept samples on every batch cost main-thread time at Max speed.
   if (state.charts.add(batch.rooms, batch.busLoad, batch.rates))
     next.chartVersion = state.chartVersion + 1;

@@ -555,6 +555,28 @@ export class Tp1Line {
         }
       }
     }
+    // The transmission on the line now is recorded only when its acknowledgement slot ends: count
+    // it here, in the window its frame started in, with the time it has held the line so far (the
+    // next window clips the recorded one to its own start, so nothing counts twice or is lost).
+    const current = this.current;
+    if (current !== undefined) {
+      const frameStartUs = this.currentFrameEndUs - frameDurationUs(current.octets);
+      const occupiedStartUs = frameStartUs - IDLE_US;
+      const clippedStart = occupiedStartUs < fromUs ? fromUs : occupiedStartUs;
+      if (toUs > clippedStart) occupiedUs += toUs - clippedStart;
+      const frameSoFarUs = Math.min(toUs, this.currentFrameEndUs) - Math.max(fromUs, frameStartUs);
+      if (frameSoFarUs > 0) busyUs += frameSoFarUs;
+      if (frameStartUs >= fromUs) {
+        transmissions++;
+        if (!this.currentRepeated) {
+          telegrams++;
+          const destination = current.frame.destination;
+          byGroupAddress.set(destination, (byGroupAddress.get(destination) ?? 0) + 1);
+          const key = current.sender.countKey;
+          bySender.set(key, (bySender.get(key) ?? 0) + 1);
+        }
+      }
+    }
     // A full ring has forgotten older transmissions; say so when the window reaches past the oldest kept.
     const truncated =
       this.historyCount === this.historyCapacity &&

@@ -75,7 +75,10 @@ export const addressNoSenderRule: BenchCheckRule = {
 
 /**
  * A command that nobody receives does nothing. A status address that only the
- * test tool or a visualisation reads is normal, so it is reported as info.
+ * test tool or a visualisation reads is normal, so it is reported as info; the
+ * message says what it costs on the line: a frame no device acknowledges is
+ * repeated up to 3 times (Basic course; KNX Standard 08_02_02 §10; see
+ * design/knx-reference.md, TP1 timing), as the simulated line does too.
  */
 export const addressNoListenerRule: BenchCheckRule = {
   id: "address.no-listener",
@@ -98,7 +101,7 @@ export const addressNoListenerRule: BenchCheckRule = {
         message:
           commands.length > 0
             ? `${describeAddress(address.text, address.name)} has no listener: ${commands.map((m) => describeMember(view, m)).join(", ")} send on it, but no object has the write or update flag`
-            : `${describeAddress(address.text, address.name)} carries status only: nothing on the bench listens, so only the test tool or a visualisation sees it`,
+            : `${describeAddress(address.text, address.name)} carries status only: nothing on the bench listens, so only the test tool or a visualisation sees it; on its TP1 line nothing acknowledges it either (unless a coupler there passes every group telegram), so each telegram goes out four times (the first and 3 repetitions), which is most of the load when many devices report at once after bus power returns`,
         location: { groupAddress: address.text },
       });
     }

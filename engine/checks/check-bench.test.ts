@@ -2,7 +2,10 @@ import { z } from "zod";
 import { beforeAll, describe, expect, it } from "vitest";
 import { benchSchema, type Bench, type BenchInput } from "../bench/bench-schema";
 import { flags, registerDeviceType, type DeviceType } from "../devices";
-import { roomTemperatureSendingSchema } from "../devices/hvac/room-temperature-sending";
+import {
+  roomTemperatureSendingConditions,
+  roomTemperatureSendingSchema,
+} from "../devices/hvac/room-temperature-sending";
 import { hvacGatewayType } from "../devices/hvac-gateway/hvac-gateway";
 import { wallControllerType } from "../devices/wall-controller/wall-controller";
 import { telegramOccupancyUs } from "../frame";
@@ -11,31 +14,30 @@ import { estimateLineLoad } from "./line-load";
 import { benchView } from "./bench-view";
 import { lightsFixture } from "@/test/harness/fixture-benches";
 
-// A test-only sensor: one 9.001 status object and the HVAC family's room-temperature sending block.
-const loadSensorType: DeviceType<
-  { sending: z.infer<typeof roomTemperatureSendingSchema>; cyclicS: number },
-  null
-> = {
-  id: "test-load-sensor",
-  label: "Test load sensor",
-  description: "Sends a temperature as configured; used by the line-load check tests.",
-  medium: "knx",
-  parameters: z.object({
-    sending: roomTemperatureSendingSchema.default({
-      mode: "on-change",
-      deltaK: 0.1,
-      minIntervalS: 30,
-      cycleS: 600,
+// A test-only sensor: one 9.001 status object and the HVAC family's room-temperature sending block,
+// declared through the sending-conditions hook (one value per second when no minimum interval).
+const loadSensorType: DeviceType<{ sending: z.infer<typeof roomTemperatureSendingSchema> }, null> =
+  {
+    id: "test-load-sensor",
+    label: "Test load sensor",
+    description: "Sends a temperature as configured; used by the line-load check tests.",
+    medium: "knx",
+    parameters: z.object({
+      sending: roomTemperatureSendingSchema.default({
+        mode: "on-change",
+        deltaK: 0.1,
+        minIntervalS: 30,
+        cycleS: 600,
+      }),
     }),
-    cyclicS: z.number().default(0),
-  }),
-  groupObjects: () => [
-    { number: 0, name: "Temperature", dpt: "9.001", flags: flags("CRT"), role: "status" },
-  ],
-  buttons: () => [],
-  initialState: () => null,
-  transition: (state) => ({ state, effects: [] }),
-};
+    groupObjects: () => [
+      { number: 0, name: "Temperature", dpt: "9.001", flags: flags("CRT"), role: "status" },
+    ],
+    buttons: () => [],
+    initialState: () => null,
+    transition: (state) => ({ state, effects: [] }),
+    sendingConditions: (p) => roomTemperatureSendingConditions(p.sending, "sending", 0, 1),
+  };
 
 beforeAll(() => {
   registerDeviceType(loadSensorType);
@@ -143,9 +145,12 @@ describe("checkBench", () => {
         ...lightsOk,
         links: lightsOk.links.filter((l) => !(l.device === "pb-1" && l.groupAddress === "1/1/1")),
       });
-      expect(rulesOf(b, "address.no-listener")).toEqual([
+      const findings = rulesOf(b, "address.no-listener");
+      expect(findings).toEqual([
         expect.objectContaining({ severity: "info", location: { groupAddress: "1/1/1" } }),
       ]);
+      // Basic course / knx-reference.md TP1 timing: no acknowledgement -> up to 3 repetitions.
+      expect(findings[0]!.message).toContain("each telegram goes out four times");
     });
     it("passes: both addresses have listeners", () => {
       expect(rulesOf(bench(lightsOk), "address.no-listener")).toEqual([]);
@@ -349,12 +354,53 @@ describe("checkBench", () => {
     // Defaults: on change, at most every 30 s -> 1/30 telegram/s of 11 octets.
     const b = bench({
       devices: [{ id: "gw-1", type: "hvac-gateway", name: "Gateway", individualAddress: "1.1.20" }],
+      groupAddresses: [{ address: "3/0/1", name: "Room temperature", dpt: "9.001" }],
+      links: [{ device: "gw-1", object: 12, groupAddress: "3/0/1" }],
     });
     const [line] = estimateLineLoad(benchView(b));
     expect(line!.telegramsPerSecond).toBeCloseTo(1 / 30, 9);
     expect(line!.contributions.map((c) => c.parameter)).toEqual([
       "roomTemperatureSending.minIntervalS",
     ]);
+  });
+
+  it("line.expected-load: counts a gateway's status heartbeat, one telegram per linked status object", () => {
+    // statusCycleS 60: power status (1.001, 9 octets) and setpoint status (9.001, 11 octets) are
+    // linked and sent again every 60 s; room temperature sending is off, unlinked statuses send nothing.
+    // Occupancy per telegram: 50 idle + 13 per octet + 15 gap + 11 ack bit times (Basic course).
+    const b = bench({
+      devices: [
+        {
+          id: "gw-1",
+          type: "hvac-gateway",
+          name: "Gateway",
+          individualAddress: "1.1.20",
+          parameters: { statusCycleS: 60, roomTemperatureSending: { mode: "off" } },
+        },
+      ],
+      groupAddresses: [
+        { address: "3/0/1", name: "Power status", dpt: "1.001" },
+        { address: "3/0/2", name: "Setpoint status", dpt: "9.001" },
+      ],
+      links: [
+        { device: "gw-1", object: 1, groupAddress: "3/0/1" },
+        { device: "gw-1", object: 3, groupAddress: "3/0/2" },
+      ],
+    });
+    const [line] = estimateLineLoad(benchView(b));
+    expect(line!.contributions.map((c) => c.parameter)).toEqual(["statusCycleS"]);
+    expect(line!.telegramsPerSecond).toBeCloseTo(2 / 60, 9);
+    expect(line!.loadPercent).toBeCloseTo(
+      (telegramOccupancyUs(9) + telegramOccupancyUs(11)) / 60 / 10_000,
+      9,
+    );
+  });
+
+  it("line.expected-load: an object with no sending address sends nothing", () => {
+    const b = bench({
+      devices: [{ id: "gw-1", type: "hvac-gateway", name: "Gateway", individualAddress: "1.1.20" }],
+    });
+    expect(estimateLineLoad(benchView(b))[0]!.telegramsPerSecond).toBe(0);
   });
 
   it("inverted setpoint limits are reported once, by the type's schema", () => {
@@ -384,6 +430,16 @@ describe("checkBench", () => {
           name: `Sensor ${i + 1}`,
           individualAddress: `1.1.${i + 1}`,
           parameters: { sending },
+        })),
+        groupAddresses: Array.from({ length: count }, (_, i) => ({
+          address: `3/0/${i + 1}`,
+          name: `Temperature ${i + 1}`,
+          dpt: "9.001",
+        })),
+        links: Array.from({ length: count }, (_, i) => ({
+          device: `sensor-${i + 1}`,
+          object: 0,
+          groupAddress: `3/0/${i + 1}`,
         })),
       });
 

@@ -1,8 +1,9 @@
+import { getDpt, payloadOctets } from "../dpt";
+import type { SendingCondition } from "../devices/device-type";
 import { telegramOccupancyUs, tp1FrameOctets } from "../frame";
 import type { BenchCheckRule } from "./bench-check-rule";
 import type { BenchView, DeviceView } from "./bench-view";
 import type { CheckFinding } from "./check-finding";
-import { childPath, walkParameterObjects } from "./walk-parameters";
 import { blockedOnPath, deviceLineId, topologyView } from "./topology-view";
 import { formatLineAddress } from "../topology/line-address";
 
@@ -11,18 +12,24 @@ import { formatLineAddress } from "../topology/line-address";
  * with, per line. This is an estimate for planning, not a simulation: every
  * condition is taken at its worst case.
  *
- * - A room-temperature sending block (`mode`, `minIntervalS`, `cycleS`, shared by
- *   the HVAC family) sends cyclically once per `cycleS`, and on change at most once
- *   per `minIntervalS` (once per sample period when the interval is 0; one sample
- *   per second unless the device names its period). Room temperature is DPT 9.001,
- *   2 octets, so an 11-octet frame.
- * - Any other positive parameter named like `cyclicS`, `cycleS` or `sendCycleS`
- *   sends once per period; taken as a short (1-bit-sized, 9-octet) frame, the
- *   usual size of a cyclic heartbeat or presence/contact status.
+ * What a device sends on its own comes from its type's `sendingConditions` hook
+ * (engine/devices/device-type.ts): cyclic sending, a status heartbeat, on-change
+ * sending paced by a minimum interval. No rule here names a device type or reads
+ * parameter names, so a new cyclic device counts by declaring its conditions.
+ * Each condition sends its objects once per period; an object counts when it can
+ * send (communication and transmit flags) and has a sending address, since an
+ * unlinked object puts nothing on the bus. Its frame size follows its DPT
+ * (9 octets for a datapoint of 6 bits or less, else 8 + 1 + the payload octets).
  *
- * Each telegram holds the line for its occupancy: idle 50 + 13 per octet + ack gap
- * 15 + ack 11 bit times (Basic course; engine/frame/timing.ts), so a 9-octet frame
- * takes 193 bit times ≈ 20.1 ms and a line carries about 50 such telegrams/s.
+ * Bus time per telegram (engine/frame/timing.ts, `telegramOccupancyUs`): the line
+ * is idle 50 bit times before the frame, each octet is a character of 13 bit times
+ * (start, 8 data, parity, stop, 2 pause), the acknowledgement follows after 15 bit
+ * times and is 11 bits long, at 9600 bit/s. That is the KNX basic course's own
+ * breakdown of a short telegram (50 + 9 × 13 + 15 + 11 = 193 bit times, about 20.1
+ * ms), with the timing values of KNX Standard 08_02_02 (TP1 conformance) §10.1.2;
+ * both are listed in design/knx-reference.md, "TP1 timing". So a line carries on
+ * the order of 50 short telegrams per second at full load (derived, not a published
+ * limit), and the percentage here is that occupancy over one second.
  *
  * On a bench with couplers a line also carries what couplers pass into it: a
  * device's sending conditions count on every other line that a telegram on one
@@ -30,20 +37,13 @@ import { formatLineAddress } from "../topology/line-address";
  * filter tables (worst case again: any of its sending addresses).
  */
 
-const ROOM_TEMPERATURE_OCTETS = tp1FrameOctets({ payload: new Uint8Array(2), shortPayload: false });
-const SHORT_OCTETS = tp1FrameOctets({ payload: new Uint8Array(1), shortPayload: true });
-const SENDING_MODES: readonly string[] = ["off", "on-change", "cyclic", "on-change-and-cyclic"];
-const CYCLIC_KEY = /^(cyclic|cycle|sendCycle)[A-Za-z]*S$/;
-const SAMPLE_PERIOD_KEYS: readonly string[] = ["samplePeriodS", "sampleS", "modelStepS"];
-const DEFAULT_SAMPLE_PERIOD_S = 1;
-
 /** One configured sending condition and the load it brings. */
 export interface LoadContribution {
   readonly device: string;
-  /** Parameter path of the condition ("roomTemperatureSending", "cyclicS"). */
+  /** Parameter path of the condition ("roomTemperatureSending.minIntervalS", "statusCycleS"). */
   readonly parameter: string;
   readonly telegramsPerSecond: number;
-  /** Frame octets assumed for each telegram. */
+  /** Frame octets assumed for each telegram (the largest, when the condition sends several objects). */
   readonly octets: number;
   /** Share of line capacity, percent. */
   readonly loadPercent: number;
@@ -60,75 +60,60 @@ export interface LineLoadEstimate {
   readonly contributions: readonly LoadContribution[];
 }
 
-function samplePeriodS(parameters: Record<string, unknown>): number {
-  for (const key of SAMPLE_PERIOD_KEYS) {
-    const value = parameters[key];
-    if (typeof value === "number" && value > 0) return value;
-  }
-  return DEFAULT_SAMPLE_PERIOD_S;
-}
-
-function contribution(
-  device: string,
-  parameter: string,
-  telegramsPerSecond: number,
-  octets: number,
-  basis: string,
-): LoadContribution {
-  const loadPercent = (telegramsPerSecond * telegramOccupancyUs(octets)) / 10_000;
-  return { device, parameter, telegramsPerSecond, octets, loadPercent, basis };
-}
-
-/** The sending conditions of one device, each with its worst-case rate. */
-export function deviceLoadContributions(id: string, entry: DeviceView): LoadContribution[] {
-  const found: LoadContribution[] = [];
-  walkParameterObjects(entry.parameters, (object, path) => {
-    const mode = object.mode;
-    if (
-      typeof mode === "string" &&
-      SENDING_MODES.includes(mode) &&
-      typeof object.minIntervalS === "number" &&
-      typeof object.cycleS === "number"
-    ) {
-      const cyclic = mode === "cyclic" || mode === "on-change-and-cyclic";
-      const onChange = mode === "on-change" || mode === "on-change-and-cyclic";
-      if (cyclic && object.cycleS > 0) {
-        found.push(
-          contribution(
-            id,
-            childPath(path, "cycleS"),
-            1 / object.cycleS,
-            ROOM_TEMPERATURE_OCTETS,
-            `cyclic every ${object.cycleS} s`,
-          ),
-        );
-      }
-      if (onChange) {
-        const periodS =
-          object.minIntervalS > 0 ? object.minIntervalS : samplePeriodS(entry.parameters);
-        const basis =
-          object.minIntervalS > 0
-            ? `on change, at most every ${object.minIntervalS} s`
-            : `on change with no minimum interval, up to one per ${periodS} s sample`;
-        found.push(
-          contribution(
-            id,
-            childPath(path, "minIntervalS"),
-            1 / periodS,
-            ROOM_TEMPERATURE_OCTETS,
-            basis,
-          ),
-        );
-      }
-      return;
-    }
-    for (const [key, value] of Object.entries(object)) {
-      if (!CYCLIC_KEY.test(key) || typeof value !== "number" || value <= 0) continue;
-      found.push(
-        contribution(id, childPath(path, key), 1 / value, SHORT_OCTETS, `cyclic every ${value} s`),
-      );
-    }
+/** TP1 frame octets of a telegram carrying `dpt` (a short frame for an unknown DPT). */
+function frameOctets(dpt: string): number {
+  const sizeBits = getDpt(dpt)?.sizeBits ?? 1;
+  const short = sizeBits <= 6;
+  return tp1FrameOctets({
+    payload: new Uint8Array(short ? 0 : payloadOctets(sizeBits)),
+    shortPayload: short,
   });
+}
+
+/** The device's own conditions; a type that cannot read these parameters declares none. */
+function conditionsOf(entry: DeviceView): readonly SendingCondition[] {
+  const hook = entry.type?.sendingConditions;
+  if (hook === undefined) return [];
+  try {
+    return hook(entry.parameters);
+  } catch {
+    // Parameters that do not parse are reported by their own rule; the estimate skips them.
+    return [];
+  }
+}
+
+/** The sending conditions of one device, each with its worst-case rate on its line. */
+export function deviceLoadContributions(
+  view: BenchView,
+  id: string,
+  entry: DeviceView,
+): LoadContribution[] {
+  const found: LoadContribution[] = [];
+  for (const condition of conditionsOf(entry)) {
+    if (!(condition.periodS > 0) || !Number.isFinite(condition.periodS)) continue;
+    let telegrams = 0;
+    let occupiedUs = 0;
+    let octets = 0;
+    for (const number of condition.objects) {
+      const spec = entry.objects.find((o) => o.number === number);
+      if (spec === undefined || !spec.flags.communication || !spec.flags.transmit) continue;
+      if (view.linksOf(id, number).length === 0) continue;
+      const frame = frameOctets(spec.dpt);
+      telegrams++;
+      occupiedUs += telegramOccupancyUs(frame);
+      octets = Math.max(octets, frame);
+    }
+    if (telegrams === 0) continue;
+    found.push({
+      device: id,
+      parameter: condition.parameter,
+      telegramsPerSecond: telegrams / condition.periodS,
+      octets,
+      // occupied µs per second as a percentage of 1,000,000 µs
+      loadPercent: occupiedUs / condition.periodS / 10_000,
+      basis: telegrams > 1 ? `${condition.basis}, ${telegrams} objects` : condition.basis,
+    });
+  }
   return found;
 }
 
@@ -141,7 +126,7 @@ export function estimateLineLoad(view: BenchView): LineLoadEstimate[] {
       continue;
     const line = deviceLineId(view, entry);
     if (line === undefined) continue;
-    const own = deviceLoadContributions(id, entry);
+    const own = deviceLoadContributions(view, id, entry);
     perLine.set(line, [...(perLine.get(line) ?? []), ...own]);
     if (own.length > 0) addForwarded(view, perLine, id, line, own);
   }

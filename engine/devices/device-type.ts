@@ -198,6 +198,29 @@ export interface DeviceType<P, S> {
    * chart devices without naming their types.
    */
   roomSample?(state: S): RoomChartSample | undefined;
+  /**
+   * What the device sends on its own (cyclically, or on change paced by a minimum
+   * interval), each condition at its configured worst case. The bench checks'
+   * expected-load estimate reads this, so no check names a device type or guesses
+   * from parameter names. Absent (or empty): the device sends only in answer to
+   * telegrams, people or its unit link.
+   */
+  sendingConditions?(parameters: P): readonly SendingCondition[];
+}
+
+/** One condition under which a device sends by itself, for load planning. */
+export interface SendingCondition {
+  /** Parameter path that sets it ("statusCycleS", "roomTemperatureSending.minIntervalS"). */
+  readonly parameter: string;
+  /** Shortest time between two sends under this condition, seconds (> 0). */
+  readonly periodS: number;
+  /**
+   * Group objects sent each time. Each one with the communication and transmit
+   * flags and a sending address is one telegram; an object nobody linked sends nothing.
+   */
+  readonly objects: readonly number[];
+  /** How the period follows from the parameters, for people ("cyclic every 600 s"). */
+  readonly basis: string;
 }
 
 /** A room a device conditions, as the live console's temperature chart shows it. */

@@ -395,6 +395,26 @@ describe("unit links, faults and parameters", () => {
 });
 
 describe("bus statistics", () => {
+  it("counts a telegram still on the line in the window its frame started in, and only there", () => {
+    const probe = SimHarness.create(lightBench());
+    probe.write("1/0/1", true).runFor("1s");
+    const startUs = probe.events({ kinds: ["telegram.sent"] })[0]!.timeUs;
+    const h = SimHarness.create(lightBench());
+    h.write("1/0/1", true);
+    // Mid-frame: 1 ms into the write's frame (a 9-octet frame lasts 117 bit times, about 12 ms).
+    h.sim.runUntil(startUs + 1_000);
+    const during = h.sim.busStats(startUs + 1_000);
+    expect(during.byGroupAddress.get(0x0801)).toBe(1);
+    expect(during.telegrams).toBe(1);
+    // Occupied so far: the 50 idle bit times before the frame and 1 ms of it (Basic course accounting).
+    expect(during.occupiedUs).toBe(bitTimesToUs(50) + 1_000);
+    // The next window holds the rest of it, not the telegram again.
+    h.sim.runUntil(startUs + 1_000 + 1_000_000);
+    const after = h.sim.busStats(1_000_000);
+    expect(after.byGroupAddress.get(0x0801)).toBeUndefined();
+    expect(during.occupiedUs + after.occupiedUs).toBe(2 * bitTimesToUs(193));
+  });
+
   it("counts a telegram's 193 bit times as load, per address and per sender", () => {
     const h = SimHarness.create(lightBench());
     h.write("1/0/1", true).runUntil("1s");

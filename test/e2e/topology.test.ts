@@ -177,6 +177,28 @@ describe("topology of the demo hotel in headless Chromium", () => {
         })
         .first()
         .waitFor({ timeout: 20_000 });
+
+    // The Couplers panel keeps each coupler's running totals: every floor's coupler passed 4/0/1 on.
+    const totals = page.getByRole("table", { name: "Coupler totals since the run started" });
+    for (const floor of ["1", "2", "3"]) {
+      const coupler = totals.getByRole("row", {
+        name: new RegExp(`^1\\.${floor}\\.0 Floor ${floor} `),
+      });
+      await expect
+        .poll(async () => Number(await coupler.getByRole("cell").nth(1).innerText()), {
+          timeout: 20_000,
+        })
+        .toBeGreaterThan(0);
+    }
+    const panel = await new AxeBuilder({ page })
+      .include('[aria-label="Couplers"]')
+      .withTags(["wcag2a", "wcag2aa", "wcag21a", "wcag21aa", "wcag22aa"])
+      .analyze();
+    expect(
+      panel.violations
+        .filter((v) => v.impact === "serious" || v.impact === "critical")
+        .map((v) => `${v.id}: ${v.nodes.map((n) => n.target.join(" ")).join(" | ")}`),
+    ).toEqual([]);
     expect(pageErrors).toEqual([]);
   });
 });

@@ -1,6 +1,7 @@
 import type { DeviceType } from "../device-type";
 import { initialSenderState } from "../hvac/room-temperature-sending";
 import { gatewayGroupObjects } from "./objects";
+import { gatewaySendingConditions } from "./sending-conditions";
 import { hvacGatewayParametersSchema, type HvacGatewayParameters } from "./parameters";
 import type { HvacGatewayState } from "./state";
 import { hvacGatewayTransition } from "./transition";
@@ -22,6 +23,7 @@ export const hvacGatewayType: DeviceType<HvacGatewayParameters, HvacGatewayState
   groupObjects: gatewayGroupObjects,
   buttons: () => [],
   startupDelayS: (p) => p.startupDelayS,
+  sendingConditions: gatewaySendingConditions,
   initialState: () => ({
     announcedRole: null,
     unit: null,

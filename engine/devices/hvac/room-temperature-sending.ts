@@ -1,4 +1,5 @@
 import { z } from "zod";
+import type { SendingCondition } from "../device-type";
 
 /**
  * When a device sends its room temperature on KNX: never, on change by a delta
@@ -150,4 +151,41 @@ export function sendCyclicRoomTemperature(
  */
 export function cycleUs(config: RoomTemperatureSending): number {
   return Math.round(config.cycleS * US_PER_S);
+}
+
+/**
+ * The sending conditions of a room-temperature sending block on `object`, for the
+ * expected-load estimate: cyclic once per `cycleS`; on change at most once per
+ * `minIntervalS`, or once per `samplePeriodS` (how often the device learns a new
+ * value) when there is no minimum interval. Both at their worst case: a room whose
+ * temperature keeps moving by more than `deltaK`.
+ */
+export function roomTemperatureSendingConditions(
+  sending: RoomTemperatureSending,
+  path: string,
+  object: number,
+  samplePeriodS: number,
+): SendingCondition[] {
+  const conditions: SendingCondition[] = [];
+  const cyclic = sending.mode === "cyclic" || sending.mode === "on-change-and-cyclic";
+  const onChange = sending.mode === "on-change" || sending.mode === "on-change-and-cyclic";
+  if (cyclic && sending.cycleS > 0)
+    conditions.push({
+      parameter: `${path}.cycleS`,
+      periodS: sending.cycleS,
+      objects: [object],
+      basis: `cyclic every ${sending.cycleS} s`,
+    });
+  if (onChange) {
+    const paced = sending.minIntervalS > 0;
+    conditions.push({
+      parameter: `${path}.minIntervalS`,
+      periodS: paced ? sending.minIntervalS : samplePeriodS,
+      objects: [object],
+      basis: paced
+        ? `on change, at most every ${sending.minIntervalS} s`
+        : `on change with no minimum interval, up to one per ${samplePeriodS} s sample`,
+    });
+  }
+  return conditions;
 }

@@ -17,6 +17,7 @@ import {
   sendDueRoomTemperature,
   sendsCyclically,
   type RoomTemperatureSenderState,
+  roomTemperatureSendingConditions,
   type SenderStep,
 } from "../hvac/room-temperature-sending";
 import {
@@ -229,6 +230,9 @@ export const roomTemperatureSensorType: DeviceType<
     open: false,
   }),
   transition: roomTemperatureSensorTransition,
+  // It learns a new value once per sample, so on change without a minimum interval sends at most that often.
+  sendingConditions: (p) =>
+    roomTemperatureSendingConditions(p.sending, "sending", ROOM_TEMPERATURE_OBJECT, p.sampleS),
   // A bench without rooms: the sensor's room is its own (Newton's law of cooling toward outdoorC, τ = timeConstantS).
   privateRoom: (p) =>
     p.source === "room-model"

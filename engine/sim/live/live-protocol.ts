@@ -165,6 +165,15 @@ function legacyInput(
   }
 }
 
+/** Why a coupler did not pass a telegram on (the reasons a `coupler.drop` trace event names). */
+export const couplerDropReasonSchema = z.enum([
+  "filter",
+  "blocked",
+  "hop-count",
+  "queue-full",
+  "not-acknowledged",
+]);
+
 /** How a telegram's transmission ended for the sender. "pending" never reaches the page. */
 export const ackSchema = z.enum(["ack", "nak", "busy", "none"]);
 export type Ack = z.infer<typeof ackSchema>;
@@ -190,9 +199,7 @@ export const logRowSchema = z.object({
     .object({
       id: z.string(),
       action: z.enum(["forward", "hold", "drop"]),
-      reason: z
-        .enum(["filter", "blocked", "hop-count", "queue-full", "not-acknowledged"])
-        .optional(),
+      reason: couplerDropReasonSchema.optional(),
       /** Line address ("1.0") the coupler passes (or would have passed) the telegram to. */
       toLine: z.string(),
     })
@@ -301,12 +308,34 @@ export const busLoadSampleSchema = z.object({
 });
 export type BusLoadSample = z.infer<typeof busLoadSampleSchema>;
 
-/** First transmissions per destination address within one virtual second. */
+/**
+ * Telegrams per destination address within one virtual second, each counted once as its
+ * sender sent it: first transmissions only, and a coupler's copy on another line is not
+ * counted again. Keys are group addresses ("1/0/1") or, for an individually addressed
+ * telegram, the individual address ("1.1.10").
+ */
 export const addressRateSampleSchema = z.object({
   second: z.number().int(),
   counts: z.record(z.string(), z.number().int()),
 });
 export type AddressRateSample = z.infer<typeof addressRateSampleSchema>;
+
+/**
+ * What one coupler did since the run started, counted as the log shows it:
+ * `forwarded` telegrams it sent on the other line, `held` times it queued one
+ * behind a busy line (a held telegram is usually forwarded later, so it counts
+ * in both), and `dropped` by reason. A drop by filter table or "block all" counts
+ * only when someone beyond the coupler listens to the address: a coupler keeping
+ * a line's own traffic at home is doing its job, not losing anything.
+ */
+export const couplerTotalsSchema = z.object({
+  /** Device id of the coupler. */
+  id: z.string(),
+  forwarded: z.number().int(),
+  held: z.number().int(),
+  dropped: z.record(couplerDropReasonSchema, z.number().int()),
+});
+export type CouplerTotals = z.infer<typeof couplerTotalsSchema>;
 
 export const clockSchema = z.object({
   nowUs: z.number().int(),
@@ -419,6 +448,8 @@ export const simMessageSchema = z.discriminatedUnion("type", [
     rooms: z.array(roomSampleSchema),
     busLoad: z.array(busLoadSampleSchema),
     rates: z.array(addressRateSampleSchema),
+    /** Every coupler's totals, when any changed (and in the first batch of a run); absent when unchanged. */
+    couplers: z.array(couplerTotalsSchema).optional(),
   }),
   z.object({ type: z.literal("reset-done"), clock: clockSchema }),
   z.object({

@@ -55,4 +55,84 @@ describe("live session on several lines", () => {
     const samples = batches.flatMap((b) => b.busLoad);
     expect(new Set(samples.map((s) => s.lineAddress))).toEqual(new Set(["1.1", "1.0", "1.2"]));
   });
+
+  it("counts a telegram once in the address rates, not again for each line a coupler forwards it to", () => {
+    const messages: SimMessage[] = [];
+    const session = new LiveSession({
+      post: (m) => messages.push(parseSimMessage(m)),
+      now: () => 0,
+    });
+    session.handle({ type: "load", bench: bench() });
+    session.handle({
+      type: "input",
+      input: { kind: "set-input", device: "s", input: "send", value: 4 },
+    });
+    session.handle({ type: "jump", durationUs: 2_000_000 });
+    session.tick();
+    const batches = messages.filter(
+      (m): m is Extract<SimMessage, { type: "batch" }> => m.type === "batch",
+    );
+    // s sent once on 1.1; c11's copy on 1.0 is the same telegram, so the rate shows it once.
+    const total = batches
+      .flatMap((b) => b.rates)
+      .reduce((sum, sample) => sum + (sample.counts["1/0/1"] ?? 0), 0);
+    expect(total).toBe(1);
+  });
+});
+
+describe("address rates over several seconds", () => {
+  it("count every telegram of a flood exactly once, frames across a second's end included", () => {
+    const messages: SimMessage[] = [];
+    const session = new LiveSession({
+      post: (m) => messages.push(parseSimMessage(m)),
+      now: () => 0,
+    });
+    session.handle({ type: "load", bench: bench() });
+    // About 50 telegrams/s fit a TP1 line (knx-reference.md, TP1 timing), so 150 take about 3 s:
+    // some frames are still on the line when a second ends.
+    session.handle({ type: "flood", groupAddress: "1/0/1", count: 150, value: 1 });
+    session.handle({ type: "jump", durationUs: 10_000_000 });
+    session.tick();
+    const samples = messages.flatMap((m) => (m.type === "batch" ? m.rates : []));
+    expect(samples.length).toBeGreaterThan(2);
+    expect(samples.reduce((sum, sample) => sum + (sample.counts["1/0/1"] ?? 0), 0)).toBe(150);
+  });
+});
+
+describe("coupler totals in the live session", () => {
+  it("counts what each coupler forwarded, held and dropped, and sends the totals when they change", () => {
+    const messages: SimMessage[] = [];
+    const session = new LiveSession({
+      post: (m) => messages.push(parseSimMessage(m)),
+      now: () => 0,
+    });
+    session.handle({ type: "load", bench: bench() });
+    const first = messages.find((m) => m.type === "batch");
+    // Every coupler is listed from the start, at zero, so the console can show them before any traffic.
+    expect(first?.type === "batch" && first.couplers?.map((c) => [c.id, c.forwarded])).toEqual([
+      ["c11", 0],
+      ["c12", 0],
+    ]);
+    session.handle({
+      type: "input",
+      input: { kind: "set-input", device: "s", input: "send", value: 4 },
+    });
+    session.handle({ type: "jump", durationUs: 2_000_000 });
+    session.tick();
+    const latest = messages
+      .flatMap((m) => (m.type === "batch" && m.couplers ? [m.couplers] : []))
+      .at(-1)!;
+    const byId = new Map(latest.map((c) => [c.id, c]));
+    // c11 passes 1/0/1 up to the main line; c12's stale table (no 1/0/1) keeps it from r on 1.2.
+    expect(byId.get("c11")).toMatchObject({ forwarded: 1, held: 0 });
+    expect(byId.get("c12")).toMatchObject({ forwarded: 0, dropped: { filter: 1 } });
+    // A late viewer gets the same totals.
+    const late = session.currentState().find((m) => m.type === "batch");
+    expect(late?.type === "batch" && late.couplers).toEqual(latest);
+    // Nothing changed: the next batch leaves the totals out.
+    session.handle({ type: "jump", durationUs: 1_000_000 });
+    session.tick();
+    const last = messages.at(-1)!;
+    expect(last.type === "batch" && last.couplers).toBeUndefined();
+  });
 });

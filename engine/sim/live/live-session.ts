@@ -16,6 +16,7 @@ import {
   type ActiveFault,
   type AddressRateSample,
   type BusLoadSample,
+  type CouplerTotals,
   type DeviceSnapshot,
   type LogRow,
   type ParsedSimCommand,
@@ -131,6 +132,17 @@ export class LiveSession {
   private lineAddresses = new Map<string, string>();
   /** Routing counter of forwarded telegrams not yet on their line, by forwarded telegram id. */
   private readonly forwardedHopCount = new Map<number, number>();
+  /** Device ids of the bench's couplers: what they send is a copy of someone else's telegram. */
+  private couplerIds: ReadonlySet<string> = new Set();
+  /**
+   * Telegrams per destination address by the virtual second their frame started in, as their
+   * senders sent them: first transmissions only, a coupler's copy on another line not counted
+   * again. Seconds not yet sampled (a step can run past a second's end before it is sampled).
+   */
+  private secondCounts = new Map<number, Map<string, number>>();
+  /** What each coupler forwarded, held and dropped since the run started, by coupler id. */
+  private couplerTotals = new Map<string, CouplerTotals>();
+  private couplersDirty = false;
 
   private readonly dirtyDevices = new Set<string>();
   private readonly transitions = new Map<string, { name: string; atUs: number }>();
@@ -205,6 +217,7 @@ export class LiveSession {
         rooms: this.roomSamples(sim),
         busLoad: [],
         rates: [],
+        ...(this.couplerTotals.size > 0 ? { couplers: this.couplerList() } : {}),
       },
     ];
   }
@@ -422,6 +435,28 @@ export class LiveSession {
       loaded.value.lines.map((line) => [line.id, formatLineAddress(line.lineAddress)]),
     );
     this.forwardedHopCount.clear();
+    this.couplerIds = new Set(
+      loaded.value.devices.filter((d) => d.type.id === COUPLER_TYPE_ID).map((d) => d.id),
+    );
+    this.secondCounts = new Map();
+    this.couplerTotals = new Map(
+      [...this.couplerIds].map((id) => [
+        id,
+        {
+          id,
+          forwarded: 0,
+          held: 0,
+          dropped: {
+            filter: 0,
+            blocked: 0,
+            "hop-count": 0,
+            "queue-full": 0,
+            "not-acknowledged": 0,
+          },
+        },
+      ]),
+    );
+    this.couplersDirty = this.couplerTotals.size > 0;
     // Nothing is kept inside the engine: the host takes every event as it happens.
     const sim = new Simulation(loaded.value, { seed: this.seed, traceCapacity: 0 });
     this.sim = sim;
@@ -493,8 +528,6 @@ export class LiveSession {
     const sim = this.sim!;
     const loaded = this.loaded!;
     const second = endUs / SECOND_US - 1;
-    const counts: Record<string, number> = {};
-    let any = false;
     for (const line of loaded.lines) {
       const stats = sim.busStats(SECOND_US, line.id);
       this.busLoad.push({
@@ -504,13 +537,14 @@ export class LiveSession {
         loadPercent: stats.loadPercent,
         telegrams: stats.telegrams,
       });
-      for (const [raw, count] of stats.byGroupAddress) {
-        const key = formatGroupAddress(raw);
-        counts[key] = (counts[key] ?? 0) + count;
-        any = true;
-      }
     }
-    if (any) this.rates.push({ second, counts });
+    // Not the lines' own per-address counts: summed over lines they count a forwarded telegram
+    // once per line (and a frame still on the line when a second ends in neither second).
+    for (const [at, counts] of this.secondCounts) {
+      if (at > second) continue;
+      this.rates.push({ second: at, counts: Object.fromEntries(counts) });
+      this.secondCounts.delete(at);
+    }
     if (this.busLoad.length > MAX_PENDING_SAMPLES * loaded.lines.length)
       this.busLoad.splice(0, this.busLoad.length - MAX_PENDING_SAMPLES * loaded.lines.length);
     if (this.rates.length > MAX_PENDING_SAMPLES)
@@ -572,6 +606,18 @@ export class LiveSession {
         if (event.deviceId === undefined && this.tunnelSources.has(event.source))
           row.tunnel = row.source;
         this.awaiting.set(event.telegramId, row);
+        if (event.attempt === 0 && !this.couplerIds.has(event.deviceId ?? "")) {
+          const key = event.individual
+            ? formatIndividualAddress(event.destination)
+            : formatGroupAddress(event.destination);
+          const at = Math.floor(event.timeUs / SECOND_US);
+          let counts = this.secondCounts.get(at);
+          if (counts === undefined) {
+            counts = new Map();
+            this.secondCounts.set(at, counts);
+          }
+          counts.set(key, (counts.get(key) ?? 0) + 1);
+        }
         return;
       }
       case "telegram.acked":
@@ -609,10 +655,12 @@ export class LiveSession {
       }
       case "coupler.forward":
         this.forwardedHopCount.set(event.forwardedTelegramId, event.hopCount);
+        this.countCoupler(event);
         return;
       case "coupler.hold":
       case "coupler.drop":
         this.enqueue(this.couplerRow(event));
+        this.countCoupler(event);
         return;
       case "device.transition":
         this.transitions.set(event.deviceId, { name: event.transition, atUs: event.timeUs });
@@ -712,6 +760,22 @@ export class LiveSession {
     };
   }
 
+  private countCoupler(
+    event: Extract<TraceEvent, { kind: "coupler.forward" | "coupler.hold" | "coupler.drop" }>,
+  ): void {
+    const totals = this.couplerTotals.get(event.coupler);
+    if (totals === undefined) return;
+    if (event.kind === "coupler.forward") totals.forwarded++;
+    else if (event.kind === "coupler.hold") totals.held++;
+    else totals.dropped[event.reason] = (totals.dropped[event.reason] ?? 0) + 1;
+    this.couplersDirty = true;
+  }
+
+  /** Copies of every coupler's totals, in bench order (the message must not share the counters it keeps changing). */
+  private couplerList(): CouplerTotals[] {
+    return [...this.couplerTotals.values()].map((t) => ({ ...t, dropped: { ...t.dropped } }));
+  }
+
   private finish(telegramId: number, ack: Ack): void {
     const row = this.awaiting.get(telegramId);
     if (row === undefined) return;
@@ -748,12 +812,15 @@ export class LiveSession {
     this.faultsDirty = false;
     const rooms = this.roomSample ?? [];
     this.roomSample = undefined;
+    const couplers = this.couplersDirty ? this.couplerList() : undefined;
+    this.couplersDirty = false;
     const clock = this.clock();
     const clockKey = `${clock.nowUs}|${clock.running}|${clock.speed}`;
     const idle =
       rows.length === 0 &&
       devices.length === 0 &&
       faults === undefined &&
+      couplers === undefined &&
       rooms.length === 0 &&
       this.busLoad.length === 0 &&
       this.rates.length === 0 &&
@@ -771,6 +838,7 @@ export class LiveSession {
       rooms,
       busLoad: this.busLoad,
       rates: this.rates,
+      ...(couplers === undefined ? {} : { couplers }),
     };
     this.dropped = 0;
     this.busLoad = [];
