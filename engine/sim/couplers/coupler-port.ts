@@ -1,7 +1,7 @@
 import type { Telegram, Tp1Line } from "../../bus";
 import { Tp1Sender } from "../../bus";
 import type { SequentialIds } from "../../core/ids";
-import type { Trace } from "../../core/trace";
+import type { CouplerTraceFields, Trace } from "../../core/trace";
 import { ACK_OCTET, BUSY_OCTET, type DataFrame } from "../../frame";
 import { NO_ACK_OCTET } from "../../bus";
 import {
@@ -118,39 +118,28 @@ export class CouplerPort {
       return BUSY_OCTET;
     }
     const forwardedId = this.context.telegramIds.next();
-    const trace = this.context.trace;
-    const timeUs = this.context.clock.nowUs;
-    if (trace.active)
-      trace.append({
-        kind: "coupler.forward",
-        timeUs,
-        coupler: coupler.id,
-        telegramId: telegram.id,
-        forwardedTelegramId: forwardedId,
-        fromLine: this.lineId,
-        toLine: far.lineId,
-        destination: frame.destination,
-        ...individual(frame),
-        hopCount,
-      });
+    // The forward and a hold name the same crossing; built only when someone records.
+    const crossing: CouplerTraceFields | undefined = this.context.trace.active
+      ? {
+          timeUs: this.context.clock.nowUs,
+          coupler: coupler.id,
+          telegramId: telegram.id,
+          forwardedTelegramId: forwardedId,
+          fromLine: this.lineId,
+          toLine: far.lineId,
+          destination: frame.destination,
+          ...individual(frame),
+        }
+      : undefined;
+    if (crossing !== undefined)
+      this.context.trace.append({ kind: "coupler.forward", ...crossing, hopCount });
     const copy: DataFrame = { ...frame, repeated: false, hopCount };
     const waitingBefore = far.sender.pending;
     const forwarded = far.line.queue(far.sender, copy, forwardedId);
     far.origins.set(forwarded, telegram.id);
     this.context.counts.forwarded++;
-    if (trace.active && (waitingBefore > 0 || far.line.isBusy))
-      trace.append({
-        kind: "coupler.hold",
-        timeUs,
-        coupler: coupler.id,
-        telegramId: telegram.id,
-        forwardedTelegramId: forwardedId,
-        fromLine: this.lineId,
-        toLine: far.lineId,
-        destination: frame.destination,
-        ...individual(frame),
-        queued: waitingBefore,
-      });
+    if (crossing !== undefined && (waitingBefore > 0 || far.line.isBusy))
+      this.context.trace.append({ kind: "coupler.hold", ...crossing, queued: waitingBefore });
     (telegram.takenBy ??= []).push(this);
     return ACK_OCTET;
   }
