@@ -15,7 +15,8 @@ import {
   tunnelCri,
   type KnxNetIpFrame,
 } from "@/engine";
-import { fakeLiveSessionClock, sseReader } from "./support/live-sessions";
+import { fakeWallClock } from "@/test/harness/fake-wall-clock";
+import { sseReader } from "./support/live-sessions";
 import { call, cookieFor, createWorld, destroyWorld, type World } from "./support/world";
 
 /**
@@ -38,7 +39,7 @@ const routes = {
 
 const IDLE_MS = 60_000;
 let world: World;
-let fake: ReturnType<typeof fakeLiveSessionClock>;
+let fake: ReturnType<typeof fakeWallClock>;
 let registry: LiveSessionRegistry;
 const limits = { perMember: 2, perWorkspace: 4, idleMs: IDLE_MS };
 /** The endpoints' port range: any free port unless a test names one. */
@@ -54,7 +55,7 @@ afterAll(async () => {
 });
 
 function freshRegistry() {
-  fake = fakeLiveSessionClock();
+  fake = fakeWallClock();
   registry = new LiveSessionRegistry({
     clock: fake.clock,
     limits: () => limits,
