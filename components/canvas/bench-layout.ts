@@ -80,6 +80,23 @@ function deviceOrder(address: string | undefined): number {
   return raw.ok ? raw.value : Number.MAX_SAFE_INTEGER - 1;
 }
 
+/**
+ * The devices drawn as cards, in the order both layouts place them: by
+ * individual address, bench order among equals. Couplers are left out: they
+ * sit on the border between two line regions, placed after the layout.
+ */
+function cardsInAddressOrder(bench: Bench): Bench["devices"] {
+  return bench.devices
+    .map((device, index) => ({ device, index }))
+    .filter(({ device }) => !isCoupler(device))
+    .sort(
+      (a, b) =>
+        deviceOrder(a.device.individualAddress) - deviceOrder(b.device.individualAddress) ||
+        a.index - b.index,
+    )
+    .map(({ device }) => device);
+}
+
 /** Above this many cards and bars the layout trades some crossing reduction for time. */
 const LARGE_BENCH_NODES = 400;
 
@@ -117,16 +134,8 @@ export function benchElkGraph(bench: Bench): ElkNode {
   const children: ElkNode[] = [];
   const edges: ElkExtendedEdge[] = [];
   const ports = new Set<string>();
-  const devices = bench.devices
-    .map((device, index) => ({ device, index }))
-    // Couplers sit on the border between two line regions, placed after the layout.
-    .filter(({ device }) => !isCoupler(device))
-    .sort(
-      (a, b) =>
-        deviceOrder(a.device.individualAddress) - deviceOrder(b.device.individualAddress) ||
-        a.index - b.index,
-    );
-  for (const { device } of devices) {
+  const cards = cardsInAddressOrder(bench);
+  for (const device of cards) {
     const objects = deviceObjects(device);
     for (const object of objects) ports.add(`d:${device.id}#${object.number}`);
     children.push({
@@ -196,7 +205,7 @@ export function benchElkGraph(bench: Bench): ElkNode {
       targets: [`g:${key}#bus`],
     });
   }
-  const nodeCount = devices.length + addresses.length;
+  const nodeCount = cards.length + addresses.length;
   return {
     id: "bench",
     layoutOptions: {
@@ -302,15 +311,7 @@ export function withLineRegions(bench: Bench, layout: BenchLayout): BenchLayout 
 export function directLayout(bench: Bench): BenchLayout {
   const devices = new Map<string, Position>();
   let y = 0;
-  const cards = bench.devices
-    .map((device, index) => ({ device, index }))
-    .filter(({ device }) => !isCoupler(device))
-    .sort(
-      (a, b) =>
-        deviceOrder(a.device.individualAddress) - deviceOrder(b.device.individualAddress) ||
-        a.index - b.index,
-    );
-  for (const { device } of cards) {
+  for (const device of cardsInAddressOrder(bench)) {
     devices.set(device.id, { x: 0, y });
     y += cardHeight(deviceObjects(device).length) + NODE_GAP;
   }
