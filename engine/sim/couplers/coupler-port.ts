@@ -148,21 +148,8 @@ export class CouplerPort {
   lost(telegram: Telegram): void {
     const origin = this.origins.get(telegram);
     if (origin === undefined) return;
-    this.context.counts.dropped["not-acknowledged"]++;
-    const trace = this.context.trace;
-    if (trace.active)
-      trace.append({
-        kind: "coupler.drop",
-        timeUs: this.context.clock.nowUs,
-        coupler: this.coupler.id,
-        telegramId: origin,
-        forwardedTelegramId: telegram.id,
-        fromLine: this.far.lineId,
-        toLine: this.lineId,
-        destination: telegram.frame.destination,
-        ...individual(telegram.frame),
-        reason: "not-acknowledged",
-      });
+    // Its far side heard it and took it: the drop is that side's, as if it had not passed it.
+    this.far.drop(origin, telegram.frame, "not-acknowledged", telegram.id);
   }
 
   /** Takes over `other`'s origins for the fork's copies of its telegrams. */
@@ -171,7 +158,16 @@ export class CouplerPort {
     if (origin !== undefined) this.origins.set(copy, origin);
   }
 
-  private drop(telegramId: number, frame: DataFrame, reason: CouplerDropReason): void {
+  /**
+   * Counts and traces a telegram heard on this side that does not reach the far
+   * line; `forwardedTelegramId` when it was sent there and not acknowledged.
+   */
+  private drop(
+    telegramId: number,
+    frame: DataFrame,
+    reason: CouplerDropReason,
+    forwardedTelegramId?: number,
+  ): void {
     this.context.counts.dropped[reason]++;
     const trace = this.context.trace;
     if (trace.active)
@@ -180,6 +176,7 @@ export class CouplerPort {
         timeUs: this.context.clock.nowUs,
         coupler: this.coupler.id,
         telegramId,
+        ...(forwardedTelegramId === undefined ? {} : { forwardedTelegramId }),
         fromLine: this.lineId,
         toLine: this.far.lineId,
         destination: frame.destination,
