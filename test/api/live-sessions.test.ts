@@ -6,18 +6,16 @@ import { createBench } from "@/db/queries/benches";
 import type { Role } from "@/db/schema";
 import {
   decodeCemi,
-  decodeKnxNetIpFrame,
   encodeCemi,
-  encodeKnxNetIpFrame,
   ROUTE_BACK_HPAI,
   simMessageSchema,
   STATUS,
   tunnelCri,
-  type KnxNetIpFrame,
 } from "@/engine";
 import { fakeWallClock } from "@/test/harness/fake-wall-clock";
 import { sseReader } from "./support/live-sessions";
 import { call, cookieFor, createWorld, destroyWorld, type World } from "./support/world";
+import { rawKnxNetIpClient } from "@/test/harness/raw-knxnetip-client";
 
 /**
  * The live-session routes, called as Next calls them, against a registry on a
@@ -459,33 +457,6 @@ describe("publishing on KNXnet/IP", () => {
   });
 });
 
-/** A bare KNXnet/IP client on 127.0.0.1 built on the engine's frame code; every wait is bounded. */
-async function rawClient(port: number) {
-  const socket = dgram.createSocket("udp4");
-  await new Promise<void>((resolve) => socket.bind(0, "127.0.0.1", () => resolve()));
-  const inbox: KnxNetIpFrame[] = [];
-  socket.on("message", (message) => {
-    const decoded = decodeKnxNetIpFrame(new Uint8Array(message));
-    if (decoded.ok) inbox.push(decoded.value);
-  });
-  return {
-    send(frame: KnxNetIpFrame) {
-      socket.send(encodeKnxNetIpFrame(frame), port, "127.0.0.1");
-    },
-    /** The first received frame passing `accept` (consumed), or undefined after `timeoutMs` of real time. */
-    async receive(accept: (frame: KnxNetIpFrame) => boolean, timeoutMs = 2000) {
-      const deadline = Date.now() + timeoutMs;
-      for (;;) {
-        const index = inbox.findIndex(accept);
-        if (index >= 0) return inbox.splice(index, 1)[0];
-        if (Date.now() > deadline) return undefined;
-        await new Promise((resolve) => setTimeout(resolve, 5));
-      }
-    },
-    close: () => socket.close(),
-  };
-}
-
 describe("publishing when no port is free", () => {
   it("answers 409 naming the range and leaves the session running unpublished", async () => {
     const taken = dgram.createSocket("udp4");
@@ -519,7 +490,7 @@ describe("a tunnel on a session's own clock", () => {
     const cookie = await cookieOf("engineer");
     const published = await sessionRequest("endpoint", "POST", session.id, { cookie });
     const { port } = ((await published.json()) as { session: LiveSessionView }).session.endpoint!;
-    const client = await rawClient(port);
+    const client = await rawKnxNetIpClient(port);
     try {
       client.send({
         service: "CONNECT_REQUEST",
