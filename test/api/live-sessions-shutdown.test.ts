@@ -1,7 +1,7 @@
 import { spawn, type ChildProcess } from "node:child_process";
 import path from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { ROUTE_BACK_HPAI, STATUS, tunnelCri } from "@/engine";
+import { STATUS } from "@/engine";
 import { createWorld, destroyWorld, type World } from "./support/world";
 import { rawKnxNetIpClient } from "@/test/harness/raw-knxnetip-client";
 
@@ -59,15 +59,9 @@ describe("a stopping server process", () => {
     const client = await rawKnxNetIpClient(port);
     const receive = (service: string) => client.receive((f) => f.service === service, 5000);
     try {
-      client.send({
-        service: "CONNECT_REQUEST",
-        controlEndpoint: ROUTE_BACK_HPAI,
-        dataEndpoint: ROUTE_BACK_HPAI,
-        cri: tunnelCri(),
-      });
-      const connected = await receive("CONNECT_RESPONSE");
-      expect(connected).toMatchObject({ status: STATUS.E_NO_ERROR });
-      const channelId = connected?.service === "CONNECT_RESPONSE" ? connected.channelId : -1;
+      const connected = await client.connectTunnel(5000);
+      expect(connected.status).toBe(STATUS.E_NO_ERROR);
+      const channelId = connected.channelId;
 
       child.kill("SIGTERM");
       expect(await receive("DISCONNECT_REQUEST")).toMatchObject({

@@ -10,7 +10,6 @@ import {
   ROUTE_BACK_HPAI,
   simMessageSchema,
   STATUS,
-  tunnelCri,
 } from "@/engine";
 import { fakeWallClock } from "@/test/harness/fake-wall-clock";
 import { sseReader } from "./support/live-sessions";
@@ -492,14 +491,7 @@ describe("a tunnel on a session's own clock", () => {
     const { port } = ((await published.json()) as { session: LiveSessionView }).session.endpoint!;
     const client = await rawKnxNetIpClient(port);
     try {
-      client.send({
-        service: "CONNECT_REQUEST",
-        controlEndpoint: ROUTE_BACK_HPAI,
-        dataEndpoint: ROUTE_BACK_HPAI,
-        cri: tunnelCri(),
-      });
-      const connected = await client.receive((f) => f.service === "CONNECT_RESPONSE");
-      if (connected?.service !== "CONNECT_RESPONSE") throw new Error("no CONNECT_RESPONSE");
+      const connected = await client.connectTunnel();
       expect(connected.status).toBe(STATUS.E_NO_ERROR);
       const channelId = connected.channelId;
       client.send({
