@@ -4,13 +4,7 @@ import { liveSessionViewSchema, type LiveSessionView } from "@/app/_lib/live/liv
 import { installLiveSessions, LiveSessionRegistry } from "@/app/_lib/live/live-session-registry";
 import { createBench } from "@/db/queries/benches";
 import type { Role } from "@/db/schema";
-import {
-  decodeCemi,
-  encodeCemi,
-  ROUTE_BACK_HPAI,
-  simMessageSchema,
-  STATUS,
-} from "@/engine";
+import { decodeCemi, encodeCemi, ROUTE_BACK_HPAI, simMessageSchema, STATUS } from "@/engine";
 import { fakeWallClock } from "@/test/harness/fake-wall-clock";
 import { sseReader } from "./support/live-sessions";
 import { call, cookieFor, createWorld, destroyWorld, type World } from "./support/world";
