@@ -80,6 +80,54 @@ function deviceOrder(address: string | undefined): number {
   return raw.ok ? raw.value : Number.MAX_SAFE_INTEGER - 1;
 }
 
+/**
+ * The devices drawn as cards, in the order both layouts place them: by
+ * individual address, bench order among equals. Couplers are left out: they
+ * sit on the border between two line regions, placed after the layout.
+ */
+function cardsInAddressOrder(bench: Bench): Bench["devices"] {
+  return bench.devices
+    .map((device, index) => ({ device, index }))
+    .filter(({ device }) => !isCoupler(device))
+    .sort(
+      (a, b) =>
+        deviceOrder(a.device.individualAddress) - deviceOrder(b.device.individualAddress) ||
+        a.index - b.index,
+    )
+    .map(({ device }) => device);
+}
+
+/** A bus-bar to place: its group address key, main/middle group and group frame. */
+interface PlacedBusBar {
+  readonly key: string;
+  readonly group: ReturnType<typeof middleGroupOf>;
+  readonly frameId: string;
+}
+
+/**
+ * The bus-bars in the order both layouts stack them: one per group address
+ * (by its key), by raw address, those that do not parse first; each with the
+ * main/middle group whose frame it sits in and that frame's id ("?" when the
+ * address does not parse).
+ */
+function busBarsInAddressOrder(bench: Bench): PlacedBusBar[] {
+  const bars = new Map<string, PlacedBusBar>();
+  const sorted = bench.groupAddresses
+    .map((g) => ({ g, raw: parseGroupAddress(g.address) }))
+    .sort((a, b) => (a.raw.ok ? a.raw.value : -1) - (b.raw.ok ? b.raw.value : -1));
+  for (const { g } of sorted) {
+    const key = groupAddressKey(g.address);
+    if (bars.has(key)) continue;
+    const group = middleGroupOf(g.address);
+    bars.set(key, {
+      key,
+      group,
+      frameId: group === undefined ? "?" : `${group.main}/${group.middle}`,
+    });
+  }
+  return [...bars.values()];
+}
+
 /** Above this many cards and bars the layout trades some crossing reduction for time. */
 const LARGE_BENCH_NODES = 400;
 
@@ -117,16 +165,8 @@ export function benchElkGraph(bench: Bench): ElkNode {
   const children: ElkNode[] = [];
   const edges: ElkExtendedEdge[] = [];
   const ports = new Set<string>();
-  const devices = bench.devices
-    .map((device, index) => ({ device, index }))
-    // Couplers sit on the border between two line regions, placed after the layout.
-    .filter(({ device }) => !isCoupler(device))
-    .sort(
-      (a, b) =>
-        deviceOrder(a.device.individualAddress) - deviceOrder(b.device.individualAddress) ||
-        a.index - b.index,
-    );
-  for (const { device } of devices) {
+  const cards = cardsInAddressOrder(bench);
+  for (const device of cards) {
     const objects = deviceObjects(device);
     for (const object of objects) ports.add(`d:${device.id}#${object.number}`);
     children.push({
@@ -147,12 +187,7 @@ export function benchElkGraph(bench: Bench): ElkNode {
 
   const groups = new Map<string, ElkNode>();
   const placedAddresses = new Map<string, string>();
-  const addresses = bench.groupAddresses
-    .map((g) => ({ g, raw: parseGroupAddress(g.address) }))
-    .sort((a, b) => (a.raw.ok ? a.raw.value : -1) - (b.raw.ok ? b.raw.value : -1));
-  for (const { g } of addresses) {
-    const key = groupAddressKey(g.address);
-    if (placedAddresses.has(key)) continue;
+  for (const { key, frameId: groupId } of busBarsInAddressOrder(bench)) {
     const bar: ElkNode = {
       id: `g:${key}`,
       width: BUS_BAR_WIDTH,
@@ -169,8 +204,6 @@ export function benchElkGraph(bench: Bench): ElkNode {
         },
       ],
     };
-    const group = middleGroupOf(g.address);
-    const groupId = group === undefined ? "?" : `${group.main}/${group.middle}`;
     let frame = groups.get(groupId);
     if (frame === undefined) {
       frame = { id: `mg:${groupId}`, layoutOptions: { ...GROUP_OPTIONS }, children: [] };
@@ -196,7 +229,7 @@ export function benchElkGraph(bench: Bench): ElkNode {
       targets: [`g:${key}#bus`],
     });
   }
-  const nodeCount = devices.length + addresses.length;
+  const nodeCount = cards.length + bench.groupAddresses.length;
   return {
     id: "bench",
     layoutOptions: {
@@ -302,15 +335,7 @@ export function withLineRegions(bench: Bench, layout: BenchLayout): BenchLayout 
 export function directLayout(bench: Bench): BenchLayout {
   const devices = new Map<string, Position>();
   let y = 0;
-  const cards = bench.devices
-    .map((device, index) => ({ device, index }))
-    .filter(({ device }) => !isCoupler(device))
-    .sort(
-      (a, b) =>
-        deviceOrder(a.device.individualAddress) - deviceOrder(b.device.individualAddress) ||
-        a.index - b.index,
-    );
-  for (const { device } of cards) {
+  for (const device of cardsInAddressOrder(bench)) {
     devices.set(device.id, { x: 0, y });
     y += cardHeight(deviceObjects(device).length) + NODE_GAP;
   }
@@ -324,14 +349,7 @@ export function directLayout(bench: Bench): BenchLayout {
     { main: number; middle: number; keys: string[]; sumY: number; n: number }
   >();
   const frameOfKey = new Map<string, string>();
-  const sorted = bench.groupAddresses
-    .map((g) => ({ g, raw: parseGroupAddress(g.address) }))
-    .sort((a, b) => (a.raw.ok ? a.raw.value : -1) - (b.raw.ok ? b.raw.value : -1));
-  for (const { g } of sorted) {
-    const key = groupAddressKey(g.address);
-    if (frameOfKey.has(key)) continue;
-    const group = middleGroupOf(g.address);
-    const id = group === undefined ? "?" : `${group.main}/${group.middle}`;
+  for (const { key, group, frameId: id } of busBarsInAddressOrder(bench)) {
     let frame = frames.get(id);
     if (frame === undefined) {
       frame = {

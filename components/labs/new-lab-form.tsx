@@ -32,6 +32,37 @@ const emptyRow: FaultRow = { kind: "relink", link: "", to: "", coupler: "", grou
 
 const inputClass = "w-full rounded-md border border-paper-line bg-white px-2 py-1.5 text-sm";
 
+/** A choice of one of the bench's group addresses, empty (showing `prompt`) until one is chosen. */
+function GroupAddressSelect({
+  label,
+  prompt,
+  groupAddresses = [],
+  value,
+  onChange,
+}: {
+  label: string;
+  prompt: string;
+  groupAddresses?: LabBenchChoice["groupAddresses"];
+  value: string;
+  onChange: (address: string) => void;
+}) {
+  return (
+    <select
+      aria-label={label}
+      className={inputClass}
+      value={value}
+      onChange={(e) => onChange(e.target.value)}
+    >
+      <option value="">{prompt}</option>
+      {groupAddresses.map((ga) => (
+        <option key={ga.address} value={ga.address}>
+          {ga.address} {ga.name}
+        </option>
+      ))}
+    </select>
+  );
+}
+
 /** A trainer's form for a new lab: bench, grading scenario, brief and faults to hide in the copies. */
 export function NewLabForm({ benches }: { benches: readonly LabBenchChoice[] }) {
   const router = useRouter();
@@ -185,19 +216,13 @@ export function NewLabForm({ benches }: { benches: readonly LabBenchChoice[] }) 
                       </option>
                     ))}
                   </select>
-                  <select
-                    aria-label={`Hidden fault ${index + 1}: move to`}
-                    className={inputClass}
+                  <GroupAddressSelect
+                    label={`Hidden fault ${index + 1}: move to`}
+                    prompt="move to"
+                    groupAddresses={bench?.groupAddresses}
                     value={row.to}
-                    onChange={(e) => update({ to: e.target.value })}
-                  >
-                    <option value="">move to</option>
-                    {bench?.groupAddresses.map((ga) => (
-                      <option key={ga.address} value={ga.address}>
-                        {ga.address} {ga.name}
-                      </option>
-                    ))}
-                  </select>
+                    onChange={(to) => update({ to })}
+                  />
                 </>
               ) : (
                 <>
@@ -214,19 +239,13 @@ export function NewLabForm({ benches }: { benches: readonly LabBenchChoice[] }) 
                       </option>
                     ))}
                   </select>
-                  <select
-                    aria-label={`Hidden fault ${index + 1}: address left out`}
-                    className={inputClass}
+                  <GroupAddressSelect
+                    label={`Hidden fault ${index + 1}: address left out`}
+                    prompt="address left out of the table"
+                    groupAddresses={bench?.groupAddresses}
                     value={row.groupAddress}
-                    onChange={(e) => update({ groupAddress: e.target.value })}
-                  >
-                    <option value="">address left out of the table</option>
-                    {bench?.groupAddresses.map((ga) => (
-                      <option key={ga.address} value={ga.address}>
-                        {ga.address} {ga.name}
-                      </option>
-                    ))}
-                  </select>
+                    onChange={(groupAddress) => update({ groupAddress })}
+                  />
                 </>
               )}
               <Button

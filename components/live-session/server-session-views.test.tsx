@@ -10,6 +10,7 @@ import { createSimStore } from "@/components/sim/sim-store";
 import { EndpointPanel } from "./endpoint-panel";
 import { ServerSessionList } from "./server-session-list";
 import { SessionBar } from "./session-bar";
+import { publishedSessionView, unpublishedSessionView } from "@/test/harness/live-session-views";
 
 /**
  * The views only a server session has (endpoint panel, session bar, real-time
@@ -31,38 +32,8 @@ beforeAll(() =>
 );
 afterAll(() => Reflect.deleteProperty(HTMLElement.prototype, "clientHeight"));
 
-const client = {
-  channelId: 7,
-  address: "127.0.0.1",
-  port: 50123,
-  individualAddress: "1.1.241",
-  connectedSince: "2026-12-02T07:02:00.000Z",
-  telegramsIn: 3,
-  telegramsOut: 12,
-};
-
-const unpublished: LiveSessionView = {
-  id: "ls-1",
-  benchId: "bench-1",
-  benchName: "Training room",
-  revision: 3,
-  owner: { memberId: "m-owner", name: "Theo Apprentice" },
-  startedAt: "2026-12-02T07:00:00.000Z",
-  lastActivityAt: "2026-12-02T07:01:00.000Z",
-  idleStopAt: "2026-12-02T07:31:00.000Z",
-  canControl: true,
-  endpoint: null,
-};
-const published: LiveSessionView = {
-  ...unpublished,
-  endpoint: {
-    address: "127.0.0.1",
-    port: 3671,
-    loopback: true,
-    individualAddress: "1.1.240",
-    clients: [client],
-  },
-};
+const unpublished = unpublishedSessionView;
+const published = publishedSessionView;
 
 type Call = { url: string; method: string };
 

@@ -1,11 +1,11 @@
 import { afterEach, describe, expect, it, vi } from "vitest";
-import type { LiveSessionView } from "@/app/_lib/live/live-session-view";
 import { LiveSession } from "@/engine";
 import { trainingRoomBench } from "@/test/harness/training-room-bench";
 import { createLiveLinkStore } from "./live-link-store";
 import { ServerSimClient, type EventStreamLike } from "./server-sim-client";
 import type { LogRow, SimCommand, SimMessage } from "./sim-protocol";
 import { createSimStore } from "./sim-store";
+import { publishedSessionView } from "@/test/harness/live-session-views";
 
 /**
  * The server transport against a fake EventSource and a fake fetch, fed with
@@ -70,34 +70,7 @@ function sessionMessages(): SimMessage[] {
   return messages;
 }
 
-const view: LiveSessionView = {
-  id: "ls-1",
-  benchId: "bench-1",
-  benchName: "Training room",
-  revision: 3,
-  owner: { memberId: "m-apprentice", name: "Theo Apprentice" },
-  startedAt: "2026-12-02T07:00:00.000Z",
-  lastActivityAt: "2026-12-02T07:01:00.000Z",
-  idleStopAt: "2026-12-02T07:31:00.000Z",
-  canControl: true,
-  endpoint: {
-    address: "127.0.0.1",
-    port: 3671,
-    loopback: true,
-    individualAddress: "1.1.240",
-    clients: [
-      {
-        channelId: 1,
-        address: "127.0.0.1",
-        port: 50123,
-        individualAddress: "1.1.241",
-        connectedSince: "2026-12-02T07:02:00.000Z",
-        telegramsIn: 3,
-        telegramsOut: 12,
-      },
-    ],
-  },
-};
+const view = publishedSessionView;
 
 type FetchCall = { url: string; init: RequestInit | undefined };
 

@@ -75,6 +75,38 @@ describe("loadBench", () => {
     ]);
   });
 
+  it("names an id used twice in lines, unit links and devices, each where its second use is", () => {
+    const base = bench();
+    const errors = errorsOf({
+      ...base,
+      lines: [...base.lines!, { ...base.lines![0]!, address: "1.2" }],
+      unitLinks: [
+        { id: "ul", members: ["pb-hall", "act-hall"] },
+        { id: "ul", members: ["pb-hall", "act-hall"] },
+      ],
+      devices: [...base.devices!, { ...base.devices![0]!, individualAddress: "1.1.9" }],
+    });
+    const id = base.devices![0]!.id;
+    expect(errors.filter((e) => e.kind === "bench.duplicate-id")).toEqual([
+      {
+        kind: "bench.duplicate-id",
+        path: "lines[1].id",
+        message: `line id "${base.lines![0]!.id}" is used twice`,
+      },
+      {
+        kind: "bench.duplicate-id",
+        path: "unitLinks[1].id",
+        message: 'unit link id "ul" is used twice',
+      },
+      {
+        kind: "bench.duplicate-id",
+        path: "devices[2].id",
+        message: `device id "${id}" is used twice`,
+        deviceId: id,
+      },
+    ]);
+  });
+
   it("names an unknown device type", () => {
     const errors = errorsOf(
       bench({

@@ -127,6 +127,29 @@ export function loadBench(
   return resolveBench(parsed.data, options);
 }
 
+/**
+ * The ids of one list in the bench (lines, unit links, rooms, devices): each
+ * must be unique within its list. `claim` records an id at `list[i]`, a second
+ * use of it being a bench.duplicate-id error there; `has` asks whether one was
+ * claimed (for references to the list).
+ */
+function benchIds(list: string, what: string, errors: BenchError[]) {
+  const ids = new Set<string>();
+  return {
+    claim(id: string, i: number, extra: { readonly deviceId?: string } = {}): void {
+      if (ids.has(id))
+        errors.push({
+          kind: "bench.duplicate-id",
+          path: `${list}[${i}].id`,
+          message: `${what} id "${id}" is used twice`,
+          ...extra,
+        });
+      ids.add(id);
+    },
+    has: (id: string): boolean => ids.has(id),
+  };
+}
+
 function resolveBench(
   bench: Bench,
   options: LoadBenchOptions,
@@ -136,15 +159,9 @@ function resolveBench(
 
   // Lines.
   const lines: LoadedLine[] = [];
-  const lineIds = new Set<string>();
+  const lineIds = benchIds("lines", "line", errors);
   bench.lines.forEach((line, i) => {
-    if (lineIds.has(line.id))
-      errors.push({
-        kind: "bench.duplicate-id",
-        path: `lines[${i}].id`,
-        message: `line id "${line.id}" is used twice`,
-      });
-    lineIds.add(line.id);
+    lineIds.claim(line.id, i);
     const [area, lineNumber] = line.address.split(".").map(Number) as [number, number];
     if (area > 15 || lineNumber > 15) {
       errors.push({
@@ -216,15 +233,9 @@ function resolveBench(
 
   // Unit-link membership, needed by each device.
   const unitLinksOf = new Map<string, string[]>();
-  const unitLinkIds = new Set<string>();
+  const unitLinkIds = benchIds("unitLinks", "unit link", errors);
   bench.unitLinks.forEach((link, i) => {
-    if (unitLinkIds.has(link.id))
-      errors.push({
-        kind: "bench.duplicate-id",
-        path: `unitLinks[${i}].id`,
-        message: `unit link id "${link.id}" is used twice`,
-      });
-    unitLinkIds.add(link.id);
+    unitLinkIds.claim(link.id, i);
     link.members.forEach((member) =>
       unitLinksOf.set(member, [...(unitLinksOf.get(member) ?? []), link.id]),
     );
@@ -232,15 +243,9 @@ function resolveBench(
 
   // Rooms.
   const rooms: LoadedRoom[] = [];
-  const roomIds = new Set<string>();
+  const roomIds = benchIds("rooms", "room", errors);
   (bench.rooms ?? []).forEach((room, i) => {
-    if (roomIds.has(room.id))
-      errors.push({
-        kind: "bench.duplicate-id",
-        path: `rooms[${i}].id`,
-        message: `room id "${room.id}" is used twice`,
-      });
-    roomIds.add(room.id);
+    roomIds.claim(room.id, i);
     rooms.push({ id: room.id, name: room.name, spec: roomSpecOf(room) });
   });
 
@@ -293,17 +298,10 @@ function resolveBench(
 
   // Devices.
   const devices: LoadedDevice[] = [];
-  const seenDeviceIds = new Set<string>();
+  const seenDeviceIds = benchIds("devices", "device", errors);
   bench.devices.forEach((device, i) => {
     const path = `devices[${i}]`;
-    if (seenDeviceIds.has(device.id))
-      errors.push({
-        kind: "bench.duplicate-id",
-        path: `${path}.id`,
-        message: `device id "${device.id}" is used twice`,
-        deviceId: device.id,
-      });
-    seenDeviceIds.add(device.id);
+    seenDeviceIds.claim(device.id, i, { deviceId: device.id });
     if (device.room !== undefined && !roomIds.has(device.room))
       errors.push({
         kind: "bench.room-unknown",

@@ -1,5 +1,5 @@
 import { beforeAll, describe, expect, it } from "vitest";
-import { benchBuilder, registerTestDevices } from "@/test/harness";
+import { benchBuilder, registerTestDevices, twoFloorsFixture } from "@/test/harness";
 import { benchSchema, loadBench } from "../bench";
 import { benchTopology, generateFilterTable, generateFilterTableTexts } from "../topology";
 import { checkBench } from "./check-bench";
@@ -8,21 +8,9 @@ import { benchView } from "./bench-view";
 
 beforeAll(registerTestDevices);
 
-/** Sender on 1.1, listener on 1.2, both lines under main line 1.0 with their line couplers. */
-function twoFloors(c12: Record<string, unknown> = {}) {
-  return benchBuilder()
-    .mainLine("l11", "1.1")
-    .line("m1", "1.0")
-    .line("l12", "1.2")
-    .groupAddress("1/0/1", "7.001")
-    .groupAddress("1/0/9", "7.001")
-    .device("c11", "coupler", "1.1.0")
-    .device("c12", "coupler", "1.2.0", c12)
-    .device("s", "test-recorder", "1.1.1")
-    .device("r", "test-recorder", "1.2.1")
-    .link("s", 0, "1/0/1")
-    .link("r", 0, "1/0/1");
-}
+/** Sender on 1.1, listener on 1.2 (and 1/0/9, used by nobody), both lines under main line 1.0. */
+const twoFloors = (c12: Record<string, unknown> = {}) =>
+  twoFloorsFixture(c12).groupAddress("1/0/9", "7.001");
 
 const check = (doc: unknown, rule: string) => checkBench(benchSchema.parse(doc), { rules: [rule] });
 

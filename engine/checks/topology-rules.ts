@@ -110,18 +110,17 @@ export const topologyAddressWrongLineRule: BenchCheckRule = {
       const lineAddress = topology.lineAddress.get(line);
       if (!parsed.ok || lineAddress === undefined) continue;
       const own = parsed.value >> 8;
-      if (own !== lineAddress)
+      const message =
+        own !== lineAddress
+          ? `${entry.device.name} (${id}) has individual address ${entry.device.individualAddress}, which belongs to line ${formatLineAddress(own)}, but sits on line ${formatLineAddress(lineAddress)} ("${line}")`
+          : (parsed.value & 0xff) === 0 && entry.type?.id !== COUPLER_TYPE_ID
+            ? `${entry.device.name} (${id}) has individual address ${formatIndividualAddress(parsed.value)}, the address of line ${formatLineAddress(own)}'s coupler (device number 0 is the coupler's; knx-reference.md, Topology)`
+            : undefined;
+      if (message !== undefined)
         findings.push({
           rule: this.id,
           severity: this.severity,
-          message: `${entry.device.name} (${id}) has individual address ${entry.device.individualAddress}, which belongs to line ${formatLineAddress(own)}, but sits on line ${formatLineAddress(lineAddress)} ("${line}")`,
-          location: { device: id, line },
-        });
-      else if ((parsed.value & 0xff) === 0 && entry.type?.id !== COUPLER_TYPE_ID)
-        findings.push({
-          rule: this.id,
-          severity: this.severity,
-          message: `${entry.device.name} (${id}) has individual address ${formatIndividualAddress(parsed.value)}, the address of line ${formatLineAddress(own)}'s coupler (device number 0 is the coupler's; knx-reference.md, Topology)`,
+          message,
           location: { device: id, line },
         });
     }
@@ -142,21 +141,16 @@ export const topologyLineLimitsRule: BenchCheckRule = {
       if (count <= DEVICES_PER_SEGMENT) continue;
       const address = formatLineAddress(topology.lineAddress.get(line) ?? 0);
       const most = DEVICES_PER_SEGMENT * SEGMENTS_PER_LINE;
-      findings.push(
-        count > most
-          ? {
-              rule: this.id,
-              severity: "error",
-              message: `line ${address} ("${line}") has ${count} devices: more than ${most}, the most a line carries with ${SEGMENTS_PER_LINE} segments of ${DEVICES_PER_SEGMENT} (line repeaters); split it into more lines`,
-              location: { line },
-            }
-          : {
-              rule: this.id,
-              severity: this.severity,
-              message: `line ${address} ("${line}") has ${count} devices: more than ${DEVICES_PER_SEGMENT} on one segment, so it needs ${Math.ceil(count / DEVICES_PER_SEGMENT)} segments joined by line repeaters (not modelled: the bench runs it as one segment)`,
-              location: { line },
-            },
-      );
+      findings.push({
+        rule: this.id,
+        // Beyond what repeaters can carry is an error; needing repeaters the bench does not model, a warning.
+        severity: count > most ? "error" : this.severity,
+        message:
+          count > most
+            ? `line ${address} ("${line}") has ${count} devices: more than ${most}, the most a line carries with ${SEGMENTS_PER_LINE} segments of ${DEVICES_PER_SEGMENT} (line repeaters); split it into more lines`
+            : `line ${address} ("${line}") has ${count} devices: more than ${DEVICES_PER_SEGMENT} on one segment, so it needs ${Math.ceil(count / DEVICES_PER_SEGMENT)} segments joined by line repeaters (not modelled: the bench runs it as one segment)`,
+        location: { line },
+      });
     }
     return findings;
   },

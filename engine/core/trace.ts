@@ -38,6 +38,26 @@ export interface TelegramTraceFields {
   readonly individual?: true;
 }
 
+/**
+ * Fields shared by every coupler event: a telegram heard on `fromLine` that the
+ * coupler passes (or does not pass) towards `toLine`.
+ */
+export interface CouplerTraceFields {
+  readonly timeUs: number;
+  /** Device id of the coupler. */
+  readonly coupler: string;
+  /** The telegram as heard on `fromLine`. */
+  readonly telegramId: number;
+  /** The same telegram as the coupler sends it on `toLine`. */
+  readonly forwardedTelegramId: number;
+  readonly fromLine: string;
+  readonly toLine: string;
+  /** Raw destination address. */
+  readonly destination: number;
+  /** Set when the telegram is individually addressed (`destination` is an individual address). */
+  readonly individual?: true;
+}
+
 export type TraceEvent =
   /** A telegram entered its sender's queue. */
   | ({ readonly kind: "telegram.queued" } & TelegramTraceFields)
@@ -134,57 +154,26 @@ export type TraceEvent =
    * queued it for `toLine` as `forwardedTelegramId`, with `hopCount` the
    * decreased routing counter it carries there.
    */
-  | {
-      readonly kind: "coupler.forward";
-      readonly timeUs: number;
-      /** Device id of the coupler. */
-      readonly coupler: string;
-      /** The telegram as heard on `fromLine`. */
-      readonly telegramId: number;
-      /** The same telegram as the coupler sends it on `toLine`. */
-      readonly forwardedTelegramId: number;
-      readonly fromLine: string;
-      readonly toLine: string;
-      /** Raw destination address. */
-      readonly destination: number;
-      /** Set when the telegram is individually addressed (`destination` is an individual address). */
-      readonly individual?: true;
-      readonly hopCount: number;
-    }
+  | ({ readonly kind: "coupler.forward"; readonly hopCount: number } & CouplerTraceFields)
   /** A forwarded telegram waits in the coupler's buffer: `toLine` is busy or `queued` telegrams are ahead of it. */
-  | {
+  | ({
       readonly kind: "coupler.hold";
-      readonly timeUs: number;
-      readonly coupler: string;
-      readonly telegramId: number;
-      readonly forwardedTelegramId: number;
-      readonly fromLine: string;
-      readonly toLine: string;
-      readonly destination: number;
-      readonly individual?: true;
       /** Telegrams ahead of it in the buffer for `toLine`. */
       readonly queued: number;
-    }
+    } & CouplerTraceFields)
   /**
    * A coupler did not pass a telegram on: not in its filter table ("filter"),
    * group or individual telegrams blocked by its setting ("blocked"), routing
    * counter used up ("hop-count"), its buffer full ("queue-full": it answered
    * BUSY, so the sender repeats), or nobody acknowledged it on `toLine` after
-   * the last repetition ("not-acknowledged").
+   * the last repetition ("not-acknowledged"). `forwardedTelegramId` is set
+   * only for "not-acknowledged": the telegram as it was sent on `toLine`.
    */
-  | {
+  | ({
       readonly kind: "coupler.drop";
-      readonly timeUs: number;
-      readonly coupler: string;
-      readonly telegramId: number;
-      /** Set for "not-acknowledged": the telegram as it was sent on `toLine`. */
-      readonly forwardedTelegramId?: number;
-      readonly fromLine: string;
-      readonly toLine: string;
-      readonly destination: number;
-      readonly individual?: true;
       readonly reason: "filter" | "blocked" | "hop-count" | "queue-full" | "not-acknowledged";
-    }
+    } & Omit<CouplerTraceFields, "forwardedTelegramId"> &
+      Partial<Pick<CouplerTraceFields, "forwardedTelegramId">>)
   /** Something a person (or a scenario step) did from outside. */
   | {
       readonly kind: "user.action";

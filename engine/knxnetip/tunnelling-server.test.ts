@@ -113,6 +113,11 @@ function request(channelId: number, sequenceCounter: number, frame = write2102):
   };
 }
 
+/** A client's heartbeat on its channel (Core §5.4: CONNECTIONSTATE_REQUEST). */
+function heartbeatRequest(channelId: number): KnxNetIpFrame {
+  return { service: "CONNECTIONSTATE_REQUEST", channelId, controlEndpoint: ROUTE_BACK_HPAI };
+}
+
 function cemiOf(frame: KnxNetIpFrame) {
   if (frame.service !== "TUNNELLING_REQUEST") throw new Error(frame.service);
   const cemi = decodeCemi(frame.cemi);
@@ -502,11 +507,7 @@ describe("tunnelling server: heartbeat and disconnect", () => {
   it("answers connection-state requests and keeps a tunnel alive while they come (Core §5.4: 120 s)", () => {
     const h = harness();
     const a = h.connect(CLIENT_A);
-    const heartbeat: KnxNetIpFrame = {
-      service: "CONNECTIONSTATE_REQUEST",
-      channelId: a,
-      controlEndpoint: ROUTE_BACK_HPAI,
-    };
+    const heartbeat = heartbeatRequest(a);
     for (let t = 60; t <= 600; t += 60) {
       expect(sent(h.at(t * S).receive(CLIENT_A, heartbeat))[0]!.frame).toEqual({
         service: "CONNECTIONSTATE_RESPONSE",
@@ -533,11 +534,7 @@ describe("tunnelling server: heartbeat and disconnect", () => {
   it("answers a heartbeat with E_DATA_CONNECTION while a request to the client waits on its repetition", () => {
     const h = harness();
     const a = h.connect(CLIENT_A);
-    const heartbeat: KnxNetIpFrame = {
-      service: "CONNECTIONSTATE_REQUEST",
-      channelId: a,
-      controlEndpoint: ROUTE_BACK_HPAI,
-    };
+    const heartbeat = heartbeatRequest(a);
     const fromDevice: DataFrame = { ...write2102, source: 0x1114, destination: 0x1102 };
     h.apply({ kind: "line.frame", nowUs: 0, frame: fromDevice });
     // Outstanding but not yet overdue: the data connection is fine.
@@ -565,11 +562,7 @@ describe("tunnelling server: heartbeat and disconnect", () => {
   it("answers a heartbeat with E_KNX_CONNECTION while the KNX side is down, and confirms frames negatively then", () => {
     const h = harness();
     const a = h.connect(CLIENT_A);
-    const heartbeat: KnxNetIpFrame = {
-      service: "CONNECTIONSTATE_REQUEST",
-      channelId: a,
-      controlEndpoint: ROUTE_BACK_HPAI,
-    };
+    const heartbeat = heartbeatRequest(a);
     h.apply({ kind: "line.state", nowUs: 0, available: false });
     expect(sent(h.receive(CLIENT_A, heartbeat))[0]!.frame).toEqual({
       service: "CONNECTIONSTATE_RESPONSE",

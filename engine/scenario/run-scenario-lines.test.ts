@@ -1,5 +1,5 @@
 import { beforeAll, describe, expect, it } from "vitest";
-import { benchBuilder, registerTestDevices } from "@/test/harness";
+import { registerTestDevices, twoFloorsFixture } from "@/test/harness";
 import type { TraceEvent } from "../core/trace";
 import { createSimulation } from "../sim";
 import { describeTraceEvent } from "./describe-trace-event";
@@ -11,20 +11,10 @@ beforeAll(registerTestDevices);
 
 /** Test tool on 1.1; 1/0/1 has listeners on 1.1 and 1.2, 1/0/9 only on 1.1. */
 const bench = () =>
-  benchBuilder()
+  twoFloorsFixture()
     .named("Two floors")
-    .mainLine("l11", "1.1")
-    .line("m1", "1.0")
-    .line("l12", "1.2")
-    .groupAddress("1/0/1", "7.001")
     .groupAddress("1/0/9", "7.001")
-    .device("c11", "coupler", "1.1.0")
-    .device("c12", "coupler", "1.2.0")
-    .device("s", "test-recorder", "1.1.1")
-    .device("r", "test-recorder", "1.2.1")
     .device("t", "test-recorder", "1.1.2")
-    .link("s", 0, "1/0/1")
-    .link("r", 0, "1/0/1")
     .link("t", 0, "1/0/9")
     .build();
 

@@ -1,16 +1,9 @@
 import { spawn, type ChildProcess } from "node:child_process";
-import dgram from "node:dgram";
 import path from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import {
-  decodeKnxNetIpFrame,
-  encodeKnxNetIpFrame,
-  ROUTE_BACK_HPAI,
-  STATUS,
-  tunnelCri,
-  type KnxNetIpFrame,
-} from "@/engine";
+import { STATUS } from "@/engine";
 import { createWorld, destroyWorld, type World } from "./support/world";
+import { rawKnxNetIpClient } from "@/test/harness/raw-knxnetip-client";
 
 /**
  * Live sessions live in memory: when the server process is told to stop
@@ -63,36 +56,12 @@ describe("a stopping server process", () => {
     );
     const port = await published(child);
 
-    const socket = dgram.createSocket("udp4");
-    await new Promise<void>((resolve) => socket.bind(0, "127.0.0.1", () => resolve()));
-    const inbox: KnxNetIpFrame[] = [];
-    socket.on("message", (message) => {
-      const decoded = decodeKnxNetIpFrame(new Uint8Array(message));
-      if (decoded.ok) inbox.push(decoded.value);
-    });
-    const receive = async (service: string) => {
-      const deadline = Date.now() + 5000;
-      while (Date.now() < deadline) {
-        const found = inbox.find((f) => f.service === service);
-        if (found) return found;
-        await new Promise((resolve) => setTimeout(resolve, 10));
-      }
-      throw new Error(`no ${service}`);
-    };
+    const client = await rawKnxNetIpClient(port);
+    const receive = (service: string) => client.receive((f) => f.service === service, 5000);
     try {
-      socket.send(
-        encodeKnxNetIpFrame({
-          service: "CONNECT_REQUEST",
-          controlEndpoint: ROUTE_BACK_HPAI,
-          dataEndpoint: ROUTE_BACK_HPAI,
-          cri: tunnelCri(),
-        }),
-        port,
-        "127.0.0.1",
-      );
-      const connected = await receive("CONNECT_RESPONSE");
-      expect(connected).toMatchObject({ status: STATUS.E_NO_ERROR });
-      const channelId = connected.service === "CONNECT_RESPONSE" ? connected.channelId : -1;
+      const connected = await client.connectTunnel(5000);
+      expect(connected.status).toBe(STATUS.E_NO_ERROR);
+      const channelId = connected.channelId;
 
       child.kill("SIGTERM");
       expect(await receive("DISCONNECT_REQUEST")).toMatchObject({
@@ -100,7 +69,7 @@ describe("a stopping server process", () => {
         channelId,
       });
     } finally {
-      socket.close();
+      client.close();
     }
   }, 40_000);
 });

@@ -4,19 +4,11 @@ import { liveSessionViewSchema, type LiveSessionView } from "@/app/_lib/live/liv
 import { installLiveSessions, LiveSessionRegistry } from "@/app/_lib/live/live-session-registry";
 import { createBench } from "@/db/queries/benches";
 import type { Role } from "@/db/schema";
-import {
-  decodeCemi,
-  decodeKnxNetIpFrame,
-  encodeCemi,
-  encodeKnxNetIpFrame,
-  ROUTE_BACK_HPAI,
-  simMessageSchema,
-  STATUS,
-  tunnelCri,
-  type KnxNetIpFrame,
-} from "@/engine";
-import { fakeLiveSessionClock, sseReader } from "./support/live-sessions";
+import { decodeCemi, encodeCemi, ROUTE_BACK_HPAI, simMessageSchema, STATUS } from "@/engine";
+import { fakeWallClock } from "@/test/harness/fake-wall-clock";
+import { sseReader } from "./support/live-sessions";
 import { call, cookieFor, createWorld, destroyWorld, type World } from "./support/world";
+import { rawKnxNetIpClient } from "@/test/harness/raw-knxnetip-client";
 
 /**
  * The live-session routes, called as Next calls them, against a registry on a
@@ -38,7 +30,7 @@ const routes = {
 
 const IDLE_MS = 60_000;
 let world: World;
-let fake: ReturnType<typeof fakeLiveSessionClock>;
+let fake: ReturnType<typeof fakeWallClock>;
 let registry: LiveSessionRegistry;
 const limits = { perMember: 2, perWorkspace: 4, idleMs: IDLE_MS };
 /** The endpoints' port range: any free port unless a test names one. */
@@ -54,7 +46,7 @@ afterAll(async () => {
 });
 
 function freshRegistry() {
-  fake = fakeLiveSessionClock();
+  fake = fakeWallClock();
   registry = new LiveSessionRegistry({
     clock: fake.clock,
     limits: () => limits,
@@ -458,33 +450,6 @@ describe("publishing on KNXnet/IP", () => {
   });
 });
 
-/** A bare KNXnet/IP client on 127.0.0.1 built on the engine's frame code; every wait is bounded. */
-async function rawClient(port: number) {
-  const socket = dgram.createSocket("udp4");
-  await new Promise<void>((resolve) => socket.bind(0, "127.0.0.1", () => resolve()));
-  const inbox: KnxNetIpFrame[] = [];
-  socket.on("message", (message) => {
-    const decoded = decodeKnxNetIpFrame(new Uint8Array(message));
-    if (decoded.ok) inbox.push(decoded.value);
-  });
-  return {
-    send(frame: KnxNetIpFrame) {
-      socket.send(encodeKnxNetIpFrame(frame), port, "127.0.0.1");
-    },
-    /** The first received frame passing `accept` (consumed), or undefined after `timeoutMs` of real time. */
-    async receive(accept: (frame: KnxNetIpFrame) => boolean, timeoutMs = 2000) {
-      const deadline = Date.now() + timeoutMs;
-      for (;;) {
-        const index = inbox.findIndex(accept);
-        if (index >= 0) return inbox.splice(index, 1)[0];
-        if (Date.now() > deadline) return undefined;
-        await new Promise((resolve) => setTimeout(resolve, 5));
-      }
-    },
-    close: () => socket.close(),
-  };
-}
-
 describe("publishing when no port is free", () => {
   it("answers 409 naming the range and leaves the session running unpublished", async () => {
     const taken = dgram.createSocket("udp4");
@@ -518,16 +483,9 @@ describe("a tunnel on a session's own clock", () => {
     const cookie = await cookieOf("engineer");
     const published = await sessionRequest("endpoint", "POST", session.id, { cookie });
     const { port } = ((await published.json()) as { session: LiveSessionView }).session.endpoint!;
-    const client = await rawClient(port);
+    const client = await rawKnxNetIpClient(port);
     try {
-      client.send({
-        service: "CONNECT_REQUEST",
-        controlEndpoint: ROUTE_BACK_HPAI,
-        dataEndpoint: ROUTE_BACK_HPAI,
-        cri: tunnelCri(),
-      });
-      const connected = await client.receive((f) => f.service === "CONNECT_RESPONSE");
-      if (connected?.service !== "CONNECT_RESPONSE") throw new Error("no CONNECT_RESPONSE");
+      const connected = await client.connectTunnel();
       expect(connected.status).toBe(STATUS.E_NO_ERROR);
       const channelId = connected.channelId;
       client.send({

@@ -16,7 +16,6 @@
  * dropped, and the time of `checkBench` on the building.
  * Targets: the day in under 10 s single-threaded with the trace off; checkBench under 1 s.
  */
-import { performance } from "node:perf_hooks";
 import {
   benchSchema,
   checkBench,
@@ -27,21 +26,13 @@ import {
   type LoadedBench,
 } from "../../engine";
 import { generateBuilding } from "./building-generator";
+import { startClock } from "./stopwatch";
 
 const TARGET_DAY_WALL_S = 10;
 const TARGET_CHECK_S = 1;
 const HVAC_EVERY = 3;
 const DAY_US = 24 * 3_600_000_000;
 const WINDOW_US = 10_000_000;
-
-function startClock(): () => { wallS: number; cpuS: number } {
-  const wall = performance.now();
-  const cpu = process.cpuUsage();
-  return () => {
-    const used = process.cpuUsage(cpu);
-    return { wallS: (performance.now() - wall) / 1000, cpuS: (used.user + used.system) / 1e6 };
-  };
-}
 
 /** Button presses through the day: each button about 8 times between 07:00 and 19:00, seeded. */
 function presses(bench: LoadedBench): { atUs: number; device: string }[] {

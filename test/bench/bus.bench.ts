@@ -16,7 +16,6 @@
  * a 100,000-event ring, the live console's setting, to show what recording costs.
  * Targets: >= 1,000,000 deliveries per second; the day in under 2 s.
  */
-import { performance } from "node:perf_hooks";
 import { z } from "zod";
 import type { BenchInput } from "../../engine";
 import { createRng } from "../../engine";
@@ -24,22 +23,10 @@ import { registerDeviceType } from "../../engine";
 import { flags, type DeviceType } from "../../engine";
 import { createSimulation } from "../../engine";
 import { benchBuilder } from "../harness/bench-builder";
+import { startClock } from "./stopwatch";
 
 const TARGET_DELIVERIES_PER_S = 1_000_000;
 
-/**
- * Wall-clock and CPU seconds since the call. The targets are wall-clock; CPU
- * time of this process is printed beside it because the machine may be shared,
- * and other processes stretch wall time but not our CPU time.
- */
-function startClock(): () => { wallS: number; cpuS: number } {
-  const wall = performance.now();
-  const cpu = process.cpuUsage();
-  return () => {
-    const used = process.cpuUsage(cpu);
-    return { wallS: (performance.now() - wall) / 1000, cpuS: (used.user + used.system) / 1e6 };
-  };
-}
 const TARGET_DAY_WALL_S = 2;
 const DAY_US = 24 * 3_600_000_000;
 

@@ -1,7 +1,7 @@
-import { AxeBuilder } from "@axe-core/playwright";
 import type { Browser, BrowserContext, Page } from "playwright-core";
 import { afterAll, afterEach, beforeAll, describe, expect, inject, it } from "vitest";
 import { launchChromium } from "./chromium";
+import { seriousViolations } from "./support/axe";
 import { demoPassword, signIn } from "./support/sign-in";
 
 /**
@@ -9,13 +9,8 @@ import { demoPassword, signIn } from "./support/sign-in";
  * page's main states: zero serious or critical violations. The live console
  * has its own scan beside its keyboard tests. One browser; each role signs in
  * once in its own context and walks its pages in one tab, so the scan stays a
- * few dozen page loads on a small machine.
- *
- * Rules: axe-core's WCAG 2.0/2.1/2.2 A and AA tags (axe-core rule descriptions,
- * https://github.com/dequelabs/axe-core/blob/develop/doc/rule-descriptions.md).
+ * few dozen page loads on a small machine. Rules: WCAG_TAGS (test/e2e/support/axe.ts).
  */
-const WCAG_TAGS = ["wcag2a", "wcag2aa", "wcag21a", "wcag21aa", "wcag22aa"];
-
 const people = {
   admin: "ines.admin@fernhill.example",
   trainer: "ada.trainer@fernhill.example",
@@ -24,20 +19,6 @@ const people = {
   apprentice: "leo.apprentice@fernhill.example",
 } as const;
 type Role = keyof typeof people;
-
-/** Serious and critical violations as short lines: rule, impact, count and the first targets. */
-async function seriousViolations(page: Page): Promise<string[]> {
-  const results = await new AxeBuilder({ page }).withTags(WCAG_TAGS).analyze();
-  return results.violations
-    .filter((v) => v.impact === "serious" || v.impact === "critical")
-    .map(
-      (v) =>
-        `${v.id} (${v.impact}, ${v.nodes.length}): ${v.nodes
-          .slice(0, 3)
-          .map((n) => `${n.target.join(" ")} ${n.failureSummary?.split("\n")[1]?.trim() ?? ""}`)
-          .join(" | ")}`,
-    );
-}
 
 /** The first link whose href matches, as an absolute path; undefined when the page has none. */
 async function firstHref(page: Page, pattern: RegExp): Promise<string | undefined> {

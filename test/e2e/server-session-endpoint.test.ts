@@ -1,8 +1,8 @@
-import { AxeBuilder } from "@axe-core/playwright";
 import type { Browser, Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { launchChromium } from "./chromium";
 import { connectTunnelClient, type TunnelClient } from "./support/knx-tunnel-client";
+import { seriousViolations } from "./support/axe";
 import { demoPassword, signIn } from "./support/sign-in";
 
 /**
@@ -122,14 +122,7 @@ describe("server session with a KNXnet/IP client in headless Chromium", () => {
   });
 
   it("has no serious accessibility violations with a client listed (axe-core, WCAG 2.x A/AA)", async () => {
-    // Rules: axe-core's WCAG tags (https://github.com/dequelabs/axe-core/blob/develop/doc/rule-descriptions.md).
-    const results = await new AxeBuilder({ page })
-      .withTags(["wcag2a", "wcag2aa", "wcag21a", "wcag21aa", "wcag22aa"])
-      .analyze();
-    const serious = results.violations
-      .filter((v) => v.impact === "serious" || v.impact === "critical")
-      .map((v) => `${v.id}: ${v.nodes.map((n) => n.target.join(" ")).join(" | ")}`);
-    expect(serious).toEqual([]);
+    expect(await seriousViolations(page)).toEqual([]);
   });
 
   it("marks the telegram the client sent as IP in the telegram log", async () => {

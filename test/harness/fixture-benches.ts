@@ -30,3 +30,24 @@ export function hallFixture(): BenchBuilder {
     .device("pb-hall", "push-button", "1.1.1", {}, { name: "Hall rocker" })
     .device("act-hall", "switch-actuator", "1.1.2", { channels: 1 }, { name: "Hall relay" });
 }
+
+/**
+ * Two floors under one main line (knx-reference.md, Topology: line coupler
+ * a.l.0 joins line a.l to main line a.0): lines "l11" (1.1), "m1" (1.0) and
+ * "l12" (1.2), line couplers "c11" (1.1.0) and "c12" (1.2.0, with
+ * `c12Parameters`), a test recorder "s" on 1.1.1 that sends on 1/0/1 and one
+ * "r" on 1.2.1 that listens to it. Needs `registerTestDevices`.
+ */
+export function twoFloorsFixture(c12Parameters: Record<string, unknown> = {}): BenchBuilder {
+  return benchBuilder()
+    .mainLine("l11", "1.1")
+    .line("m1", "1.0")
+    .line("l12", "1.2")
+    .groupAddress("1/0/1", "7.001")
+    .device("c11", "coupler", "1.1.0")
+    .device("c12", "coupler", "1.2.0", c12Parameters)
+    .device("s", "test-recorder", "1.1.1")
+    .device("r", "test-recorder", "1.2.1")
+    .link("s", 0, "1/0/1")
+    .link("r", 0, "1/0/1");
+}

@@ -1,6 +1,6 @@
 export { SimHarness, type Duration } from "./sim-harness";
 export { BenchBuilder, benchBuilder, type BuiltBench } from "./bench-builder";
-export { hallFixture, lightsFixture } from "./fixture-benches";
+export { hallFixture, lightsFixture, twoFloorsFixture } from "./fixture-benches";
 export {
   registerTestDevices,
   testRecorderType,

@@ -18,7 +18,9 @@ export interface KnxClient extends Emitter {
   write(ga: string, value: unknown, dpt: string): void;
   read(ga: string, callback: (src: string, value: Buffer) => void): void;
   transition(state: string): void;
+  Connect(): void;
   Disconnect(callback?: () => void): void;
+  send(datagram: unknown): void;
   idletimer?: ReturnType<typeof setTimeout> | null;
   connecttimer?: ReturnType<typeof setInterval>;
   socket?: dgram.Socket;
@@ -28,7 +30,7 @@ export const KNX_WAIT_MS = 4000;
 
 let Connection: ((options: Record<string, unknown>) => KnxClient) | undefined;
 
-/** The package's Connection, its logger silenced. */
+/** The package's Connection, its logger silenced (log-driver) so the test output stays readable. */
 function connection(): (options: Record<string, unknown>) => KnxClient {
   if (Connection !== undefined) return Connection;
   const require = createRequire(import.meta.url);
@@ -39,6 +41,16 @@ function connection(): (options: Record<string, unknown>) => KnxClient {
   for (const level of ["error", "warn", "info", "debug", "trace"]) logger[level] = () => undefined;
   Connection = (require("knx") as { Connection: typeof Connection }).Connection!;
   return Connection;
+}
+
+/** A tunnelling client for 127.0.0.1:port, not yet connected (call `Connect()`). */
+export function unconnectedClient(port: number): KnxClient {
+  return connection()({
+    ipAddr: "127.0.0.1",
+    ipPort: port,
+    loglevel: "error",
+    manualConnect: true,
+  });
 }
 
 /** A set of clients a test opens; `closeAll` in afterEach. */
@@ -52,12 +64,7 @@ export function knxClients() {
           () => reject(new Error("knx client did not connect")),
           KNX_WAIT_MS,
         );
-        const client = connection()({
-          ipAddr: "127.0.0.1",
-          ipPort: port,
-          loglevel: "error",
-          manualConnect: true,
-        });
+        const client = unconnectedClient(port);
         const onConnected = () => {
           clearTimeout(timeout);
           client.off("connected", onConnected);
@@ -65,7 +72,7 @@ export function knxClients() {
         };
         client.on("connected", onConnected);
         open.add(client);
-        (client as unknown as { Connect(): void }).Connect();
+        client.Connect();
       });
     },
     async closeAll(): Promise<void> {
@@ -76,15 +83,23 @@ export function knxClients() {
 }
 
 export async function closeClient(client: KnxClient): Promise<void> {
-  if (client.state !== "uninitialized") {
-    await new Promise<void>((resolve) => {
-      const timeout = setTimeout(resolve, 1000);
-      client.Disconnect(() => {
-        clearTimeout(timeout);
-        resolve();
-      });
+  if (client.state !== "uninitialized") await disconnectClient(client);
+  releaseClient(client);
+}
+
+/** Ends the tunnel with a DISCONNECT_REQUEST, waiting at most 1 s for the answer. */
+export function disconnectClient(client: KnxClient): Promise<void> {
+  return new Promise<void>((resolve) => {
+    const timeout = setTimeout(resolve, 1000);
+    client.Disconnect(() => {
+      clearTimeout(timeout);
+      resolve();
     });
-  }
+  });
+}
+
+/** Stops the client's timers and closes its socket, so it neither dials again nor keeps the test alive. */
+export function releaseClient(client: KnxClient): void {
   if (client.idletimer) clearTimeout(client.idletimer);
   if (client.connecttimer) clearInterval(client.connecttimer);
   client.transition("uninitialized");

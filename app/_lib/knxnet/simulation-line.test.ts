@@ -20,39 +20,8 @@ import { dataFrameArbitrary } from "@/test/harness/frame-fixtures";
 import { bitTimesToUs, frameDurationUs, type DataFrame } from "@/engine";
 import { createSimulation } from "@/engine";
 import { benchBuilder } from "@/test/harness/bench-builder";
-import type { WallClock } from "./real-time-pacer";
+import { fakeWallClock } from "@/test/harness/fake-wall-clock";
 import { pacedSimulationLine } from "./simulation-line";
-
-function fakeClock() {
-  let nowMs = 0;
-  const timers = new Map<number, { at: number; callback: () => void }>();
-  let nextId = 1;
-  const clock: WallClock = {
-    nowMs: () => nowMs,
-    setTimeout(callback, delayMs) {
-      timers.set(nextId, { at: nowMs + delayMs, callback });
-      return nextId++;
-    },
-    clearTimeout: (handle) => void timers.delete(handle as number),
-  };
-  return {
-    clock,
-    /** Moves the wall clock forward, firing due timers in order. */
-    advance(ms: number) {
-      const end = nowMs + ms;
-      for (;;) {
-        const due = [...timers.entries()]
-          .filter(([, t]) => t.at <= end)
-          .sort((a, b) => a[1].at - b[1].at)[0];
-        if (due === undefined) break;
-        timers.delete(due[0]);
-        nowMs = Math.max(nowMs, due[1].at);
-        due[1].callback();
-      }
-      nowMs = end;
-    },
-  };
-}
 
 function lightBench() {
   const b = benchBuilder();
@@ -78,7 +47,7 @@ const write = (destination: number): DataFrame => ({
 describe("pacedSimulationLine", () => {
   it("puts a tunnel's frame on the line at real time and confirms it after the acknowledgement", () => {
     const sim = createSimulation(lightBench(), { seed: 1, traceCapacity: 100 });
-    const fake = fakeClock();
+    const fake = fakeWallClock();
     const paced = pacedSimulationLine(sim, { clock: fake.clock });
     const seen: DataFrame[] = [];
     const done: boolean[] = [];
@@ -103,7 +72,7 @@ describe("pacedSimulationLine", () => {
 
   it("confirms negatively when nobody acknowledges, after the repetitions", () => {
     const sim = createSimulation(lightBench(), { seed: 1, traceCapacity: 100 });
-    const fake = fakeClock();
+    const fake = fakeWallClock();
     const paced = pacedSimulationLine(sim, { clock: fake.clock });
     const done: boolean[] = [];
     paced.start();
@@ -119,7 +88,7 @@ describe("pacedSimulationLine", () => {
   });
   it("puts individually addressed frames on the line: the addressed device acknowledges, an absent one does not", () => {
     const sim = createSimulation(lightBench(), { seed: 1, traceCapacity: 100 });
-    const fake = fakeClock();
+    const fake = fakeWallClock();
     const paced = pacedSimulationLine(sim, { clock: fake.clock });
     const toDevice: boolean[] = [];
     const toNobody: boolean[] = [];
@@ -136,7 +105,7 @@ describe("pacedSimulationLine", () => {
 describe("tunnelling server on the paced line", () => {
   it("every L_Data.req a client can send, mangled or not, is put on the line or refused without throwing", () => {
     const sim = createSimulation(lightBench(), { seed: 1, traceCapacity: 100 });
-    const fake = fakeClock();
+    const fake = fakeWallClock();
     const paced = pacedSimulationLine(sim, { clock: fake.clock });
     paced.start();
     const config = tunnellingServerConfig({

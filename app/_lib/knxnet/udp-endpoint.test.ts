@@ -17,7 +17,14 @@ import {
   type TunnellingServerEffect,
 } from "@/engine";
 import { createSimulation } from "@/engine";
-import { dpt9, KNX_WAIT_MS, knxClients, waitFor } from "@/test/harness/knx-client";
+import {
+  dpt9,
+  heartbeat,
+  KNX_WAIT_MS,
+  knxClients,
+  readResponse,
+  waitFor,
+} from "@/test/harness/knx-client";
 import { pacedSimulationLine } from "./simulation-line";
 import { startKnxNetIpEndpoint, type KnxNetIpEndpoint } from "./udp-endpoint";
 
@@ -119,14 +126,7 @@ describe("KNXnet/IP endpoint with the knx package as a real tunnelling client", 
     );
     client.write("2/0/2", 35, "DPT9.001"); // above the gateway's 30 °C limit
     await clamped;
-    const response = new Promise<unknown[]>((resolve, reject) => {
-      const timeout = setTimeout(() => reject(new Error("no response")), WAIT_MS);
-      client.read("2/1/2", (src, value) => {
-        clearTimeout(timeout);
-        resolve([src, value]);
-      });
-    });
-    const [src, value] = await response;
+    const [src, value] = await readResponse(client, "2/1/2", WAIT_MS);
     expect(src).toBe("1.1.20");
     expect(dpt9(value)).toBe(30);
   });
@@ -138,13 +138,7 @@ describe("KNXnet/IP endpoint with the knx package as a real tunnelling client", 
     // The client's own heartbeat period is a fixed 60 s, so the test drives its heartbeat state.
     for (let i = 0; i < 6; i++) {
       await sleep(200);
-      const answered = waitFor(
-        client,
-        "transition",
-        (data: { toState: string }) => data.toState === "idle",
-      );
-      client.transition("requestingConnState");
-      await answered;
+      await heartbeat(client);
     }
     expect(w.endpoint.connections().map((c) => c.channelId)).toEqual([channel]);
     expect(w.events.some((e) => e.kind === "tunnel.closed")).toBe(false);

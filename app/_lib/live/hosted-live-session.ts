@@ -26,13 +26,17 @@ export const TICK_MS = 50;
 /** The session's view goes to viewers at most this often when its endpoint or clients change. */
 const VIEW_EVERY_MS = 1000;
 
-export interface HostedLiveSessionInit {
+/** Which session this is: the bench revision it runs, where, and who started it. */
+export interface LiveSessionIdentity {
   readonly id: string;
   readonly workspaceId: string;
   readonly benchId: string;
   readonly benchName: string;
   readonly revision: number;
   readonly owner: { readonly memberId: string; readonly name: string };
+}
+
+export interface HostedLiveSessionInit extends LiveSessionIdentity {
   readonly document: unknown;
   readonly clock: LiveSessionClock;
   readonly idleMs: number;
@@ -48,12 +52,7 @@ export interface HostedLiveSessionInit {
  * throws with nothing left behind (no timer, no socket).
  */
 export class HostedLiveSession {
-  readonly id: string;
-  readonly workspaceId: string;
-  readonly benchId: string;
-  readonly benchName: string;
-  readonly revision: number;
-  readonly owner: { readonly memberId: string; readonly name: string };
+  readonly identity: LiveSessionIdentity;
   readonly startedAtMs: number;
 
   private readonly clock: LiveSessionClock;
@@ -76,12 +75,8 @@ export class HostedLiveSession {
   private loadFailure: string | undefined;
 
   constructor(init: HostedLiveSessionInit) {
-    this.id = init.id;
-    this.workspaceId = init.workspaceId;
-    this.benchId = init.benchId;
-    this.benchName = init.benchName;
-    this.revision = init.revision;
-    this.owner = init.owner;
+    const { id, workspaceId, benchId, benchName, revision, owner } = init;
+    this.identity = { id, workspaceId, benchId, benchName, revision, owner };
     this.clock = init.clock;
     this.idleMs = init.idleMs;
     this.onEnded = init.onEnded;
@@ -105,7 +100,7 @@ export class HostedLiveSession {
       this.line.stop();
       throw new AppError(
         "conflict",
-        `revision ${this.revision} of this bench does not load: ${this.loadFailure}`,
+        `revision ${init.revision} of this bench does not load: ${this.loadFailure}`,
         { field: "revision" },
       );
     }
@@ -305,16 +300,16 @@ export class HostedLiveSession {
 
   /** Whether `who` may command, publish, disconnect clients and stop: the owner or an admin. */
   canControl(who: Who): boolean {
-    return who.userId === this.owner.memberId || who.role === "admin";
+    return who.userId === this.identity.owner.memberId || who.role === "admin";
   }
 
   view(who: Who, canControl = this.canControl(who)): LiveSessionView {
     return {
-      id: this.id,
-      benchId: this.benchId,
-      benchName: this.benchName,
-      revision: this.revision,
-      owner: this.owner,
+      id: this.identity.id,
+      benchId: this.identity.benchId,
+      benchName: this.identity.benchName,
+      revision: this.identity.revision,
+      owner: this.identity.owner,
       startedAt: new Date(this.startedAtMs).toISOString(),
       lastActivityAt: new Date(this.lastActivityMs).toISOString(),
       idleStopAt: new Date(this.lastActivityMs + this.idleMs).toISOString(),

@@ -90,13 +90,17 @@ export class LiveSessionRegistry {
         field: "revision",
       });
     const limits = this.limits();
-    const mine = [...this.sessions.values()].filter((s) => s.owner.memberId === who.userId);
+    const mine = [...this.sessions.values()].filter(
+      (s) => s.identity.owner.memberId === who.userId,
+    );
     if (mine.length >= limits.perMember)
       throw new AppError(
         "rate_limited",
         `you already run ${mine.length} live sessions on the server (LIVE_SESSION_LIMIT_PER_MEMBER = ${limits.perMember}); stop one first`,
       );
-    const workspace = [...this.sessions.values()].filter((s) => s.workspaceId === who.workspaceId);
+    const workspace = [...this.sessions.values()].filter(
+      (s) => s.identity.workspaceId === who.workspaceId,
+    );
     if (workspace.length >= limits.perWorkspace)
       throw new AppError(
         "rate_limited",
@@ -121,10 +125,10 @@ export class LiveSessionRegistry {
       clock: this.clock,
       idleMs: limits.idleMs,
       onEnded: (ended) => {
-        if (this.sessions.get(ended.id) === ended) this.sessions.delete(ended.id);
+        if (this.sessions.get(ended.identity.id) === ended) this.sessions.delete(ended.identity.id);
       },
     });
-    this.sessions.set(session.id, session);
+    this.sessions.set(session.identity.id, session);
     return session.view(who);
   }
 
@@ -208,11 +212,11 @@ export class LiveSessionRegistry {
   }
 
   private visible(who: Who, session: HostedLiveSession): boolean {
-    if (session.workspaceId !== who.workspaceId) return false;
+    if (session.identity.workspaceId !== who.workspaceId) return false;
     const scope = scopeOf(who.role, "console.use");
     if (scope === "none") return false;
-    if (session.owner.memberId !== who.userId && scope !== "workspace") return false;
-    const bench = findBench({ workspaceId: who.workspaceId, benchId: session.benchId });
+    if (session.identity.owner.memberId !== who.userId && scope !== "workspace") return false;
+    const bench = findBench({ workspaceId: who.workspaceId, benchId: session.identity.benchId });
     return bench !== undefined && benchCan(who, bench).read;
   }
 
@@ -228,7 +232,7 @@ export class LiveSessionRegistry {
     if (action === "control" && !session.canControl(who))
       throw new AppError(
         "forbidden",
-        `only the session's owner (${session.owner.name}) or an admin may ${what}`,
+        `only the session's owner (${session.identity.owner.name}) or an admin may ${what}`,
       );
     return session;
   }

@@ -44,6 +44,7 @@ import {
   type HvacGatewayState,
   type LearnedScene,
 } from "./state";
+import { withRebuiltStates } from "../rebuilt-states";
 
 type Context = DeviceContext<HvacGatewayParameters>;
 type Result = TransitionResult<HvacGatewayState>;
@@ -833,20 +834,8 @@ function onTimer(state: HvacGatewayState, name: string, context: Context): Resul
   return { state, effects: [] };
 }
 
-/** The HVAC gateway's pure transition. */
-export function hvacGatewayTransition(
-  state: HvacGatewayState,
-  event: DeviceEvent,
-  context: Context,
-): Result {
-  const result = gatewayTransition(state, event, context);
-  if (result.state === state) return result;
-  // One shape for every new state keeps the model's spreads fast (see rebuiltGatewayState).
-  const rebuilt = rebuiltGatewayState(result.state);
-  return result.transition === undefined
-    ? { state: rebuilt, effects: result.effects }
-    : { state: rebuilt, effects: result.effects, transition: result.transition };
-}
+/** The HVAC gateway's pure transition: every new state rebuilt into one shape (see rebuiltGatewayState). */
+export const hvacGatewayTransition = withRebuiltStates(gatewayTransition, rebuiltGatewayState);
 
 function gatewayTransition(state: HvacGatewayState, event: DeviceEvent, context: Context): Result {
   const p = context.parameters;

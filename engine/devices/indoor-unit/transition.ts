@@ -19,6 +19,7 @@ import {
 import { FROST_BAND_K, unitSetpointC, type IndoorUnitParameters } from "./parameters";
 import { rebuiltIndoorUnitState, type IndoorUnitState, type KnownController } from "./state";
 import { compressorRuns, unitDrive } from "./unit-output";
+import { withRebuiltStates } from "../rebuilt-states";
 
 type Context = DeviceContext<IndoorUnitParameters>;
 type Result = TransitionResult<IndoorUnitState>;
@@ -471,20 +472,8 @@ function receive(state: IndoorUnitState, from: string, raw: unknown, context: Co
   }
 }
 
-/** The indoor unit's pure transition. */
-export function indoorUnitTransition(
-  state: IndoorUnitState,
-  event: DeviceEvent,
-  context: Context,
-): Result {
-  const result = unitTransition(state, event, context);
-  if (result.state === state) return result;
-  // One shape for every new state keeps the model's spreads fast (see rebuiltIndoorUnitState).
-  const rebuilt = rebuiltIndoorUnitState(result.state);
-  return result.transition === undefined
-    ? { state: rebuilt, effects: result.effects }
-    : { state: rebuilt, effects: result.effects, transition: result.transition };
-}
+/** The indoor unit's pure transition: every new state rebuilt into one shape (see rebuiltIndoorUnitState). */
+export const indoorUnitTransition = withRebuiltStates(unitTransition, rebuiltIndoorUnitState);
 
 function unitTransition(state: IndoorUnitState, event: DeviceEvent, context: Context): Result {
   switch (event.kind) {

@@ -137,6 +137,20 @@ describe("couplers between lines", () => {
     expect(kinds(open.trace, "coupler.drop")).toEqual([
       expect.objectContaining({ coupler: "c11", reason: "not-acknowledged" }),
     ]);
+    // Heard on 1.1, lost on 1.0: the fields in the order the golden traces store them.
+    const [lost] = kinds(open.trace, "coupler.drop");
+    expect(Object.keys(lost!)).toEqual([
+      "kind",
+      "timeUs",
+      "coupler",
+      "telegramId",
+      "forwardedTelegramId",
+      "fromLine",
+      "toLine",
+      "destination",
+      "reason",
+    ]);
+    expect(lost).toMatchObject({ fromLine: "l11", toLine: "m1" });
   });
 
   // From memory (Basic course): main groups 14 and 15 pass a filtering coupler without a table entry.

@@ -1,7 +1,7 @@
 import type { Telegram, Tp1Line } from "../../bus";
 import { Tp1Sender } from "../../bus";
 import type { SequentialIds } from "../../core/ids";
-import type { Trace } from "../../core/trace";
+import type { CouplerTraceFields, Trace } from "../../core/trace";
 import { ACK_OCTET, BUSY_OCTET, type DataFrame } from "../../frame";
 import { NO_ACK_OCTET } from "../../bus";
 import {
@@ -118,39 +118,28 @@ export class CouplerPort {
       return BUSY_OCTET;
     }
     const forwardedId = this.context.telegramIds.next();
-    const trace = this.context.trace;
-    const timeUs = this.context.clock.nowUs;
-    if (trace.active)
-      trace.append({
-        kind: "coupler.forward",
-        timeUs,
-        coupler: coupler.id,
-        telegramId: telegram.id,
-        forwardedTelegramId: forwardedId,
-        fromLine: this.lineId,
-        toLine: far.lineId,
-        destination: frame.destination,
-        ...individual(frame),
-        hopCount,
-      });
+    // The forward and a hold name the same crossing; built only when someone records.
+    const crossing: CouplerTraceFields | undefined = this.context.trace.active
+      ? {
+          timeUs: this.context.clock.nowUs,
+          coupler: coupler.id,
+          telegramId: telegram.id,
+          forwardedTelegramId: forwardedId,
+          fromLine: this.lineId,
+          toLine: far.lineId,
+          destination: frame.destination,
+          ...individual(frame),
+        }
+      : undefined;
+    if (crossing !== undefined)
+      this.context.trace.append({ kind: "coupler.forward", ...crossing, hopCount });
     const copy: DataFrame = { ...frame, repeated: false, hopCount };
     const waitingBefore = far.sender.pending;
     const forwarded = far.line.queue(far.sender, copy, forwardedId);
     far.origins.set(forwarded, telegram.id);
     this.context.counts.forwarded++;
-    if (trace.active && (waitingBefore > 0 || far.line.isBusy))
-      trace.append({
-        kind: "coupler.hold",
-        timeUs,
-        coupler: coupler.id,
-        telegramId: telegram.id,
-        forwardedTelegramId: forwardedId,
-        fromLine: this.lineId,
-        toLine: far.lineId,
-        destination: frame.destination,
-        ...individual(frame),
-        queued: waitingBefore,
-      });
+    if (crossing !== undefined && (waitingBefore > 0 || far.line.isBusy))
+      this.context.trace.append({ kind: "coupler.hold", ...crossing, queued: waitingBefore });
     (telegram.takenBy ??= []).push(this);
     return ACK_OCTET;
   }
@@ -159,21 +148,8 @@ export class CouplerPort {
   lost(telegram: Telegram): void {
     const origin = this.origins.get(telegram);
     if (origin === undefined) return;
-    this.context.counts.dropped["not-acknowledged"]++;
-    const trace = this.context.trace;
-    if (trace.active)
-      trace.append({
-        kind: "coupler.drop",
-        timeUs: this.context.clock.nowUs,
-        coupler: this.coupler.id,
-        telegramId: origin,
-        forwardedTelegramId: telegram.id,
-        fromLine: this.far.lineId,
-        toLine: this.lineId,
-        destination: telegram.frame.destination,
-        ...individual(telegram.frame),
-        reason: "not-acknowledged",
-      });
+    // Its far side heard it and took it: the drop is that side's, as if it had not passed it.
+    this.far.drop(origin, telegram.frame, "not-acknowledged", telegram.id);
   }
 
   /** Takes over `other`'s origins for the fork's copies of its telegrams. */
@@ -182,7 +158,16 @@ export class CouplerPort {
     if (origin !== undefined) this.origins.set(copy, origin);
   }
 
-  private drop(telegramId: number, frame: DataFrame, reason: CouplerDropReason): void {
+  /**
+   * Counts and traces a telegram heard on this side that does not reach the far
+   * line; `forwardedTelegramId` when it was sent there and not acknowledged.
+   */
+  private drop(
+    telegramId: number,
+    frame: DataFrame,
+    reason: CouplerDropReason,
+    forwardedTelegramId?: number,
+  ): void {
     this.context.counts.dropped[reason]++;
     const trace = this.context.trace;
     if (trace.active)
@@ -191,6 +176,7 @@ export class CouplerPort {
         timeUs: this.context.clock.nowUs,
         coupler: this.coupler.id,
         telegramId,
+        ...(forwardedTelegramId === undefined ? {} : { forwardedTelegramId }),
         fromLine: this.lineId,
         toLine: this.far.lineId,
         destination: frame.destination,

@@ -1,42 +1,13 @@
-import type dgram from "node:dgram";
-import { createRequire } from "node:module";
+import { disconnectClient, releaseClient, unconnectedClient } from "../../harness/knx-client";
 
 /**
  * The `knx` npm package (test-only devDependency, "Libraries" in
  * knx-reference.md) as a real KNXnet/IP tunnelling client, for browser tests
  * that check what the console shows of a connected client. 127.0.0.1 only;
  * every wait is bounded and `close` releases the socket and the timers.
+ * Built on the harness's client (test/harness/knx-client.ts); this one also
+ * notices when the server ends the tunnel and then stays disconnected.
  */
-
-/** The client's machina state machine: `on` / `off`, no `once`. */
-interface KnxConnection {
-  state: string;
-  on(event: string, listener: (...args: never[]) => void): unknown;
-  off(event: string, listener: (...args: never[]) => void): void;
-  write(ga: string, value: unknown, dpt: string): void;
-  transition(state: string): void;
-  Connect(): void;
-  Disconnect(callback?: () => void): void;
-  send(datagram: unknown): void;
-  idletimer?: ReturnType<typeof setTimeout> | null;
-  connecttimer?: ReturnType<typeof setInterval>;
-  socket?: dgram.Socket;
-}
-
-let connectionFactory: ((options: Record<string, unknown>) => KnxConnection) | null = null;
-
-function factory() {
-  if (connectionFactory) return connectionFactory;
-  const require = createRequire(import.meta.url);
-  // The package logs through log-driver; silence it so the test output stays readable.
-  const logger = createRequire(require.resolve("knx/package.json"))("log-driver").logger as Record<
-    string,
-    unknown
-  >;
-  for (const level of ["error", "warn", "info", "debug", "trace"]) logger[level] = () => undefined;
-  connectionFactory = (require("knx") as { Connection: typeof connectionFactory }).Connection!;
-  return connectionFactory;
-}
 
 export interface TunnelClient {
   /** Sends a GroupValue_Write through the tunnel, e.g. ("1/0/1", 1, "DPT1.001"). */
@@ -52,12 +23,7 @@ export interface TunnelClient {
 
 /** Connects a tunnelling client to 127.0.0.1:`port`, within `timeoutMs`. */
 export function connectTunnelClient(port: number, timeoutMs: number): Promise<TunnelClient> {
-  const connection = factory()({
-    ipAddr: "127.0.0.1",
-    ipPort: port,
-    loglevel: "error",
-    manualConnect: true,
-  });
+  const connection = unconnectedClient(port);
   let serverEnded = false;
   const ended = new Set<() => void>();
   const onDisconnected = () => {
@@ -71,22 +37,9 @@ export function connectTunnelClient(port: number, timeoutMs: number): Promise<Tu
 
   const close = async () => {
     if (!serverEnded && connection.state !== "uninitialized" && connection.state !== "connecting")
-      await new Promise<void>((resolve) => {
-        const timer = setTimeout(resolve, 1000);
-        connection.Disconnect(() => {
-          clearTimeout(timer);
-          resolve();
-        });
-      });
+      await disconnectClient(connection);
     connection.off("disconnected", onDisconnected);
-    if (connection.idletimer) clearTimeout(connection.idletimer);
-    if (connection.connecttimer) clearInterval(connection.connecttimer);
-    connection.transition("uninitialized");
-    try {
-      connection.socket?.close();
-    } catch {
-      // already closed by the package
-    }
+    releaseClient(connection);
   };
 
   const client: TunnelClient = {

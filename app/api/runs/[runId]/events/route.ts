@@ -1,12 +1,10 @@
 import { verifyApiSession } from "@/app/_lib/dal";
 import { errorResponse } from "@/app/_lib/errors";
+import { eventStreamResponse } from "@/app/_lib/event-stream";
 import type { RouteParams } from "@/app/_lib/http";
 import { loadRunOrSuiteRun } from "@/app/_lib/policy/run";
 import { type RunProgressEvent, subscribeToRun } from "@/app/_lib/runs/run-events";
 import { interruptedRunMessage } from "@/db/queries/runs";
-
-/** A comment line every so often keeps proxies from closing a quiet stream. */
-const HEARTBEAT_MS = 15_000;
 
 function snapshotOf(visible: ReturnType<typeof loadRunOrSuiteRun>): RunProgressEvent {
   if (visible.kind === "scenario") {
@@ -64,53 +62,18 @@ export async function GET(request: Request, context: RouteParams<{ runId: string
     return errorResponse(error);
   }
 
-  const encoder = new TextEncoder();
-  let cleanup = () => {};
-  const stream = new ReadableStream<Uint8Array>({
-    start(controller) {
-      let closed = false;
-      const send = (event: RunProgressEvent) => {
-        if (closed) return;
-        controller.enqueue(
-          encoder.encode(`event: ${event.kind}\ndata: ${JSON.stringify(event)}\n\n`),
-        );
-        if (event.kind === "run.finished") close();
-      };
-      // Listen before reading the snapshot, so no event falls between the two.
-      const unsubscribe = subscribeToRun(channel, send);
-      const heartbeat = setInterval(() => {
-        if (!closed) controller.enqueue(encoder.encode(": heartbeat\n\n"));
-      }, HEARTBEAT_MS);
-      const close = () => {
-        if (closed) return;
-        closed = true;
-        unsubscribe();
-        clearInterval(heartbeat);
-        try {
-          controller.close();
-        } catch {
-          // already closed by the client going away
-        }
-      };
-      cleanup = close;
-      request.signal.addEventListener("abort", close);
-      try {
-        send(snapshotOf(loadRunOrSuiteRun(session, channel)));
-      } catch {
-        close();
-      }
-    },
-    cancel() {
-      cleanup();
-    },
-  });
-
-  return new Response(stream, {
-    headers: {
-      "Content-Type": "text/event-stream; charset=utf-8",
-      "Cache-Control": "no-store, no-transform",
-      Connection: "keep-alive",
-      "X-Accel-Buffering": "no",
-    },
+  return eventStreamResponse(request, (sink) => {
+    const send = (event: RunProgressEvent) => {
+      sink.send(event.kind, event);
+      if (event.kind === "run.finished") sink.close();
+    };
+    // Listen before reading the snapshot, so no event falls between the two.
+    const unsubscribe = subscribeToRun(channel, send);
+    try {
+      send(snapshotOf(loadRunOrSuiteRun(session, channel)));
+    } catch {
+      sink.close();
+    }
+    return unsubscribe;
   });
 }
