@@ -289,7 +289,13 @@ export class DeviceRunner {
       const value = device.values[object.slot];
       if (!flags.communication || !flags.transmit || value === undefined) continue;
       if (alreadySent?.has(object.number)) continue; // sent once already since power returned
-      const role = device.loaded.objects.find((o) => o.number === object.number)?.spec.role;
+      // Specs are built in the loaded device's object order, so the slot finds it without a search.
+      const atSlot = device.loaded.objects[object.slot];
+      const role = (
+        atSlot?.number === object.number
+          ? atSlot
+          : device.loaded.objects.find((o) => o.number === object.number)
+      )?.spec.role;
       if (role === "status" || role === "output") this.objects.send(device, object, value, "write");
     }
     this.transition(device, { kind: "timer", name: STARTUP_TIMER });

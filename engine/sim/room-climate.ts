@@ -16,6 +16,9 @@ interface RoomRuntime {
   /** Temperature at `anchorUs`, °C. */
   anchorC: number;
   anchorUs: number;
+  /** The last read (time, °C), since every unit and sensor in a room reads it at the same times; -1: none since the anchor moved. */
+  readUs: number;
+  readC: number;
 }
 
 /**
@@ -40,12 +43,15 @@ export class RoomClimate {
         balance: roomBalance(spec, []),
         anchorC: spec.initialC,
         anchorUs: this.clock.nowUs,
+        readUs: -1,
+        readC: 0,
       });
       return;
     }
     this.advance(room);
     room.spec = spec;
     room.balance = roomBalance(spec, room.drives.values());
+    room.readUs = -1;
   }
 
   has(roomId: string): boolean {
@@ -55,12 +61,17 @@ export class RoomClimate {
   /** The room's temperature now, °C. */
   temperatureC(roomId: string): number {
     const room = this.room(roomId);
-    return temperatureAfterC(
+    const nowUs = this.clock.nowUs;
+    // The same inputs give the same value: a second read at the same time skips the exponential.
+    if (room.readUs === nowUs) return room.readC;
+    room.readC = temperatureAfterC(
       room.anchorC,
-      (this.clock.nowUs - room.anchorUs) / 1_000_000,
+      (nowUs - room.anchorUs) / 1_000_000,
       room.spec,
       room.balance,
     );
+    room.readUs = nowUs;
+    return room.readC;
   }
 
   /** The room's outdoor temperature, °C. */
@@ -92,6 +103,7 @@ export class RoomClimate {
     if (drive.conductanceWPerK === 0 && drive.watts === 0) room.drives.delete(deviceId);
     else room.drives.set(deviceId, drive);
     room.balance = roomBalance(room.spec, room.drives.values());
+    room.readUs = -1;
   }
 
   /** Removes a device's drive from every room (a restart). */
@@ -104,7 +116,15 @@ export class RoomClimate {
   copyFrom(other: RoomClimate): void {
     this.rooms.clear();
     for (const [id, room] of other.rooms)
-      this.rooms.set(id, { ...room, drives: new Map(room.drives) });
+      this.rooms.set(id, {
+        spec: room.spec,
+        drives: new Map(room.drives),
+        balance: room.balance,
+        anchorC: room.anchorC,
+        anchorUs: room.anchorUs,
+        readUs: room.readUs,
+        readC: room.readC,
+      });
   }
 
   /** Moves the anchor to now (only before the balance changes). */

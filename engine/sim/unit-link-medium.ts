@@ -49,7 +49,12 @@ export class UnitLinkMedium<M extends LinkMember> {
   /** The fork's copy of a message in flight in another run, to the fork's member of the same id. */
   copyMessage(payload: unknown): LinkMessage<M> {
     const message = payload as LinkMessage<M>;
-    return { ...message, to: this.member(message.to.id) };
+    return {
+      unitLink: message.unitLink,
+      from: message.from,
+      to: this.member(message.to.id),
+      message: message.message,
+    };
   }
 
   /** Sends from a member to the other members of one of its links. */

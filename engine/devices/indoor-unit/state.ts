@@ -57,11 +57,15 @@ export interface IndoorUnitState {
  * and a state spread over and over (`{ ...state, x }` at every step) soon makes
  * every spread in the model take the slow generic path; a state rebuilt here
  * always has one shape, so the spreads stay fast. Must list every field.
- * `reportedRoomC` may be given anew: reporting, which every path ends in, sets it.
+ * `reportedRoomC` may be given anew: reporting, which every path ends in, sets it;
+ * so may `compressorOn` and `output`: the compressor decision, which most paths
+ * run, sets them (a spread there met states of every shape and ran slow).
  */
 export function rebuiltIndoorUnitState(
   s: IndoorUnitState,
   reportedRoomC: number | null = s.reportedRoomC,
+  compressorOn: boolean = s.compressorOn,
+  output: IndoorUnitState["output"] = s.output,
 ): IndoorUnitState {
   return {
     power: s.power,
@@ -86,7 +90,7 @@ export function rebuiltIndoorUnitState(
     system: s.system,
     lastStepUs: s.lastStepUs,
     reportedRoomC,
-    output: s.output,
-    compressorOn: s.compressorOn,
+    output,
+    compressorOn,
   };
 }

@@ -145,7 +145,7 @@ function control(
         : !state.frostActive && state.mode === "dry"
           ? "dry"
           : "cooling";
-  const next = { ...state, compressorOn, output };
+  const next = rebuiltIndoorUnitState(state, state.reportedRoomC, compressorOn, output);
   if (output === state.output) return { state: next, effects: [] };
   return {
     state: next,
@@ -385,7 +385,18 @@ function stepModel(state: IndoorUnitState, context: Context): Result {
       : "none";
   const hold = fanHoldAt(state, asked === "heating", context);
   const holdChanged = hold.fanHeld !== state.fanHeld;
-  const controlled = control({ ...stepped, frostActive, ...hold }, context);
+  // The hold's fields written out: a second spread in one literal takes V8's generic copy.
+  const controlled = control(
+    {
+      ...stepped,
+      frostActive,
+      fanHeld: hold.fanHeld,
+      heldUntilUs: hold.heldUntilUs,
+      wasHeating: hold.wasHeating,
+      nextDefrostUs: hold.nextDefrostUs,
+    },
+    context,
+  );
   const next = controlled.state;
   const compressorChanged = next.output !== state.output;
   const filterChanged = filterDue(next, context) !== filterDue(state, context);
@@ -394,9 +405,6 @@ function stepModel(state: IndoorUnitState, context: Context): Result {
     ...controlled.effects,
   ];
   const autoSwitched = next.mode === "auto" && next.power && next.autoDirection !== before;
-  const compressorTransition = compressorChanged
-    ? { transition: compressorTransitionName(next.output) }
-    : {};
   if (
     !autoSwitched &&
     !filterChanged &&
@@ -404,7 +412,12 @@ function stepModel(state: IndoorUnitState, context: Context): Result {
     !holdChanged &&
     quantize(controlTemperatureC(next)) === next.reportedRoomC
   )
-    return { state: next, effects, ...compressorTransition };
+    return compressorChanged
+      ? { state: next, effects, transition: compressorTransitionName(next.output) }
+      : { state: next, effects };
+  const compressorTransition = compressorChanged
+    ? { transition: compressorTransitionName(next.output) }
+    : {};
   const reported = report(next, context);
   return {
     state: reported.state,
@@ -428,9 +441,13 @@ function receive(state: IndoorUnitState, from: string, raw: unknown, context: Co
   if (message === undefined) return { state, effects: [] };
   switch (message.kind) {
     case "controller.announce": {
-      const controllers = {
-        ...state.controllers,
-        [from]: { role: message.role, controller: message.controller, lastSeenUs: context.nowUs },
+      // Copied key by key: a spread with a computed key takes V8's generic copy, at every announcement.
+      const controllers: Record<string, KnownController> = {};
+      for (const id in state.controllers) controllers[id] = state.controllers[id]!;
+      controllers[from] = {
+        role: message.role,
+        controller: message.controller,
+        lastSeenUs: context.nowUs,
       };
       return evaluateLinkFault(state, context, controllers);
     }

@@ -91,24 +91,36 @@ function senderEffects(step: SenderStep, context: Context): DeviceEffect[] {
   return effects;
 }
 
-function sample(state: RoomTemperatureSensorState, context: Context): Result {
+/** A sensor state written out field by field: sampling runs every few seconds, and chained spreads of it ran V8's slow copy. */
+function sensorState(
+  overrideC: number | null,
+  lastSampleUs: number,
+  sender: RoomTemperatureSenderState,
+  open: boolean,
+): RoomTemperatureSensorState {
+  return { overrideC, lastSampleUs, sender, open };
+}
+
+/** A sample now; its effects array is the caller's to extend. */
+function sample(
+  state: RoomTemperatureSensorState,
+  context: Context,
+): Result & { readonly effects: DeviceEffect[] } {
   const p = context.parameters;
-  const next = { ...state, lastSampleUs: context.nowUs };
-  if (next.open) return { state: next, effects: [] };
-  const valueC = measuredC(next, context);
-  const step = sampleRoomTemperature(next.sender, valueC, context.nowUs, p.sending);
+  const nowUs = context.nowUs;
+  if (state.open)
+    return { state: sensorState(state.overrideC, nowUs, state.sender, true), effects: [] };
+  const valueC = measuredC(state, context);
+  const step = sampleRoomTemperature(state.sender, valueC, nowUs, p.sending);
   const effects = senderEffects(step, context);
-  if (step.sendC === null)
-    effects.push({
-      kind: "object.store",
-      object: ROOM_TEMPERATURE_OBJECT,
-      value: Math.round(valueC * 100) / 100,
-    });
-  return {
-    state: { ...next, sender: step.state },
-    effects,
-    ...(step.sendC !== null ? { transition: "temperature.sent" } : {}),
-  };
+  const next = sensorState(state.overrideC, nowUs, step.state, false);
+  if (step.sendC !== null) return { state: next, effects, transition: "temperature.sent" };
+  effects.push({
+    kind: "object.store",
+    object: ROOM_TEMPERATURE_OBJECT,
+    value: Math.round(valueC * 100) / 100,
+  });
+  return { state: next, effects };
 }
 
 function roomTemperatureSensorTransition(
@@ -133,7 +145,8 @@ function roomTemperatureSensorTransition(
     case "timer": {
       if (event.name === SAMPLE_TIMER) {
         const sampled = sample(state, context);
-        return { ...sampled, effects: [...sampled.effects, sampleTimer] };
+        sampled.effects.push(sampleTimer);
+        return sampled;
       }
       if (state.open) return { state, effects: [] };
       if (event.name === STARTUP_DONE_TIMER) {
