@@ -52,8 +52,9 @@ export function CouplerPanel({
   const store = useEditorStoreApi();
   const [entry, setEntry] = useState("");
   const parameters = device.parameters as Record<string, unknown>;
-  const groupMode = (parameters.groupTelegrams as string | undefined) ?? "filter";
-  const individualMode = (parameters.individualTelegrams as string | undefined) ?? "route";
+  const groupMode = (parameters.groupTelegrams as GroupTelegramMode | undefined) ?? "filter";
+  const individualMode =
+    (parameters.individualTelegrams as IndividualTelegramMode | undefined) ?? "route";
   const stored = storedFilterTable(device);
   const rows = useMemo(() => filterTableRows(bench, device), [bench, device]);
   const blocked = rows.filter((r) => r.needed && !r.inTable).length;
@@ -64,46 +65,24 @@ export function CouplerPanel({
 
   return (
     <div className="flex flex-col gap-3" aria-label="Coupler settings">
-      <label className="flex flex-col gap-1 text-xs text-ink-soft">
-        Group telegrams
-        <select
-          className={selectClass}
-          value={groupMode}
-          disabled={readOnly}
-          onChange={(e) =>
-            apply(
-              (b) => setGroupTelegrams(b, device.id, e.target.value as GroupTelegramMode),
-              `Group telegrams: ${e.target.value}`,
-            )
-          }
-        >
-          {GROUP_MODES.map(([value, label]) => (
-            <option key={value} value={value}>
-              {label}
-            </option>
-          ))}
-        </select>
-      </label>
-      <label className="flex flex-col gap-1 text-xs text-ink-soft">
-        Individually addressed telegrams
-        <select
-          className={selectClass}
-          value={individualMode}
-          disabled={readOnly}
-          onChange={(e) =>
-            apply(
-              (b) => setIndividualTelegrams(b, device.id, e.target.value as IndividualTelegramMode),
-              `Individual telegrams: ${e.target.value}`,
-            )
-          }
-        >
-          {INDIVIDUAL_MODES.map(([value, label]) => (
-            <option key={value} value={value}>
-              {label}
-            </option>
-          ))}
-        </select>
-      </label>
+      <ModeSelect<GroupTelegramMode>
+        label="Group telegrams"
+        value={groupMode}
+        modes={GROUP_MODES}
+        disabled={readOnly}
+        onChange={(mode) =>
+          apply((b) => setGroupTelegrams(b, device.id, mode), `Group telegrams: ${mode}`)
+        }
+      />
+      <ModeSelect<IndividualTelegramMode>
+        label="Individually addressed telegrams"
+        value={individualMode}
+        modes={INDIVIDUAL_MODES}
+        disabled={readOnly}
+        onChange={(mode) =>
+          apply((b) => setIndividualTelegrams(b, device.id, mode), `Individual telegrams: ${mode}`)
+        }
+      />
 
       <label className="flex flex-col gap-1 text-xs text-ink-soft">
         Buffer per direction (telegrams)
@@ -288,5 +267,38 @@ export function CouplerPanel({
         )}
       </section>
     </div>
+  );
+}
+
+/** One of a coupler's forwarding settings, chosen from its modes. */
+function ModeSelect<Mode extends string>({
+  label,
+  value,
+  modes,
+  disabled,
+  onChange,
+}: {
+  label: string;
+  value: Mode;
+  modes: readonly (readonly [Mode, string])[];
+  disabled: boolean;
+  onChange: (mode: Mode) => void;
+}) {
+  return (
+    <label className="flex flex-col gap-1 text-xs text-ink-soft">
+      {label}
+      <select
+        className={selectClass}
+        value={value}
+        disabled={disabled}
+        onChange={(e) => onChange(e.target.value as Mode)}
+      >
+        {modes.map(([mode, text]) => (
+          <option key={mode} value={mode}>
+            {text}
+          </option>
+        ))}
+      </select>
+    </label>
   );
 }
