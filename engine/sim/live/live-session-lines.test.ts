@@ -22,20 +22,28 @@ const bench = () =>
     .link("m", 0, "1/0/1")
     .build();
 
+/** A live session with the bench loaded, keeping every message it posts (checked against the protocol). */
+function loadedSession() {
+  const messages: SimMessage[] = [];
+  const session = new LiveSession({ post: (m) => messages.push(parseSimMessage(m)), now: () => 0 });
+  session.handle({ type: "load", bench: bench() });
+  return { messages, session };
+}
+
+/** s on line 1.1 sends once on 1/0/1, then two virtual seconds run. */
+function sendFromLine11(session: LiveSession): void {
+  session.handle({
+    type: "input",
+    input: { kind: "set-input", device: "s", input: "send", value: 4 },
+  });
+  session.handle({ type: "jump", durationUs: 2_000_000 });
+  session.tick();
+}
+
 describe("live session on several lines", () => {
   it("log rows name their line and the coupler that forwarded or dropped; samples name the line address", () => {
-    const messages: SimMessage[] = [];
-    const session = new LiveSession({
-      post: (m) => messages.push(parseSimMessage(m)),
-      now: () => 0,
-    });
-    session.handle({ type: "load", bench: bench() });
-    session.handle({
-      type: "input",
-      input: { kind: "set-input", device: "s", input: "send", value: 4 },
-    });
-    session.handle({ type: "jump", durationUs: 2_000_000 });
-    session.tick();
+    const { messages, session } = loadedSession();
+    sendFromLine11(session);
     const batches = messages.filter(
       (m): m is Extract<SimMessage, { type: "batch" }> => m.type === "batch",
     );
@@ -57,18 +65,8 @@ describe("live session on several lines", () => {
   });
 
   it("counts a telegram once in the address rates, not again for each line a coupler forwards it to", () => {
-    const messages: SimMessage[] = [];
-    const session = new LiveSession({
-      post: (m) => messages.push(parseSimMessage(m)),
-      now: () => 0,
-    });
-    session.handle({ type: "load", bench: bench() });
-    session.handle({
-      type: "input",
-      input: { kind: "set-input", device: "s", input: "send", value: 4 },
-    });
-    session.handle({ type: "jump", durationUs: 2_000_000 });
-    session.tick();
+    const { messages, session } = loadedSession();
+    sendFromLine11(session);
     const batches = messages.filter(
       (m): m is Extract<SimMessage, { type: "batch" }> => m.type === "batch",
     );
@@ -82,12 +80,7 @@ describe("live session on several lines", () => {
 
 describe("address rates over several seconds", () => {
   it("count every telegram of a flood exactly once, frames across a second's end included", () => {
-    const messages: SimMessage[] = [];
-    const session = new LiveSession({
-      post: (m) => messages.push(parseSimMessage(m)),
-      now: () => 0,
-    });
-    session.handle({ type: "load", bench: bench() });
+    const { messages, session } = loadedSession();
     // About 50 telegrams/s fit a TP1 line (knx-reference.md, TP1 timing), so 150 take about 3 s:
     // some frames are still on the line when a second ends.
     session.handle({ type: "flood", groupAddress: "1/0/1", count: 150, value: 1 });
@@ -101,24 +94,14 @@ describe("address rates over several seconds", () => {
 
 describe("coupler totals in the live session", () => {
   it("counts what each coupler forwarded, held and dropped, and sends the totals when they change", () => {
-    const messages: SimMessage[] = [];
-    const session = new LiveSession({
-      post: (m) => messages.push(parseSimMessage(m)),
-      now: () => 0,
-    });
-    session.handle({ type: "load", bench: bench() });
+    const { messages, session } = loadedSession();
     const first = messages.find((m) => m.type === "batch");
     // Every coupler is listed from the start, at zero, so the console can show them before any traffic.
     expect(first?.type === "batch" && first.couplers?.map((c) => [c.id, c.forwarded])).toEqual([
       ["c11", 0],
       ["c12", 0],
     ]);
-    session.handle({
-      type: "input",
-      input: { kind: "set-input", device: "s", input: "send", value: 4 },
-    });
-    session.handle({ type: "jump", durationUs: 2_000_000 });
-    session.tick();
+    sendFromLine11(session);
     const latest = messages
       .flatMap((m) => (m.type === "batch" && m.couplers ? [m.couplers] : []))
       .at(-1)!;
