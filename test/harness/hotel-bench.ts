@@ -131,6 +131,10 @@ export function hotelBench(): Record<string, unknown> {
           setpointMaxC: 27,
           roomTemperatureSource: "external",
           roomTemperatureSending: { mode: "on-change", deltaK: 0.3, minIntervalS: 120 },
+          // A floor's twelve gateways get start-up delays 2 s apart, so their statuses after bus
+          // power return come one gateway at a time instead of flooding the line together
+          // (common practice, no published source).
+          startupDelayS: 2 * r,
         },
       });
       link(gw, 0, "4/1/1");
