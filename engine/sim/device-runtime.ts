@@ -107,13 +107,6 @@ class RuntimeContext implements DeviceContext<unknown> {
   }
 }
 
-interface TimerEntry {
-  readonly device: DeviceRuntime;
-  readonly name: string;
-  readonly generation: number;
-  readonly data: unknown;
-}
-
 /**
  * The device runtime: drives each device's pure transition and applies the
  * effects it asks for.
@@ -142,7 +135,11 @@ export class DeviceRunner {
     /** Sees every effect before it is applied (test support); absent in a simulation. */
     private readonly observeEffect?: (device: DeviceRuntime, effect: DeviceEffect) => void,
   ) {
-    this.timerTag = scheduler.register((_, payload) => this.onTimer(payload as TimerEntry));
+    // A queued timer is its generation (arg) and its device (payload); the name and data
+    // stay in the device's timers, so setting a timer allocates nothing here.
+    this.timerTag = scheduler.register((generation, payload) =>
+      this.onTimer(payload as DeviceRuntime, generation),
+    );
   }
 
   /** A device at its initial state, not yet started. */
@@ -227,15 +224,9 @@ export class DeviceRunner {
     this.timerGeneration = other.timerGeneration;
   }
 
-  /** The fork's copy of a queued timer of another run, for `device` (the fork's device). */
-  copyTimer(entry: unknown, device: (original: DeviceRuntime) => DeviceRuntime): TimerEntry {
-    const timer = entry as TimerEntry;
-    return {
-      device: device(timer.device),
-      name: timer.name,
-      generation: timer.generation,
-      data: timer.data,
-    };
+  /** The fork's copy of a queued timer of another run: the fork's device (its generation is the event's arg). */
+  copyTimer(payload: unknown, device: (original: DeviceRuntime) => DeviceRuntime): DeviceRuntime {
+    return device(payload as DeviceRuntime);
   }
 
   /**
@@ -268,12 +259,11 @@ export class DeviceRunner {
     device.sentDuringStartup = new Set();
     const generation = ++this.timerGeneration;
     device.timers.set(STARTUP_TIMER, generation);
-    const entry: TimerEntry = { device, name: STARTUP_TIMER, generation, data: undefined };
     this.scheduler.schedule(
       this.scheduler.nowUs + Math.round(delayS * 1_000_000) + staggerUs,
       this.timerTag,
-      0,
-      entry,
+      generation,
+      device,
     );
   }
 
@@ -393,9 +383,13 @@ export class DeviceRunner {
           );
         }
         const generation = ++this.timerGeneration;
-        device.timers.set(effect.name, generation);
-        const entry: TimerEntry = { device, name: effect.name, generation, data: effect.data };
-        this.scheduler.schedule(this.scheduler.nowUs + effect.delayUs, this.timerTag, 0, entry);
+        device.timers.set(effect.name, generation, effect.data);
+        this.scheduler.schedule(
+          this.scheduler.nowUs + effect.delayUs,
+          this.timerTag,
+          generation,
+          device,
+        );
         return;
       }
       case "timer.cancel":
@@ -428,20 +422,21 @@ export class DeviceRunner {
     return object;
   }
 
-  private onTimer(entry: TimerEntry): void {
-    const device = entry.device;
-    if (device.timers.get(entry.name) !== entry.generation) return; // replaced, cancelled or restarted
-    device.timers.delete(entry.name);
-    if (entry.name === STARTUP_TIMER) {
+  private onTimer(device: DeviceRuntime, generation: number): void {
+    // Generations are unique in a run, so a timer still set with this one is the one queued.
+    const index = device.timers.indexOfGeneration(generation);
+    if (index < 0) return; // replaced, cancelled or restarted
+    const name = device.timers.nameAt(index);
+    const data = device.timers.dataAt(index);
+    device.timers.delete(name);
+    if (name === STARTUP_TIMER) {
       this.startupDone(device);
       return;
     }
-    this.emitter.timerFired(device.id, entry.name);
+    this.emitter.timerFired(device.id, name);
     this.transition(
       device,
-      entry.data === undefined
-        ? { kind: "timer", name: entry.name }
-        : { kind: "timer", name: entry.name, data: entry.data },
+      data === undefined ? { kind: "timer", name } : { kind: "timer", name, data },
     );
   }
 }
