@@ -59,13 +59,15 @@ export interface IndoorUnitState {
  * always has one shape, so the spreads stay fast. Must list every field.
  * `reportedRoomC` may be given anew: reporting, which every path ends in, sets it;
  * so may `compressorOn` and `output`: the compressor decision, which most paths
- * run, sets them (a spread there met states of every shape and ran slow).
+ * run, sets them (a spread there met states of every shape and ran slow);
+ * so may `controllers`: every announcement sets them.
  */
 export function rebuiltIndoorUnitState(
   s: IndoorUnitState,
   reportedRoomC: number | null = s.reportedRoomC,
   compressorOn: boolean = s.compressorOn,
   output: IndoorUnitState["output"] = s.output,
+  controllers: IndoorUnitState["controllers"] = s.controllers,
 ): IndoorUnitState {
   return {
     power: s.power,
@@ -84,7 +86,7 @@ export function rebuiltIndoorUnitState(
     heldUntilUs: s.heldUntilUs,
     wasHeating: s.wasHeating,
     nextDefrostUs: s.nextDefrostUs,
-    controllers: s.controllers,
+    controllers,
     linkFault: s.linkFault,
     supervising: s.supervising,
     system: s.system,

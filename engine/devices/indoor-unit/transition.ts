@@ -194,7 +194,17 @@ function evaluateLinkFault(
   let fault: HvacFaultId | null = null;
   if (primaries >= 2) fault = hvacFaults.twoPrimaries;
   else if (primaries === 0 && state.supervising) fault = hvacFaults.noPrimary;
-  const next = controllers === state.controllers ? state : { ...state, controllers };
+  // Rebuilt with the new controllers at once (not spread, then rebuilt again after the transition).
+  const next =
+    controllers === state.controllers
+      ? state
+      : rebuiltIndoorUnitState(
+          state,
+          state.reportedRoomC,
+          state.compressorOn,
+          state.output,
+          controllers,
+        );
   if (fault === state.linkFault) return { state: next, effects: [] };
   const effects: DeviceEffect[] = [];
   if (state.linkFault !== null) effects.push({ kind: "fault.clear", fault: state.linkFault });
