@@ -116,48 +116,60 @@ function sendChangedFaults(
     }));
 }
 
+/** One status object and the value a unit status gives it; `fn` names the function it reports, if any. */
+type StatusVisitor = (fn: GatewayFunction | undefined, object: number, value: unknown) => void;
+
 function statusValues(
   unit: UnitStatus,
   p: HvacGatewayParameters,
   modeConflict: boolean,
   gatewayFaults: readonly string[],
 ): { fn?: GatewayFunction; object: number; value: unknown }[] {
-  const values: { fn?: GatewayFunction; object: number; value: unknown }[] = [
-    { fn: "power", object: O.powerStatus, value: unit.power },
-    { fn: "setpoint", object: O.setpointStatus, value: unit.setpointC },
-    {
-      fn: "fan",
-      object: O.fanStatus,
-      value: fanStatusToKnx(unit.fanLevel, p.fanEncoding, p.fanLevels),
-    },
-    ...faultValues(unit.faults, gatewayFaults),
-  ];
-  if (p.modeControl === "full")
-    values.push({ fn: "mode", object: O.modeStatus, value: dpt20105FromMode(unit.mode) });
+  const values: { fn?: GatewayFunction; object: number; value: unknown }[] = [];
+  visitStatusValues(unit, p, modeConflict, gatewayFaults, (fn, object, value) =>
+    values.push(fn === undefined ? { object, value } : { fn, object, value }),
+  );
+  return values;
+}
+
+/**
+ * `statusValues` one by one, in the same order, without building the list: a
+ * gateway runs through them at every unit status, and most entries are unchanged.
+ */
+function visitStatusValues(
+  unit: UnitStatus,
+  p: HvacGatewayParameters,
+  modeConflict: boolean,
+  gatewayFaults: readonly string[],
+  visit: StatusVisitor,
+): void {
+  visit("power", O.powerStatus, unit.power);
+  visit("setpoint", O.setpointStatus, unit.setpointC);
+  visit("fan", O.fanStatus, fanStatusToKnx(unit.fanLevel, p.fanEncoding, p.fanLevels));
+  // The fault object (DPT 1.005) and fault text (DPT 16.000), as faultValues gives them.
+  const first = gatewayFaults[0] ?? unit.faults[0];
+  visit(undefined, O.fault, first !== undefined);
+  visit(undefined, O.faultText, first === undefined ? "" : faultDisplayText(first));
+  if (p.modeControl === "full") visit("mode", O.modeStatus, dpt20105FromMode(unit.mode));
   else {
     // DPT spec §4.2 (1.100): 0 cooling, 1 heating. Fan has no heat/cool meaning of its own: on a
     // multi-split the direction the outdoor unit imposes is the one in force; else the status keeps its value.
     const heating =
       dpt1100FromMode(unit.mode, unit.direction) ?? heatingInForce(unit.systemDirection);
-    if (heating !== undefined)
-      values.push({ fn: "mode", object: O.heatCoolStatus, value: heating });
+    if (heating !== undefined) visit("mode", O.heatCoolStatus, heating);
   }
-  if (p.fanAutoObject)
-    values.push({ fn: "fan", object: O.fanAutoStatus, value: unit.fanLevel === 0 });
-  if (p.fanHeldStatus) values.push({ object: O.fanHeld, value: (unit.fanHeld ?? null) !== null });
-  if (p.frostProtectionStatus)
-    values.push({ object: O.frostProtection, value: unit.frostProtection === true });
-  if (p.filterAlarm) values.push({ object: O.filterAlarm, value: unit.filterAlarm === true });
-  if (p.localLock) values.push({ object: O.localLockStatus, value: unit.localLocked === true });
+  if (p.fanAutoObject) visit("fan", O.fanAutoStatus, unit.fanLevel === 0);
+  if (p.fanHeldStatus) visit(undefined, O.fanHeld, (unit.fanHeld ?? null) !== null);
+  if (p.frostProtectionStatus) visit(undefined, O.frostProtection, unit.frostProtection === true);
+  if (p.filterAlarm) visit(undefined, O.filterAlarm, unit.filterAlarm === true);
+  if (p.localLock) visit(undefined, O.localLockStatus, unit.localLocked === true);
   if (p.outdoorTemperature && unit.outdoorC !== undefined)
-    values.push({ object: O.outdoorTemperature, value: unit.outdoorC });
-  if (p.louvre) values.push({ fn: "louvre", object: O.louvreStatus, value: unit.louvrePercent });
-  if (p.systemType === "multi-split")
-    values.push(
-      { object: O.modeAuthority, value: unit.modeAuthority },
-      { object: O.modeConflict, value: modeConflict },
-    );
-  return values;
+    visit(undefined, O.outdoorTemperature, unit.outdoorC);
+  if (p.louvre) visit("louvre", O.louvreStatus, unit.louvrePercent);
+  if (p.systemType === "multi-split") {
+    visit(undefined, O.modeAuthority, unit.modeAuthority);
+    visit(undefined, O.modeConflict, modeConflict);
+  }
 }
 
 function heatingInForce(direction: SystemDirection | undefined): boolean | undefined {
@@ -307,22 +319,16 @@ function onUnitStatus(state: HvacGatewayState, unit: UnitStatus, context: Contex
     state.modeConflict && !modeConflict && modeRequest !== null && unit.mode !== modeRequest;
   if (reapply) effects.push(...sendCommand({ mode: modeRequest }, context));
   let sentStatus = false;
-  for (const entry of statusValues(unit, p, modeConflict, state.gatewayFaults)) {
-    const pending = entry.fn !== undefined && state.pendingStatus.includes(entry.fn);
-    if (!pending && context.objectValue(entry.object) === entry.value) continue;
+  visitStatusValues(unit, p, modeConflict, state.gatewayFaults, (fn, object, value) => {
+    const pending = fn !== undefined && state.pendingStatus.includes(fn);
+    if (!pending && context.objectValue(object) === value) return;
     // The first report only fills the status objects (they answer reads); later changes are sent.
-    if (first && !pending)
-      effects.push({ kind: "object.store", object: entry.object, value: entry.value });
+    if (first && !pending) effects.push({ kind: "object.store", object, value });
     else {
-      effects.push({
-        kind: "group.send",
-        object: entry.object,
-        service: "write",
-        value: entry.value,
-      });
+      effects.push({ kind: "group.send", object, service: "write", value });
       sentStatus = true;
     }
-  }
+  });
   let roomSender = state.roomSender;
   if (unit.roomC === null) {
     // DPT spec §3.10: 0x7FFF "invalid data" tells KNX the unit cannot read the room.
