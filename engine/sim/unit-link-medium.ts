@@ -13,10 +13,17 @@ export interface LinkMember {
   readonly loaded: { readonly unitLinks: readonly string[] };
 }
 
-interface LinkMessage<M extends LinkMember> {
+/**
+ * One message sent, shared by its deliveries: each queued delivery is this
+ * (payload) and the recipient's place in `members` (arg), so a message to a
+ * link of three allocates one record, not one per recipient. Holds ids, not
+ * members, so a fork's queue can share it.
+ */
+interface LinkMessage {
   readonly unitLink: string;
   readonly from: string;
-  readonly to: M;
+  /** The link's members when it was sent (the bench's array). */
+  readonly members: readonly string[];
   readonly message: unknown;
 }
 
@@ -43,18 +50,12 @@ export class UnitLinkMedium<M extends LinkMember> {
     if (!Number.isSafeInteger(delayUs) || delayUs < 0) {
       throw new RangeError(`unitLinkDelayUs ${delayUs} is not a non-negative integer`);
     }
-    this.tag = scheduler.register((_, payload) => this.deliver(payload as LinkMessage<M>));
+    this.tag = scheduler.register((index, payload) => this.deliver(payload as LinkMessage, index));
   }
 
-  /** The fork's copy of a message in flight in another run, to the fork's member of the same id. */
-  copyMessage(payload: unknown): LinkMessage<M> {
-    const message = payload as LinkMessage<M>;
-    return {
-      unitLink: message.unitLink,
-      from: message.from,
-      to: this.member(message.to.id),
-      message: message.message,
-    };
+  /** The fork's copy of a message in flight in another run: shared, as it names members by id. */
+  copyMessage(payload: unknown): LinkMessage {
+    return payload as LinkMessage;
   }
 
   /** Sends from a member to the other members of one of its links. */
@@ -64,24 +65,22 @@ export class UnitLinkMedium<M extends LinkMember> {
         `device "${from.id}" sent on unit link "${unitLink}", which it is not a member of`,
       );
     }
-    const link = this.bench().unitLinks.find((l) => l.id === unitLink)!;
-    for (const memberId of link.members) {
+    const members = this.bench().unitLinks.find((l) => l.id === unitLink)!.members;
+    let sent: LinkMessage | undefined;
+    for (let i = 0; i < members.length; i++) {
+      const memberId = members[i]!;
       if (memberId === from.id) continue;
       if (this.faults.isBroken(unitLink)) {
         this.emitter.link("link.dropped", unitLink, from.id, memberId, message);
         continue;
       }
-      const payload: LinkMessage<M> = {
-        unitLink,
-        from: from.id,
-        to: this.member(memberId),
-        message,
-      };
-      this.scheduler.schedule(this.scheduler.nowUs + this.delayUs, this.tag, 0, payload);
+      sent ??= { unitLink, from: from.id, members, message };
+      this.scheduler.schedule(this.scheduler.nowUs + this.delayUs, this.tag, i, sent);
     }
   }
 
-  private deliver({ unitLink, from, to, message }: LinkMessage<M>): void {
+  private deliver({ unitLink, from, members, message }: LinkMessage, index: number): void {
+    const to = this.member(members[index]!);
     if (this.faults.isBroken(unitLink)) {
       this.emitter.link("link.dropped", unitLink, from, to.id, message);
       return;
