@@ -93,11 +93,20 @@ function faultValues(
   unitFaults: readonly string[],
   gatewayFaults: readonly string[],
 ): { object: number; value: unknown }[] {
+  const values: { object: number; value: unknown }[] = [];
+  visitFaultValues(unitFaults, gatewayFaults, (_, object, value) => values.push({ object, value }));
+  return values;
+}
+
+/** `faultValues` one by one, without building the list. */
+function visitFaultValues(
+  unitFaults: readonly string[],
+  gatewayFaults: readonly string[],
+  visit: StatusVisitor,
+): void {
   const first = gatewayFaults[0] ?? unitFaults[0];
-  return [
-    { object: O.fault, value: first !== undefined },
-    { object: O.faultText, value: first === undefined ? "" : faultDisplayText(first) },
-  ];
+  visit(undefined, O.fault, first !== undefined);
+  visit(undefined, O.faultText, first === undefined ? "" : faultDisplayText(first));
 }
 
 /** Sends the fault objects where they changed: supervision raises faults with no unit status to carry them. */
@@ -146,10 +155,7 @@ function visitStatusValues(
   visit("power", O.powerStatus, unit.power);
   visit("setpoint", O.setpointStatus, unit.setpointC);
   visit("fan", O.fanStatus, fanStatusToKnx(unit.fanLevel, p.fanEncoding, p.fanLevels));
-  // The fault object (DPT 1.005) and fault text (DPT 16.000), as faultValues gives them.
-  const first = gatewayFaults[0] ?? unit.faults[0];
-  visit(undefined, O.fault, first !== undefined);
-  visit(undefined, O.faultText, first === undefined ? "" : faultDisplayText(first));
+  visitFaultValues(unit.faults, gatewayFaults, visit);
   if (p.modeControl === "full") visit("mode", O.modeStatus, dpt20105FromMode(unit.mode));
   else {
     // DPT spec §4.2 (1.100): 0 cooling, 1 heating. Fan has no heat/cool meaning of its own: on a
