@@ -167,10 +167,13 @@ export {
   type GroupTelegramMode,
   type IndividualTelegramMode,
 } from "./topology";
-/** A line's place from its address: kind, the line above, the lines a coupler address joins, "1.2" formatting. */
+/** A line's place from its address: kind, the line above, the lines a coupler address joins, "1.2" reading and formatting. */
 export {
+  areaOf,
   couplerLines,
   formatLineAddress,
+  lineNumberOf,
+  parseLineAddress,
   lineKind,
   upperLineAddress,
   type LineKind,

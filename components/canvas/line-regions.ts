@@ -1,4 +1,4 @@
-import { COUPLER_TYPE_ID, parseIndividualAddress } from "@/engine";
+import { COUPLER_TYPE_ID, areaOf, lineNumberOf, parseIndividualAddress } from "@/engine";
 import type { Bench, BenchDevice, BenchLine, Position } from "@/engine";
 import { lineHighByte } from "@/components/bench-editor/model/individual-addresses";
 
@@ -87,9 +87,9 @@ export interface CardBox {
 
 /** Level of a line in the topology tree: backbone 0, main lines (and 0.l) 1, lines 2. */
 function levelOf(line: BenchLine): number {
-  const [area = 0, number = 0] = line.address.split(".").map(Number);
-  if (area === 0) return number === 0 ? 0 : 1;
-  return number === 0 ? 1 : 2;
+  const address = lineHighByte(line);
+  if (areaOf(address) === 0) return lineNumberOf(address) === 0 ? 0 : 1;
+  return lineNumberOf(address) === 0 ? 1 : 2;
 }
 
 /** The parent of a line in the drawn tree: the line above it when the bench has it. */

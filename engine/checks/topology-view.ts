@@ -3,7 +3,7 @@ import { COUPLER_TYPE_ID } from "../devices/coupler/coupler";
 import { addressUses, objectSends, type AddressUse } from "../topology/address-use";
 import { groupPasses, type GroupTelegramMode } from "../topology/coupler-rules";
 import { generatedFilterTable } from "../topology/filter-table";
-import { couplerLines, linePath } from "../topology/line-address";
+import { couplerLines, linePath, parseLineAddress } from "../topology/line-address";
 import type { BenchView, DeviceView } from "./bench-view";
 
 /**
@@ -62,8 +62,7 @@ export function topologyView(view: BenchView): TopologyView {
   const lineAddress = new Map<string, number>();
   const lineId = new Map<number, string>();
   for (const line of view.bench.lines) {
-    const [area, number] = line.address.split(".").map(Number) as [number, number];
-    const address = (area << 4) | number;
+    const address = parseLineAddress(line.address);
     lineAddress.set(line.id, address);
     if (!lineId.has(address)) lineId.set(address, line.id);
   }

@@ -13,6 +13,7 @@ import {
   lineKind,
   upperLineAddress,
   type LineKind,
+  parseLineAddress,
 } from "./line-address";
 
 /** A coupler of a loaded bench with its settings resolved (the filter table generated when the bench has none). */
@@ -177,12 +178,7 @@ export function benchTopology(bench: LoadedBench): BenchTopology {
       .map(([number, lines]) => ({
         number,
         name: names.get(number) ?? (number === 0 ? "Backbone area" : `Area ${number}`),
-        lines: lines.sort((a, b) => lineSort(a.address) - lineSort(b.address)),
+        lines: lines.sort((a, b) => parseLineAddress(a.address) - parseLineAddress(b.address)),
       })),
   };
 }
-
-const lineSort = (address: string) => {
-  const [area, line] = address.split(".").map(Number) as [number, number];
-  return area * 16 + line;
-};

@@ -24,8 +24,11 @@ export {
 export { generatedFilterTable, mustCross } from "./filter-table";
 export { addressUses, type AddressUse } from "./address-use";
 export {
+  areaOf,
   couplerLines,
   formatLineAddress,
+  lineNumberOf,
+  parseLineAddress,
   isWithin,
   linePath,
   lineKind,

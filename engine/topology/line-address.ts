@@ -28,6 +28,16 @@ export function upperLineAddress(lineAddress: number): number | undefined {
   return 0;
 }
 
+/**
+ * The high byte of a line address as a bench writes it ("1.2" -> 0x12). The
+ * bench schema and loader have already checked the text ("area.line", both
+ * 0..15); this only reads it.
+ */
+export function parseLineAddress(text: string): number {
+  const [area = 0, line = 0] = text.split(".").map(Number);
+  return (area << 4) | line;
+}
+
 /** "1.2" for the high byte 0x12. */
 export function formatLineAddress(lineAddress: number): string {
   return `${areaOf(lineAddress)}.${lineNumberOf(lineAddress)}`;

@@ -1,4 +1,4 @@
-import { formatIndividualAddress, parseIndividualAddress } from "@/engine";
+import { formatIndividualAddress, parseIndividualAddress, parseLineAddress } from "@/engine";
 import type { Bench, BenchLine } from "@/engine";
 
 /** The raw individual addresses taken on the bench, the test tool's included. */
@@ -16,8 +16,7 @@ export function takenIndividualAddresses(bench: Bench, exceptDevice?: string): S
 
 /** High byte of the line's individual addresses (area << 4 | line). */
 export function lineHighByte(line: BenchLine): number {
-  const [area = 0, lineNumber = 0] = line.address.split(".").map(Number);
-  return (area << 4) | lineNumber;
+  return parseLineAddress(line.address);
 }
 
 /**

@@ -1,5 +1,7 @@
 import {
   COUPLER_TYPE_ID,
+  areaOf,
+  lineNumberOf,
   formatGroupAddress,
   formatLineAddress,
   generateFilterTableTexts,
@@ -22,8 +24,8 @@ export type { GroupTelegramMode, IndividualTelegramMode };
 const MAX_NUMBER = 15;
 
 function lineNumbers(line: BenchLine): { area: number; line: number } {
-  const [area = 0, number = 0] = line.address.split(".").map(Number);
-  return { area, line: number };
+  const address = lineHighByte(line);
+  return { area: areaOf(address), line: lineNumberOf(address) };
 }
 
 function lineId(bench: Bench, area: number, line: number): string {
