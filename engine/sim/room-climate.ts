@@ -60,7 +60,11 @@ export class RoomClimate {
 
   /** The room's temperature now, °C. */
   temperatureC(roomId: string): number {
-    const room = this.room(roomId);
+    return this.currentC(this.room(roomId));
+  }
+
+  /** A room's temperature at the present virtual time, °C. */
+  private currentC(room: RoomRuntime): number {
     const nowUs = this.clock.nowUs;
     // The same inputs give the same value: a second read at the same time skips the exponential.
     if (room.readUs === nowUs) return room.readC;
@@ -129,14 +133,8 @@ export class RoomClimate {
 
   /** Moves the anchor to now (only before the balance changes). */
   private advance(room: RoomRuntime): void {
-    const nowUs = this.clock.nowUs;
-    room.anchorC = temperatureAfterC(
-      room.anchorC,
-      (nowUs - room.anchorUs) / 1_000_000,
-      room.spec,
-      room.balance,
-    );
-    room.anchorUs = nowUs;
+    room.anchorC = this.currentC(room);
+    room.anchorUs = this.clock.nowUs;
   }
 
   private room(roomId: string): RoomRuntime {
