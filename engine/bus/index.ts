@@ -2,6 +2,7 @@ export {
   Tp1Line,
   Tp1Sender,
   NO_ACK_OCTET,
+  copiedTelegram,
   winsArbitration,
   type BusStats,
   type Telegram,

@@ -1,5 +1,6 @@
 import type { Scheduler } from "../core/scheduler";
 import { toHex, type Trace, type TelegramTraceFields, type TraceEvent } from "../core/trace";
+import { runArray } from "../core/run-objects";
 import {
   ACK_CHARACTER_BIT_TIMES,
   ACK_GAP_BIT_TIMES,
@@ -105,9 +106,50 @@ export interface Telegram {
   payloadHex: string | undefined;
 }
 
+/** A telegram as a line queues it: a class, not a literal (engine/core/run-objects.ts). */
+class QueuedTelegram implements Telegram {
+  transmissions = 0;
+  readyAtUs: number;
+  takenBy: unknown[] | undefined = undefined;
+  payloadHex: string | undefined = undefined;
+
+  constructor(
+    readonly id: number,
+    readonly frame: DataFrame,
+    readonly octets: number,
+    readonly sender: Tp1Sender,
+    readonly queuedAtUs: number,
+  ) {
+    this.readyAtUs = queuedAtUs;
+  }
+}
+
+/**
+ * Another run's telegram as this run's copy (a forked run): the same frame and
+ * progress, with this run's sender and the stations of this run that took it.
+ */
+export function copiedTelegram(
+  telegram: Telegram,
+  sender: Tp1Sender,
+  takenBy: unknown[] | undefined,
+): Telegram {
+  const copy = new QueuedTelegram(
+    telegram.id,
+    telegram.frame,
+    telegram.octets,
+    sender,
+    telegram.queuedAtUs,
+  );
+  copy.transmissions = telegram.transmissions;
+  copy.readyAtUs = telegram.readyAtUs;
+  copy.takenBy = takenBy;
+  copy.payloadHex = telegram.payloadHex;
+  return copy;
+}
+
 /** One station's sending side: a queue of telegrams sent one at a time, each with its repetitions. */
 export class Tp1Sender {
-  private readonly queue: Telegram[] = [];
+  private readonly queue: Telegram[] = runArray<Telegram>();
   private head = 0;
   /** Position in the line's contender list, -1 when idle. */
   contenderIndex = -1;
@@ -203,7 +245,7 @@ export class Tp1Line {
   private busy = false;
   private idleSinceUs = 0;
   private nextSlotUs = -1;
-  private readonly contenders: Tp1Sender[] = [];
+  private readonly contenders: Tp1Sender[] = runArray<Tp1Sender>();
 
   private current: Telegram | undefined;
   private currentRepeated = false;
@@ -302,17 +344,7 @@ export class Tp1Line {
   /** Queues a telegram; it goes out when the line and arbitration allow. */
   queue(sender: Tp1Sender, frame: DataFrame, id: number): Telegram {
     const now = this.scheduler.nowUs;
-    const telegram: Telegram = {
-      id,
-      frame,
-      octets: tp1FrameOctets(frame),
-      sender,
-      transmissions: 0,
-      readyAtUs: now,
-      queuedAtUs: now,
-      takenBy: undefined,
-      payloadHex: undefined,
-    };
+    const telegram = new QueuedTelegram(id, frame, tp1FrameOctets(frame), sender, now);
     sender.push(telegram);
     if (this.trace.active) this.trace.append(this.telegramEvent("telegram.queued", telegram, now));
     if (sender.contenderIndex < 0) {

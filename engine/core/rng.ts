@@ -35,42 +35,60 @@ export function createRng(
   fromState?: readonly [number, number, number, number],
 ): Rng {
   if (!Number.isFinite(seed)) throw new Error(`createRng: seed ${seed} is not a finite number`);
-  let a: number, b: number, c: number, d: number;
-  if (fromState) {
-    [a, b, c, d] = fromState.map((w) => w >>> 0) as [number, number, number, number];
-  } else {
-    const mix = splitmix32(Math.trunc(seed) >>> 0);
-    a = mix();
-    b = mix();
-    c = mix();
-    d = mix();
+  if (fromState) return new Xoshiro128(fromState[0], fromState[1], fromState[2], fromState[3]);
+  const mix = splitmix32(Math.trunc(seed) >>> 0);
+  const a = mix();
+  const b = mix();
+  const c = mix();
+  return new Xoshiro128(a, b, c, mix());
+}
+
+/**
+ * xoshiro128** over four 32-bit words. A class rather than closures over the
+ * words: every run and every fork of a run builds one, and a class shares its
+ * methods instead of creating four functions each time.
+ */
+class Xoshiro128 implements Rng {
+  private a: number;
+  private b: number;
+  private c: number;
+  private d: number;
+
+  constructor(a: number, b: number, c: number, d: number) {
+    this.a = a >>> 0;
+    this.b = b >>> 0;
+    this.c = c >>> 0;
+    this.d = d >>> 0;
+    // xoshiro must not start from the all-zero state.
+    if ((this.a | this.b | this.c | this.d) === 0) this.a = 1;
   }
-  // xoshiro must not start from the all-zero state.
-  if ((a | b | c | d) === 0) a = 1;
 
-  const nextUint32 = (): number => {
-    const result = Math.imul(rotl(Math.imul(b, 5), 7), 9) >>> 0;
-    const t = b << 9;
-    c ^= a;
-    d ^= b;
-    b ^= c;
-    a ^= d;
-    c ^= t;
-    d = rotl(d, 11);
+  next(): number {
+    return this.nextUint32() / 4294967296;
+  }
+
+  nextUint32(): number {
+    const result = Math.imul(rotl(Math.imul(this.b, 5), 7), 9) >>> 0;
+    const t = this.b << 9;
+    this.c ^= this.a;
+    this.d ^= this.b;
+    this.b ^= this.c;
+    this.a ^= this.d;
+    this.c ^= t;
+    this.d = rotl(this.d, 11);
     return result;
-  };
+  }
 
-  return {
-    next: () => nextUint32() / 4294967296,
-    nextUint32,
-    nextInt: (bound: number) => {
-      if (!(bound > 0 && bound <= 4294967296) || !Number.isInteger(bound)) {
-        throw new Error(`Rng.nextInt: bound ${bound} is not an integer in 1..2^32`);
-      }
-      return Math.floor((nextUint32() / 4294967296) * bound);
-    },
-    state: () => [a >>> 0, b >>> 0, c >>> 0, d >>> 0],
-  };
+  nextInt(bound: number): number {
+    if (!(bound > 0 && bound <= 4294967296) || !Number.isInteger(bound)) {
+      throw new Error(`Rng.nextInt: bound ${bound} is not an integer in 1..2^32`);
+    }
+    return Math.floor((this.nextUint32() / 4294967296) * bound);
+  }
+
+  state(): readonly [number, number, number, number] {
+    return [this.a >>> 0, this.b >>> 0, this.c >>> 0, this.d >>> 0];
+  }
 }
 
 function rotl(x: number, k: number): number {

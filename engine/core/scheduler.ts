@@ -20,6 +20,8 @@
  * Owners of events (a line, the device runtime) `register` a handler and get
  * the tag to schedule with; `run` and `runOne` dispatch each event to it.
  */
+import { runArray } from "./run-objects";
+
 export type EventHandler = (arg: number, payload: unknown) => void;
 
 /** `length` zeros, as a packed array (a hole-free array reads faster). */
@@ -61,7 +63,7 @@ export class Scheduler {
   private freeSlots: number[];
   private freeCount: number;
   private seq = 0;
-  private readonly handlers: EventHandler[] = [];
+  private readonly handlers: EventHandler[] = runArray<EventHandler>();
 
   constructor(initialCapacity = 256) {
     const capacity = Math.max(16, initialCapacity);
@@ -70,7 +72,8 @@ export class Scheduler {
     this.slotSeq = zeros(capacity);
     this.slotTag = zeros(capacity);
     this.slotArg = zeros(capacity);
-    this.slotPayload = new Array<unknown>(capacity).fill(undefined);
+    this.slotPayload = runArray<unknown>();
+    for (let i = 0; i < capacity; i++) this.slotPayload.push(undefined);
     this.freeSlots = zeros(capacity);
     for (let i = 0; i < capacity; i++) this.freeSlots[i] = capacity - 1 - i;
     this.freeCount = capacity;
@@ -188,9 +191,13 @@ export class Scheduler {
     this.slotArg = other.slotArg.slice();
     this.freeSlots = other.freeSlots.slice();
     this.size = other.size;
-    this.slotPayload = other.slotPayload.map((payload, slot) =>
-      payload === undefined ? undefined : copyPayload(other.slotTag[slot]!, payload),
-    );
+    // Payloads lead into the run (its devices), so their array comes from runArray, not map.
+    const payloads = runArray<unknown>();
+    for (let slot = 0; slot < other.slotPayload.length; slot++) {
+      const payload = other.slotPayload[slot];
+      payloads.push(payload === undefined ? undefined : copyPayload(other.slotTag[slot]!, payload));
+    }
+    this.slotPayload = payloads;
     this.freeCount = other.freeCount;
     this.seq = other.seq;
   }

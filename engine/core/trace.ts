@@ -1,5 +1,6 @@
 import type { GroupService, Priority } from "../frame";
 import type { SimInput } from "../sim/sim-input";
+import { runArray } from "./run-objects";
 
 /**
  * The trace: one ordered stream of everything that happened in a run, with
@@ -225,7 +226,7 @@ export interface TraceOptions {
 
 export class Trace {
   private readonly capacity: number;
-  private buffer: TraceEvent[] = [];
+  private buffer: TraceEvent[] = runArray<TraceEvent>();
   /** Index of the oldest event in the ring once it has wrapped. */
   private head = 0;
   private listeners: TraceListener[] = [];

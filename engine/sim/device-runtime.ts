@@ -59,6 +59,35 @@ export interface DeviceRuntime extends ObjectOwner {
 }
 
 /**
+ * A running device as the runtime keeps it for the whole run: a class, not a
+ * literal (engine/core/run-objects.ts). Its context is set right after
+ * construction, as it refers back to the device.
+ */
+class RunningDevice implements DeviceRuntime {
+  readonly id: string;
+  readonly type: AnyDeviceType;
+  context: DeviceContext<unknown> = undefined as unknown as DeviceContext<unknown>;
+  lastTakenTelegramId = -1;
+  roomId: string | undefined = undefined;
+  sentDuringStartup: Set<number> | undefined = undefined;
+
+  constructor(
+    readonly index: number,
+    public loaded: LoadedDevice,
+    readonly line: LineRuntime | undefined,
+    readonly sender: Tp1Sender | undefined,
+    public state: unknown,
+    public objects: ReadonlyMap<number, ObjectRuntime>,
+    public values: unknown[],
+    public busAnswer: number,
+    readonly timers: DeviceTimers,
+  ) {
+    this.id = loaded.id;
+    this.type = loaded.type;
+  }
+}
+
+/**
  * What a device's transition may read: a class rather than an object of
  * closures, since every run builds one per device and a restart builds another.
  * Its methods are not bound: devices call them on the context, as
@@ -151,23 +180,17 @@ export class DeviceRunner {
     busAnswer: number,
   ): DeviceRuntime {
     const { objects, values } = buildObjects(loaded, this.reuse);
-    const device: DeviceRuntime = {
+    const device = new RunningDevice(
       index,
-      id: loaded.id,
       loaded,
-      type: loaded.type,
-      state: loaded.type.initialState(loaded.parameters),
-      objects,
-      values,
-      context: undefined as unknown as DeviceContext<unknown>,
       line,
       sender,
+      loaded.type.initialState(loaded.parameters),
+      objects,
+      values,
       busAnswer,
-      timers: new DeviceTimers(),
-      lastTakenTelegramId: -1,
-      roomId: undefined,
-      sentDuringStartup: undefined,
-    };
+      new DeviceTimers(),
+    );
     device.roomId = this.placeInRoom(device);
     device.context = this.makeContext(device);
     return device;
@@ -197,24 +220,21 @@ export class DeviceRunner {
     line: LineRuntime | undefined,
     sender: Tp1Sender | undefined,
   ): DeviceRuntime {
-    const device: DeviceRuntime = {
-      index: original.index,
-      id: original.id,
-      loaded: original.loaded,
-      type: original.type,
-      state: original.state,
-      objects: original.objects,
-      values: original.values.slice(),
-      context: undefined as unknown as DeviceContext<unknown>,
+    const device = new RunningDevice(
+      original.index,
+      original.loaded,
       line,
       sender,
-      busAnswer: original.busAnswer,
-      timers: original.timers.copy(),
-      lastTakenTelegramId: original.lastTakenTelegramId,
-      roomId: original.roomId,
-      sentDuringStartup:
-        original.sentDuringStartup === undefined ? undefined : new Set(original.sentDuringStartup),
-    };
+      original.state,
+      original.objects,
+      original.values.slice(),
+      original.busAnswer,
+      original.timers.copy(),
+    );
+    device.lastTakenTelegramId = original.lastTakenTelegramId;
+    device.roomId = original.roomId;
+    if (original.sentDuringStartup !== undefined)
+      device.sentDuringStartup = new Set(original.sentDuringStartup);
     device.context = this.makeContext(device);
     return device;
   }

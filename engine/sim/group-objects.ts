@@ -72,6 +72,21 @@ export interface LineRuntime {
 const EMPTY_PAYLOAD: Uint8Array = new Uint8Array(0);
 const NO_LISTENERS: ReadonlyMap<number, readonly AddressListener[]> = new Map();
 
+/**
+ * A line of a run as the simulation keeps it: a class, not a literal
+ * (engine/core/run-objects.ts). Its TP1 model is set right after construction,
+ * as the model's host refers back to the line; its listeners come with the
+ * first `rebuildListeners`.
+ */
+export class RunningLine implements LineRuntime {
+  line: Tp1Line = undefined as unknown as Tp1Line;
+  listeners: ReadonlyMap<number, readonly AddressListener[]> = NO_LISTENERS;
+  couplers: LineRuntime["couplers"] = undefined;
+  receiveIndividual: LineRuntime["receiveIndividual"] = undefined;
+
+  constructor(readonly id: string) {}
+}
+
 /** A device's objects by number (shared specs) and a fresh array of values, all empty. */
 export function buildObjects(
   loaded: LoadedDevice,

@@ -7,18 +7,24 @@ import {
   type RoomSpec,
 } from "../room";
 
-/** One room of a run: its physics, the drives acting on it, and its temperature at the last change. */
-interface RoomRuntime {
-  spec: RoomSpec;
-  /** Device id -> that device's share of the heat balance. */
-  readonly drives: Map<string, RoomDrive>;
-  balance: RoomBalance;
-  /** Temperature at `anchorUs`, °C. */
-  anchorC: number;
-  anchorUs: number;
+/**
+ * One room of a run: its physics, the drives acting on it, and its temperature
+ * at the last change. A class, not a literal (engine/core/run-objects.ts).
+ */
+class RoomRuntime {
   /** The last read (time, °C), since every unit and sensor in a room reads it at the same times; -1: none since the anchor moved. */
-  readUs: number;
-  readC: number;
+  readUs = -1;
+  readC = 0;
+
+  constructor(
+    public spec: RoomSpec,
+    /** Device id -> that device's share of the heat balance. */
+    readonly drives: Map<string, RoomDrive>,
+    public balance: RoomBalance,
+    /** Temperature at `anchorUs`, °C. */
+    public anchorC: number,
+    public anchorUs: number,
+  ) {}
 }
 
 /**
@@ -37,15 +43,10 @@ export class RoomClimate {
   define(roomId: string, spec: RoomSpec): void {
     const room = this.rooms.get(roomId);
     if (room === undefined) {
-      this.rooms.set(roomId, {
-        spec,
-        drives: new Map(),
-        balance: roomBalance(spec, []),
-        anchorC: spec.initialC,
-        anchorUs: this.clock.nowUs,
-        readUs: -1,
-        readC: 0,
-      });
+      this.rooms.set(
+        roomId,
+        new RoomRuntime(spec, new Map(), roomBalance(spec, []), spec.initialC, this.clock.nowUs),
+      );
       return;
     }
     this.advance(room);
@@ -119,16 +120,18 @@ export class RoomClimate {
   /** Takes over `other`'s rooms as they stand, for a forked run. */
   copyFrom(other: RoomClimate): void {
     this.rooms.clear();
-    for (const [id, room] of other.rooms)
-      this.rooms.set(id, {
-        spec: room.spec,
-        drives: new Map(room.drives),
-        balance: room.balance,
-        anchorC: room.anchorC,
-        anchorUs: room.anchorUs,
-        readUs: room.readUs,
-        readC: room.readC,
-      });
+    for (const [id, room] of other.rooms) {
+      const copy = new RoomRuntime(
+        room.spec,
+        new Map(room.drives),
+        room.balance,
+        room.anchorC,
+        room.anchorUs,
+      );
+      copy.readUs = room.readUs;
+      copy.readC = room.readC;
+      this.rooms.set(id, copy);
+    }
   }
 
   /** Moves the anchor to now (only before the balance changes). */

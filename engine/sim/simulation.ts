@@ -2,16 +2,24 @@ import { parseGroupAddress } from "../address";
 import { loadBench, type BenchError, type LoadedBench } from "../bench";
 import type { Bench, BenchInput } from "../bench/bench-schema";
 import { SequentialIds } from "../core/ids";
+import { runArray } from "../core/run-objects";
 import { ok, type Result } from "../core/result";
 import { createRng, type Rng } from "../core/rng";
 import { Scheduler } from "../core/scheduler";
 import { Trace, type TraceEvent, type TraceListener } from "../core/trace";
-import { ACK_OCTET, type Priority } from "../frame";
-import { Tp1Line, Tp1Sender, type BusStats, type Telegram } from "../bus";
+import { ACK_OCTET, type DataFrame, type Priority } from "../frame";
+import {
+  copiedTelegram,
+  Tp1Line,
+  Tp1Sender,
+  type BusStats,
+  type Telegram,
+  type Tp1LineHost,
+} from "../bus";
 import { DeviceRunner, type DeviceRuntime } from "./device-runtime";
 import { FaultRegistry } from "./fault-registry";
-import { GroupObjectLayer, type LineRuntime } from "./group-objects";
-import { InputDispatch } from "./input-dispatch";
+import { GroupObjectLayer, RunningLine, type LineRuntime } from "./group-objects";
+import { InputDispatch, type DispatchRuntime } from "./input-dispatch";
 import { RoomClimate } from "./room-climate";
 import type { SimError } from "./sim-error";
 import type { Receipt, SimInput } from "./sim-input";
@@ -139,7 +147,7 @@ export class Simulation {
 
   private loadedBench: LoadedBench;
   private readonly lines = new Map<string, LineRuntime>();
-  private readonly devices: DeviceRuntime[] = [];
+  private readonly devices: readonly DeviceRuntime[];
   private readonly deviceById = new Map<string, DeviceRuntime>();
   private readonly testToolSender: Tp1Sender;
   private readonly testToolLine: LineRuntime;
@@ -193,19 +201,12 @@ export class Simulation {
     );
 
     for (const line of bench.lines) {
-      const runtime: LineRuntime = {
-        id: line.id,
-        line: undefined as unknown as Tp1Line,
-        listeners: new Map(),
-      };
+      const runtime = new RunningLine(line.id);
       runtime.line = new Tp1Line(
         line.id,
         this.scheduler,
         this.traceLog,
-        {
-          receiveFrame: (t, r) => this.objects.receiveFrame(runtime, t, r),
-          telegramLost: (t) => this.couplers.lost(t),
-        },
+        new SimulationLineHost(runtime, this.objects, () => this.couplers),
         { historyCapacity: options.historyCapacity },
       );
       this.lines.set(line.id, runtime);
@@ -213,6 +214,7 @@ export class Simulation {
     this.testToolLine = this.lines.get(bench.testToolLine)!;
     this.testToolSender = new Tp1Sender(bench.testToolAddress, undefined, TEST_TOOL_SENDER);
 
+    const devices = runArray<DeviceRuntime>();
     bench.devices.forEach((loaded, index) => {
       const line = loaded.line === undefined ? undefined : this.lines.get(loaded.line);
       const sender =
@@ -223,9 +225,10 @@ export class Simulation {
         original === undefined
           ? this.runner.create(index, loaded, line, sender, ACK_OCTET)
           : this.runner.copy(original.devices[index]!, line, sender);
-      this.devices.push(device);
+      devices.push(device);
       this.deviceById.set(device.id, device);
     });
+    this.devices = devices;
     this.objects.rebuildListeners(this.lines.values(), bench, this.devices);
     this.couplers = new CouplerNetwork(
       bench,
@@ -236,23 +239,25 @@ export class Simulation {
       (id) => this.deviceById.get(id)!.busAnswer,
       this.devices,
     );
-    this.inputs = new InputDispatch({
-      clock: this.scheduler,
-      emitter: this.emitter,
-      faults: this.faults,
-      objects: this.objects,
-      runner: this.runner,
-      deviceById: this.deviceById,
-      reuse: this.reuse,
-      bench: benchNow,
-      setBench: (next) => (this.loadedBench = next),
-      rebuildListeners: () => {
-        this.objects.rebuildListeners(this.lines.values(), this.loadedBench, this.devices);
-        this.couplers.refresh(this.loadedBench);
-      },
-      queueFromTestTool: (frame) =>
-        this.testToolLine.line.queue(this.testToolSender, frame, this.telegramIds.next()).id,
-    });
+    this.inputs = new InputDispatch(
+      new SimulationDispatchRuntime(
+        this.scheduler,
+        this.emitter,
+        this.faults,
+        this.objects,
+        this.runner,
+        this.deviceById,
+        this.reuse,
+        benchNow,
+        (next) => (this.loadedBench = next),
+        () => {
+          this.objects.rebuildListeners(this.lines.values(), this.loadedBench, this.devices);
+          this.couplers.refresh(this.loadedBench);
+        },
+        (frame) =>
+          this.testToolLine.line.queue(this.testToolSender, frame, this.telegramIds.next()).id,
+      ),
+    );
     if (original === undefined) for (const device of this.devices) this.runner.start(device);
     else this.copyFrom(original);
   }
@@ -307,15 +312,15 @@ export class Simulation {
   ): Telegram {
     let copy = copies.get(telegram);
     if (copy === undefined) {
-      copy = {
-        ...telegram,
-        sender: this.sender(original, telegram.sender),
-        takenBy: telegram.takenBy?.map(
+      copy = copiedTelegram(
+        telegram,
+        this.sender(original, telegram.sender),
+        telegram.takenBy?.map(
           (taker) =>
             this.couplers.portLike(original.couplers, taker) ??
             this.devices[(taker as DeviceRuntime).index]!,
         ),
-      };
+      );
       copies.set(telegram, copy);
     }
     return copy;
@@ -575,4 +580,38 @@ function telegramIdOf(result: Result<Receipt, SimError>): Result<number, SimErro
 
 function done(result: Result<Receipt, SimError>): Result<void, SimError> {
   return result.ok ? ok(undefined) : result;
+}
+
+/** What a line asks of the simulation at the end of a frame: a class, not a literal (engine/core/run-objects.ts). */
+class SimulationLineHost implements Tp1LineHost {
+  constructor(
+    private readonly runtime: LineRuntime,
+    private readonly objects: GroupObjectLayer,
+    private readonly couplers: () => CouplerNetwork,
+  ) {}
+
+  receiveFrame(telegram: Telegram, repeated: boolean): number {
+    return this.objects.receiveFrame(this.runtime, telegram, repeated);
+  }
+
+  telegramLost(telegram: Telegram): void {
+    this.couplers().lost(telegram);
+  }
+}
+
+/** The parts and actions input dispatch works through: a class, not a literal (engine/core/run-objects.ts). */
+class SimulationDispatchRuntime implements DispatchRuntime {
+  constructor(
+    readonly clock: Scheduler,
+    readonly emitter: TraceEmitter,
+    readonly faults: FaultRegistry,
+    readonly objects: GroupObjectLayer,
+    readonly runner: DeviceRunner,
+    readonly deviceById: ReadonlyMap<string, DeviceRuntime>,
+    readonly reuse: boolean,
+    readonly bench: () => LoadedBench,
+    readonly setBench: (bench: LoadedBench) => void,
+    readonly rebuildListeners: () => void,
+    readonly queueFromTestTool: (frame: DataFrame) => number,
+  ) {}
 }
