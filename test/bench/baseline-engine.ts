@@ -42,7 +42,9 @@ export async function importBaselineEngine(
     }
   }
   // Inside node_modules no package.json says "module"; without one the copy would load as CommonJS, slower than the real engine.
-  writeFileSync(resolve(dir, "package.json"), '{ "type": "module" }\n');
+  // Written once: several benchmark processes import the same copy, and a rewrite could meet another's read.
+  const packageJson = resolve(dir, "package.json");
+  if (!existsSync(packageJson)) writeFileSync(packageJson, '{ "type": "module" }\n');
   const engine = (await import(pathToFileURL(index).href)) as typeof import("../../engine");
   return { engine, root: dir };
 }
