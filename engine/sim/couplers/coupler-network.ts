@@ -1,12 +1,18 @@
 import type { LoadedBench } from "../../bench";
 import type { Telegram, Tp1Sender } from "../../bus";
 import type { SequentialIds } from "../../core/ids";
+import { runArray } from "../../core/run-objects";
 import type { Trace } from "../../core/trace";
 import { benchCouplers, loadedAddressUses } from "../../topology/bench-topology";
 import { isWithin } from "../../topology/line-address";
 import { NO_ACK_OCTET } from "../../bus";
 import type { LineRuntime, ObjectOwner } from "../group-objects";
-import { CouplerPort, emptyCouplerCounts, type CouplerCounts } from "./coupler-port";
+import {
+  CouplerPort,
+  emptyCouplerCounts,
+  type CouplerCounts,
+  type PortContext,
+} from "./coupler-port";
 
 /**
  * The couplers of a run: two ports per coupler (engine/sim/couplers/coupler-port.ts),
@@ -22,7 +28,7 @@ import { CouplerPort, emptyCouplerCounts, type CouplerCounts } from "./coupler-p
  * devices do.
  */
 export class CouplerNetwork {
-  private ports: CouplerPort[] = [];
+  private ports: CouplerPort[] = runArray<CouplerPort>();
   private readonly portBySender = new Map<Tp1Sender, CouplerPort>();
   private readonly countsByCoupler = new Map<string, CouplerCounts>();
 
@@ -41,13 +47,7 @@ export class CouplerNetwork {
       const [above, below] = listenersBySide(bench, coupler.lowerLineAddress);
       const counts = emptyCouplerCounts();
       this.countsByCoupler.set(coupler.id, counts);
-      const context = {
-        trace,
-        clock,
-        telegramIds,
-        busAnswer: () => this.busAnswer(coupler.id),
-        counts,
-      };
+      const context = new CouplerContext(trace, clock, telegramIds, busAnswer, coupler.id, counts);
       const lower = lines.get(coupler.lowerLine)!;
       const upper = lines.get(coupler.upperLine)!;
       const up = new CouplerPort(coupler, above, "up", lower.id, lower.line, context);
@@ -58,8 +58,8 @@ export class CouplerNetwork {
         this.ports.push(port);
         this.portBySender.set(port.sender, port);
       }
-      lower.couplers = [...(lower.couplers ?? []), up];
-      upper.couplers = [...(upper.couplers ?? []), down];
+      lower.couplers = appended(lower.couplers, up);
+      upper.couplers = appended(upper.couplers, down);
     }
     this.wireIndividual(devices);
   }
@@ -170,4 +170,28 @@ function listenersBySide(
     }
   }
   return [above, below];
+}
+
+/** What both ports of one coupler share of the run: a class, not a literal (engine/core/run-objects.ts). */
+class CouplerContext implements PortContext {
+  constructor(
+    readonly trace: Trace,
+    readonly clock: { readonly nowUs: number },
+    readonly telegramIds: SequentialIds,
+    private readonly answers: (couplerId: string) => number,
+    private readonly couplerId: string,
+    readonly counts: CouplerCounts,
+  ) {}
+
+  busAnswer(): number {
+    return this.answers(this.couplerId);
+  }
+}
+
+/** `list` with `item` added, as a new array for the run to keep (engine/core/run-objects.ts). */
+function appended<T>(list: readonly T[] | undefined, item: T): T[] {
+  const next = runArray<T>();
+  if (list !== undefined) for (const kept of list) next.push(kept);
+  next.push(item);
+  return next;
 }
