@@ -7,24 +7,18 @@ import { ok, type Result } from "../core/result";
 import { createRng, type Rng } from "../core/rng";
 import { Scheduler } from "../core/scheduler";
 import { Trace, type TraceEvent, type TraceListener } from "../core/trace";
-import { ACK_OCTET, type DataFrame, type Priority } from "../frame";
-import {
-  copiedTelegram,
-  Tp1Line,
-  Tp1Sender,
-  type BusStats,
-  type Telegram,
-  type Tp1LineHost,
-} from "../bus";
+import { ACK_OCTET, type Priority } from "../frame";
+import { copiedTelegram, Tp1Line, Tp1Sender, type BusStats, type Telegram } from "../bus";
 import { DeviceRunner, type DeviceRuntime } from "./device-runtime";
 import { FaultRegistry } from "./fault-registry";
 import { GroupObjectLayer, RunningLine, type LineRuntime } from "./group-objects";
-import { InputDispatch, type DispatchRuntime } from "./input-dispatch";
+import { InputDispatch } from "./input-dispatch";
 import { RoomClimate } from "./room-climate";
 import type { SimError } from "./sim-error";
 import type { Receipt, SimInput } from "./sim-input";
 import { TraceEmitter, type FaultSource } from "./trace-emitter";
 import { UNIT_LINK_DELAY_US, UnitLinkMedium } from "./unit-link-medium";
+import { SimulationDispatchRuntime, SimulationLineHost } from "./simulation-hosts";
 import { CouplerNetwork, type CouplerCounts } from "./couplers";
 
 export { BUS_FAULTS, UNIT_LINK_BROKEN } from "./fault-registry";
@@ -45,6 +39,7 @@ type JsonValue = Extract<SimInput, { kind: "write" }>["value"];
  * - FaultRegistry (fault-registry.ts): active faults and who raised them.
  * - RoomClimate (room-climate.ts): each room once, read by every device in it.
  * - TraceEmitter (trace-emitter.ts): every event the runtime records.
+ * - simulation-hosts.ts: what a line and the input dispatch reach the parts through.
  *
  * Each bench line is its own medium. Couplers (devices of type "coupler")
  * join a line to the line above and pass telegrams between them
@@ -580,38 +575,4 @@ function telegramIdOf(result: Result<Receipt, SimError>): Result<number, SimErro
 
 function done(result: Result<Receipt, SimError>): Result<void, SimError> {
   return result.ok ? ok(undefined) : result;
-}
-
-/** What a line asks of the simulation at the end of a frame: a class, not a literal (engine/core/run-objects.ts). */
-class SimulationLineHost implements Tp1LineHost {
-  constructor(
-    private readonly runtime: LineRuntime,
-    private readonly objects: GroupObjectLayer,
-    private readonly couplers: () => CouplerNetwork,
-  ) {}
-
-  receiveFrame(telegram: Telegram, repeated: boolean): number {
-    return this.objects.receiveFrame(this.runtime, telegram, repeated);
-  }
-
-  telegramLost(telegram: Telegram): void {
-    this.couplers().lost(telegram);
-  }
-}
-
-/** The parts and actions input dispatch works through: a class, not a literal (engine/core/run-objects.ts). */
-class SimulationDispatchRuntime implements DispatchRuntime {
-  constructor(
-    readonly clock: Scheduler,
-    readonly emitter: TraceEmitter,
-    readonly faults: FaultRegistry,
-    readonly objects: GroupObjectLayer,
-    readonly runner: DeviceRunner,
-    readonly deviceById: ReadonlyMap<string, DeviceRuntime>,
-    readonly reuse: boolean,
-    readonly bench: () => LoadedBench,
-    readonly setBench: (bench: LoadedBench) => void,
-    readonly rebuildListeners: () => void,
-    readonly queueFromTestTool: (frame: DataFrame) => number,
-  ) {}
 }
