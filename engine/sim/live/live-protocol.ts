@@ -256,20 +256,6 @@ export const activeFaultSchema = z.object({
 });
 export type ActiveFault = z.infer<typeof activeFaultSchema>;
 
-/**
- * Chart sample of an indoor unit's own room (a unit in no bench room, as on
- * every bench without rooms), through its type's `roomSample` hook: the room
- * as the unit last stepped it, °C, its setpoint, °C, and power.
- */
-export const unitRoomSampleSchema = z.object({
-  timeUs: z.number().int(),
-  unitId: z.string(),
-  roomC: z.number(),
-  setpointC: z.number(),
-  power: z.boolean(),
-});
-export type UnitRoomSample = z.infer<typeof unitRoomSampleSchema>;
-
 /** What one unit in a bench room works toward at a sample: setpoint, °C, and power. */
 export const roomUnitSampleSchema = z.object({
   unitId: z.string(),
@@ -277,6 +263,18 @@ export const roomUnitSampleSchema = z.object({
   power: z.boolean(),
 });
 export type RoomUnitSample = z.infer<typeof roomUnitSampleSchema>;
+
+/**
+ * Chart sample of an indoor unit's own room (a unit in no bench room, as on
+ * every bench without rooms), through its type's `roomSample` hook: what the
+ * unit works toward, with the sample's time and the room as the unit last
+ * stepped it, °C.
+ */
+export const unitRoomSampleSchema = roomUnitSampleSchema.extend({
+  timeUs: z.number().int(),
+  roomC: z.number(),
+});
+export type UnitRoomSample = z.infer<typeof unitRoomSampleSchema>;
 
 /**
  * Chart sample of one bench room (`rooms` of the bench): its air temperature
