@@ -45,7 +45,7 @@ const WARMUP = Number(process.env.BENCH_WARMUP ?? 30);
 
 type PathName = "baseline" | "old" | "now" | "today";
 
-/** What a path's worker reports for the passes it was asked to run. */
+/** What a path's process reports for the passes it was asked to run. */
 interface PassReport {
   readonly replays: number;
   readonly wallMs: number;
@@ -58,10 +58,10 @@ interface PassReport {
   readonly oldGrowthReplays: number;
 }
 
-/** Set in a path's child process: the JSON of its WorkerSetup. */
+/** Set in a path's child process: the JSON of its PathSetup. */
 const SETUP_VARIABLE = "BENCH_SCENARIOS_PATH";
 
-interface WorkerSetup {
+interface PathSetup {
   readonly path: PathName;
   readonly root: string;
   readonly baselineCommit: string;
@@ -71,7 +71,7 @@ const oldSpaceUsed = () =>
   getHeapSpaceStatistics().find((s) => s.space_name === "old_space")!.space_used_size;
 
 /** Child side: loads one path's engine and work, then runs passes on request. */
-async function runPathWorker({ path, root, baselineCommit }: WorkerSetup): Promise<void> {
+async function runPath({ path, root, baselineCommit }: PathSetup): Promise<void> {
   const { loadShippedScenarios } = await import("../golden/golden-runs");
   type Work = ReturnType<typeof loadShippedScenarios>[number];
   // The baseline's scenarios settle 1 s; today's devices send their statuses after a start-up
@@ -139,22 +139,22 @@ async function runPathWorker({ path, root, baselineCommit }: WorkerSetup): Promi
 }
 
 /** A path's child process, running this file with tsx. */
-function startPath(setup: WorkerSetup): {
+function startPath(setup: PathSetup): {
   passes(count: number): Promise<PassReport>;
   stop(): void;
 } {
-  const worker = fork(fileURLToPath(import.meta.url), [], {
+  const child = fork(fileURLToPath(import.meta.url), [], {
     execArgv: ["--import", "tsx"],
     env: { ...process.env, [SETUP_VARIABLE]: JSON.stringify(setup) },
   });
   let waiting: { resolve(r: PassReport): void; reject(e: unknown): void } | undefined;
   let ready: () => void;
   const readyNow = new Promise<void>((r) => (ready = r));
-  worker.on("message", (message: PassReport | "ready") => {
+  child.on("message", (message: PassReport | "ready") => {
     if (message === "ready") ready();
     else waiting?.resolve(message);
   });
-  worker.on("exit", (code) => {
+  child.on("exit", (code) => {
     if (code !== 0 && code !== null) {
       const error = new Error(`the ${setup.path} path's process exited with ${code}`);
       if (waiting) waiting.reject(error);
@@ -166,10 +166,10 @@ function startPath(setup: WorkerSetup): {
       await readyNow;
       return new Promise<PassReport>((resolve, reject) => {
         waiting = { resolve, reject };
-        worker.send(count);
+        child.send(count);
       });
     },
-    stop: () => void worker.kill(),
+    stop: () => void child.kill(),
   };
 }
 
@@ -183,21 +183,21 @@ async function main(): Promise<void> {
   }
   const pathNames: PathName[] = hasBaseline ? ["baseline", "old", "now", "today"] : ["old", "now"];
   // Without a baseline commit, "no reuse" and "now" run today's shipped scenarios.
-  const workers = new Map(
+  const paths = new Map(
     pathNames.map((path) => [
       path,
       startPath({ path, root, baselineCommit: hasBaseline ? baselineCommit : "none" }),
     ]),
   );
   // One pass at a time, so both cores stay free for the path being measured.
-  for (let i = 0; i < WARMUP; i++) for (const path of pathNames) await workers.get(path)!.passes(1);
+  for (let i = 0; i < WARMUP; i++) for (const path of pathNames) await paths.get(path)!.passes(1);
 
   const totals = new Map<PathName, PassReport[]>(pathNames.map((p) => [p, []]));
   for (let i = 0; i < PASSES; i++)
-    for (const path of pathNames) totals.get(path)!.push(await workers.get(path)!.passes(1));
-  for (const worker of workers.values()) worker.stop();
+    for (const path of pathNames) totals.get(path)!.push(await paths.get(path)!.passes(1));
+  for (const running of paths.values()) running.stop();
 
-  const sum = (path: PathName) => {
+  const summarize = (path: PathName) => {
     const reports = totals.get(path)!;
     const add = (f: (r: PassReport) => number) => reports.reduce((s, r) => s + f(r), 0);
     const passMs = reports.map((r) => r.wallMs).sort((a, b) => a - b);
@@ -218,6 +218,8 @@ async function main(): Promise<void> {
       slowestPassMs: passMs[passMs.length - 1]!,
     };
   };
+  const sums = new Map(pathNames.map((path) => [path, summarize(path)]));
+  const sum = (path: PathName) => sums.get(path)!;
   const now = sum("now");
   const row = (label: string, value: string) => console.log(`  ${label.padEnd(34)} ${value}`);
   console.log(
@@ -273,4 +275,4 @@ async function main(): Promise<void> {
 
 const setup = process.env[SETUP_VARIABLE];
 if (setup === undefined) await main();
-else await runPathWorker(JSON.parse(setup) as WorkerSetup);
+else await runPath(JSON.parse(setup) as PathSetup);
